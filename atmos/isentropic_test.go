@@ -12,11 +12,11 @@ const (
 	halfUnit4 = 0.5e-4
 	// halfUnit5 is half a unit in the fifth decimal place.
 	halfUnit5 = 0.5e-5
-	// roundTripTol is the relative tolerance of inverse round trips.
-	roundTripTol = 1e-12
+	// inverseRoundTripTol is the relative tolerance of inverse round trips.
+	inverseRoundTripTol = 1e-12
 )
 
-func relErr(got, want float64) float64 {
+func mediaRelErr(got, want float64) float64 {
 	if want == 0 {
 		return math.Abs(got)
 	}
@@ -100,7 +100,7 @@ func TestNormalShockTable(t *testing.T) {
 		}
 		check := func(name string, got, want float64) {
 			t.Helper()
-			if relErr(got, want) > fiveFig {
+			if mediaRelErr(got, want) > fiveFig {
 				t.Errorf("NormalShockAt(%v, 1.4).%s = %.6g, want %v", tc.M1, name, got, want)
 			}
 		}
@@ -110,7 +110,7 @@ func TestNormalShockTable(t *testing.T) {
 		check("TotalPressureRatio", ns.TotalPressureRatio, tc.pt21)
 		check("M2", ns.M2, tc.M2)
 		check("1/PitotRatio", 1/ns.PitotRatio, tc.ppt)
-		if got := 1 / PitotRatio(tc.M1, 1.4); relErr(got, tc.ppt) > fiveFig {
+		if got := 1 / PitotRatio(tc.M1, 1.4); mediaRelErr(got, tc.ppt) > fiveFig {
 			t.Errorf("1/PitotRatio(%v, 1.4) = %.6g, want %v", tc.M1, got, tc.ppt)
 		}
 	}
@@ -122,7 +122,7 @@ func TestPitotRatioBranchesMeet(t *testing.T) {
 	for _, g := range []float64{1.1, 1.3, 1.4, 5.0 / 3} {
 		below := PitotRatio(math.Nextafter(1, 0), g)
 		at := PitotRatio(1, g)
-		if relErr(below, at) > 1e-12 || relErr(at, SonicPitotRatio(g)) > 1e-14 {
+		if mediaRelErr(below, at) > 1e-12 || mediaRelErr(at, SonicPitotRatio(g)) > 1e-14 {
 			t.Errorf("PitotRatio near M = 1, gamma %v: below %v, at %v, sonic %v", g, below, at, SonicPitotRatio(g))
 		}
 	}
@@ -162,13 +162,13 @@ func TestInverseRoundTrips(t *testing.T) {
 					t.Errorf("%s(%v, %v): %v", c.name, c.r, g, err)
 					continue
 				}
-				if relErr(got, M) > roundTripTol {
+				if mediaRelErr(got, M) > inverseRoundTripTol {
 					t.Errorf("%s(ratio at M %v, %v) = %.15g, want %.15g", c.name, M, g, got, M)
 				}
 			}
 			ar := AreaRatio(M, g)
 			got, err := MachFromAreaRatio(ar, g, M > 1)
-			if err != nil || relErr(got, M) > roundTripTol {
+			if err != nil || mediaRelErr(got, M) > inverseRoundTripTol {
 				t.Errorf("MachFromAreaRatio(%v, %v, %v) = %.15g, %v, want %.15g", ar, g, M > 1, got, err, M)
 			}
 		}
@@ -180,17 +180,17 @@ func TestRatioRoundTrips(t *testing.T) {
 	for _, g := range testGammas {
 		for r := 1e-6; r < 1; r *= 1.3 {
 			M, err := MachFromPressureRatio(r, g)
-			if err != nil || relErr(PressureRatio(M, g), r) > roundTripTol {
+			if err != nil || mediaRelErr(PressureRatio(M, g), r) > inverseRoundTripTol {
 				t.Errorf("PressureRatio(MachFromPressureRatio(%v, %v)) = %v (%v), want %v", r, g, PressureRatio(M, g), err, r)
 			}
 			M, err = MachFromTemperatureRatio(r, g)
-			if err != nil || relErr(TemperatureRatio(M, g), r) > roundTripTol {
+			if err != nil || mediaRelErr(TemperatureRatio(M, g), r) > inverseRoundTripTol {
 				t.Errorf("TemperatureRatio(MachFromTemperatureRatio(%v, %v)) = %v (%v), want %v", r, g, TemperatureRatio(M, g), err, r)
 			}
 		}
 		for r := 1.0; r < 1e6; r *= 1.3 {
 			M, err := MachFromPitotRatio(r, g)
-			if err != nil || relErr(PitotRatio(M, g), r) > roundTripTol {
+			if err != nil || mediaRelErr(PitotRatio(M, g), r) > inverseRoundTripTol {
 				t.Errorf("PitotRatio(MachFromPitotRatio(%v, %v)) = %v (%v), want %v", r, g, PitotRatio(M, g), err, r)
 			}
 		}

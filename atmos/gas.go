@@ -1,0 +1,326 @@
+package atmos
+
+import (
+	"fmt"
+	"math"
+	"strings"
+)
+
+// Gas is a test or flight medium treated as a calorically perfect gas with
+// Sutherland viscosity and a liquid–vapour saturation (condensation) line.
+type Gas interface {
+	// Name is the lower-case name accepted by GasByName.
+	Name() string
+	// Gamma is the ratio of specific heats cp/cv.
+	Gamma() float64
+	// R is the specific gas constant, J/(kg·K).
+	R() float64
+	// Viscosity is the dynamic viscosity at static temperature T (K), Pa·s.
+	Viscosity(T float64) float64
+	// Sutherland returns the constants of mu = beta*T^1.5/(T+s):
+	// beta in Pa·s/K^0.5 and s in K.
+	Sutherland() (beta, s float64)
+	// SaturationTemperature is the temperature (K) below which the gas
+	// starts to condense at static pressure p (Pa). For p above the
+	// critical pressure it returns the critical temperature.
+	SaturationTemperature(p float64) float64
+	// SaturationPressure is the vapour pressure (Pa) at temperature T (K),
+	// the inverse of SaturationTemperature below the critical temperature.
+	SaturationPressure(T float64) float64
+}
+
+// MolarMassNitrogen is the molar mass of N2, kg/mol (Span et al. 2000 give
+// 28.01348 g/mol; 28.0134 g/mol is the usual rounded value).
+const MolarMassNitrogen = 28.0134e-3
+
+// Sutherland constants of air as defined by the U.S. Standard Atmosphere
+// 1976 (eq. 51): beta = 1.458e-6 kg/(m·s·K^0.5), S = 110.4 K.
+const (
+	SutherlandBetaAir = 1.458e-6
+	SutherlandSAir    = 110.4
+)
+
+// Sutherland constants of nitrogen in reference-viscosity form,
+// mu = mu0*(T/T0)^1.5*(T0+S)/(T+S). White, Viscous Fluid Flow (2nd ed.,
+// Table 1-2) lists for N2 mu0 = 1.663e-5 Pa·s at T0 = 273 K with S = 107 K,
+// quoted as good to about 2 % from 100 K to 1500 K (values from memory).
+// In the beta form used by Gas, beta = mu0*(T0+S)/T0^1.5 ≈ 1.4010e-6.
+const (
+	SutherlandMu0Nitrogen = 1.663e-5
+	SutherlandT0Nitrogen  = 273.0
+	SutherlandSNitrogen   = 107.0
+)
+
+// SutherlandBeta converts a reference viscosity mu0 (Pa·s) at T0 (K) with
+// Sutherland temperature s (K) to the beta of mu = beta*T^1.5/(T+s).
+func SutherlandBeta(mu0, t0, s float64) float64 {
+	return mu0 * (t0 + s) / (t0 * math.Sqrt(t0))
+}
+
+// IdealGas is a calorically perfect gas with Sutherland viscosity and a
+// published saturation line. The zero value is not usable; obtain one from
+// Air, Nitrogen or GasByName. Values are immutable and safe to copy.
+type IdealGas struct {
+	name  string
+	gamma float64
+	r     float64
+	beta  float64
+	s     float64
+	sat   satCurve
+}
+
+// Air returns dry air as modelled by the U.S. Standard Atmosphere 1976:
+// gamma = 1.4, R = RAir, Sutherland beta = 1.458e-6, S = 110.4 K. Its
+// saturation line is the dew line of Lemmon et al. (2000): below this
+// temperature at a given pressure the first liquid appears.
+func Air() IdealGas {
+	return IdealGas{
+		name:  "air",
+		gamma: GammaAir,
+		r:     RAir,
+		beta:  SutherlandBetaAir,
+		s:     SutherlandSAir,
+		sat:   airDewLine,
+	}
+}
+
+// Nitrogen returns gaseous N2: gamma = 1.4, R from M = 28.0134 g/mol and
+// the USSA 1976 universal gas constant (296.80 J/(kg·K)), Sutherland
+// constants after White (see SutherlandMu0Nitrogen), and the vapour-pressure
+// line of Span et al. (2000).
+func Nitrogen() IdealGas {
+	return IdealGas{
+		name:  "nitrogen",
+		gamma: 1.4,
+		r:     GasConstantUniversal / MolarMassNitrogen,
+		beta:  SutherlandBeta(SutherlandMu0Nitrogen, SutherlandT0Nitrogen, SutherlandSNitrogen),
+		s:     SutherlandSNitrogen,
+		sat:   nitrogenVapourLine,
+	}
+}
+
+// GasNames lists the names GasByName accepts, canonical names first.
+func GasNames() []string { return []string{"air", "nitrogen", "n2"} }
+
+// GasByName returns the gas called name: "air", or "nitrogen" / "n2".
+// Case and surrounding space are ignored.
+func GasByName(name string) (Gas, error) {
+	switch strings.ToLower(strings.TrimSpace(name)) {
+	case "air":
+		return Air(), nil
+	case "nitrogen", "n2":
+		return Nitrogen(), nil
+	}
+	return nil, fmt.Errorf("unknown gas %q: want one of air, nitrogen, n2", name)
+}
+
+// Name implements Gas.
+func (g IdealGas) Name() string { return g.name }
+
+// Gamma implements Gas.
+func (g IdealGas) Gamma() float64 { return g.gamma }
+
+// R implements Gas.
+func (g IdealGas) R() float64 { return g.r }
+
+// Sutherland implements Gas.
+func (g IdealGas) Sutherland() (beta, s float64) { return g.beta, g.s }
+
+// Cp is the specific heat at constant pressure, J/(kg·K).
+func (g IdealGas) Cp() float64 { return g.gamma * g.r / (g.gamma - 1) }
+
+// Viscosity implements Gas with Sutherland's law. It returns 0 for T <= 0
+// and NaN for NaN.
+func (g IdealGas) Viscosity(T float64) float64 {
+	if T <= 0 {
+		return 0
+	}
+	return g.beta * T * math.Sqrt(T) / (T + g.s)
+}
+
+// SpeedOfSound is sqrt(gamma R T), m/s.
+func (g IdealGas) SpeedOfSound(T float64) float64 {
+	if T <= 0 {
+		return 0
+	}
+	return math.Sqrt(g.gamma * g.r * T)
+}
+
+// Density is p/(R T), kg/m3.
+func (g IdealGas) Density(p, T float64) float64 { return p / (g.r * T) }
+
+// CriticalTemperature is the upper end of the saturation line, K (for air
+// the maxcondentherm of the dew line).
+func (g IdealGas) CriticalTemperature() float64 { return g.sat.tc }
+
+// CriticalPressure is the pressure at the upper end of the saturation
+// line, Pa.
+func (g IdealGas) CriticalPressure() float64 { return g.sat.pc }
+
+// TriplePointTemperature is the lower end of the liquid–vapour correlation,
+// K; below it the saturation line follows a sublimation estimate.
+func (g IdealGas) TriplePointTemperature() float64 { return g.sat.tt }
+
+// SaturationSource names the published correlation behind the saturation
+// line, for reports.
+func (g IdealGas) SaturationSource() string { return g.sat.source }
+
+// SaturationPressure implements Gas. It returns 0 for T <= 0, +Inf above
+// the critical temperature (no pressure condenses the gas there) and NaN
+// for NaN.
+func (g IdealGas) SaturationPressure(T float64) float64 { return g.sat.pressure(T) }
+
+// SaturationTemperature implements Gas. It returns 0 for p <= 0, the
+// critical temperature for p at or above the critical pressure, and NaN for
+// NaN; any other input gives a finite temperature.
+func (g IdealGas) SaturationTemperature(p float64) float64 { return g.sat.temperature(p) }
+
+// Condenses reports whether gas g at static temperature T (K) and static
+// pressure p (Pa) lies at or below its saturation temperature, so that
+// condensation can begin (equilibrium view; real expanding flows supercool
+// some way before condensing, which this does not credit).
+func Condenses(g Gas, T, p float64) bool {
+	return T <= g.SaturationTemperature(p)
+}
+
+// satCurve is an ancillary vapour-pressure equation of the form
+//
+//	ln(p/pc) = (tc/T) * sum n[i] * theta^e[i],  theta = 1 - T/tc,
+//
+// valid from the triple point tt to tc. Below tt it is continued by a
+// Clausius–Clapeyron sublimation line
+//
+//	ln(p/pt) = -b * (tt/T - 1),  pt = p(tt) from the ancillary,
+//
+// which has the form of the nitrogen sublimation equation of Lemmon
+// (b = 13.088692, with the Span et al. 2000 triple point 63.151 K and
+// 12.523 kPa; coefficient as distributed with that equation of state).
+// Anchoring pt to the ancillary keeps the line continuous.
+type satCurve struct {
+	source string
+	tc, pc float64
+	n, e   [4]float64
+	tt     float64
+	b      float64
+}
+
+// nitrogenVapourLine is the vapour-pressure ancillary equation of Span,
+// Lemmon, Jacobsen, Wagner & Yokozeki, "A reference equation of state for
+// the thermodynamic properties of nitrogen...", J. Phys. Chem. Ref. Data
+// 29(6), 1361 (2000), with Tc = 126.192 K, pc = 3.3958 MPa, triple point
+// 63.151 K. Below the triple point: Lemmon's sublimation line (see
+// satCurve).
+var nitrogenVapourLine = satCurve{
+	source: "N2 vapour pressure: Span et al., J. Phys. Chem. Ref. Data 29, 1361 (2000), ancillary equation; " +
+		"below 63.151 K the sublimation line of Lemmon (b = 13.088692)",
+	tc: 126.192,
+	pc: 3.3958e6,
+	n:  [4]float64{-6.12445284, 1.26327220, -0.765910082, -1.77570564},
+	e:  [4]float64{1, 1.5, 2.5, 5},
+	tt: 63.151,
+	b:  13.088692,
+}
+
+// airDewLine is the dew-point ancillary equation of Lemmon, Jacobsen,
+// Penoncello & Friend, "Thermodynamic properties of air and mixtures of
+// nitrogen, argon, and oxygen from 60 to 2000 K at pressures to 2000 MPa",
+// J. Phys. Chem. Ref. Data 29(3), 331 (2000), reduced by the maxcondentherm
+// Tj = 132.6312 K, pj = 3.78502 MPa; lower limit 59.75 K (solidification
+// of air). Air has no published sublimation line there; below 59.75 K the
+// curve is continued with the nitrogen sublimation slope b*Tt = 826.6 K
+// taken through the air dew point at 59.75 K. That predicts condensation at
+// a higher temperature than extending the liquid dew line would, which errs
+// on the cautious side; treat it as an estimate.
+var airDewLine = satCurve{
+	source: "air dew line: Lemmon et al., J. Phys. Chem. Ref. Data 29, 331 (2000), dew-point ancillary equation; " +
+		"below 59.75 K continued with the N2 sublimation slope (estimate)",
+	tc: 132.6312,
+	pc: 3.78502e6,
+	n:  [4]float64{-0.1567266, -5.539635, 0.7567212, -3.514322},
+	e:  [4]float64{0.5, 1, 2.5, 4},
+	tt: 59.75,
+	b:  13.088692 * 63.151 / 59.75,
+}
+
+// lnRatio returns ln(p/pc) of the ancillary at T in [tt, tc] and its
+// derivative with respect to T.
+func (c *satCurve) lnRatio(T float64) (v, dv float64) {
+	th := 1 - T/c.tc
+	var s, ds float64
+	for i, n := range c.n {
+		e := c.e[i]
+		if th > 0 {
+			p := math.Pow(th, e)
+			s += n * p
+			ds += n * e * p / th
+		}
+	}
+	// d/dT [(tc/T) s(theta)] with dtheta/dT = -1/tc.
+	return c.tc / T * s, -c.tc/(T*T)*s - ds/T
+}
+
+// lnTriple is ln(p/pc) at the lower end of the ancillary.
+func (c *satCurve) lnTriple() float64 {
+	v, _ := c.lnRatio(c.tt)
+	return v
+}
+
+func (c *satCurve) pressure(T float64) float64 {
+	switch {
+	case math.IsNaN(T):
+		return T
+	case T <= 0:
+		return 0
+	case T > c.tc:
+		return math.Inf(1)
+	case T >= c.tt:
+		v, _ := c.lnRatio(T)
+		return c.pc * math.Exp(v)
+	}
+	return c.pc * math.Exp(c.lnTriple()-c.b*(c.tt/T-1))
+}
+
+// temperature inverts pressure. Between the triple point and the critical
+// point it runs a Newton iteration on ln p, kept inside a shrinking
+// bracket [lo, hi] by bisection, to |dT| <= 1e-12 T (at most 100 steps;
+// the ancillary is monotone so the bracket always holds the root).
+func (c *satCurve) temperature(p float64) float64 {
+	switch {
+	case math.IsNaN(p):
+		return p
+	case p <= 0:
+		return 0
+	case p >= c.pc:
+		return c.tc
+	}
+	target := math.Log(p / c.pc)
+	lt := c.lnTriple()
+	if target <= lt {
+		// Sublimation branch: target = lt - b*(tt/T - 1).
+		return c.tt / (1 + (lt-target)/c.b)
+	}
+	lo, hi := c.tt, c.tc
+	// First guess: straight line in (1/T, ln p) between the end points.
+	x := 1 / (1/c.tt + (target-lt)/(0-lt)*(1/c.tc-1/c.tt))
+	for range 100 {
+		v, dv := c.lnRatio(x)
+		f := v - target
+		if f == 0 {
+			return x
+		}
+		if f < 0 {
+			lo = x
+		} else {
+			hi = x
+		}
+		next := x - f/dv
+		if !(next > lo && next < hi) || math.IsNaN(next) {
+			next = 0.5 * (lo + hi)
+		}
+		if math.Abs(next-x) <= 1e-12*x {
+			return next
+		}
+		x = next
+	}
+	return x
+}
