@@ -25,8 +25,8 @@ import (
 const MachInverseTolerance = 1e-12
 
 // machInverseMaxIter bounds the Newton iteration of the supersonic inverse.
-// From the starting guess used below the iteration needs 3–6 steps over
-// Mach 1–50; the bound only guards against a non-finite argument.
+// From the starting guess used below the iteration needs at most 5 steps
+// over Mach 1 to 10^6; the bound only guards against pathological input.
 const machInverseMaxIter = 60
 
 // sonicPitotRatio is p_t/p at Mach 1 for γ = 1.4: (1 + (γ−1)/2)^(γ/(γ−1)) = 1.2^3.5.
