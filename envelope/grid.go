@@ -1,0 +1,458 @@
+package envelope
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+
+	"likewind/atmos"
+)
+
+// gridAxisCap bounds the number of points on one grid axis built by
+// NewGrid, so that a mistyped step cannot exhaust memory. (Files are held to
+// the tighter MaxAxisPoints when loaded.)
+const gridAxisCap = 4001
+
+// gridDefaultPoints is the number of points NewGrid puts on an axis that
+// gives neither a step nor a count (the loader normally fills these in).
+const gridDefaultPoints = 41
+
+// gridEdgeTol is the relative tolerance with which points on the envelope
+// boundary or on a limit line count as inside.
+const gridEdgeTol = 1e-9
+
+// Exclusion says why a grid point is outside the envelope, or that it is
+// inside.
+type Exclusion uint8
+
+// Reasons a grid point lies outside the envelope, checked in this order.
+const (
+	InEnvelope      Exclusion = iota // inside the boundary and every limit line
+	AboveCeiling                     // above Limits.Ceiling
+	OutsideBoundary                  // outside the boundary polygon
+	AboveMaxMach                     // above Limits.MaxMach
+	AboveMaxEAS                      // above Limits.MaxEAS
+	AboveMaxCAS                      // above Limits.MaxCAS
+	AboveMaxQ                        // above Limits.MaxQ
+	BelowMinSpeed                    // below Limits.MinSpeed
+	NoFlow                           // zero speed: no Reynolds number to match
+	SpeedUnusable                    // the grid speed has no airspeed equivalent at this altitude
+)
+
+var exclusionNames = [...]string{
+	InEnvelope:      "inside envelope",
+	AboveCeiling:    "above ceiling",
+	OutsideBoundary: "outside boundary",
+	AboveMaxMach:    "above Mach limit",
+	AboveMaxEAS:     "above EAS limit",
+	AboveMaxCAS:     "above CAS limit",
+	AboveMaxQ:       "above dynamic-pressure limit",
+	BelowMinSpeed:   "below minimum speed",
+	NoFlow:          "zero speed",
+	SpeedUnusable:   "speed not convertible",
+}
+
+// String returns the reason in plain words, e.g. "above EAS limit".
+func (e Exclusion) String() string {
+	if int(e) < len(exclusionNames) {
+		return exclusionNames[e]
+	}
+	return fmt.Sprintf("Exclusion(%d)", int(e))
+}
+
+// FlightPoint is the flight side of one grid point as stored: single
+// precision and one-byte regimes. Use Grid.FlightDetail for full precision.
+type FlightPoint struct {
+	Mach float32 // flight Mach number
+	TAS  float32 // true airspeed, m/s
+	Q    float32 // dynamic pressure, Pa
+	Re   float32 // full-scale Reynolds number on Vehicle.RefLength
+	Kn   float32 // Knudsen number on Vehicle.RefLength
+
+	Speed       atmos.SpeedRegime
+	Rarefaction atmos.RarefactionRegime
+}
+
+// FlightDetail is the flight side of one grid point at full precision.
+type FlightDetail struct {
+	Altitude  float64         // m, on the vehicle's altitude scale
+	Speed     float64         // grid speed, in Grid.SpeedKind units
+	State     atmos.State     // atmosphere at the altitude on the grid's day
+	Airspeeds atmos.Airspeeds // the grid speed in all four forms
+
+	Q      float64 // dynamic pressure ½ρV², Pa
+	Re     float64 // Reynolds number on Vehicle.RefLength
+	RePerM float64 // unit Reynolds number, 1/m
+	Kn     float64 // Knudsen number on Vehicle.RefLength
+	T0     float64 // flight stagnation temperature T(1+(γ−1)M²/2), K
+	P0     float64 // flight stagnation pressure (isentropic), Pa
+
+	SpeedRegime atmos.SpeedRegime
+	Rarefaction atmos.RarefactionRegime
+
+	Inside    bool
+	Exclusion Exclusion
+}
+
+// flightRec is the stored flight side of one point: 24 bytes.
+type flightRec struct {
+	mach, tas, q, re, kn float32
+	speed, rare          uint8
+	excl                 Exclusion
+}
+
+// Grid is the flight side of an envelope evaluated on an altitude × speed
+// grid. Row i is altitude Alts[i], column j is speed Speeds[j]; rows run
+// from the lowest altitude up. A Grid depends only on the vehicle and on the
+// day (ΔT) and regime thresholds of the settings it was built with; facility
+// what-ifs re-run Solve on the same Grid.
+type Grid struct {
+	Vehicle   *Vehicle
+	Alts      []float64       // m, ascending, on Vehicle.AltitudeKind
+	Speeds    []float64       // ascending, in SpeedKind units (Mach, or m/s)
+	SpeedKind atmos.SpeedKind // kind of Speeds
+	DeltaT    float64         // K, temperature offset of the day
+	Regimes   atmos.Regimes   // thresholds the regimes were classified with
+
+	rows   []atmos.State // atmosphere per row
+	points []flightRec   // per point, Index(i, j)
+	inside int
+}
+
+// NewGrid evaluates the flight side of vehicle v on its grid: the
+// atmosphere once per altitude row, then per point the airspeeds, whether the
+// point is inside the envelope, and for inside points Mach number, true
+// airspeed, dynamic pressure, Reynolds and Knudsen numbers and the regimes.
+//
+// A point is inside when its speed, converted to the boundary's kind at
+// that altitude, lies within the boundary polygon (edges included), and each
+// limit line holds in its own kind. Settings supply the day (DeltaT) and the
+// regime thresholds (zero Regimes means atmos.DefaultRegimes).
+func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
+	if v == nil {
+		return nil, errors.New("grid: no vehicle")
+	}
+	if err := checkGridVehicle(v); err != nil {
+		return nil, fmt.Errorf("grid for %q: %w", v.Name, err)
+	}
+	reg := s.Regimes
+	if reg == (atmos.Regimes{}) {
+		reg = atmos.DefaultRegimes()
+	}
+	if err := reg.Validate(); err != nil {
+		return nil, fmt.Errorf("grid for %q: %w", v.Name, err)
+	}
+	alts, err := gridAxis(v.Grid.Altitude, func() (float64, float64, bool) {
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for _, p := range v.Boundary {
+			lo, hi = math.Min(lo, p.Altitude), math.Max(hi, p.Altitude)
+		}
+		return lo, hi, true
+	})
+	if err != nil {
+		return nil, fmt.Errorf("grid for %q: altitude axis: %w", v.Name, err)
+	}
+	speeds, err := gridAxis(v.Grid.Speed, func() (float64, float64, bool) {
+		if v.Grid.SpeedKind != v.BoundaryKind {
+			return 0, 0, false
+		}
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for _, p := range v.Boundary {
+			lo, hi = math.Min(lo, p.Speed), math.Max(hi, p.Speed)
+		}
+		return lo, hi, true
+	})
+	if err != nil {
+		return nil, fmt.Errorf("grid for %q: %s axis: %w", v.Name, v.Grid.SpeedKind, err)
+	}
+	g := &Grid{
+		Vehicle:   v,
+		Alts:      alts,
+		Speeds:    speeds,
+		SpeedKind: v.Grid.SpeedKind,
+		DeltaT:    s.DeltaT,
+		Regimes:   reg,
+		rows:      make([]atmos.State, len(alts)),
+		points:    make([]flightRec, len(alts)*len(speeds)),
+	}
+	var spans []envSpan
+	for i, h := range alts {
+		st, err := atmos.AtDay(h, v.AltitudeKind, s.DeltaT)
+		if err != nil {
+			return nil, fmt.Errorf("grid for %q: row %d: %w", v.Name, i, err)
+		}
+		g.rows[i] = st
+		spans = boundaryEnvSpans(v.Boundary, h, spans[:0])
+		row := g.points[i*len(speeds) : (i+1)*len(speeds)]
+		for j, sp := range speeds {
+			row[j] = g.evalPoint(h, sp, &st, spans)
+			if row[j].excl == InEnvelope {
+				g.inside++
+			}
+		}
+	}
+	return g, nil
+}
+
+// evalPoint classifies and evaluates one point.
+func (g *Grid) evalPoint(h, sp float64, st *atmos.State, spans []envSpan) flightRec {
+	v := g.Vehicle
+	var r flightRec
+	if lim := v.Limits.Ceiling; lim > 0 && h > lim*(1+gridEdgeTol) {
+		r.excl = AboveCeiling
+		return r
+	}
+	a, err := atmos.Speeds(g.SpeedKind, sp, *st)
+	if err != nil {
+		r.excl = SpeedUnusable
+		return r
+	}
+	if !inEnvSpans(spans, gridSpeedOf(a, v.BoundaryKind)) {
+		r.excl = OutsideBoundary
+		return r
+	}
+	q := 0.5 * st.Density * a.TAS * a.TAS
+	switch l := v.Limits; {
+	case l.MaxMach > 0 && a.Mach > l.MaxMach*(1+gridEdgeTol):
+		r.excl = AboveMaxMach
+	case l.MaxEAS > 0 && a.EAS > l.MaxEAS*(1+gridEdgeTol):
+		r.excl = AboveMaxEAS
+	case l.MaxCAS > 0 && a.CAS > l.MaxCAS*(1+gridEdgeTol):
+		r.excl = AboveMaxCAS
+	case l.MaxQ > 0 && q > l.MaxQ*(1+gridEdgeTol):
+		r.excl = AboveMaxQ
+	case l.MinSpeed > 0 && gridSpeedOf(a, l.MinSpeedKind) < l.MinSpeed*(1-gridEdgeTol):
+		r.excl = BelowMinSpeed
+	case !(a.TAS > 0):
+		r.excl = NoFlow
+	}
+	if r.excl != InEnvelope {
+		return r
+	}
+	L := v.RefLength
+	re := st.Density * a.TAS * L / st.Viscosity
+	kn := st.MeanFreePath / L
+	r.mach = float32(a.Mach)
+	r.tas = float32(a.TAS)
+	r.q = float32(q)
+	r.re = float32(re)
+	r.kn = float32(kn)
+	r.speed = uint8(g.Regimes.Speed(a.Mach))
+	r.rare = uint8(g.Regimes.Rarefaction(kn))
+	return r
+}
+
+// Rows is the number of altitudes.
+func (g *Grid) Rows() int { return len(g.Alts) }
+
+// Cols is the number of speeds.
+func (g *Grid) Cols() int { return len(g.Speeds) }
+
+// Index is the position of point (i, j) in per-point slices such as
+// Map.Results: i*Cols()+j.
+func (g *Grid) Index(i, j int) int { return i*len(g.Speeds) + j }
+
+// Len is the number of grid points, Rows()*Cols().
+func (g *Grid) Len() int { return len(g.points) }
+
+// InsideCount is the number of grid points inside the envelope.
+func (g *Grid) InsideCount() int { return g.inside }
+
+// Inside reports whether point (i, j) is inside the envelope.
+func (g *Grid) Inside(i, j int) bool { return g.points[g.Index(i, j)].excl == InEnvelope }
+
+// Exclusion says why point (i, j) is outside the envelope (InEnvelope when
+// it is inside).
+func (g *Grid) Exclusion(i, j int) Exclusion { return g.points[g.Index(i, j)].excl }
+
+// Atmosphere is the state of the air on row i.
+func (g *Grid) Atmosphere(i int) atmos.State { return g.rows[i] }
+
+// Flight returns the stored flight values of point (i, j); zero for points
+// outside the envelope.
+func (g *Grid) Flight(i, j int) FlightPoint {
+	r := g.points[g.Index(i, j)]
+	return FlightPoint{
+		Mach: r.mach, TAS: r.tas, Q: r.q, Re: r.re, Kn: r.kn,
+		Speed:       atmos.SpeedRegime(r.speed),
+		Rarefaction: atmos.RarefactionRegime(r.rare),
+	}
+}
+
+// FlightDetail recomputes point (i, j) at full precision. Points outside
+// the envelope get their atmosphere and, where convertible, airspeeds, with
+// Inside false and the Exclusion set.
+func (g *Grid) FlightDetail(i, j int) (FlightDetail, error) {
+	if i < 0 || i >= len(g.Alts) || j < 0 || j >= len(g.Speeds) {
+		return FlightDetail{}, fmt.Errorf("grid point (%d, %d): want row 0..%d, column 0..%d",
+			i, j, len(g.Alts)-1, len(g.Speeds)-1)
+	}
+	st := g.rows[i]
+	d := FlightDetail{
+		Altitude:  g.Alts[i],
+		Speed:     g.Speeds[j],
+		State:     st,
+		Exclusion: g.points[g.Index(i, j)].excl,
+	}
+	d.Inside = d.Exclusion == InEnvelope
+	a, err := atmos.Speeds(g.SpeedKind, d.Speed, st)
+	if err != nil {
+		if d.Inside {
+			return d, fmt.Errorf("grid point (%d, %d): %w", i, j, err)
+		}
+		return d, nil
+	}
+	L := g.Vehicle.RefLength
+	d.Airspeeds = a
+	d.Q = 0.5 * st.Density * a.TAS * a.TAS
+	d.RePerM = st.Density * a.TAS / st.Viscosity
+	d.Re = d.RePerM * L
+	d.Kn = st.MeanFreePath / L
+	d.T0 = st.Temperature / atmos.TemperatureRatio(a.Mach, atmos.GammaAir)
+	d.P0 = st.Pressure / atmos.PressureRatio(a.Mach, atmos.GammaAir)
+	d.SpeedRegime = g.Regimes.Speed(a.Mach)
+	d.Rarefaction = g.Regimes.Rarefaction(d.Kn)
+	return d, nil
+}
+
+// StoredBytes is the memory the grid holds per point set: the per-point
+// records plus the per-row atmosphere and the axes.
+func (g *Grid) StoredBytes() int {
+	const rec = 24   // flightRec
+	const state = 88 // atmos.State: 11 float64
+	return len(g.points)*rec + len(g.rows)*state + 8*(len(g.Alts)+len(g.Speeds))
+}
+
+// pick returns the speed of kind k from a.
+func gridSpeedOf(a atmos.Airspeeds, k atmos.SpeedKind) float64 {
+	switch k {
+	case atmos.TAS:
+		return a.TAS
+	case atmos.EAS:
+		return a.EAS
+	case atmos.CAS:
+		return a.CAS
+	}
+	return a.Mach
+}
+
+// envSpan is one interval of boundary speeds inside the envelope at one
+// altitude.
+type envSpan struct{ lo, hi float64 }
+
+// boundaryEnvSpans returns the speed intervals where the horizontal line at
+// altitude h lies inside the closed polygon b, appended to buf. Crossings
+// follow the half-open rule (an edge counts when one end is at or below h
+// and the other above), which settles vertices on the line; horizontal
+// edges lying on the line are added as intervals of their own so that the
+// whole boundary counts as inside.
+func boundaryEnvSpans(b []Vertex, h float64, buf []envSpan) []envSpan {
+	var xs [64]float64
+	cross := xs[:0]
+	for k := range b {
+		p, q := b[k], b[(k+1)%len(b)]
+		if p.Altitude == q.Altitude {
+			if p.Altitude == h {
+				buf = append(buf, envSpan{math.Min(p.Speed, q.Speed), math.Max(p.Speed, q.Speed)})
+			}
+			continue
+		}
+		if (p.Altitude <= h) != (q.Altitude <= h) {
+			t := (h - p.Altitude) / (q.Altitude - p.Altitude)
+			cross = append(cross, p.Speed+t*(q.Speed-p.Speed))
+		}
+	}
+	sort.Float64s(cross)
+	for k := 0; k+1 < len(cross); k += 2 {
+		buf = append(buf, envSpan{cross[k], cross[k+1]})
+	}
+	return buf
+}
+
+// inEnvSpans reports whether x lies in one of the intervals, ends included
+// with a relative tolerance of gridEdgeTol.
+func inEnvSpans(spans []envSpan, x float64) bool {
+	for _, s := range spans {
+		tol := gridEdgeTol * math.Max(math.Abs(s.lo), math.Abs(s.hi))
+		if x >= s.lo-tol && x <= s.hi+tol {
+			return true
+		}
+	}
+	return false
+}
+
+// gridAxis expands an axis into its points. With a step the points are
+// Min, Min+Step, … up to Max (Max itself when the step divides the range);
+// with a count they are spread evenly from Min to Max inclusive. An axis
+// with neither takes gridDefaultPoints, and one with Min = Max = 0 as well
+// takes its range from extent (when extent can give one).
+func gridAxis(a Axis, extent func() (lo, hi float64, ok bool)) ([]float64, error) {
+	if a.Step == 0 && a.Count == 0 {
+		a.Count = gridDefaultPoints
+		if a.Min == 0 && a.Max == 0 {
+			lo, hi, ok := extent()
+			if !ok {
+				return nil, errors.New("no range given and the boundary is in another speed kind; give min and max")
+			}
+			a.Min, a.Max = lo, hi
+		}
+	}
+	if !isFiniteNum(a.Min) || !isFiniteNum(a.Max) || !isFiniteNum(a.Step) {
+		return nil, fmt.Errorf("min %g, max %g, step %g: want finite numbers", a.Min, a.Max, a.Step)
+	}
+	if a.Max < a.Min {
+		return nil, fmt.Errorf("max %g is below min %g", a.Max, a.Min)
+	}
+	if a.Step < 0 || a.Count < 0 {
+		return nil, fmt.Errorf("step %g, count %d: want positive values", a.Step, a.Count)
+	}
+	var n int
+	if a.Step > 0 {
+		f := (a.Max-a.Min)/a.Step + 1e-9
+		if f >= gridAxisCap {
+			return nil, fmt.Errorf("step %g over %g..%g gives more than %d points", a.Step, a.Min, a.Max, gridAxisCap)
+		}
+		n = int(f) + 1
+	} else {
+		n = a.Count
+		if n > gridAxisCap {
+			return nil, fmt.Errorf("count %d: at most %d points", n, gridAxisCap)
+		}
+		if a.Min == a.Max {
+			n = 1
+		}
+	}
+	out := make([]float64, n)
+	for k := range out {
+		if a.Step > 0 {
+			out[k] = a.Min + float64(k)*a.Step
+		} else if n > 1 {
+			out[k] = a.Min + (a.Max-a.Min)*float64(k)/float64(n-1)
+		} else {
+			out[k] = a.Min
+		}
+	}
+	if a.Step > 0 && math.Abs(out[n-1]-a.Max) <= 1e-9*math.Max(1, math.Abs(a.Max)) {
+		out[n-1] = a.Max
+	}
+	return out, nil
+}
+
+// checkGridVehicle checks what the engine needs of a vehicle.
+func checkGridVehicle(v *Vehicle) error {
+	if !(v.RefLength > 0) || !isFiniteNum(v.RefLength) {
+		return fmt.Errorf("reference length %g m: want a positive length", v.RefLength)
+	}
+	if len(v.Boundary) < 3 {
+		return fmt.Errorf("boundary has %d vertices: want at least 3", len(v.Boundary))
+	}
+	for k, p := range v.Boundary {
+		if !isFiniteNum(p.Altitude) || !isFiniteNum(p.Speed) || p.Speed < 0 {
+			return fmt.Errorf("boundary vertex %d (%g m, %g): want finite altitude and non-negative speed", k+1, p.Altitude, p.Speed)
+		}
+	}
+	return nil
+}
+
+func isFiniteNum(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
