@@ -1,0 +1,1226 @@
+package envelope
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"os"
+	"sort"
+	"strconv"
+	"strings"
+
+	"github.com/BurntSushi/toml"
+
+	"likewind/atmos"
+)
+
+// The file formats are described in docs/FORMAT.md. In short: a vehicle
+// file has the tables [vehicle], [envelope], and optionally [limits] and
+// [grid]; a facility file has one or more [[facility]] tables. Every
+// quantity is a quoted string carrying its unit ("41000 ft", "2.5 bar");
+// pure numbers may also be written bare.
+
+// Top-level tables and keys of the two formats, in the order they are
+// documented (unknown-key errors list them in this order).
+var (
+	vehicleTables    = []string{"vehicle", "envelope", "limits", "grid"}
+	vehicleKeys      = []string{"name", "reference_length", "reference_length_is", "reference_area", "span", "frontal_area"}
+	envelopeKeys     = []string{"speed_kind", "altitude_kind", "temperature_offset", "boundary"}
+	limitKeys        = []string{"ceiling", "max_mach", "max_eas", "max_cas", "max_dynamic_pressure", "min_speed"}
+	gridKeys         = []string{"speed_kind", "altitude", "speed"}
+	axisKeys         = []string{"from", "to", "step", "count"}
+	facilityTables   = []string{"facility"}
+	facilityKeys     = []string{"name", "class", "medium", "mach_range", "speed_range", "stagnation_pressure_range", "static_pressure_range", "stagnation_temperature_range", "water_temperature_range", "max_dynamic_pressure", "min_static_temperature", "condensation_check", "peak_local_mach", "max_reynolds_per_metre", "section_width", "section_height", "model"}
+	modelKeys        = []string{"scale", "max_span_fraction", "max_blockage"}
+	gasOnlyKeys      = []string{"mach_range", "stagnation_pressure_range", "stagnation_temperature_range", "min_static_temperature", "condensation_check", "peak_local_mach"}
+	waterOnlyKeys    = []string{"speed_range", "static_pressure_range", "water_temperature_range"}
+	waterCounterpart = map[string]string{
+		"mach_range":                   "speed_range",
+		"stagnation_pressure_range":    "static_pressure_range",
+		"stagnation_temperature_range": "water_temperature_range",
+		"speed_range":                  "mach_range",
+		"static_pressure_range":        "stagnation_pressure_range",
+		"water_temperature_range":      "stagnation_temperature_range",
+	}
+)
+
+// Plausibility bounds. They catch typing slips (a wrong unit, a missing
+// exponent); they are not facility or vehicle limits.
+const (
+	maxLength      = 1000.0  // m, vehicle dimensions and test sections
+	maxArea        = 1e5     // m²
+	maxMach        = 30.0    // flight and facility Mach numbers
+	maxSpeed       = 10000.0 // m/s, flight speeds
+	maxWaterSpeed  = 100.0   // m/s
+	maxPressure    = 1e8     // Pa, facility pressures (1000 bar)
+	maxGasT0       = 3000.0  // K
+	maxDeltaT      = 60.0    // K, design-day offset either way
+	maxModelScale  = 10.0
+	maxBlockage    = 0.5
+	waterFreezingK = 273.15
+	waterBoilingK  = 373.15
+)
+
+// LoadVehicle reads and validates a vehicle file. When the file has
+// problems the error is a *FileErrors listing all of them.
+func LoadVehicle(path string) (*Vehicle, error) {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil, fmt.Errorf("load vehicle: %w", err)
+	}
+	return ParseVehicle(path, data)
+}
+
+// LoadFacilities reads and validates a facility file holding one or more
+// [[facility]] tables. When the file has problems the error is a
+// *FileErrors listing all of them.
+func LoadFacilities(path string) ([]Facility, error) {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil, fmt.Errorf("load facilities: %w", err)
+	}
+	return ParseFacilities(path, data)
+}
+
+// ParseVehicle reads a vehicle from file text; name labels the errors and
+// becomes the vehicle's Source.
+func ParseVehicle(name string, data []byte) (*Vehicle, error) {
+	d, ok := newDoc(name, data)
+	if !ok {
+		return nil, d.result()
+	}
+	v := d.vehicle()
+	if err := d.result(); err != nil {
+		return nil, err
+	}
+	return v, nil
+}
+
+// ParseFacilities reads the facilities of a facility file from its text;
+// name labels the errors and becomes each facility's Source.
+func ParseFacilities(name string, data []byte) ([]Facility, error) {
+	d, ok := newDoc(name, data)
+	if !ok {
+		return nil, d.result()
+	}
+	fs := d.facilities()
+	if err := d.result(); err != nil {
+		return nil, err
+	}
+	return fs, nil
+}
+
+// CheckDuplicateNames reports facilities that share a name, across all the
+// files they came from (names select facilities on the command line and in
+// the interface, so they must be unique). The error is a *FileErrors with one
+// entry per repeat, or nil.
+func CheckDuplicateNames(facs []Facility) error {
+	first := map[string]int{}
+	var errs FileErrors
+	for i, f := range facs {
+		key := strings.ToLower(strings.TrimSpace(f.Name))
+		j, seen := first[key]
+		if !seen {
+			first[key] = i
+			continue
+		}
+		errs = append(errs, FileError{
+			File:     f.Source,
+			Field:    "facility name",
+			Found:    strconv.Quote(f.Name),
+			Expected: fmt.Sprintf("a name not already used (facility %q in %s has it)", facs[j].Name, sourceName(facs[j].Source)),
+		})
+	}
+	if len(errs) == 0 {
+		return nil
+	}
+	return &errs
+}
+
+func sourceName(s string) string {
+	if s == "" {
+		return "the built-in data"
+	}
+	return s
+}
+
+// Check validates vehicle and facility files for the check command. It
+// tells the two kinds apart by their top-level tables and returns every
+// problem found, one error per problem, including facility names repeated
+// across files. An empty result means all files are good.
+func Check(paths ...string) []error {
+	var out []error
+	var facs []Facility
+	for _, p := range paths {
+		data, err := os.ReadFile(p)
+		if err != nil {
+			out = append(out, fmt.Errorf("check: %w", err))
+			continue
+		}
+		var perr error
+		switch kind, kerr := fileKind(p, data); {
+		case kerr != nil:
+			perr = kerr
+		case kind == "vehicle":
+			_, perr = ParseVehicle(p, data)
+		default:
+			var fs []Facility
+			fs, perr = ParseFacilities(p, data)
+			facs = append(facs, fs...)
+		}
+		out = appendFlat(out, perr)
+	}
+	return appendFlat(out, CheckDuplicateNames(facs))
+}
+
+// appendFlat adds err to list, one entry per problem of a *FileErrors.
+func appendFlat(list []error, err error) []error {
+	if err == nil {
+		return list
+	}
+	var fe *FileErrors
+	if errors.As(err, &fe) {
+		for _, e := range *fe {
+			list = append(list, e)
+		}
+		return list
+	}
+	return append(list, err)
+}
+
+// fileKind tells a vehicle file from a facility file by its top-level
+// tables: "vehicle" or "facility".
+func fileKind(name string, data []byte) (string, error) {
+	var top map[string]any
+	if _, err := toml.Decode(string(data), &top); err != nil {
+		return "", syntaxErrors(name, err)
+	}
+	_, hasFac := top["facility"]
+	hasVeh := false
+	for _, k := range vehicleTables {
+		if _, ok := top[k]; ok {
+			hasVeh = true
+		}
+	}
+	switch {
+	case hasFac && hasVeh:
+		idx := indexLines(string(data))
+		return "", &FileErrors{{File: name, Line: idx.line("facility"), Field: "facility",
+			Found: "[[facility]] tables in a vehicle file", Expected: "vehicles and facilities in separate files"}}
+	case hasFac:
+		return "facility", nil
+	case hasVeh:
+		return "vehicle", nil
+	}
+	return "", &FileErrors{{File: name, Line: 1, Found: "neither [vehicle] nor [[facility]] tables",
+		Expected: "a vehicle file ([vehicle], [envelope], optional [limits], [grid]) or a facility file ([[facility]] tables)"}}
+}
+
+// syntaxErrors turns a TOML decoding error into a *FileErrors.
+func syntaxErrors(name string, err error) *FileErrors {
+	var pe toml.ParseError
+	if errors.As(err, &pe) {
+		fe := FileError{File: name, Line: pe.Position.Line, Field: "syntax",
+			Found: pe.Message, Expected: "valid TOML"}
+		if pe.LastKey != "" {
+			fe.Field = "syntax after " + pe.LastKey
+		}
+		return &FileErrors{fe}
+	}
+	return &FileErrors{{File: name, Field: "syntax", Found: err.Error(), Expected: "valid TOML"}}
+}
+
+// doc is one file being read: its decoded tables, where each key sits, and
+// the problems found so far.
+type doc struct {
+	file string
+	root map[string]any
+	idx  lineIndex
+	errs FileErrors
+}
+
+func newDoc(name string, data []byte) (*doc, bool) {
+	d := &doc{file: name}
+	if _, err := toml.Decode(string(data), &d.root); err != nil {
+		d.errs = *syntaxErrors(name, err)
+		return d, false
+	}
+	d.idx = indexLines(string(data))
+	return d, true
+}
+
+func (d *doc) result() error {
+	if len(d.errs) == 0 {
+		return nil
+	}
+	sortErrors(d.errs)
+	errs := d.errs
+	return &errs
+}
+
+// fail records a problem at the line of path (an internal path, see
+// lineIndex) under the displayed field name.
+func (d *doc) fail(path, field, found, expected string) {
+	d.errs = append(d.errs, FileError{File: d.file, Line: d.idx.line(path), Field: field, Found: found, Expected: expected})
+}
+
+// display turns an internal path into the field name shown to users:
+// element numbers count from 1 ("facility[1]" is the first facility).
+func display(path string) string {
+	var b strings.Builder
+	for i := 0; i < len(path); i++ {
+		c := path[i]
+		if c != '[' {
+			b.WriteByte(c)
+			continue
+		}
+		j := strings.IndexByte(path[i:], ']')
+		n, err := strconv.Atoi(path[i+1 : i+max(j, 1)])
+		if j < 0 || err != nil {
+			b.WriteByte(c)
+			continue
+		}
+		fmt.Fprintf(&b, "[%d]", n+1)
+		i += j
+	}
+	return b.String()
+}
+
+// table is one TOML table being read.
+type table struct {
+	d       *doc
+	path    string
+	m       map[string]any
+	allowed []string
+	// hint is added to unknown-key errors.
+	hint string
+}
+
+func (d *doc) table(path string, m map[string]any, allowed []string) *table {
+	return &table{d: d, path: path, m: m, allowed: allowed}
+}
+
+func (t *table) keyPath(key string) string { return joinPath(t.path, key) }
+
+func (t *table) get(key string) (any, bool) {
+	v, ok := t.m[key]
+	return v, ok
+}
+
+func (t *table) has(key string) bool {
+	_, ok := t.m[key]
+	return ok
+}
+
+// finish reports every key of the table that the format does not define.
+func (t *table) finish() {
+	var unknown []string
+	for k := range t.m {
+		if !contains(t.allowed, k) {
+			unknown = append(unknown, k)
+		}
+	}
+	sort.Strings(unknown)
+	for _, k := range unknown {
+		p := t.keyPath(k)
+		exp := "one of: " + strings.Join(t.allowed, ", ")
+		if t.path == "" {
+			exp = "only the tables " + strings.Join(t.allowed, ", ")
+		}
+		if t.hint != "" {
+			exp += " (" + t.hint + ")"
+		}
+		t.d.fail(p, display(p), "unknown key "+strconv.Quote(k), exp)
+	}
+}
+
+func contains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
+
+// missing reports a required key that is absent.
+func (t *table) missing(key, expected string) {
+	p := t.keyPath(key)
+	t.d.fail(p, display(p), "", expected)
+}
+
+// sub returns the sub-table key, or nil if absent (reported when required)
+// or not a table.
+func (t *table) sub(key string, allowed []string, required bool) *table {
+	p := t.keyPath(key)
+	raw, ok := t.get(key)
+	if !ok {
+		if required {
+			t.d.fail(p, display(p), "", "a ["+display(p)+"] table")
+		}
+		return nil
+	}
+	m, ok := raw.(map[string]any)
+	if !ok {
+		t.d.fail(p, display(p), describe(raw), "a ["+display(p)+"] table")
+		return nil
+	}
+	return t.d.table(p, m, allowed)
+}
+
+// text reads a string value; absent gives "" (reported when required).
+func (t *table) text(key string, required bool, expected string) (string, bool) {
+	p := t.keyPath(key)
+	raw, ok := t.get(key)
+	if !ok {
+		if required {
+			t.missing(key, expected)
+		}
+		return "", false
+	}
+	s, ok := raw.(string)
+	if !ok || strings.TrimSpace(s) == "" {
+		t.d.fail(p, display(p), describe(raw), expected)
+		return "", false
+	}
+	return strings.TrimSpace(s), true
+}
+
+// boolean reads true or false.
+func (t *table) boolean(key string, def bool) bool {
+	raw, ok := t.get(key)
+	if !ok {
+		return def
+	}
+	b, ok := raw.(bool)
+	if !ok {
+		p := t.keyPath(key)
+		t.d.fail(p, display(p), describe(raw), "true or false, without quotes")
+		return def
+	}
+	return b
+}
+
+// unit says how a value is written and read.
+type unit struct {
+	dim     atmos.Dimension
+	example string
+	// mach accepts "M0.85" and "Mach 0.85" as well as "0.85".
+	mach bool
+	// ratio accepts "1/40", "1:40" and "80 %" as well as "0.025".
+	ratio bool
+	// perLength reads a unit Reynolds number: "30e6 /m" or "9e6 /ft".
+	perLength bool
+}
+
+var (
+	uAltitude  = unit{dim: atmos.Length, example: "41000 ft"}
+	uLength    = unit{dim: atmos.Length, example: "1.2 m"}
+	uArea      = unit{dim: atmos.Area, example: "12.5 m2"}
+	uSpeed     = unit{dim: atmos.Speed, example: "350 kt"}
+	uPressure  = unit{dim: atmos.Pressure, example: "2.5 bar"}
+	uTemp      = unit{dim: atmos.Temperature, example: "-20 degC"}
+	uDeltaT    = unit{dim: atmos.TemperatureDelta, example: "15 K"}
+	uMach      = unit{dim: atmos.Dimensionless, example: "0.85", mach: true}
+	uRatio     = unit{dim: atmos.Dimensionless, example: "1/40", ratio: true}
+	uFraction  = unit{dim: atmos.Dimensionless, example: "80 %", ratio: true}
+	uPerLength = unit{dim: atmos.Dimensionless, example: "30e6 /m", perLength: true}
+)
+
+// expect describes a well-formed value of this unit.
+func (u unit) expect() string {
+	switch {
+	case u.perLength:
+		return `a unit Reynolds number per metre or per foot, e.g. "30e6 /m" or "9e6 /ft"`
+	case u.ratio:
+		return fmt.Sprintf(`a number, fraction or percentage, e.g. "0.025", "1/40" or %q`, u.example)
+	case u.mach:
+		return fmt.Sprintf(`a Mach number, e.g. %q`, u.example)
+	case u.dim == atmos.Dimensionless:
+		return fmt.Sprintf(`a number, e.g. %q`, u.example)
+	}
+	return fmt.Sprintf("a %s with its unit, e.g. %q (units: %s)", u.dim, u.example, strings.Join(atmos.UnitsFor(u.dim), ", "))
+}
+
+// qty is a number read from the file, with where it came from.
+type qty struct {
+	v     float64
+	raw   any
+	path  string // internal path, for the line
+	field string // displayed field name
+	ok    bool   // present and well formed
+}
+
+// value reads a quantity from a decoded TOML value.
+func (d *doc) value(raw any, path, field string, u unit) qty {
+	q := qty{raw: raw, path: path, field: field}
+	var err error
+	switch x := raw.(type) {
+	case string:
+		q.v, err = parseWithUnit(x, u)
+		if err != nil {
+			d.fail(path, field, strconv.Quote(x)+" ("+reason(x, err)+")", u.expect())
+			return q
+		}
+	case int64:
+		q.v = float64(x)
+	case float64:
+		q.v = x
+	default:
+		d.fail(path, field, describe(raw), u.expect())
+		return q
+	}
+	if _, isString := raw.(string); !isString && (u.dim != atmos.Dimensionless || u.perLength) {
+		d.fail(path, field, describe(raw)+" (a number without its unit)", u.expect()+", in quotes")
+		return q
+	}
+	if math.IsNaN(q.v) || math.IsInf(q.v, 0) {
+		d.fail(path, field, describe(raw), "a finite number")
+		return q
+	}
+	q.ok = true
+	return q
+}
+
+// parseWithUnit reads text as u says.
+func parseWithUnit(s string, u unit) (float64, error) {
+	t := strings.TrimSpace(s)
+	switch {
+	case u.mach:
+		l := strings.ToLower(t)
+		for _, p := range []string{"mach", "m"} {
+			if r := strings.TrimSpace(t[min(len(p), len(t)):]); strings.HasPrefix(l, p) && r != "" && (r[0] == '.' || r[0] >= '0' && r[0] <= '9') {
+				t = r
+				break
+			}
+		}
+	case u.ratio:
+		if r, ok := strings.CutSuffix(t, "%"); ok {
+			v, err := atmos.ParseQuantity(r, atmos.Dimensionless)
+			return v / 100, err
+		}
+		if a, b, ok := cutAny(t, "/:"); ok {
+			num, err := atmos.ParseQuantity(a, atmos.Dimensionless)
+			if err != nil {
+				return 0, err
+			}
+			den, err := atmos.ParseQuantity(b, atmos.Dimensionless)
+			if err != nil {
+				return 0, err
+			}
+			if den == 0 {
+				return 0, errors.New("division by zero")
+			}
+			return num / den, nil
+		}
+	case u.perLength:
+		l := strings.ToLower(t)
+		for _, suf := range []struct {
+			s      string
+			metres float64
+		}{{" 1/m", 1}, {"/m", 1}, {" per m", 1}, {" per metre", 1}, {" per meter", 1},
+			{" 1/ft", atmos.Foot}, {"/ft", atmos.Foot}, {" per ft", atmos.Foot}, {" per foot", atmos.Foot}} {
+			if strings.HasSuffix(l, suf.s) {
+				v, err := atmos.ParseQuantity(t[:len(t)-len(suf.s)], atmos.Dimensionless)
+				return v / suf.metres, err
+			}
+		}
+		return 0, errors.New("missing the per-length unit /m or /ft")
+	}
+	return atmos.ParseQuantity(t, u.dim)
+}
+
+// cutAny splits s around the first of the separator bytes.
+func cutAny(s, seps string) (string, string, bool) {
+	if i := strings.IndexAny(s, seps); i >= 0 {
+		return s[:i], s[i+1:], true
+	}
+	return s, "", false
+}
+
+// reason shortens a unit-parser error to the part that says what is wrong
+// with the text (the expected form is given separately).
+func reason(s string, err error) string {
+	msg := err.Error()
+	for _, sentinel := range []error{atmos.ErrNumber, atmos.ErrMissingUnit, atmos.ErrUnknownUnit, atmos.ErrWrongDimension, atmos.ErrOutOfRange} {
+		msg = strings.TrimSuffix(msg, ": "+sentinel.Error())
+	}
+	msg = strings.TrimPrefix(msg, strconv.Quote(s)+": ")
+	if i := strings.Index(msg, "; "); i > 0 {
+		msg = msg[:i]
+	}
+	return msg
+}
+
+// quantity reads key as u; absent gives a qty with ok false (reported when
+// required).
+func (t *table) quantity(key string, u unit, required bool) qty {
+	p := t.keyPath(key)
+	raw, ok := t.get(key)
+	if !ok {
+		if required {
+			t.missing(key, u.expect())
+		}
+		return qty{path: p, field: display(p)}
+	}
+	return t.d.value(raw, p, display(p), u)
+}
+
+// span reads a two-element [low, high] range.
+func (t *table) span(key string, u unit, required bool) (lo, hi qty) {
+	p := t.keyPath(key)
+	expected := fmt.Sprintf("a range [low, high] of two values, each %s", u.expect())
+	raw, ok := t.get(key)
+	if !ok {
+		if required {
+			t.missing(key, expected)
+		}
+		return qty{path: p}, qty{path: p}
+	}
+	arr, ok := raw.([]any)
+	if !ok || len(arr) != 2 {
+		t.d.fail(p, display(p), describe(raw), expected)
+		return qty{path: p}, qty{path: p}
+	}
+	f := display(p)
+	lo = t.d.value(arr[0], p+"[0]", f+" low", u)
+	hi = t.d.value(arr[1], p+"[1]", f+" high", u)
+	if lo.ok && hi.ok && lo.v > hi.v {
+		t.d.fail(p, f, describe(raw)+" (low above high)", "the low value first")
+		lo.ok, hi.ok = false, false
+	}
+	return lo, hi
+}
+
+// need reports q when it is well formed but cond does not hold, and marks
+// it unusable.
+func (d *doc) need(q *qty, cond bool, expected string) bool {
+	if !q.ok {
+		return false
+	}
+	if !cond {
+		d.fail(q.path, q.field, describe(q.raw), expected)
+		q.ok = false
+	}
+	return q.ok
+}
+
+func (d *doc) positive(q *qty, upper float64, what string) float64 {
+	d.need(q, q.v > 0 && q.v <= upper, what)
+	if !q.ok {
+		return 0
+	}
+	return q.v
+}
+
+// altitudeRange describes the altitudes the standard atmosphere covers on
+// the scale of kind.
+func altitudeRange(kind atmos.AltitudeKind) string {
+	lo, hi := atmos.MinAltitude, atmos.MaxAltitude
+	if kind == atmos.Geopotential {
+		lo, hi = atmos.GeopotentialFromGeometric(lo), atmos.GeopotentialFromGeometric(hi)
+	}
+	return fmt.Sprintf("a %s altitude from %.0f m to %.0f m (the standard atmosphere's range)", kind, lo, hi)
+}
+
+func (d *doc) altitude(q *qty, kind atmos.AltitudeKind) {
+	if q.ok {
+		_, err := atmos.AtDay(q.v, kind, 0)
+		d.need(q, err == nil, altitudeRange(kind))
+	}
+}
+
+// speedUnit is how a speed of kind is written: a Mach number or a speed.
+func speedUnit(k atmos.SpeedKind) unit {
+	if k == atmos.Mach {
+		return uMach
+	}
+	return uSpeed
+}
+
+func (d *doc) speedBounds(q *qty, k atmos.SpeedKind) {
+	if k == atmos.Mach {
+		d.need(q, q.v >= 0 && q.v <= maxMach, fmt.Sprintf("a Mach number from 0 to %g", maxMach))
+	} else {
+		d.need(q, q.v >= 0 && q.v <= maxSpeed, fmt.Sprintf("a %s from 0 to %g m/s", k, maxSpeed))
+	}
+}
+
+// vehicle reads and checks a vehicle file.
+func (d *doc) vehicle() *Vehicle {
+	v := &Vehicle{Source: d.file, RefLengthName: "reference length"}
+	root := d.table("", d.root, vehicleTables)
+	root.hint = "a vehicle file; facilities go in a file of their own"
+	defer root.finish()
+
+	if vt := root.sub("vehicle", vehicleKeys, true); vt != nil {
+		v.Name, _ = vt.text("name", true, `the vehicle's name in quotes`)
+		q := vt.quantity("reference_length", uLength, true)
+		v.RefLength = d.positive(&q, maxLength, "a length above 0 m and at most 1000 m")
+		if s, ok := vt.text("reference_length_is", false, `what the reference length is, in quotes, e.g. "mean aerodynamic chord"`); ok {
+			v.RefLengthName = s
+		}
+		q = vt.quantity("reference_area", uArea, true)
+		v.RefArea = d.positive(&q, maxArea, "an area above 0 m2")
+		q = vt.quantity("span", uLength, true)
+		v.Span = d.positive(&q, maxLength, "a length above 0 m and at most 1000 m")
+		q = vt.quantity("frontal_area", uArea, true)
+		v.FrontalArea = d.positive(&q, maxArea, "an area above 0 m2")
+		vt.finish()
+	}
+
+	boundaryOK := false
+	if et := root.sub("envelope", envelopeKeys, true); et != nil {
+		kindsOK := true
+		if s, ok := et.text("speed_kind", true, `the kind of the boundary speeds: "Mach", "TAS", "EAS" or "CAS"`); ok {
+			k, err := atmos.ParseSpeedKind(s)
+			if err != nil {
+				p := et.keyPath("speed_kind")
+				d.fail(p, display(p), strconv.Quote(s), `"Mach", "TAS", "EAS" or "CAS"`)
+				kindsOK = false
+			}
+			v.BoundaryKind = k
+		} else {
+			kindsOK = false
+		}
+		if s, ok := et.text("altitude_kind", false, `"geometric", "geopotential" or "pressure"`); ok {
+			k, err := atmos.ParseAltitudeKind(s)
+			if err != nil {
+				p := et.keyPath("altitude_kind")
+				d.fail(p, display(p), strconv.Quote(s), `"geometric", "geopotential" or "pressure"`)
+				kindsOK = false
+			}
+			v.AltitudeKind = k
+		}
+		dT := et.quantity("temperature_offset", uDeltaT, false)
+		if d.need(&dT, math.Abs(dT.v) <= maxDeltaT, fmt.Sprintf("a temperature offset from the standard day within ±%g K", maxDeltaT)) {
+			v.DeltaT = dT.v
+		}
+		dTOK := dT.ok || !et.has("temperature_offset")
+		boundaryOK = d.boundary(et, v, kindsOK && dTOK)
+		et.finish()
+	}
+
+	if lt := root.sub("limits", limitKeys, false); lt != nil {
+		d.limits(lt, v)
+		lt.finish()
+	}
+
+	var gt *table
+	if g := root.sub("grid", gridKeys, false); g != nil {
+		gt = g
+	} else if !root.has("grid") {
+		gt = d.table("grid", map[string]any{}, gridKeys)
+	}
+	if gt != nil {
+		d.grid(gt, v, boundaryOK)
+		gt.finish()
+	}
+	return v
+}
+
+// boundary reads the envelope outline and checks its geometry. It reports
+// whether the outline is usable.
+func (d *doc) boundary(et *table, v *Vehicle, kindsOK bool) bool {
+	p := et.keyPath("boundary")
+	const form = `a list of [altitude, speed] points, e.g. [["0 ft", "0.3"], ["40000 ft", "0.85"], ...]`
+	raw, ok := et.get("boundary")
+	if !ok {
+		et.missing("boundary", form)
+		return false
+	}
+	arr, ok := raw.([]any)
+	if !ok {
+		d.fail(p, display(p), describe(raw), form)
+		return false
+	}
+	if len(arr) > MaxBoundaryPoints {
+		d.fail(p, display(p), fmt.Sprintf("%d points", len(arr)), fmt.Sprintf("at most %d points", MaxBoundaryPoints))
+		return false
+	}
+	good := kindsOK
+	su := speedUnit(v.BoundaryKind)
+	verts := make([]Vertex, 0, len(arr))
+	for i, el := range arr {
+		ep := fmt.Sprintf("%s[%d]", p, i)
+		field := fmt.Sprintf("%s point %d", display(p), i+1)
+		pair, ok := el.([]any)
+		if !ok || len(pair) != 2 {
+			d.fail(ep, field, describe(el), `a pair [altitude, speed], e.g. ["41000 ft", "0.85"]`)
+			good = false
+			continue
+		}
+		alt := d.value(pair[0], ep+"[0]", field+" altitude", uAltitude)
+		d.altitude(&alt, v.AltitudeKind)
+		sp := qty{}
+		if kindsOK {
+			sp = d.value(pair[1], ep+"[1]", field+" speed", su)
+			d.speedBounds(&sp, v.BoundaryKind)
+		}
+		if !alt.ok || !sp.ok {
+			good = false
+			continue
+		}
+		// The speed must mean something at this altitude (a CAS beyond
+		// what the standard atmosphere allows does not).
+		if _, err := convertSpeed(v, alt.v, v.BoundaryKind, sp.v, atmos.Mach); err != nil {
+			d.fail(ep, field, describe(el), fmt.Sprintf("a %s that exists at this altitude on the design day (%v)", v.BoundaryKind, err))
+			good = false
+			continue
+		}
+		verts = append(verts, Vertex{Altitude: alt.v, Speed: sp.v})
+	}
+	if !good {
+		return false
+	}
+	// Closing the outline by repeating the first point is allowed.
+	if n := len(verts); n > 1 && verts[0] == verts[n-1] {
+		verts = verts[:n-1]
+	}
+	v.Boundary = verts
+	return d.checkOutline(p, v)
+}
+
+// checkOutline checks that the boundary is a simple polygon enclosing an
+// area.
+func (d *doc) checkOutline(p string, v *Vehicle) bool {
+	verts := v.Boundary
+	n := len(verts)
+	field := display(p)
+	if n < 3 {
+		d.fail(p, field, fmt.Sprintf("%d distinct points", n), "at least 3 points enclosing an area")
+		return false
+	}
+	// Work in coordinates scaled to the bounding box so that altitude in
+	// metres and Mach number weigh alike.
+	aLo, aHi, sLo, sHi := math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
+	for _, w := range verts {
+		aLo, aHi = math.Min(aLo, w.Altitude), math.Max(aHi, w.Altitude)
+		sLo, sHi = math.Min(sLo, w.Speed), math.Max(sHi, w.Speed)
+	}
+	if aHi == aLo || sHi == sLo {
+		what := "altitude"
+		if sHi == sLo {
+			what = "speed"
+		}
+		d.fail(p, field, fmt.Sprintf("all points at one %s (no enclosed area)", what), "at least 3 points enclosing an area")
+		return false
+	}
+	pts := make([]pt, n)
+	for i, w := range verts {
+		pts[i] = pt{(w.Altitude - aLo) / (aHi - aLo), (w.Speed - sLo) / (sHi - sLo)}
+	}
+	for i := range pts {
+		j := (i + 1) % n
+		if pts[i] == pts[j] {
+			d.fail(fmt.Sprintf("%s[%d]", p, j), fmt.Sprintf("%s point %d", field, j+1),
+				fmt.Sprintf("the same point as point %d", i+1), "distinct consecutive points")
+			return false
+		}
+	}
+	area := 0.0
+	for i := range pts {
+		j := (i + 1) % n
+		area += pts[i].x*pts[j].y - pts[j].x*pts[i].y
+	}
+	if math.Abs(area)/2 < 1e-6 {
+		d.fail(p, field, "points on one line (no enclosed area)", "at least 3 points enclosing an area")
+		return false
+	}
+	for i := 0; i < n; i++ {
+		for j := i + 1; j < n; j++ {
+			if crossing(pts, i, j) {
+				d.fail(fmt.Sprintf("%s[%d]", p, i), field,
+					fmt.Sprintf("edge from point %d to %d crossing edge from point %d to %d", i+1, (i+1)%n+1, j+1, (j+1)%n+1),
+					"an outline that does not cross or touch itself (list the points in order around the envelope)")
+				return false
+			}
+		}
+	}
+	return true
+}
+
+type pt struct{ x, y float64 }
+
+func orient(a, b, c pt) float64 { return (b.x-a.x)*(c.y-a.y) - (b.y-a.y)*(c.x-a.x) }
+
+const geomEps = 1e-12
+
+func sign(x float64) int {
+	switch {
+	case x > geomEps:
+		return 1
+	case x < -geomEps:
+		return -1
+	}
+	return 0
+}
+
+func onSegment(a, b, c pt) bool { // c on segment ab, given collinear
+	return math.Min(a.x, b.x)-geomEps <= c.x && c.x <= math.Max(a.x, b.x)+geomEps &&
+		math.Min(a.y, b.y)-geomEps <= c.y && c.y <= math.Max(a.y, b.y)+geomEps
+}
+
+// crossing reports whether edges i and j (edge k joins point k to k+1) of
+// the closed outline meet anywhere other than at the corner that adjacent
+// edges share.
+func crossing(p []pt, i, j int) bool {
+	n := len(p)
+	a, b := p[i], p[(i+1)%n]
+	c, e := p[j], p[(j+1)%n]
+	adjacent := (i+1)%n == j || (j+1)%n == i
+	if adjacent {
+		// Adjacent edges share a corner; they overlap only if they fold
+		// back along one line.
+		var shared, ao, co pt
+		if (i+1)%n == j {
+			shared, ao, co = b, a, e
+		} else {
+			shared, ao, co = a, b, c
+		}
+		if sign(orient(ao, shared, co)) != 0 {
+			return false
+		}
+		dx1, dy1 := ao.x-shared.x, ao.y-shared.y
+		dx2, dy2 := co.x-shared.x, co.y-shared.y
+		return dx1*dx2+dy1*dy2 > 0
+	}
+	o1, o2 := sign(orient(a, b, c)), sign(orient(a, b, e))
+	o3, o4 := sign(orient(c, e, a)), sign(orient(c, e, b))
+	if o1 != o2 && o3 != o4 && o1 != 0 && o2 != 0 && o3 != 0 && o4 != 0 {
+		return true
+	}
+	return o1 == 0 && onSegment(a, b, c) || o2 == 0 && onSegment(a, b, e) ||
+		o3 == 0 && onSegment(c, e, a) || o4 == 0 && onSegment(c, e, b)
+}
+
+// limits reads the optional limit lines.
+func (d *doc) limits(lt *table, v *Vehicle) {
+	q := lt.quantity("ceiling", uAltitude, false)
+	d.altitude(&q, v.AltitudeKind)
+	lowest := math.Inf(-1)
+	for i, w := range v.Boundary {
+		if i == 0 || w.Altitude < lowest {
+			lowest = w.Altitude
+		}
+	}
+	if d.need(&q, q.v > lowest, "a ceiling above the lowest boundary point") {
+		v.Limits.Ceiling = q.v
+	}
+	q = lt.quantity("max_mach", uMach, false)
+	v.Limits.MaxMach = d.positive(&q, maxMach, fmt.Sprintf("a Mach number above 0 and at most %g", maxMach))
+	q = lt.quantity("max_eas", uSpeed, false)
+	v.Limits.MaxEAS = d.positive(&q, maxSpeed, "a speed above 0")
+	q = lt.quantity("max_cas", uSpeed, false)
+	v.Limits.MaxCAS = d.positive(&q, maxSpeed, "a speed above 0")
+	q = lt.quantity("max_dynamic_pressure", uPressure, false)
+	v.Limits.MaxQ = d.positive(&q, maxPressure, "a pressure above 0")
+
+	if raw, ok := lt.get("min_speed"); ok {
+		p := lt.keyPath("min_speed")
+		const exp = `a speed with its kind, e.g. "M0.25", "90 KEAS", "120 kt CAS" or "60 m/s TAS"`
+		s, isText := raw.(string)
+		if !isText {
+			d.fail(p, display(p), describe(raw), exp)
+			return
+		}
+		k, sp, err := atmos.ParseAirspeed(s)
+		if err != nil {
+			d.fail(p, display(p), strconv.Quote(s), exp)
+			return
+		}
+		mq := qty{v: sp, raw: raw, path: p, field: display(p), ok: true}
+		d.speedBounds(&mq, k)
+		if mq.ok && sp > 0 {
+			v.Limits.MinSpeed, v.Limits.MinSpeedKind = sp, k
+		} else if mq.ok {
+			d.need(&mq, false, "a speed above 0")
+		}
+	}
+}
+
+// axisIn is a grid axis as written in the file.
+type axisIn struct {
+	from, to, step qty
+	count          int
+	hasCount       bool
+	path           string
+}
+
+func (d *doc) readAxis(gt *table, key string, u unit) axisIn {
+	a := axisIn{path: gt.keyPath(key)}
+	at := gt.sub(key, axisKeys, false)
+	if at == nil {
+		return a
+	}
+	a.from = at.quantity("from", u, false)
+	a.to = at.quantity("to", u, false)
+	a.step = at.quantity("step", u, false)
+	if raw, ok := at.get("count"); ok {
+		p := at.keyPath("count")
+		n, isInt := raw.(int64)
+		switch {
+		case !isInt:
+			d.fail(p, display(p), describe(raw), fmt.Sprintf("a whole number of points from 2 to %d, without quotes", MaxAxisPoints))
+		case n < 2 || n > MaxAxisPoints:
+			d.fail(p, display(p), describe(raw), fmt.Sprintf("from 2 to %d points (the grid is limited to %d × %d)", MaxAxisPoints, MaxAxisPoints, MaxAxisPoints))
+		default:
+			a.count, a.hasCount = int(n), true
+		}
+	}
+	if at.has("step") && at.has("count") {
+		p := at.keyPath("count")
+		d.fail(p, display(a.path), "both step and count", "a step or a count, not both")
+		a.hasCount = false
+		a.step.ok = false
+	}
+	at.finish()
+	return a
+}
+
+// grid reads the grid and fills what the file leaves out from the
+// boundary's bounding box.
+func (d *doc) grid(gt *table, v *Vehicle, boundaryOK bool) {
+	v.Grid.SpeedKind = v.BoundaryKind
+	kindOK := true
+	if s, ok := gt.text("speed_kind", false, `"Mach", "TAS", "EAS" or "CAS"`); ok {
+		k, err := atmos.ParseSpeedKind(s)
+		if err != nil {
+			p := gt.keyPath("speed_kind")
+			d.fail(p, display(p), strconv.Quote(s), `"Mach", "TAS", "EAS" or "CAS"`)
+			kindOK = false
+		}
+		v.Grid.SpeedKind = k
+	}
+	alt := d.readAxis(gt, "altitude", uAltitude)
+	d.altitude(&alt.from, v.AltitudeKind)
+	d.altitude(&alt.to, v.AltitudeKind)
+	d.need(&alt.step, alt.step.v > 0, "an altitude step above 0")
+	if !kindOK {
+		if st := gt.sub("speed", axisKeys, false); st != nil {
+			st.finish() // still report unknown keys
+		}
+		return
+	}
+	spd := d.readAxis(gt, "speed", speedUnit(v.Grid.SpeedKind))
+	d.speedBounds(&spd.from, v.Grid.SpeedKind)
+	d.speedBounds(&spd.to, v.Grid.SpeedKind)
+	d.need(&spd.step, spd.step.v > 0, "a speed step above 0")
+
+	if !boundaryOK {
+		return
+	}
+	altLo, altHi, spLo, spHi, err := boundaryBox(v, v.Grid.SpeedKind)
+	if err != nil {
+		p := gt.keyPath("speed_kind")
+		d.fail(p, display(p), v.Grid.SpeedKind.String(),
+			fmt.Sprintf("a speed kind the whole boundary converts to (%v)", err))
+		return
+	}
+	// Limit lines of the same kind narrow the default box.
+	if c := v.Limits.Ceiling; c > altLo && c < altHi {
+		altHi = c
+	}
+	switch lim := d.speedLimit(v); {
+	case lim > spLo && lim < spHi:
+		spHi = lim
+	}
+	if v.Limits.MinSpeed > spLo && v.Limits.MinSpeed < spHi && v.Limits.MinSpeedKind == v.Grid.SpeedKind {
+		spLo = v.Limits.MinSpeed
+	}
+	v.Grid.Altitude = d.fillAxis(alt, altLo, altHi, DefaultAltitudeRows, "altitude")
+	v.Grid.Speed = d.fillAxis(spd, spLo, spHi, DefaultSpeedColumns, "speed")
+}
+
+// speedLimit returns the upper limit line that is of the grid's speed kind,
+// or 0.
+func (d *doc) speedLimit(v *Vehicle) float64 {
+	switch v.Grid.SpeedKind {
+	case atmos.Mach:
+		return v.Limits.MaxMach
+	case atmos.EAS:
+		return v.Limits.MaxEAS
+	case atmos.CAS:
+		return v.Limits.MaxCAS
+	}
+	return 0
+}
+
+// fillAxis completes an axis with defaults and checks its size.
+func (d *doc) fillAxis(a axisIn, lo, hi float64, defCount int, what string) Axis {
+	ax := Axis{Min: lo, Max: hi}
+	if a.from.ok {
+		ax.Min = a.from.v
+	}
+	if a.to.ok {
+		ax.Max = a.to.v
+	}
+	field := display(a.path)
+	if !(ax.Max > ax.Min) {
+		found := fmt.Sprintf("from %s to %s (SI)", atmos.FormatNumber(ax.Min), atmos.FormatNumber(ax.Max))
+		if a.from.ok && a.to.ok {
+			found = fmt.Sprintf("from %s to %s", describe(a.from.raw), describe(a.to.raw))
+		}
+		d.fail(a.path, field, found, "a range whose to is above its from")
+		return Axis{}
+	}
+	switch {
+	case a.step.ok:
+		ax.Step = a.step.v
+		if n := axisPoints(ax); n > MaxAxisPoints || n < 2 {
+			d.fail(a.step.path, field, fmt.Sprintf("step %s giving %d points", describe(a.step.raw), n),
+				fmt.Sprintf("from 2 to %d %s points (the grid is limited to %d × %d)", MaxAxisPoints, what, MaxAxisPoints, MaxAxisPoints))
+			return Axis{}
+		}
+	case a.hasCount:
+		ax.Count = a.count
+	default:
+		ax.Count = defCount
+	}
+	return ax
+}
+
+// facilities reads and checks a facility file.
+func (d *doc) facilities() []Facility {
+	root := d.table("", d.root, facilityTables)
+	root.hint = "a facility file; a vehicle goes in a file of its own"
+	defer root.finish()
+	const form = "one or more [[facility]] tables"
+	raw, ok := root.get("facility")
+	if !ok {
+		root.missing("facility", form)
+		return nil
+	}
+	list, ok := raw.([]map[string]any)
+	if !ok {
+		d.fail("facility", "facility", describe(raw), form+" (note the double brackets)")
+		return nil
+	}
+	out := make([]Facility, 0, len(list))
+	names := map[string]int{}
+	for i, m := range list {
+		p := fmt.Sprintf("facility[%d]", i)
+		f := d.facility(d.table(p, m, facilityKeys))
+		if f.Name != "" {
+			key := strings.ToLower(f.Name)
+			if j, dup := names[key]; dup {
+				np := p + ".name"
+				d.fail(np, display(np), strconv.Quote(f.Name),
+					fmt.Sprintf("a name not already used (facility[%d] has it)", j+1))
+			} else {
+				names[key] = i
+			}
+		}
+		out = append(out, f)
+	}
+	return out
+}
+
+// facility reads one [[facility]] table.
+func (d *doc) facility(t *table) Facility {
+	defer t.finish()
+	f := Facility{Source: d.file}
+	f.Name, _ = t.text("name", true, "the facility's name in quotes")
+	f.Class, _ = t.text("class", false, `a short description in quotes, e.g. "pressurized transonic"`)
+
+	mediumOK := false
+	if s, ok := t.text("medium", true, `"air", "nitrogen" or "water"`); ok {
+		switch strings.ToLower(s) {
+		case "air":
+			f.Medium, mediumOK = MediumAir, true
+		case "nitrogen", "n2":
+			f.Medium, mediumOK = MediumNitrogen, true
+		case "water":
+			f.Medium, mediumOK = MediumWater, true
+		default:
+			p := t.keyPath("medium")
+			d.fail(p, display(p), strconv.Quote(s), `"air", "nitrogen" or "water"`)
+		}
+	}
+
+	if mediumOK {
+		wrong := waterOnlyKeys
+		if f.Medium == MediumWater {
+			wrong = gasOnlyKeys
+		}
+		for _, k := range wrong {
+			if !t.has(k) {
+				continue
+			}
+			p := t.keyPath(k)
+			exp := "no " + k + " (condensation limits apply to air and nitrogen only)"
+			if c, ok := waterCounterpart[k]; ok {
+				exp = c + " instead"
+			}
+			d.fail(p, display(p), fmt.Sprintf("%s on a%s %s facility", k, article(f.Medium.String()), f.Medium), exp)
+		}
+	}
+
+	if mediumOK && f.Medium.IsGas() {
+		lo, hi := t.span("mach_range", uMach, true)
+		d.need(&lo, lo.v > 0, "a Mach number above 0")
+		d.need(&hi, hi.v <= maxMach, fmt.Sprintf("a Mach number up to %g", maxMach))
+		f.MachMin, f.MachMax = lo.v, hi.v
+		lo, hi = t.span("stagnation_pressure_range", uPressure, true)
+		d.need(&lo, lo.v > 0, "a pressure above 0")
+		d.need(&hi, hi.v <= maxPressure, "a pressure up to 1000 bar")
+		f.P0Min, f.P0Max = lo.v, hi.v
+		lo, hi = t.span("stagnation_temperature_range", uTemp, true)
+		d.need(&lo, lo.v > 0, "a temperature above 0 K")
+		d.need(&hi, hi.v <= maxGasT0, fmt.Sprintf("a temperature up to %g K", maxGasT0))
+		f.T0Min, f.T0Max = lo.v, hi.v
+		q := t.quantity("min_static_temperature", uTemp, false)
+		f.MinStaticT = d.positive(&q, maxGasT0, "a temperature above 0 K")
+		f.Condensation = t.boolean("condensation_check", true)
+		q = t.quantity("peak_local_mach", uMach, false)
+		f.PeakLocalMach = DefaultPeakLocalMach
+		if d.need(&q, q.v >= 1 && q.v <= 10, "a Mach number from 1 to 10") {
+			f.PeakLocalMach = q.v
+		}
+	}
+	if mediumOK && f.Medium == MediumWater {
+		lo, hi := t.span("speed_range", uSpeed, true)
+		d.need(&lo, lo.v > 0, "a speed above 0")
+		d.need(&hi, hi.v <= maxWaterSpeed, fmt.Sprintf("a water speed up to %g m/s", maxWaterSpeed))
+		f.SpeedMin, f.SpeedMax = lo.v, hi.v
+		lo, hi = t.span("static_pressure_range", uPressure, true)
+		d.need(&lo, lo.v > 0, "a pressure above 0")
+		d.need(&hi, hi.v <= maxPressure, "a pressure up to 1000 bar")
+		f.P0Min, f.P0Max = lo.v, hi.v
+		lo, hi = t.span("water_temperature_range", uTemp, true)
+		const wt = "a water temperature from 0 degC to 100 degC"
+		d.need(&lo, lo.v >= waterFreezingK-1e-9 && lo.v <= waterBoilingK+1e-9, wt)
+		d.need(&hi, hi.v >= waterFreezingK-1e-9 && hi.v <= waterBoilingK+1e-9, wt)
+		f.T0Min, f.T0Max = math.Max(lo.v, waterFreezingK), math.Min(hi.v, waterBoilingK)
+	}
+
+	q := t.quantity("max_dynamic_pressure", uPressure, false)
+	f.QMax = d.positive(&q, maxPressure, "a pressure above 0")
+	q = t.quantity("max_reynolds_per_metre", uPerLength, false)
+	f.MaxReynoldsPerM = d.positive(&q, 1e12, "a unit Reynolds number above 0")
+	q = t.quantity("section_width", uLength, true)
+	f.Width = d.positive(&q, maxLength, "a length above 0 m")
+	q = t.quantity("section_height", uLength, true)
+	f.Height = d.positive(&q, maxLength, "a length above 0 m")
+
+	f.Model.MaxSpanFraction = DefaultMaxSpanFraction
+	if mt := t.sub("model", modelKeys, false); mt != nil {
+		q = mt.quantity("scale", uRatio, false)
+		f.Model.Scale = d.positive(&q, maxModelScale, fmt.Sprintf("a model scale above 0 and at most %g", maxModelScale))
+		q = mt.quantity("max_span_fraction", uFraction, false)
+		if d.need(&q, q.v > 0 && q.v <= 1, "a share of the section width above 0 and at most 1 (100 %)") {
+			f.Model.MaxSpanFraction = q.v
+		}
+		q = mt.quantity("max_blockage", uFraction, false)
+		f.Model.MaxBlockage = d.positive(&q, maxBlockage, "a share of the section area above 0 and at most 0.5 (50 %)")
+		mt.finish()
+	}
+	return f
+}
+
+func article(word string) string {
+	if word != "" && strings.ContainsRune("aeiou", rune(word[0])) {
+		return "n"
+	}
+	return ""
+}
