@@ -1,0 +1,102 @@
+package tui
+
+import (
+	"strings"
+
+	"github.com/charmbracelet/bubbles/help"
+	"github.com/charmbracelet/bubbles/key"
+)
+
+// SafetyNote is shown on the help screen.
+const SafetyNote = "Results are planning estimates. Pressure vessels, cryogenic nitrogen " +
+	"and model loads need the facility's own procedures, local codes and " +
+	"licensed engineering practice."
+
+// helpView draws the short key line and the full help overlay from the
+// one KeyMap.
+type helpView struct {
+	frame
+	h help.Model
+}
+
+func newHelpView(f frame) helpView {
+	h := help.New()
+	h.ShortSeparator = "  "
+	h.FullSeparator = "   "
+	h.Ellipsis = "…"
+	h.Styles = help.Styles{
+		Ellipsis:       f.st.HelpSep,
+		ShortKey:       f.st.HelpKey,
+		ShortDesc:      f.st.HelpDesc,
+		ShortSeparator: f.st.HelpSep,
+		FullKey:        f.st.HelpKey,
+		FullDesc:       f.st.HelpDesc,
+		FullSeparator:  f.st.HelpSep,
+	}
+	return helpView{frame: f, h: h}
+}
+
+// SetSize sets the area and the help model's width.
+func (v *helpView) SetSize(w, h int) {
+	v.frame.SetSize(w, h)
+	v.h.Width = v.width
+}
+
+// Short renders one line of key help for the given bindings.
+func (v helpView) Short(b []key.Binding) string {
+	return clip(v.h.ShortHelpView(b), v.width, 1)
+}
+
+// Overlay renders the full help screen.
+func (v helpView) Overlay() string {
+	w := v.width
+	var b strings.Builder
+	b.WriteString(v.st.Section.Render("Keys"))
+	b.WriteString("\n")
+	b.WriteString(v.h.FullHelpView(v.keys.FullHelp()))
+	b.WriteString("\n\n")
+	para := func(title, text string) {
+		b.WriteString(wrapText(v.st.HelpKey.Render(title)+" "+text, w))
+		b.WriteString("\n")
+	}
+	para("Layers:", "match class, flow regime, Reynolds ratio (model/flight), "+
+		"tunnel q as a share of its limit, flight Mach number. Glyphs differ per value; "+
+		"the legend under the matrix lists them.")
+	para("Classes:", "full match = Mach within tolerance and Reynolds number at least (1 - tol) of flight; "+
+		"Reynolds short = Mach matched, Reynolds number below; Mach relaxed = Reynolds matched "+
+		"at a lower Mach, allowed below the compressibility threshold; out of reach = neither.")
+	para("What-if:", "values take units, e.g. 3 bar, 45 psi, -150 degC, 10 K; "+
+		"changed values are listed in the header; R restores the files' values.")
+	b.WriteString(wrapText(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w))
+	b.WriteString("\n")
+	b.WriteString(v.st.Faint.Render("? or esc closes this screen"))
+	return v.fit(b.String())
+}
+
+// wrapText wraps plain words to width w (styled words keep their escape
+// sequences; width is measured without them).
+func wrapText(s string, w int) string {
+	if w <= 0 {
+		return ""
+	}
+	words := strings.Fields(s)
+	var lines []string
+	cur, curW := "", 0
+	for _, word := range words {
+		ww := visibleWidth(word)
+		if curW > 0 && curW+1+ww > w {
+			lines = append(lines, cur)
+			cur, curW = "", 0
+		}
+		if curW > 0 {
+			cur += " "
+			curW++
+		}
+		cur += word
+		curW += ww
+	}
+	if cur != "" {
+		lines = append(lines, cur)
+	}
+	return clip(strings.Join(lines, "\n"), w, len(lines))
+}

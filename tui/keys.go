@@ -1,0 +1,130 @@
+package tui
+
+import "github.com/charmbracelet/bubbles/key"
+
+// KeyMap is the one table of key bindings. The short help line, the full
+// help overlay and every key test in Update come from it.
+type KeyMap struct {
+	Up, Down, Left, Right key.Binding
+	PageUp, PageDown      key.Binding
+	Home, End             key.Binding
+
+	Layer     key.Binding
+	Units     key.Binding
+	Facility  key.Binding
+	PrevFac   key.Binding
+	NextFac   key.Binding
+	BestOfAll key.Binding
+
+	Edit    key.Binding
+	Restore key.Binding
+
+	Mark      key.Binding
+	MarkMatch key.Binding
+	ClearMark key.Binding
+
+	Save key.Binding
+	Help key.Binding
+	Quit key.Binding
+
+	// Keys inside lists, the input line and the quit question.
+	Select  key.Binding
+	Back    key.Binding
+	Yes     key.Binding
+	No      key.Binding
+	SaveYes key.Binding
+
+	// Editing keys of the input line; typed characters are inserted.
+	InputLeft, InputRight, InputHome, InputEnd key.Binding
+	InputBackspace, InputDelete, InputClear    key.Binding
+}
+
+// DefaultKeyMap returns the standard bindings.
+func DefaultKeyMap() KeyMap {
+	b := func(keys []string, k, desc string) key.Binding {
+		return key.NewBinding(key.WithKeys(keys...), key.WithHelp(k, desc))
+	}
+	return KeyMap{
+		Up:        b([]string{"up", "k"}, "↑/k", "higher altitude"),
+		Down:      b([]string{"down", "j"}, "↓/j", "lower altitude"),
+		Left:      b([]string{"left", "h"}, "←/h", "slower"),
+		Right:     b([]string{"right", "l"}, "→/l", "faster"),
+		PageUp:    b([]string{"pgup", "ctrl+u"}, "pgup", "page up"),
+		PageDown:  b([]string{"pgdown", "ctrl+d"}, "pgdn", "page down"),
+		Home:      b([]string{"home", "g"}, "home/g", "slowest column"),
+		End:       b([]string{"end", "G"}, "end/G", "fastest column"),
+		Layer:     b([]string{"tab"}, "tab", "next layer"),
+		Units:     b([]string{"u"}, "u", "SI/customary"),
+		Facility:  b([]string{"f"}, "f", "facilities"),
+		PrevFac:   b([]string{"["}, "[", "previous facility"),
+		NextFac:   b([]string{"]"}, "]", "next facility"),
+		BestOfAll: b([]string{"b"}, "b", "best of all"),
+		Edit:      b([]string{"e"}, "e", "what-if"),
+		Restore:   b([]string{"R"}, "R", "restore file values"),
+		Mark:      b([]string{" ", "space"}, "space", "mark point"),
+		MarkMatch: b([]string{"M"}, "M", "mark full matches"),
+		ClearMark: b([]string{"X"}, "X", "clear marks"),
+		Save:      b([]string{"s", "ctrl+s"}, "s", "save session"),
+		Help:      b([]string{"?"}, "?", "help"),
+		Quit:      b([]string{"q", "ctrl+c"}, "q", "quit"),
+		Select:    b([]string{"enter"}, "enter", "choose/apply"),
+		Back:      b([]string{"esc"}, "esc", "back"),
+		Yes:       b([]string{"y"}, "y", "quit without saving"),
+		No:        b([]string{"n", "esc"}, "n/esc", "stay"),
+		SaveYes:   b([]string{"s"}, "s", "save and quit"),
+
+		InputLeft:      b([]string{"left", "ctrl+b"}, "←", "cursor left"),
+		InputRight:     b([]string{"right", "ctrl+f"}, "→", "cursor right"),
+		InputHome:      b([]string{"home", "ctrl+a"}, "home", "start of line"),
+		InputEnd:       b([]string{"end", "ctrl+e"}, "end", "end of line"),
+		InputBackspace: b([]string{"backspace", "ctrl+h"}, "bksp", "delete back"),
+		InputDelete:    b([]string{"delete", "ctrl+d"}, "del", "delete"),
+		InputClear:     b([]string{"ctrl+u"}, "ctrl+u", "clear line"),
+	}
+}
+
+// ShortHelp is the key line at the bottom of the main screen.
+func (k KeyMap) ShortHelp() []key.Binding {
+	return []key.Binding{k.Help, k.Layer, k.Facility, k.Edit, k.Mark, k.Units, k.Save, k.Quit}
+}
+
+// FullHelp is the help overlay, in columns.
+func (k KeyMap) FullHelp() [][]key.Binding {
+	return [][]key.Binding{
+		{k.Up, k.Down, k.Left, k.Right, k.PageUp, k.PageDown, k.Home, k.End},
+		{k.Layer, k.Units, k.Facility, k.PrevFac, k.NextFac, k.BestOfAll},
+		{k.Edit, k.Restore, k.Mark, k.MarkMatch, k.ClearMark},
+		{k.Save, k.Help, k.Quit, k.Select, k.Back},
+	}
+}
+
+// listKeys is the key map shown while a list (picker, what-if fields) is
+// open.
+type listKeys struct{ k *KeyMap }
+
+func (l listKeys) ShortHelp() []key.Binding {
+	return []key.Binding{l.k.Up, l.k.Down, l.k.Select, l.k.Restore, l.k.Back}
+}
+func (l listKeys) FullHelp() [][]key.Binding { return [][]key.Binding{l.ShortHelp()} }
+
+// inputKeys is the key map shown while the input line is open.
+type inputKeys struct{ k *KeyMap }
+
+func (l inputKeys) ShortHelp() []key.Binding { return []key.Binding{l.k.Select, l.k.Back} }
+func (l inputKeys) FullHelp() [][]key.Binding {
+	return [][]key.Binding{l.ShortHelp()}
+}
+
+// confirmKeys is the key map of the quit question.
+type confirmKeys struct {
+	k       *KeyMap
+	canSave bool
+}
+
+func (c confirmKeys) ShortHelp() []key.Binding {
+	if c.canSave {
+		return []key.Binding{c.k.SaveYes, c.k.Yes, c.k.No}
+	}
+	return []key.Binding{c.k.Yes, c.k.No}
+}
+func (c confirmKeys) FullHelp() [][]key.Binding { return [][]key.Binding{c.ShortHelp()} }

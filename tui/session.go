@@ -1,0 +1,174 @@
+package tui
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"os"
+	"path/filepath"
+	"slices"
+	"strings"
+
+	"likewind/envelope"
+)
+
+// SessionVersion is the version written into session files.
+const SessionVersion = 1
+
+// Session is the state of an interactive session that survives a restart:
+// what-if values, marked test points, the chosen facility, layer and
+// units. It records the input file names and a hash of their content so a
+// session is never applied to different data.
+type Session struct {
+	Version int      `json:"version"`
+	Inputs  []string `json:"inputs"`
+	Hash    string   `json:"hash"`
+
+	// Facility is the chosen facility's name; empty with BestOfAll.
+	Facility  string `json:"facility,omitempty"`
+	BestOfAll bool   `json:"best_of_all,omitempty"`
+	Layer     string `json:"layer"`
+	Units     string `json:"units"`
+
+	WhatIf WhatIf  `json:"what_if"`
+	Marks  []Point `json:"marks,omitempty"`
+	Cursor *Point  `json:"cursor,omitempty"`
+}
+
+// WhatIf holds the values changed from the files; a nil field is
+// unchanged. All values are SI.
+type WhatIf struct {
+	Scale               *float64 `json:"scale,omitempty"`
+	DeltaT              *float64 `json:"delta_t_K,omitempty"`
+	MachTol             *float64 `json:"mach_tol,omitempty"`
+	ReTol               *float64 `json:"re_tol,omitempty"`
+	CompressibilityMach *float64 `json:"compressibility_mach,omitempty"`
+	// Facilities maps a facility name to its changed limits.
+	Facilities map[string]FacilityWhatIf `json:"facilities,omitempty"`
+}
+
+// FacilityWhatIf holds a facility's changed limits (SI; nil = unchanged).
+type FacilityWhatIf struct {
+	P0Max *float64 `json:"p0_max_Pa,omitempty"`
+	T0Min *float64 `json:"t0_min_K,omitempty"`
+	QMax  *float64 `json:"q_max_Pa,omitempty"`
+}
+
+func (f FacilityWhatIf) empty() bool { return f.P0Max == nil && f.T0Min == nil && f.QMax == nil }
+
+// Point is a grid point by its altitude (m, as the grid holds it) and its
+// speed in the grid's speed kind (Mach, or m/s).
+type Point struct {
+	Altitude float64 `json:"altitude_m"`
+	Speed    float64 `json:"speed"`
+}
+
+// ErrSessionMismatch is wrapped by CheckSession when a session belongs to
+// other input files.
+var ErrSessionMismatch = errors.New("session belongs to different input files")
+
+// DataHash is a content hash of loaded vehicle and facility data. It is
+// the default session hash when the caller does not hash the files.
+func DataHash(v *envelope.Vehicle, facs []envelope.Facility) string {
+	h := sha256.New()
+	enc := json.NewEncoder(h)
+	// Encoding plain structs of numbers and strings cannot fail.
+	_ = enc.Encode(v)
+	_ = enc.Encode(facs)
+	return "sha256:" + hex.EncodeToString(h.Sum(nil))
+}
+
+// HashFiles hashes the contents of the input files, in order.
+func HashFiles(paths ...string) (string, error) {
+	h := sha256.New()
+	for _, p := range paths {
+		data, err := os.ReadFile(p)
+		if err != nil {
+			return "", fmt.Errorf("hash input file: %w", err)
+		}
+		fmt.Fprintf(h, "%d\n", len(data))
+		h.Write(data)
+	}
+	return "sha256:" + hex.EncodeToString(h.Sum(nil)), nil
+}
+
+// CheckSession reports whether s was saved for the same input data.
+func CheckSession(s Session, inputs []string, hash string) error {
+	if s.Version != SessionVersion {
+		return fmt.Errorf("session version %d not supported (expected %d)", s.Version, SessionVersion)
+	}
+	if s.Hash != hash {
+		return fmt.Errorf("%w: saved for %s, now %s", ErrSessionMismatch,
+			nameList(s.Inputs), nameList(inputs))
+	}
+	return nil
+}
+
+func nameList(names []string) string {
+	if len(names) == 0 {
+		return "built-in demo data"
+	}
+	return strings.Join(names, ", ")
+}
+
+// LoadSession reads a session file.
+func LoadSession(path string) (Session, error) {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return Session{}, fmt.Errorf("load session: %w", err)
+	}
+	var s Session
+	dec := json.NewDecoder(strings.NewReader(string(data)))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(&s); err != nil {
+		return Session{}, fmt.Errorf("load session %s: %w", path, err)
+	}
+	if s.Version != SessionVersion {
+		return Session{}, fmt.Errorf("load session %s: version %d not supported (expected %d)", path, s.Version, SessionVersion)
+	}
+	return s, nil
+}
+
+// SaveSession writes s to path atomically: it writes a temporary file in
+// the same directory, syncs it and renames it over path, so a crash never
+// leaves a half-written session.
+func SaveSession(path string, s Session) error {
+	if path == "" {
+		return errors.New("save session: no session file given")
+	}
+	s.Version = SessionVersion
+	s.Marks = slices.Clone(s.Marks)
+	data, err := json.MarshalIndent(s, "", "  ")
+	if err != nil {
+		return fmt.Errorf("save session: %w", err)
+	}
+	data = append(data, '\n')
+	dir := filepath.Dir(path)
+	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp*")
+	if err != nil {
+		return fmt.Errorf("save session: %w", err)
+	}
+	name := tmp.Name()
+	fail := func(err error) error {
+		tmp.Close()
+		os.Remove(name)
+		return fmt.Errorf("save session %s: %w", path, err)
+	}
+	if _, err := tmp.Write(data); err != nil {
+		return fail(err)
+	}
+	if err := tmp.Sync(); err != nil {
+		return fail(err)
+	}
+	if err := tmp.Close(); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("save session %s: %w", path, err)
+	}
+	if err := os.Rename(name, path); err != nil {
+		os.Remove(name)
+		return fmt.Errorf("save session %s: %w", path, err)
+	}
+	return nil
+}
