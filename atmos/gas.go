@@ -25,7 +25,8 @@ type Gas interface {
 	// critical pressure it returns the critical temperature.
 	SaturationTemperature(p float64) float64
 	// SaturationPressure is the vapour pressure (Pa) at temperature T (K),
-	// the inverse of SaturationTemperature below the critical temperature.
+	// the inverse of SaturationTemperature below the critical temperature;
+	// above it the result is +Inf (no pressure condenses the gas).
 	SaturationPressure(T float64) float64
 }
 
