@@ -282,9 +282,11 @@ func (c *satCurve) pressure(T float64) float64 {
 }
 
 // temperature inverts pressure. Between the triple point and the critical
-// point it runs a Newton iteration on ln p, kept inside a shrinking
-// bracket [lo, hi] by bisection, to |dT| <= 1e-12 T (at most 100 steps;
-// the ancillary is monotone so the bracket always holds the root).
+// point it solves for u = sqrt(1 - T/tc), in which the ancillary is a
+// smooth rational function, by Newton iteration kept inside a shrinking
+// bracket by bisection, to |du| <= 1e-13 (at most 100 steps; the ancillary
+// is monotone so the bracket always holds the root). Typical inputs take
+// three to seven steps.
 func (c *satCurve) temperature(p float64) float64 {
 	switch {
 	case math.IsNaN(p):
@@ -300,28 +302,42 @@ func (c *satCurve) temperature(p float64) float64 {
 		// Sublimation branch: target = lt - b*(tt/T - 1).
 		return c.tt / (1 + (lt-target)/c.b)
 	}
-	lo, hi := c.tt, c.tc
+	// F(u) = ln(p/pc) = sum n u^(2e) / (1 - u²), decreasing from 0 at u = 0
+	// to lt at the triple point.
+	lo, hi := 0.0, math.Sqrt(1-c.tt/c.tc)
 	// First guess: straight line in (1/T, ln p) between the end points.
-	x := 1 / (1/c.tt + (target-lt)/(0-lt)*(1/c.tc-1/c.tt))
+	T0 := 1 / (1/c.tt + (target-lt)/(0-lt)*(1/c.tc-1/c.tt))
+	u := math.Sqrt(1 - T0/c.tc)
 	for range 100 {
-		v, dv := c.lnRatio(x)
-		f := v - target
+		w := 1 - u*u
+		var s, ds float64
+		for i, n := range c.n {
+			k := 2 * c.e[i]
+			pk := math.Pow(u, k)
+			s += n * pk
+			if u > 0 {
+				ds += n * k * pk / u
+			}
+		}
+		f := s/w - target
 		if f == 0 {
-			return x
+			break
 		}
-		if f < 0 {
-			lo = x
+		if f > 0 {
+			lo = u // still above the target pressure: move to lower T
 		} else {
-			hi = x
+			hi = u
 		}
-		next := x - f/dv
+		d := ds/w + 2*u*s/(w*w)
+		next := u - f/d
 		if !(next > lo && next < hi) || math.IsNaN(next) {
 			next = 0.5 * (lo + hi)
 		}
-		if math.Abs(next-x) <= 1e-12*x {
-			return next
+		if math.Abs(next-u) <= 1e-13 {
+			u = next
+			break
 		}
-		x = next
+		u = next
 	}
-	return x
+	return c.tc * (1 - u*u)
 }
