@@ -1,0 +1,93 @@
+package envelope
+
+// Shares counts the points of a map by class.
+type Shares struct {
+	Total  int             // grid points
+	Inside int             // points inside the envelope
+	Count  [NumClasses]int // points per class (Count[Outside] = Total − Inside)
+}
+
+// Share is the fraction of inside points in class c (for Outside, the
+// fraction of all grid points). It is 0 when there are none.
+func (s Shares) Share(c Class) float64 {
+	if c == Outside {
+		if s.Total == 0 {
+			return 0
+		}
+		return float64(s.Count[Outside]) / float64(s.Total)
+	}
+	if s.Inside == 0 || int(c) >= NumClasses {
+		return 0
+	}
+	return float64(s.Count[c]) / float64(s.Inside)
+}
+
+// Matched is the fraction of inside points that are a full match or Mach
+// relaxed.
+func (s Shares) Matched() float64 {
+	if s.Inside == 0 {
+		return 0
+	}
+	return float64(s.Count[FullMatch]+s.Count[MachRelaxed]) / float64(s.Inside)
+}
+
+// Shares counts the map's points per class.
+func (m *Map) Shares() Shares {
+	return sharesOf(m.Results)
+}
+
+func sharesOf(rs []Result) Shares {
+	s := Shares{Total: len(rs)}
+	for _, r := range rs {
+		if int(r.Class) < NumClasses {
+			s.Count[r.Class]++
+		}
+	}
+	s.Inside = s.Total - s.Count[Outside]
+	return s
+}
+
+// Best picks, point by point, the facility whose result is best (by
+// Better: class rank, then Reynolds ratio nearest 1). It returns the index
+// into maps per point (-1 outside the envelope) and the winning results.
+// All maps must be solved on the same grid; maps on another grid are
+// skipped.
+func Best(maps []*Map) ([]int, []Result) {
+	if len(maps) == 0 {
+		return nil, nil
+	}
+	g := maps[0].Grid
+	n := len(maps[0].Results)
+	idx := make([]int, n)
+	best := make([]Result, n)
+	for k := range idx {
+		idx[k] = -1
+	}
+	for f, m := range maps {
+		if m.Grid != g || len(m.Results) != n {
+			continue
+		}
+		for k, r := range m.Results {
+			if r.Class == Outside {
+				continue
+			}
+			if idx[k] < 0 || Better(r, best[k]) {
+				idx[k], best[k] = f, r
+			}
+		}
+	}
+	return idx, best
+}
+
+// UnionCoverage is the fraction of inside points that at least one of the
+// maps matches (full match or Mach relaxed); maps must share one grid.
+func UnionCoverage(maps []*Map) float64 {
+	_, best := Best(maps)
+	return sharesOf(best).Matched()
+}
+
+// BestShares counts the best results of Best per class.
+func BestShares(maps []*Map) Shares {
+	_, best := Best(maps)
+	return sharesOf(best)
+}

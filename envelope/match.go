@@ -1,0 +1,260 @@
+package envelope
+
+import (
+	"fmt"
+	"math"
+	"strings"
+)
+
+// Class is how well a facility reproduces one flight condition.
+type Class uint8
+
+// Match classes. The values order the enum only; use Rank to compare.
+const (
+	// Outside: the point is outside the flight envelope.
+	Outside Class = iota
+	// FullMatch: Mach number within Settings.MachTol and Reynolds number
+	// at least (1 − Settings.ReTol) of flight.
+	FullMatch
+	// ReShort: Mach number matched, Reynolds number short of flight; the
+	// best reachable Reynolds number is reported with its ratio and the
+	// skin-friction penalty ΔCf.
+	ReShort
+	// MachRelaxed: Reynolds number matched at a facility Mach number other
+	// than flight, allowed only where flight and facility Mach numbers are
+	// both below Settings.CompressibilityMach (water facilities always
+	// match this way).
+	MachRelaxed
+	// NoMatch: out of reach; Result.Limit says which limit stops it.
+	NoMatch
+
+	// NumClasses is the number of classes, for per-class arrays.
+	NumClasses = int(NoMatch) + 1
+)
+
+var classNames = [...]string{
+	Outside:     "outside envelope",
+	FullMatch:   "full match",
+	ReShort:     "Reynolds short",
+	MachRelaxed: "Mach relaxed",
+	NoMatch:     "out of reach",
+}
+
+// String returns the class in plain words, e.g. "Reynolds short".
+func (c Class) String() string {
+	if int(c) < len(classNames) {
+		return classNames[c]
+	}
+	return fmt.Sprintf("Class(%d)", int(c))
+}
+
+// Rank orders classes from best (0) to worst: full match, Mach relaxed,
+// Reynolds short, out of reach, outside envelope. Mach relaxed ranks above
+// Reynolds short because it only occurs below the compressibility threshold,
+// where Reynolds number is the similarity parameter that governs; with this
+// order a larger model never gives a worse class.
+func (c Class) Rank() int {
+	switch c {
+	case FullMatch:
+		return 0
+	case MachRelaxed:
+		return 1
+	case ReShort:
+		return 2
+	case NoMatch:
+		return 3
+	}
+	return 4
+}
+
+// Matched reports whether the class reproduces the flight Reynolds number
+// within tolerance with an acceptable Mach number: full match or Mach
+// relaxed.
+func (c Class) Matched() bool { return c == FullMatch || c == MachRelaxed }
+
+// Limit names the facility constraint that decides a point: the one that
+// stops the Reynolds number (or the Mach number) from reaching flight, or
+// for an overshoot the one that stops the settings from coming down.
+type Limit uint8
+
+// Limits. For water facilities LimitP0Min/LimitP0Max are not used, the
+// speed range is LimitSpeedRange and the water temperature range
+// LimitWaterTemp.
+const (
+	LimitNone           Limit = iota
+	LimitMachRange            // flight Mach outside the facility Mach range
+	LimitIncompressible       // Mach number too high for a liquid (or to relax Mach)
+	LimitSpeedRange           // water speed range
+	LimitP0Max                // maximum stagnation pressure
+	LimitP0Min                // minimum stagnation pressure
+	LimitT0Min                // minimum stagnation temperature
+	LimitT0Max                // maximum stagnation temperature
+	LimitQMax                 // test-section dynamic pressure limit
+	LimitCondensation         // saturation line of the test gas
+	LimitStaticT              // minimum test-section static temperature
+	LimitRePerM               // maximum unit Reynolds number
+	LimitWaterTemp            // water temperature range
+
+	numLimits = int(LimitWaterTemp) + 1
+)
+
+var limitNames = [...]string{
+	LimitNone:           "none",
+	LimitMachRange:      "facility Mach range",
+	LimitIncompressible: "Mach (incompressible medium)",
+	LimitSpeedRange:     "facility speed range",
+	LimitP0Max:          "maximum p0",
+	LimitP0Min:          "minimum p0",
+	LimitT0Min:          "minimum T0",
+	LimitT0Max:          "maximum T0",
+	LimitQMax:           "dynamic-pressure limit",
+	LimitCondensation:   "condensation",
+	LimitStaticT:        "minimum static temperature",
+	LimitRePerM:         "unit Reynolds limit",
+	LimitWaterTemp:      "water temperature range",
+}
+
+// String returns the limit in plain words, e.g. "dynamic-pressure limit".
+func (l Limit) String() string {
+	if int(l) < len(limitNames) {
+		return limitNames[l]
+	}
+	return fmt.Sprintf("Limit(%d)", int(l))
+}
+
+// Flags are cautions attached to a point's facility settings.
+type Flags uint16
+
+// Caution flags; the thresholds are in the constants below.
+const (
+	// FlagCondensationWarn: at PeakLocalMach on the model (same p0, T0) the
+	// local static state reaches the saturation line.
+	FlagCondensationWarn Flags = 1 << iota
+	// FlagEnthalpyShort: hypersonic point whose facility T0 is below
+	// EnthalpyShortRatio of the flight stagnation temperature.
+	FlagEnthalpyShort
+	// FlagRealGas: the ideal-gas result is approximate (cold gas near
+	// saturation, T0 below RealGasT0, hypersonic, or p0 above RealGasP0).
+	FlagRealGas
+	// FlagCryogenic: T0 below CryogenicT0, cold-gas hazards apply.
+	FlagCryogenic
+	// FlagHighP0: p0 within the top NearLimitFraction of the facility
+	// maximum.
+	FlagHighP0
+	// FlagQNearLimit: dynamic pressure within the top NearLimitFraction of
+	// the facility limit.
+	FlagQNearLimit
+	// FlagReOver: even the lowest settings exceed the flight Reynolds
+	// number by more than the tolerance.
+	FlagReOver
+	// FlagLowCavitation: water cavitation number below
+	// LowCavitationNumber.
+	FlagLowCavitation
+)
+
+// Caution thresholds (common practice; planning values, not facility
+// rules).
+const (
+	// EnthalpyShortRatio: a hypersonic facility T0 below this share of the
+	// flight stagnation temperature does not reproduce the flight enthalpy
+	// (heat transfer, real-gas chemistry).
+	EnthalpyShortRatio = 0.5
+	// RealGasT0 is the stagnation temperature below which ideal-gas
+	// results for nitrogen or air are treated as approximate, K.
+	RealGasT0 = 100.0
+	// RealGasSatMargin: a static temperature below this multiple of the
+	// saturation temperature counts as near saturation.
+	RealGasSatMargin = 1.10
+	// RealGasP0 is the stagnation pressure above which the ideal-gas
+	// equation of state is treated as approximate, Pa.
+	RealGasP0 = 10e6
+	// CryogenicT0 is the stagnation temperature below which a facility is
+	// flagged as running cold (cryogenic handling, embrittlement,
+	// oxygen-deficiency hazard from nitrogen), K.
+	CryogenicT0 = 200.0
+	// NearLimitFraction: settings at or above this share of a facility
+	// maximum (p0, q) are flagged.
+	NearLimitFraction = 0.9
+	// LowCavitationNumber: below this water cavitation number cavitation
+	// on the model is likely (the magnitude of a typical minimum pressure
+	// coefficient).
+	LowCavitationNumber = 1.0
+)
+
+var flagNames = [...]string{
+	"condensation warning", "enthalpy short", "real-gas caution", "cryogenic",
+	"high p0", "q near limit", "Reynolds over", "low cavitation number",
+}
+
+// String lists the set flags, comma separated ("" when none).
+func (f Flags) String() string {
+	var parts []string
+	for k, n := range flagNames {
+		if f&(1<<k) != 0 {
+			parts = append(parts, n)
+		}
+	}
+	return strings.Join(parts, ", ")
+}
+
+// Has reports whether every flag in x is set.
+func (f Flags) Has(x Flags) bool { return f&x == x }
+
+// Result is the compact facility answer for one grid point: 32 bytes.
+// For a gas facility P0 and T0 are stagnation pressure (Pa) and temperature
+// (K); for a water facility P0 is the test-section static pressure and T0 the
+// water temperature. V is the test-section speed (m/s), Q the test-section
+// dynamic pressure (Pa), Re the model Reynolds number, ReRatio model over
+// flight, DCf the Prandtl–Schlichting skin-friction difference model minus
+// flight. Points out of reach with no usable settings have zero settings.
+type Result struct {
+	Class Class
+	Limit Limit
+	Flags Flags
+	P0    float32
+	T0    float32
+	Q     float32
+	Re    float32
+	// ReRatio is Re over the flight Reynolds number.
+	ReRatio float32
+	DCf     float32
+	V       float32
+}
+
+// Better reports whether a is a better answer than b for the same point:
+// the better class by Rank, then the Reynolds ratio nearer 1 (on a log
+// scale).
+func Better(a, b Result) bool {
+	ra, rb := a.Class.Rank(), b.Class.Rank()
+	if ra != rb {
+		return ra < rb
+	}
+	return ratioDistance(a.ReRatio) < ratioDistance(b.ReRatio)
+}
+
+func ratioDistance(r float32) float64 {
+	if !(r > 0) {
+		return math.Inf(1)
+	}
+	return math.Abs(math.Log(float64(r)))
+}
+
+// SkinFriction is the Prandtl–Schlichting turbulent flat-plate mean skin
+// friction coefficient, Cf = 0.455/(log10 Re)^2.58 (Schlichting, Boundary
+// Layer Theory; intended for roughly 1e5 < Re < 1e9). It returns NaN for
+// Re <= 1.
+func SkinFriction(re float64) float64 {
+	if !(re > 1) {
+		return math.NaN()
+	}
+	return 0.455 / math.Pow(math.Log10(re), 2.58)
+}
+
+// skinFrictionDelta is Cf(model) − Cf(flight), or 0 where either is not
+// defined.
+func skinFrictionDelta(reModel, reFlight float64) float64 {
+	if !(reModel > 1) || !(reFlight > 1) || reModel == reFlight {
+		return 0
+	}
+	return SkinFriction(reModel) - SkinFriction(reFlight)
+}

@@ -1,0 +1,131 @@
+package envelope
+
+import (
+	"fmt"
+	"math"
+)
+
+// Default model blockage by test Mach number (common practice; planning
+// values): frontal area up to about 5 % of the test-section area at low
+// speed, where blockage corrections are routine, and about 1 % from
+// BlockageMach up, where solid blockage drives the section toward choking
+// (transonic) or stops a supersonic nozzle from starting.
+const (
+	LowSpeedBlockage  = 0.05
+	HighSpeedBlockage = 0.01
+	BlockageMach      = 0.6
+)
+
+// DefaultBlockage is the largest frontal blockage (share of the section
+// area) used when a facility does not set one, for test Mach number mach.
+func DefaultBlockage(mach float64) float64 {
+	if mach < BlockageMach {
+		return LowSpeedBlockage
+	}
+	return HighSpeedBlockage
+}
+
+// FitScale is the largest model scale that keeps the model span within
+// MaxSpanFraction of the section width (default DefaultMaxSpanFraction) and
+// its frontal area within MaxBlockage of the section area (default by Mach
+// number, DefaultBlockage), for vehicle v in facility f at test Mach number
+// mach. rule says which rule decides. Either rule is skipped when the
+// vehicle lacks the span or frontal area, or the section its width or
+// height; with neither it returns 0.
+func FitScale(v *Vehicle, f *Facility, mach float64) (scale float64, rule string) {
+	frac := f.Model.MaxSpanFraction
+	if frac <= 0 {
+		frac = DefaultMaxSpanFraction
+	}
+	block := f.Model.MaxBlockage
+	if block <= 0 {
+		block = DefaultBlockage(mach)
+	}
+	scale = math.Inf(1)
+	if v.Span > 0 && f.Width > 0 {
+		scale = frac * f.Width / v.Span
+		rule = fmt.Sprintf("span %.0f %% of section width", 100*frac)
+	}
+	if v.FrontalArea > 0 && f.Width > 0 && f.Height > 0 {
+		if s := math.Sqrt(block * f.Width * f.Height / v.FrontalArea); s < scale {
+			scale = s
+			rule = fmt.Sprintf("blockage %.3g %% of section area", 100*block)
+		}
+	}
+	if math.IsInf(scale, 1) {
+		return 0, "no span or frontal area to fit the model by"
+	}
+	return scale, rule
+}
+
+// Fits reports whether a model of the given scale fits the map's facility
+// by the span and blockage rules (false when the fit scale is unknown).
+func (m *Map) Fits(scale float64) bool {
+	return m.FitScale > 0 && scale <= m.FitScale*(1+1e-9)
+}
+
+// MinScaleFullMatch is the smallest model scale at which point (i, j)
+// becomes a full match in facility f: at the matched Mach number the best
+// setting's unit Reynolds number does not depend on scale, so the model
+// Reynolds number is proportional to scale and
+//
+//	scale_min = (1 − ReTol)·Re_flight / (Re_best at scale 1).
+//
+// ok is false when the point is outside the envelope, the facility cannot
+// run the flight Mach number (within MachTol), no setting exists there, or
+// the medium is a liquid (no Mach match).
+func MinScaleFullMatch(g *Grid, f *Facility, s Settings, i, j int) (float64, bool) {
+	if f.Medium == MediumWater || checkFacility(f) != nil || checkSettings(s) != nil {
+		return 0, false
+	}
+	sv := newSolver(g, f, s, 1)
+	return sv.minScale(&g.points[g.Index(i, j)])
+}
+
+func (sv *solver) minScale(r *flightRec) (float64, bool) {
+	if r.excl != InEnvelope {
+		return 0, false
+	}
+	mf := float64(r.mach)
+	mm := math.Min(math.Max(mf, sv.f.MachMin), sv.f.MachMax)
+	if math.Abs(mm-mf) > sv.mTol*(1+1e-9)+1e-12 {
+		return 0, false
+	}
+	c := sv.bounds(mm)
+	if !c.ok {
+		return 0, false
+	}
+	_, _, re1, _, _, ok := sv.best(&c)
+	if !ok || !(re1 > 0) {
+		return 0, false
+	}
+	return (1 - sv.reTol) * float64(r.re) / re1, true
+}
+
+// MinScaleEnvelope is the smallest model scale at which every inside point
+// that facility f can run at flight Mach number becomes a full match (the
+// largest per-point MinScaleFullMatch). ok is false when some inside point
+// cannot be Mach-matched at any scale, or no point can; the scale returned
+// then still covers the points that can (0 when none can).
+func MinScaleEnvelope(g *Grid, f *Facility, s Settings) (float64, bool) {
+	if f.Medium == MediumWater || checkFacility(f) != nil || checkSettings(s) != nil {
+		return 0, false
+	}
+	sv := newSolver(g, f, s, 1)
+	var most float64
+	all, any := true, false
+	for k := range g.points {
+		r := &g.points[k]
+		if r.excl != InEnvelope {
+			continue
+		}
+		sc, ok := sv.minScale(r)
+		if !ok {
+			all = false
+			continue
+		}
+		any = true
+		most = math.Max(most, sc)
+	}
+	return most, all && any
+}

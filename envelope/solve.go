@@ -1,0 +1,930 @@
+package envelope
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"likewind/atmos"
+)
+
+// PlanningNote is attached to every facility detail: the engine plans,
+// it does not authorise runs.
+const PlanningNote = "Planning estimate only: confirm settings with the facility's own operating procedures, " +
+	"pressure-vessel and model-load ratings, local codes and licensed engineering review before any run."
+
+// Bounded searches of the solver (the rest is closed form).
+const (
+	// relaxSamples is the number of facility Mach numbers sampled when
+	// looking for the Mach number nearest flight that reaches the flight
+	// Reynolds number (Mach relaxed).
+	relaxSamples = 24
+	// relaxIter caps the bisection that then locates that Mach number;
+	// it stops earlier once the bracket is narrower than relaxTol.
+	relaxIter = 48
+	relaxTol  = 1e-7
+	// waterIter caps the bisection for the water temperature that brings
+	// the Reynolds number down to flight at the minimum speed; it stops
+	// earlier once the bracket is narrower than waterTolK (kelvin).
+	waterIter = 60
+	waterTolK = 1e-6
+)
+
+// Map is one facility's answer over a grid: a Result per grid point, in
+// Grid.Index order.
+type Map struct {
+	Grid     *Grid
+	Facility *Facility
+	Settings Settings
+
+	// Scale is the model scale used (model/full size) and ScaleRule says
+	// where it came from.
+	Scale     float64
+	ScaleRule string
+	// FitScale is the largest scale the test section takes by the span and
+	// blockage rules (0 when the vehicle gives neither span nor frontal
+	// area), with the rule that decides it.
+	FitScale float64
+	FitRule  string
+
+	Results []Result
+
+	sv *solver
+}
+
+// Detail is the full-precision facility answer for one grid point.
+type Detail struct {
+	Flight   FlightDetail
+	Facility string
+	Medium   Medium
+
+	Class Class
+	Limit Limit
+	// PressureLimit and TemperatureLimit are the constraints bounding the
+	// best reachable setting at the test Mach number on the pressure side
+	// and the temperature side (gas facilities; LimitNone when not solved).
+	PressureLimit    Limit
+	TemperatureLimit Limit
+	Flags            Flags
+
+	Scale       float64 // model scale
+	ModelLength float64 // model reference length, m
+
+	// Settings. Gas: stagnation pressure P0 (Pa) and temperature T0 (K).
+	// Water: P0 is the test-section static pressure, T0 the water
+	// temperature. HasSettings is false when no setting exists (Mach out
+	// of range, no feasible region).
+	HasSettings bool
+	Mach        float64 // test-section Mach number (gas; 0 for water)
+	P0, T0      float64
+	// Test-section static state.
+	P, T      float64 // Pa, K
+	V         float64 // m/s
+	Q         float64 // Pa
+	Density   float64 // kg/m3
+	Viscosity float64 // Pa·s
+
+	Re       float64 // model Reynolds number achieved
+	ReFlight float64 // flight Reynolds number (the target)
+	ReRatio  float64
+	RePerM   float64 // model unit Reynolds number, 1/m
+	DCf      float64 // Prandtl–Schlichting Cf(model) − Cf(flight)
+	ReMax    float64 // highest Reynolds number reachable at the test Mach number
+
+	// ReSweepMin and ReSweepMax are the Reynolds numbers the facility spans
+	// at the test Mach number and the dynamic pressure of the chosen setting,
+	// by varying T0 (water: temperature) within every limit.
+	ReSweepMin, ReSweepMax float64
+
+	FlightT0 float64 // flight stagnation temperature, K
+	// MinT0Condensation is the lowest T0 that keeps the test-section static
+	// state on the vapour side of the saturation line at the chosen p0 and
+	// test Mach number (gas).
+	MinT0Condensation float64
+
+	VapourPressure float64 // water, Pa
+	Cavitation     float64 // water cavitation number (p − pv)/(½ρV²)
+
+	Cautions []string
+}
+
+// Solve finds, for every inside point of g, the settings of facility f that
+// best reproduce the flight condition with a scale model, and classifies the
+// point. It depends on the facility and on the scale and tolerances of s;
+// the grid is not changed, so a facility what-if re-runs only Solve.
+//
+// Gas facilities: at the target Mach number the test-section static state
+// follows from the isentropic relations, and the Reynolds number from
+// Sutherland's law, so for each Mach number the limits (p0 and T0 ranges,
+// dynamic pressure, static temperature, saturation line, unit Reynolds
+// number) are solved jointly in (p0, T0) in closed form. Of the settings
+// that reach the flight Reynolds number the warmest T0 is taken, then the
+// lowest p0. Water facilities: warmest water (lowest viscosity), then the
+// lowest speed.
+func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
+	if g == nil || f == nil {
+		return nil, errors.New("solve: need a grid and a facility")
+	}
+	if err := checkSettings(s); err != nil {
+		return nil, fmt.Errorf("solve %q: %w", f.Name, err)
+	}
+	if err := checkFacility(f); err != nil {
+		return nil, fmt.Errorf("solve %q: %w", f.Name, err)
+	}
+	m := &Map{Grid: g, Facility: f, Settings: s}
+	m.FitScale, m.FitRule = FitScale(g.Vehicle, f, fitMach(g, f))
+	switch {
+	case s.Scale > 0:
+		m.Scale, m.ScaleRule = s.Scale, "set in settings"
+	case f.Model.Scale > 0:
+		m.Scale, m.ScaleRule = f.Model.Scale, "facility model scale"
+	case m.FitScale > 0:
+		m.Scale, m.ScaleRule = m.FitScale, "fitted: "+m.FitRule
+	default:
+		return nil, fmt.Errorf("solve %q: no model scale: set a scale, or give the vehicle span or frontal area and the section width and height", f.Name)
+	}
+	m.sv = newSolver(g, f, s, m.Scale)
+	m.Results = make([]Result, len(g.points))
+	cols := len(g.Speeds)
+	for i := range g.Alts {
+		tFlight := g.rows[i].Temperature
+		base := i * cols
+		for j := 0; j < cols; j++ {
+			r := &g.points[base+j]
+			if r.excl != InEnvelope {
+				continue
+			}
+			ps := m.sv.solve(float64(r.mach), float64(r.re), tFlight, false)
+			m.Results[base+j] = ps.result()
+		}
+	}
+	return m, nil
+}
+
+// At returns the stored result of point (i, j).
+func (m *Map) At(i, j int) Result { return m.Results[m.Grid.Index(i, j)] }
+
+// StoredBytes is the memory the map holds for its results.
+func (m *Map) StoredBytes() int { return len(m.Results) * 32 }
+
+// Detail recomputes point (i, j) at full precision and adds what the
+// compact Result leaves out: the test-section state, the Reynolds sweep at
+// constant dynamic pressure, flight against facility T0, the cavitation
+// number for water, and cautions. The facility is solved from the stored
+// flight Mach and Reynolds numbers, so the class agrees with the map.
+func (m *Map) Detail(i, j int) (Detail, error) {
+	fd, err := m.Grid.FlightDetail(i, j)
+	if err != nil {
+		return Detail{}, err
+	}
+	sv := m.sv
+	d := Detail{
+		Flight:      fd,
+		Facility:    m.Facility.Name,
+		Medium:      m.Facility.Medium,
+		Scale:       m.Scale,
+		ModelLength: sv.L,
+		FlightT0:    fd.T0,
+	}
+	if !fd.Inside {
+		d.Class = Outside
+		return d, nil
+	}
+	r := m.Grid.points[m.Grid.Index(i, j)]
+	ps := sv.solve(float64(r.mach), float64(r.re), fd.State.Temperature, true)
+	d.Class, d.Limit, d.Flags = ps.class, ps.limit, ps.flags
+	d.PressureLimit, d.TemperatureLimit = ps.pLim, ps.tLim
+	d.HasSettings = ps.has
+	d.Mach, d.P0, d.T0 = ps.mach, ps.p0, ps.t0
+	d.P, d.T, d.V, d.Q, d.Density, d.Viscosity = ps.p, ps.t, ps.v, ps.q, ps.rho, ps.mu
+	d.Re, d.ReFlight, d.ReRatio, d.DCf, d.ReMax = ps.re, ps.reFlight, ps.ratio, ps.dcf, ps.reMax
+	if ps.has && ps.mu > 0 {
+		d.RePerM = ps.rho * ps.v / ps.mu
+	}
+	if sv.water {
+		d.VapourPressure, d.Cavitation = ps.pv, ps.sigma
+		if ps.has {
+			d.ReSweepMin, d.ReSweepMax = sv.waterSweep(ps.q)
+		}
+	} else if ps.has {
+		c := sv.bounds(ps.mach)
+		d.ReSweepMin, d.ReSweepMax = sv.gasSweep(&c, ps.p0)
+		d.MinT0Condensation = sv.gas.SaturationTemperature(ps.p) / c.tau
+	}
+	d.Cautions = cautions(&d, m.Facility)
+	return d, nil
+}
+
+// solver holds the per-facility constants of a Solve.
+type solver struct {
+	f     *Facility
+	water bool
+	reg   atmos.Regimes
+
+	mTol, reTol, cm float64
+	L               float64 // model reference length, m
+
+	// gas
+	gas           atmos.Gas
+	gamma, beta   float64
+	suth          float64 // Sutherland S, K
+	rgas          float64
+	kFac          float64 // Re = M·kFac·p·(T+S)/T², kFac = L·√(γ/R)/β
+	condFlag, air bool
+	peakM         float64
+	p0min, p0max  float64
+	t0min, t0max  float64
+	qmax, minT    float64
+	rpm           float64 // unit Reynolds cap, 1/m (0: none)
+
+	// water
+	hot     atmos.WaterState // at T0Max
+	pStatic float64
+}
+
+func newSolver(g *Grid, f *Facility, s Settings, scale float64) *solver {
+	sv := &solver{
+		f:     f,
+		water: f.Medium == MediumWater,
+		reg:   g.Regimes,
+		mTol:  s.MachTol,
+		reTol: s.ReTol,
+		cm:    s.CompressibilityMach,
+		L:     scale * g.Vehicle.RefLength,
+		p0min: f.P0Min, p0max: f.P0Max,
+		t0min: f.T0Min, t0max: f.T0Max,
+		qmax: f.QMax, minT: f.MinStaticT,
+		rpm: f.MaxReynoldsPerM,
+	}
+	if sv.water {
+		sv.hot, _ = atmos.WaterAt(f.T0Max) // range checked by checkFacility
+		switch {
+		case f.P0Max > 0:
+			sv.pStatic = f.P0Max
+		default:
+			sv.pStatic = math.Max(f.P0Min, atmos.SeaLevelPressure)
+		}
+		return sv
+	}
+	var gas atmos.IdealGas
+	if f.Medium == MediumNitrogen {
+		gas = atmos.Nitrogen()
+	} else {
+		gas = atmos.Air()
+		sv.air = true
+	}
+	sv.gas = gas
+	sv.gamma, sv.rgas = gas.Gamma(), gas.R()
+	sv.beta, sv.suth = gas.Sutherland()
+	sv.kFac = sv.L * math.Sqrt(sv.gamma/sv.rgas) / sv.beta
+	sv.condFlag = f.Condensation
+	sv.peakM = f.PeakLocalMach
+	if sv.peakM == 0 {
+		sv.peakM = DefaultPeakLocalMach
+	}
+	return sv
+}
+
+// pointSol is the full-precision answer for one point.
+type pointSol struct {
+	class      Class
+	limit      Limit
+	pLim, tLim Limit
+	flags      Flags
+	has        bool
+
+	mach, p0, t0             float64
+	p, t, v, q, rho, mu      float64
+	re, reFlight, ratio, dcf float64
+	reMax                    float64
+	pv, sigma                float64
+}
+
+func (ps *pointSol) result() Result {
+	return Result{
+		Class: ps.class, Limit: ps.limit, Flags: ps.flags,
+		P0: float32(ps.p0), T0: float32(ps.t0), Q: float32(ps.q),
+		Re: float32(ps.re), ReRatio: float32(ps.ratio), DCf: float32(ps.dcf),
+		V: float32(ps.v),
+	}
+}
+
+// solve answers one point: flight Mach mf, flight Reynolds number reF and
+// flight static temperature tFlight. With detail set it also finds the
+// highest reachable Reynolds number where the target was hit directly.
+func (sv *solver) solve(mf, reF, tFlight float64, detail bool) pointSol {
+	var ps pointSol
+	ps.reFlight = reF
+	if sv.water {
+		sv.solveWater(&ps, mf)
+	} else {
+		sv.solveGas(&ps, mf, tFlight, detail)
+	}
+	if ps.has && reF > 0 {
+		ps.ratio = ps.re / reF
+		ps.dcf = skinFrictionDelta(ps.re, reF)
+		if ps.ratio > 1+sv.reTol {
+			ps.flags |= FlagReOver
+		}
+	}
+	return ps
+}
+
+// gasBounds is the feasible (p0, T0) region of a gas facility at one Mach
+// number, before the saturation floor on T0 is resolved.
+type gasBounds struct {
+	M, tau, pi float64
+	k          float64 // Re = k·p·(T+S)/T², p static, T static
+	ok         bool
+	why        Limit // when !ok
+	condOn     bool
+	p0hi       float64 // highest usable p0
+	pLim       Limit   // what sets p0hi
+	t0lo       float64 // lowest T0 from T0Min and the static-T floor
+	tLim       Limit   // what sets t0lo
+}
+
+// bounds evaluates the limits at Mach number M jointly, in closed form:
+//
+//	p0 ≤ P0Max, p0 ≤ 2·QMax/(γM²π(M))                   (dynamic pressure)
+//	T0 ≥ T0Min, T0 ≥ MinStaticT/τ(M)                     (static temperature)
+//	T0·τ(M) ≥ Tsat(p0·π(M))  ⇔  p0 ≤ psat(T0·τ)/π(M)     (saturation line)
+//	T0 ≤ T0Max, p0 ≥ P0Min.
+//
+// The saturation constraint couples p0 and T0: at T0Max it caps p0, and
+// at p0hi it sets a floor on T0 (resolved in best, only when needed).
+func (sv *solver) bounds(M float64) gasBounds {
+	g := sv.gamma
+	c := gasBounds{M: M}
+	c.tau = 1 / (1 + 0.5*(g-1)*M*M)
+	c.pi = math.Pow(c.tau, g/(g-1))
+	c.k = M * sv.kFac
+	c.condOn = sv.condFlag || (sv.air && M >= 1)
+	c.p0hi, c.pLim = sv.p0max, LimitP0Max
+	if sv.qmax > 0 && M > 0 {
+		if pq := 2 * sv.qmax / (g * M * M * c.pi); pq < c.p0hi {
+			c.p0hi, c.pLim = pq, LimitQMax
+		}
+	}
+	c.t0lo, c.tLim = sv.t0min, LimitT0Min
+	if sv.minT > 0 {
+		if t := sv.minT / c.tau; t > c.t0lo {
+			c.t0lo, c.tLim = t, LimitStaticT
+		}
+	}
+	if c.t0lo > sv.t0max*(1+1e-12) {
+		c.why = c.tLim
+		return c
+	}
+	if c.condOn {
+		if pc := sv.gas.SaturationPressure(sv.t0max*c.tau) / c.pi; pc < c.p0hi {
+			c.p0hi, c.pLim = pc, LimitCondensation
+		}
+	}
+	if c.p0hi < sv.p0min {
+		c.why = c.pLim
+		return c
+	}
+	c.ok = true
+	return c
+}
+
+// reAt is the model Reynolds number at (p0, T0) on bounds c.
+func (sv *solver) reAt(c *gasBounds, p0, t0 float64) float64 {
+	T := t0 * c.tau
+	return c.k * p0 * c.pi * (T + sv.suth) / (T * T)
+}
+
+// floorT0 is the lowest T0 allowed at stagnation pressure p0 (the larger
+// of t0lo and the saturation floor), never above T0Max.
+func (sv *solver) floorT0(c *gasBounds, p0 float64) (float64, Limit) {
+	t0, lim := c.t0lo, c.tLim
+	if c.condOn {
+		p := p0 * c.pi
+		if sv.gas.SaturationPressure(t0*c.tau) < p {
+			t0, lim = sv.gas.SaturationTemperature(p)/c.tau, LimitCondensation
+		}
+	}
+	return math.Min(t0, sv.t0max), lim
+}
+
+// best returns the highest-Reynolds setting on bounds c: p0 at p0hi, T0 at
+// its floor there (Re rises with p0 and falls with T0, and along the
+// saturation line Re still rises with p0, so this corner is the maximum),
+// then cut back to the unit-Reynolds cap if that binds. It returns the
+// binding limits of each side.
+func (sv *solver) best(c *gasBounds) (p0, t0, re float64, pLim, tLim Limit, ok bool) {
+	p0 = c.p0hi
+	t0, tLim = sv.floorT0(c, p0)
+	pLim = c.pLim
+	re = sv.reAt(c, p0, t0)
+	if sv.rpm > 0 {
+		if lim := sv.rpm * sv.L; re > lim {
+			var over bool
+			p0, t0, re, over = sv.hit(c, lim, t0)
+			if over {
+				return 0, 0, 0, LimitRePerM, tLim, false
+			}
+			pLim = LimitRePerM
+		}
+	}
+	return p0, t0, re, pLim, tLim, true
+}
+
+// hit returns the operator's setting for target Reynolds number target on
+// bounds c, known to be reachable with the floor tFloor at p0hi: the
+// warmest T0 that still reaches it (at p0hi, solving the quadratic below),
+// then the lowest p0 at that T0. With p static and T static,
+//
+//	Re = k·p·(T+S)/T²  ⇒  Re·T² − k·p·T − k·p·S = 0
+//	⇒  T = (a + √(a² + 4aS))/2,  a = k·p/Re.
+//
+// over reports that even P0Min at that T0 exceeds the target.
+func (sv *solver) hit(c *gasBounds, target, tFloor float64) (p0, t0, re float64, over bool) {
+	a := c.k * c.p0hi * c.pi / target
+	T := 0.5 * (a + math.Sqrt(a*a+4*a*sv.suth))
+	t0 = math.Max(math.Min(T/c.tau, sv.t0max), tFloor)
+	T = t0 * c.tau
+	p0 = target * T * T / (c.k * c.pi * (T + sv.suth))
+	p0 = math.Min(p0, c.p0hi)
+	if p0 < sv.p0min {
+		p0, over = sv.p0min, true
+	}
+	return p0, t0, sv.reAt(c, p0, t0), over
+}
+
+// tryHit reaches target on bounds c if it can, without resolving the
+// saturation floor unless it must: the warmest T0 reaching target at p0hi
+// is accepted when it lies above t0lo and on the vapour side at p0hi.
+func (sv *solver) tryHit(c *gasBounds, target float64) (p0, t0, re float64, over, ok bool) {
+	if !c.ok || !(target > 0) {
+		return 0, 0, 0, false, false
+	}
+	if sv.rpm > 0 && target > sv.rpm*sv.L {
+		return 0, 0, 0, false, false
+	}
+	a := c.k * c.p0hi * c.pi / target
+	T := 0.5 * (a + math.Sqrt(a*a+4*a*sv.suth))
+	tw := math.Min(T/c.tau, sv.t0max)
+	if tw < c.t0lo {
+		return 0, 0, 0, false, false
+	}
+	if c.condOn && sv.gas.SaturationPressure(tw*c.tau) < c.p0hi*c.pi {
+		return 0, 0, 0, false, false
+	}
+	p0, t0, re, over = sv.hit(c, target, c.t0lo)
+	return p0, t0, re, over, true
+}
+
+// bindingLimit picks the one limit to report when both sides bind, in the
+// order unit Reynolds, dynamic pressure, condensation, static temperature,
+// maximum p0, minimum T0.
+func bindingLimit(pl, tl Limit) Limit {
+	for _, l := range [...]Limit{LimitRePerM, LimitQMax, LimitCondensation, LimitStaticT, LimitP0Max, LimitT0Min} {
+		if pl == l || tl == l {
+			return l
+		}
+	}
+	return pl
+}
+
+// gasPick is one chosen gas setting with the bounds it was found on.
+type gasPick struct {
+	c          gasBounds
+	p0, t0, re float64
+	pLim, tLim Limit
+	over       bool
+}
+
+func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool) {
+	f := sv.f
+	target := ps.reFlight
+	need := (1 - sv.reTol) * target
+	mm := math.Min(math.Max(mf, f.MachMin), f.MachMax)
+	matched := math.Abs(mm-mf) <= sv.mTol*(1+1e-9)+1e-12
+
+	var c gasBounds
+	var cb gasPick // best setting at the matched Mach number
+	var cok bool
+	if matched {
+		c = sv.bounds(mm)
+		if p0, t0, re, over, ok := sv.tryHit(&c, target); ok {
+			ps.class = FullMatch
+			if over {
+				ps.limit = LimitP0Min
+			}
+			sv.fillGas(ps, &c, p0, t0, re, mf, tFlight)
+			if detail {
+				if _, _, r, pl, tl, ok := sv.best(&c); ok {
+					ps.reMax, ps.pLim, ps.tLim = r, pl, tl
+				}
+			}
+			return
+		}
+		if c.ok {
+			cb.c = c
+			cb.p0, cb.t0, cb.re, cb.pLim, cb.tLim, cok = sv.best(&c)
+			if cok && cb.re >= need {
+				ps.class = FullMatch
+				sv.usePick(ps, &cb, mf, tFlight)
+				return
+			}
+		}
+	}
+	var rp gasPick
+	var rfound, reached bool
+	if mf < sv.cm {
+		rp, rfound, reached = sv.relax(mf, target, need)
+		if reached {
+			ps.class = MachRelaxed
+			sv.usePick(ps, &rp, mf, tFlight)
+			if rp.re >= target {
+				ps.limit = LimitNone
+				if rp.over {
+					ps.limit = LimitP0Min
+				}
+			}
+			return
+		}
+	}
+	switch {
+	case matched && cok:
+		ps.class = ReShort
+		sv.usePick(ps, &cb, mf, tFlight)
+	case matched && !c.ok:
+		ps.class, ps.limit = NoMatch, c.why
+	case matched:
+		// The unit-Reynolds cap lies below what P0Min gives at T0Max.
+		ps.class, ps.limit = NoMatch, LimitRePerM
+	case rfound:
+		ps.class = NoMatch
+		sv.usePick(ps, &rp, mf, tFlight)
+	default:
+		ps.class, ps.limit = NoMatch, LimitMachRange
+	}
+}
+
+// usePick fills ps from a chosen setting, with the binding limit when the
+// setting falls short of flight.
+func (sv *solver) usePick(ps *pointSol, g *gasPick, mf, tFlight float64) {
+	sv.fillGas(ps, &g.c, g.p0, g.t0, g.re, mf, tFlight)
+	ps.reMax, ps.pLim, ps.tLim = g.re, g.pLim, g.tLim
+	if g.re < ps.reFlight {
+		ps.limit = bindingLimit(g.pLim, g.tLim)
+	}
+}
+
+// relax looks for the facility Mach number nearest flight, at or below the
+// compressibility threshold, whose best setting reaches the flight Reynolds
+// number. It samples relaxSamples Mach numbers over the usable range and
+// bisects (at most relaxIter steps, to relaxTol in Mach) between the nearest
+// sample that reaches the target and the Mach number nearest flight. If no
+// Mach number reaches the target it returns the sample of highest Reynolds
+// number, reached reporting whether that is within tolerance (need). found
+// is false when no Mach number in the range is usable at all.
+func (sv *solver) relax(mf, target, need float64) (pick gasPick, found, reached bool) {
+	lo, hi := sv.f.MachMin, math.Min(sv.f.MachMax, sv.cm)
+	if !(hi > lo) {
+		return pick, false, false
+	}
+	m0 := math.Min(math.Max(mf, lo), hi)
+	reaches := func(M float64) (gasBounds, bool) {
+		b := sv.bounds(M)
+		_, _, _, _, ok := sv.tryHit(&b, target)
+		return b, ok
+	}
+	if b, yes := reaches(m0); yes {
+		return sv.relaxAt(&b, target), true, true
+	}
+	nearest, nearestD := -1.0, math.Inf(1)
+	var top gasPick
+	top.re = -1
+	for k := 0; k < relaxSamples; k++ {
+		M := lo + (hi-lo)*float64(k)/float64(relaxSamples-1)
+		b, yes := reaches(M)
+		if yes {
+			if d := math.Abs(M - m0); d < nearestD {
+				nearest, nearestD = M, d
+			}
+			continue
+		}
+		if nearest < 0 && b.ok {
+			var g gasPick
+			var ok bool
+			g.c = b
+			if g.p0, g.t0, g.re, g.pLim, g.tLim, ok = sv.best(&b); ok && g.re > top.re {
+				top = g
+			}
+		}
+	}
+	if nearest >= 0 {
+		fail, pass := m0, nearest
+		for it := 0; it < relaxIter && math.Abs(pass-fail) > relaxTol; it++ {
+			mid := 0.5 * (fail + pass)
+			if _, yes := reaches(mid); yes {
+				pass = mid
+			} else {
+				fail = mid
+			}
+		}
+		b := sv.bounds(pass)
+		return sv.relaxAt(&b, target), true, true
+	}
+	if top.re < 0 {
+		return pick, false, false
+	}
+	return top, true, top.re >= need
+}
+
+// relaxAt is the operator's setting reaching target on bounds b.
+func (sv *solver) relaxAt(b *gasBounds, target float64) gasPick {
+	g := gasPick{c: *b}
+	g.p0, g.t0, g.re, g.over, _ = sv.tryHit(b, target)
+	_, _, _, g.pLim, g.tLim, _ = sv.best(b)
+	return g
+}
+
+// fillGas completes the test-section state and the cautions of a gas
+// setting.
+func (sv *solver) fillGas(ps *pointSol, c *gasBounds, p0, t0, re, mf, tFlight float64) {
+	g, R := sv.gamma, sv.rgas
+	ps.has = true
+	ps.mach, ps.p0, ps.t0, ps.re = c.M, p0, t0, re
+	T := t0 * c.tau
+	p := p0 * c.pi
+	ps.t, ps.p = T, p
+	ps.v = c.M * math.Sqrt(g*R*T)
+	ps.rho = p / (R * T)
+	ps.mu = sv.beta * T * math.Sqrt(T) / (T + sv.suth)
+	ps.q = 0.5 * g * p * c.M * c.M
+
+	var fl Flags
+	if pk := sv.peakM; pk > c.M {
+		tl := 1 / (1 + 0.5*(g-1)*pk*pk)
+		pl := math.Pow(tl, g/(g-1))
+		if p0*pl >= sv.gas.SaturationPressure(t0*tl) {
+			fl |= FlagCondensationWarn
+		}
+	}
+	hyper := mf >= sv.reg.Supersonic
+	if t0 < RealGasT0 || p0 > RealGasP0 || hyper ||
+		p > sv.gas.SaturationPressure(T/RealGasSatMargin) {
+		fl |= FlagRealGas
+	}
+	if t0 < CryogenicT0 {
+		fl |= FlagCryogenic
+	}
+	if sv.p0max > 0 && p0 >= NearLimitFraction*sv.p0max {
+		fl |= FlagHighP0
+	}
+	if sv.qmax > 0 && ps.q >= NearLimitFraction*sv.qmax {
+		fl |= FlagQNearLimit
+	}
+	if hyper && t0 < EnthalpyShortRatio*tFlight*(1+0.5*(atmos.GammaAir-1)*mf*mf) {
+		fl |= FlagEnthalpyShort
+	}
+	ps.flags |= fl
+}
+
+// gasSweep is the Reynolds range at the Mach number of c and stagnation
+// pressure p0 (fixed dynamic pressure) as T0 runs over its allowed range.
+func (sv *solver) gasSweep(c *gasBounds, p0 float64) (lo, hi float64) {
+	tFloor, _ := sv.floorT0(c, p0)
+	lo = sv.reAt(c, p0, sv.t0max)
+	hi = sv.reAt(c, p0, tFloor)
+	if sv.rpm > 0 {
+		lim := sv.rpm * sv.L
+		lo, hi = math.Min(lo, lim), math.Min(hi, lim)
+	}
+	return lo, hi
+}
+
+// solveWater: Mach number is not matched in a liquid, so only flight Mach
+// numbers below the compressibility threshold are tried. The warmest water
+// gives the lowest viscosity and the highest Reynolds number per speed;
+// the lowest speed that reaches flight is taken, and if even the minimum
+// speed overshoots, the water is cooled to bring the Reynolds number down.
+func (sv *solver) solveWater(ps *pointSol, mf float64) {
+	f := sv.f
+	if !(mf < sv.cm) {
+		ps.class, ps.limit = NoMatch, LimitIncompressible
+		return
+	}
+	target := ps.reFlight
+	need := (1 - sv.reTol) * target
+	w := sv.hot
+	vcap, vl := f.SpeedMax, LimitSpeedRange
+	if sv.qmax > 0 {
+		if vq := math.Sqrt(2 * sv.qmax / w.Density); vq < vcap {
+			vcap, vl = vq, LimitQMax
+		}
+	}
+	if sv.rpm > 0 {
+		if vr := sv.rpm * w.KinematicViscosity; vr < vcap {
+			vcap, vl = vr, LimitRePerM
+		}
+	}
+	if vcap < f.SpeedMin {
+		ps.class, ps.limit = NoMatch, vl
+		return
+	}
+	reMax := vcap * sv.L / w.KinematicViscosity
+	ps.reMax = reMax
+	var V float64
+	switch {
+	case reMax >= target:
+		ps.class = MachRelaxed
+		V = target * w.KinematicViscosity / sv.L
+		if V < f.SpeedMin {
+			V = f.SpeedMin
+			var over bool
+			if w, over = sv.coolFor(V, target); over {
+				ps.limit = LimitSpeedRange
+			}
+		}
+	case reMax >= need:
+		ps.class, ps.limit, V = MachRelaxed, vl, vcap
+	default:
+		ps.class, ps.limit, V = NoMatch, vl, vcap
+	}
+	ps.pLim, ps.tLim = vl, LimitWaterTemp
+	ps.has = true
+	ps.t0, ps.t = w.Temperature, w.Temperature
+	ps.p0, ps.p = sv.pStatic, sv.pStatic
+	ps.v = V
+	ps.rho, ps.mu = w.Density, w.Viscosity
+	ps.q = 0.5 * w.Density * V * V
+	ps.re = V * sv.L / w.KinematicViscosity
+	ps.pv = w.VapourPressure
+	ps.sigma = (sv.pStatic - w.VapourPressure) / ps.q
+	if ps.sigma < LowCavitationNumber {
+		ps.flags |= FlagLowCavitation
+	}
+	if sv.qmax > 0 && ps.q >= NearLimitFraction*sv.qmax {
+		ps.flags |= FlagQNearLimit
+	}
+}
+
+// coolFor finds the water temperature at which speed V gives exactly the
+// target Reynolds number (kinematic viscosity V·L/target), by bisection
+// over the facility range (viscosity falls as the water warms). over
+// reports that even the coldest water overshoots.
+func (sv *solver) coolFor(V, target float64) (atmos.WaterState, bool) {
+	want := V * sv.L / target
+	cold, err := atmos.WaterAt(sv.f.T0Min)
+	if err != nil || cold.KinematicViscosity <= want {
+		return cold, true
+	}
+	lo, hi := sv.f.T0Min, sv.f.T0Max // nu(lo) > want >= nu(hi)
+	for it := 0; it < waterIter && hi-lo > waterTolK; it++ {
+		mid := 0.5 * (lo + hi)
+		w, err := atmos.WaterAt(mid)
+		if err != nil {
+			break
+		}
+		if w.KinematicViscosity > want {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	w, _ := atmos.WaterAt(hi)
+	return w, false
+}
+
+// waterSweep is the Reynolds range at dynamic pressure q as the water
+// temperature runs over the facility range (speed from q, within the
+// speed range and the unit Reynolds cap).
+func (sv *solver) waterSweep(q float64) (lo, hi float64) {
+	re := func(T float64) float64 {
+		w, err := atmos.WaterAt(T)
+		if err != nil {
+			return 0
+		}
+		v := math.Min(math.Sqrt(2*q/w.Density), sv.f.SpeedMax)
+		r := v * sv.L / w.KinematicViscosity
+		if sv.rpm > 0 {
+			r = math.Min(r, sv.rpm*sv.L)
+		}
+		return r
+	}
+	a, b := re(sv.f.T0Min), re(sv.f.T0Max)
+	return math.Min(a, b), math.Max(a, b)
+}
+
+// cautions lists the safety and validity notes for a detail, the planning
+// note first.
+func cautions(d *Detail, f *Facility) []string {
+	out := []string{PlanningNote}
+	add := func(format string, args ...any) { out = append(out, fmt.Sprintf(format, args...)) }
+	if d.Flags.Has(FlagCryogenic) {
+		add("Cold gas: T0 %.0f K. Cryogenic nitrogen brings cold-burn, embrittlement and oxygen-deficiency hazards; follow the facility's cryogenic procedures.", d.T0)
+	}
+	if d.Flags.Has(FlagHighP0) {
+		add("p0 %.0f kPa is within %.0f %% of the facility maximum %.0f kPa: pressure-vessel limits govern.",
+			d.P0/1e3, 100*(1-NearLimitFraction), f.P0Max/1e3)
+	}
+	if d.Flags.Has(FlagQNearLimit) {
+		add("Dynamic pressure %.1f kPa is within %.0f %% of the facility limit: check model, sting and balance loads.",
+			d.Q/1e3, 100*(1-NearLimitFraction))
+	}
+	if d.Flags.Has(FlagCondensationWarn) {
+		add("At local Mach %.2f on the model the static state reaches the saturation line: condensation likely in the local supersonic region.", peakMach(f))
+	}
+	if d.Flags.Has(FlagRealGas) {
+		add("Ideal-gas result is approximate here (cold gas near saturation, T0 below %.0f K, p0 above %.0f MPa, or hypersonic): real-gas corrections are not applied.",
+			RealGasT0, RealGasP0/1e6)
+	}
+	if d.Flags.Has(FlagEnthalpyShort) {
+		add("Facility T0 %.0f K is below %.0f %% of the flight stagnation temperature %.0f K: heating and high-temperature gas effects are not reproduced.",
+			d.T0, 100*EnthalpyShortRatio, d.FlightT0)
+	}
+	if d.Flags.Has(FlagReOver) {
+		add("The lowest setting still exceeds the flight Reynolds number (ratio %.2f).", d.ReRatio)
+	}
+	if d.Flags.Has(FlagLowCavitation) {
+		add("Cavitation number %.2f: cavitation on the model is likely.", d.Cavitation)
+	}
+	return out
+}
+
+func peakMach(f *Facility) float64 {
+	if f.PeakLocalMach > 0 {
+		return f.PeakLocalMach
+	}
+	return DefaultPeakLocalMach
+}
+
+// fitMach is the Mach number the model is sized for: the highest inside
+// flight Mach number the facility can run (gas), 0 for water.
+func fitMach(g *Grid, f *Facility) float64 {
+	if f.Medium == MediumWater {
+		return 0
+	}
+	var hi float64
+	for _, r := range g.points {
+		if r.excl == InEnvelope {
+			hi = math.Max(hi, float64(r.mach))
+		}
+	}
+	return math.Min(hi, f.MachMax)
+}
+
+// checkSettings checks the tolerances and scale of s.
+func checkSettings(s Settings) error {
+	switch {
+	case !isFiniteNum(s.Scale) || s.Scale < 0:
+		return fmt.Errorf("settings: scale %g: want 0 (use the facility's) or a positive number", s.Scale)
+	case !isFiniteNum(s.MachTol) || s.MachTol < 0:
+		return fmt.Errorf("settings: Mach tolerance %g: want a non-negative number", s.MachTol)
+	case !(s.ReTol >= 0 && s.ReTol < 1):
+		return fmt.Errorf("settings: Reynolds tolerance %g: want a fraction from 0 up to (not including) 1", s.ReTol)
+	case !isFiniteNum(s.CompressibilityMach) || s.CompressibilityMach < 0:
+		return fmt.Errorf("settings: compressibility Mach %g: want a non-negative number", s.CompressibilityMach)
+	}
+	return nil
+}
+
+// checkFacility checks what the engine needs of a facility.
+func checkFacility(f *Facility) error {
+	bad := func(field string, v float64, want string) error {
+		return fmt.Errorf("%s %g: want %s", field, v, want)
+	}
+	for _, x := range []struct {
+		name string
+		v    float64
+	}{{"Mach min", f.MachMin}, {"Mach max", f.MachMax}, {"speed min", f.SpeedMin}, {"speed max", f.SpeedMax},
+		{"p0 min", f.P0Min}, {"p0 max", f.P0Max}, {"T0 min", f.T0Min}, {"T0 max", f.T0Max}, {"q max", f.QMax},
+		{"minimum static temperature", f.MinStaticT}, {"peak local Mach", f.PeakLocalMach},
+		{"max unit Reynolds number", f.MaxReynoldsPerM}, {"model scale", f.Model.Scale}} {
+		if !isFiniteNum(x.v) || x.v < 0 {
+			return bad(x.name, x.v, "a finite, non-negative number")
+		}
+	}
+	if f.T0Max < f.T0Min {
+		return fmt.Errorf("T0 max %g K is below T0 min %g K", f.T0Max, f.T0Min)
+	}
+	switch f.Medium {
+	case MediumWater:
+		if !(f.SpeedMax > 0) || f.SpeedMin > f.SpeedMax {
+			return fmt.Errorf("speed range %g–%g m/s: want 0 ≤ min ≤ max, max > 0", f.SpeedMin, f.SpeedMax)
+		}
+		if f.T0Min < atmos.WaterMinTemperature || f.T0Max > atmos.WaterMaxTemperature {
+			return fmt.Errorf("water temperature range %g–%g K: want within %g–%g K",
+				f.T0Min, f.T0Max, atmos.WaterMinTemperature, atmos.WaterMaxTemperature)
+		}
+	case MediumAir, MediumNitrogen:
+		if !(f.MachMax > 0) || f.MachMin > f.MachMax {
+			return fmt.Errorf("Mach range %g–%g: want 0 ≤ min ≤ max, max > 0", f.MachMin, f.MachMax)
+		}
+		if !(f.P0Max > 0) || f.P0Min > f.P0Max {
+			return fmt.Errorf("p0 range %g–%g Pa: want 0 ≤ min ≤ max, max > 0", f.P0Min, f.P0Max)
+		}
+		if !(f.T0Min > 0) {
+			return bad("T0 min", f.T0Min, "a positive temperature in K")
+		}
+	default:
+		return fmt.Errorf("medium %d: want air, nitrogen or water", f.Medium)
+	}
+	return nil
+}
