@@ -35,7 +35,7 @@ type Gas interface {
 const MolarMassNitrogen = 28.0134e-3
 
 // Sutherland constants of air as defined by the U.S. Standard Atmosphere
-// 1976 (eq. 51): beta = 1.458e-6 kg/(m·s·K^0.5), S = 110.4 K.
+// 1976 (viscosity equation): beta = 1.458e-6 kg/(m·s·K^0.5), S = 110.4 K.
 const (
 	SutherlandBetaAir = 1.458e-6
 	SutherlandSAir    = 110.4

@@ -33,7 +33,7 @@ func TestGasConstants(t *testing.T) {
 		t.Errorf("Air() R, gamma = %v, %v, want RAir %v, 1.4", air.R(), air.Gamma(), RAir)
 	}
 	if b, s := air.Sutherland(); b != 1.458e-6 || s != 110.4 {
-		// U.S. Standard Atmosphere 1976, eq. 51 constants.
+		// U.S. Standard Atmosphere 1976, viscosity-equation constants.
 		t.Errorf("Air().Sutherland() = %v, %v, want 1.458e-6, 110.4", b, s)
 	}
 	// R of N2 = 8.31451 J/(mol·K) / 28.01348 g/mol = 296.80 J/(kg·K)
