@@ -44,7 +44,9 @@ func Knudsen(lambda, L float64) float64 {
 // The hard-sphere mean free path of the U.S. Standard Atmosphere 1976
 // (State.MeanFreePath, σ = 3.65e-10 m) is about 4 % larger than λμ at sea level
 // and the ratio varies with temperature as (T + S)/T through Sutherland's law,
-// so the two Knudsen forms agree to within about 20 % over 0–86 km.
+// so the two Knudsen forms agree to within about 20 % over 0–86 km. (Above
+// 80 km USSA 1976 takes the speed of sound from the molecular-scale
+// temperature, which adds a further 0.02 % at 86 km.)
 func KnudsenMachRe(M, Re, g float64) float64 {
 	return M / Re * math.Sqrt(g*math.Pi/2)
 }

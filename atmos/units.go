@@ -139,7 +139,7 @@ var unitTables = [numDimensions][]unitDef{
 		{name: "hPa", symbol: "hPa", scale: 100},
 		{name: "kPa", symbol: "kPa", scale: 1e3},
 		{name: "MPa", symbol: "MPa", exact: true, scale: 1e6},
-		{name: "mbar", symbol: "mbar", scale: 100},
+		{name: "mbar", symbol: "mbar", aliases: []string{"mb", "millibar"}, scale: 100},
 		{name: "bar", symbol: "bar", scale: Bar},
 		{name: "psi", symbol: "psi", aliases: []string{"psia", "lbf/in2"}, scale: PSI},
 		{name: "psf", symbol: "psf", aliases: []string{"psfa", "lbf/ft2", "lb/ft2"}, scale: PSF},
@@ -430,7 +430,7 @@ func checkSign(si float64, d Dimension) error {
 	switch d {
 	case Area, Speed, Pressure, Density:
 		if si < 0 {
-			return fmt.Errorf("a %s must not be negative: %w", d, ErrOutOfRange)
+			return fmt.Errorf("%s must not be negative: %w", d, ErrOutOfRange)
 		}
 	case Temperature:
 		if si < 0 {
