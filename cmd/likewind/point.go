@@ -1,0 +1,234 @@
+package main
+
+import (
+	"encoding/json"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"text/tabwriter"
+
+	"likewind/atmos"
+)
+
+// pointReport is the `point --json` record. The keys are part of the
+// command-line contract documented in README; all values are SI.
+type pointReport struct {
+	Altitude             float64 `json:"altitude_m"`
+	GeopotentialAltitude float64 `json:"geopotential_altitude_m"`
+	Temperature          float64 `json:"temperature_k"`
+	Pressure             float64 `json:"pressure_pa"`
+	Density              float64 `json:"density_kg_m3"`
+	SpeedOfSound         float64 `json:"speed_of_sound_m_s"`
+	Viscosity            float64 `json:"dynamic_viscosity_pa_s"`
+	KinematicViscosity   float64 `json:"kinematic_viscosity_m2_s"`
+	MeanFreePath         float64 `json:"mean_free_path_m"`
+	Mach                 float64 `json:"mach"`
+	TAS                  float64 `json:"tas_m_s"`
+	EAS                  float64 `json:"eas_m_s"`
+	CAS                  float64 `json:"cas_m_s"`
+	DynamicPressure      float64 `json:"dynamic_pressure_pa"`
+	Reynolds             float64 `json:"reynolds"`
+	ReynoldsPerM         float64 `json:"reynolds_per_m"`
+	Knudsen              float64 `json:"knudsen"`
+	Regime               string  `json:"regime"`
+	Continuum            bool    `json:"continuum"`
+}
+
+// usageError marks errors that come from bad flags or values (exit 2).
+type usageError struct{ err error }
+
+func (e usageError) Error() string { return e.err.Error() }
+func (e usageError) Unwrap() error { return e.err }
+
+func usagef(format string, a ...any) error { return usageError{fmt.Errorf(format, a...)} }
+
+// pointQuery is a parsed `point` command line.
+type pointQuery struct {
+	alt       float64
+	altKind   atmos.AltitudeKind
+	speed     float64
+	speedKind atmos.SpeedKind
+	length    float64
+	dT        float64
+	json      bool
+}
+
+func parsePointFlags(args []string, stderr io.Writer) (pointQuery, error) {
+	fs := flag.NewFlagSet("point", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	alt := fs.String("alt", "", "geometric altitude, e.g. 11km or 35000ft")
+	geo := fs.String("geopotential", "", "geopotential altitude instead of --alt")
+	palt := fs.String("pressure-alt", "", "pressure altitude instead of --alt")
+	mach := fs.String("mach", "", "flight Mach number, e.g. 0.8")
+	tas := fs.String("tas", "", "true airspeed with unit, e.g. 240m/s")
+	eas := fs.String("eas", "", "equivalent airspeed with unit, e.g. 150kt")
+	cas := fs.String("cas", "", "calibrated airspeed with unit, e.g. 250kt")
+	length := fs.String("length", "1 m", "reference length for Reynolds and Knudsen numbers")
+	dt := fs.String("dt", "0 K", "temperature offset from the standard day, e.g. 10K or -15degC")
+	asJSON := fs.Bool("json", false, "print one JSON object (SI units)")
+	fs.Usage = func() {
+		fmt.Fprintln(stderr, "usage: likewind point --alt H (--mach M | --tas V | --eas V | --cas V) [--length L] [--dt DT] [--json]")
+		fs.PrintDefaults()
+	}
+	if err := fs.Parse(args); err != nil {
+		if errors.Is(err, flag.ErrHelp) {
+			return pointQuery{}, err
+		}
+		return pointQuery{}, usageError{err}
+	}
+	if fs.NArg() > 0 {
+		return pointQuery{}, usagef("point: unexpected argument %q", fs.Arg(0))
+	}
+	q := pointQuery{json: *asJSON}
+
+	altFlags := []struct {
+		name, val string
+		kind      atmos.AltitudeKind
+	}{{"alt", *alt, atmos.Geometric}, {"geopotential", *geo, atmos.Geopotential}, {"pressure-alt", *palt, atmos.PressureAlt}}
+	n := 0
+	for _, f := range altFlags {
+		if f.val == "" {
+			continue
+		}
+		n++
+		v, err := atmos.ParseQuantity(f.val, atmos.Length)
+		if err != nil {
+			return q, usagef("point: --%s: %w", f.name, err)
+		}
+		q.alt, q.altKind = v, f.kind
+	}
+	if n != 1 {
+		return q, usagef("point: give exactly one of --alt, --geopotential or --pressure-alt")
+	}
+
+	speedFlags := []struct {
+		name, val string
+		kind      atmos.SpeedKind
+		dim       atmos.Dimension
+	}{{"mach", *mach, atmos.Mach, atmos.Dimensionless}, {"tas", *tas, atmos.TAS, atmos.Speed}, {"eas", *eas, atmos.EAS, atmos.Speed}, {"cas", *cas, atmos.CAS, atmos.Speed}}
+	n = 0
+	for _, f := range speedFlags {
+		if f.val == "" {
+			continue
+		}
+		n++
+		v, err := atmos.ParseQuantity(f.val, f.dim)
+		if err != nil {
+			return q, usagef("point: --%s: %w", f.name, err)
+		}
+		if v < 0 {
+			return q, usagef("point: --%s: %q is negative; expected a speed of zero or more", f.name, f.val)
+		}
+		q.speed, q.speedKind = v, f.kind
+	}
+	if n != 1 {
+		return q, usagef("point: give exactly one of --mach, --tas, --eas or --cas")
+	}
+
+	var err error
+	if q.length, err = atmos.ParseQuantity(*length, atmos.Length); err != nil {
+		return q, usagef("point: --length: %w", err)
+	}
+	if !(q.length > 0) {
+		return q, usagef("point: --length: %q must be greater than zero", *length)
+	}
+	if q.dT, err = atmos.ParseQuantity(*dt, atmos.TemperatureDelta); err != nil {
+		return q, usagef("point: --dt: %w", err)
+	}
+	return q, nil
+}
+
+// evaluatePoint computes the report for one flight condition.
+func evaluatePoint(q pointQuery) (pointReport, error) {
+	s, err := atmos.AtDay(q.alt, q.altKind, q.dT)
+	if err != nil {
+		return pointReport{}, usagef("point: %w", err)
+	}
+	sp, err := atmos.Speeds(q.speedKind, q.speed, s)
+	if err != nil {
+		return pointReport{}, usagef("point: %w", err)
+	}
+	reg := atmos.DefaultRegimes()
+	kn := atmos.Knudsen(s.MeanFreePath, q.length)
+	return pointReport{
+		Altitude:             s.Altitude,
+		GeopotentialAltitude: s.GeopotentialAltitude,
+		Temperature:          s.Temperature,
+		Pressure:             s.Pressure,
+		Density:              s.Density,
+		SpeedOfSound:         s.SpeedOfSound,
+		Viscosity:            s.Viscosity,
+		KinematicViscosity:   s.KinematicViscosity,
+		MeanFreePath:         s.MeanFreePath,
+		Mach:                 sp.Mach,
+		TAS:                  sp.TAS,
+		EAS:                  sp.EAS,
+		CAS:                  sp.CAS,
+		DynamicPressure:      atmos.DynamicPressure(s.Density, sp.TAS),
+		Reynolds:             atmos.Reynolds(s.Density, sp.TAS, q.length, s.Viscosity),
+		ReynoldsPerM:         atmos.ReynoldsPerMetre(s.Density, sp.TAS, s.Viscosity),
+		Knudsen:              kn,
+		Regime:               reg.Speed(sp.Mach).String(),
+		Continuum:            reg.Rarefaction(kn) == atmos.Continuum,
+	}, nil
+}
+
+func runPoint(args []string, stdout, stderr io.Writer) int {
+	q, err := parsePointFlags(args, stderr)
+	if errors.Is(err, flag.ErrHelp) {
+		return 0
+	}
+	if err != nil {
+		fmt.Fprintln(stderr, "likewind:", err)
+		return 2
+	}
+	r, err := evaluatePoint(q)
+	if err != nil {
+		fmt.Fprintln(stderr, "likewind:", err)
+		return 2
+	}
+	if q.json {
+		enc := json.NewEncoder(stdout)
+		enc.SetIndent("", "  ")
+		if err := enc.Encode(r); err != nil {
+			fmt.Fprintln(stderr, "likewind:", err)
+			return 1
+		}
+		return 0
+	}
+	writePointTable(stdout, q, r)
+	return 0
+}
+
+func writePointTable(w io.Writer, q pointQuery, r pointReport) {
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	row := func(name, si, cust string) { fmt.Fprintf(tw, "%s\t%s\t%s\n", name, si, cust) }
+	reg := atmos.DefaultRegimes()
+	day := "standard day"
+	if q.dT != 0 {
+		day = fmt.Sprintf("standard %+.1f K", q.dT)
+	}
+	fmt.Fprintf(w, "Flight condition (U.S. Standard Atmosphere 1976, %s, reference length %.4g m)\n\n", day, q.length)
+	row("quantity", "SI", "customary")
+	row("altitude (geometric)", fmt.Sprintf("%.1f m", r.Altitude), fmt.Sprintf("%.0f ft", r.Altitude/atmos.Foot))
+	row("altitude (geopotential)", fmt.Sprintf("%.1f m", r.GeopotentialAltitude), fmt.Sprintf("%.0f ft", r.GeopotentialAltitude/atmos.Foot))
+	row("static temperature", fmt.Sprintf("%.2f K", r.Temperature), fmt.Sprintf("%.1f degF", r.Temperature*9/5-459.67))
+	row("static pressure", fmt.Sprintf("%.1f Pa", r.Pressure), fmt.Sprintf("%.2f psf", r.Pressure/atmos.PSF))
+	row("density", fmt.Sprintf("%.5g kg/m3", r.Density), fmt.Sprintf("%.5g slug/ft3", r.Density/515.378818))
+	row("speed of sound", fmt.Sprintf("%.2f m/s", r.SpeedOfSound), fmt.Sprintf("%.1f kt", r.SpeedOfSound/atmos.Knot))
+	row("dynamic viscosity", fmt.Sprintf("%.5g Pa s", r.Viscosity), "")
+	row("kinematic viscosity", fmt.Sprintf("%.5g m2/s", r.KinematicViscosity), fmt.Sprintf("%.5g ft2/s", r.KinematicViscosity/(atmos.Foot*atmos.Foot)))
+	row("mean free path", fmt.Sprintf("%.4g m", r.MeanFreePath), "")
+	row("Mach number", fmt.Sprintf("%.4f", r.Mach), "")
+	row("TAS", fmt.Sprintf("%.2f m/s", r.TAS), fmt.Sprintf("%.1f kt", r.TAS/atmos.Knot))
+	row("EAS", fmt.Sprintf("%.2f m/s", r.EAS), fmt.Sprintf("%.1f kt", r.EAS/atmos.Knot))
+	row("CAS", fmt.Sprintf("%.2f m/s", r.CAS), fmt.Sprintf("%.1f kt", r.CAS/atmos.Knot))
+	row("dynamic pressure", fmt.Sprintf("%.1f Pa", r.DynamicPressure), fmt.Sprintf("%.1f psf", r.DynamicPressure/atmos.PSF))
+	row("Reynolds number", fmt.Sprintf("%.4g", r.Reynolds), "")
+	row("Reynolds number per metre", fmt.Sprintf("%.4g 1/m", r.ReynoldsPerM), fmt.Sprintf("%.4g 1/ft", r.ReynoldsPerM*atmos.Foot))
+	row("Knudsen number", fmt.Sprintf("%.3g", r.Knudsen), "")
+	row("speed regime", r.Regime, "")
+	row("rarefaction regime", reg.Rarefaction(r.Knudsen).String(), "")
+	tw.Flush()
+}

@@ -1,0 +1,121 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"math"
+	"sort"
+	"strings"
+	"testing"
+)
+
+// pointKeys are the keys `point --json` must print, exactly (README).
+var pointKeys = []string{
+	"altitude_m", "geopotential_altitude_m", "temperature_k", "pressure_pa", "density_kg_m3",
+	"speed_of_sound_m_s", "dynamic_viscosity_pa_s", "kinematic_viscosity_m2_s", "mean_free_path_m",
+	"mach", "tas_m_s", "eas_m_s", "cas_m_s", "dynamic_pressure_pa", "reynolds", "reynolds_per_m",
+	"knudsen", "regime", "continuum",
+}
+
+func runCmd(args ...string) (code int, stdout, stderr string) {
+	var out, errb bytes.Buffer
+	code = run(args, strings.NewReader(""), &out, &errb)
+	return code, out.String(), errb.String()
+}
+
+func TestPointJSONKeysAndValues(t *testing.T) {
+	code, out, errs := runCmd("point", "--alt", "11km", "--mach", "0.8", "--length", "3.5m", "--json")
+	if code != 0 {
+		t.Fatalf("point exit = %d, want 0; stderr: %s", code, errs)
+	}
+	var m map[string]any
+	if err := json.Unmarshal([]byte(out), &m); err != nil {
+		t.Fatalf("point --json output is not JSON: %v\n%s", err, out)
+	}
+	var got []string
+	for k := range m {
+		got = append(got, k)
+	}
+	sort.Strings(got)
+	want := append([]string(nil), pointKeys...)
+	sort.Strings(want)
+	if strings.Join(got, ",") != strings.Join(want, ",") {
+		t.Errorf("point --json keys = %v, want %v", got, want)
+	}
+
+	// Reference values: U.S. Standard Atmosphere 1976, Table I, at 11 000 m
+	// geometric: T = 216.774 K, p = 2.2700e4 Pa, rho = 0.36480 kg/m3,
+	// a = 295.154 m/s (tables printed to 5–6 significant digits).
+	const rel = 2e-4
+	checks := []struct {
+		key  string
+		want float64
+	}{
+		{"temperature_k", 216.774},
+		{"pressure_pa", 22700},
+		{"density_kg_m3", 0.36480},
+		{"speed_of_sound_m_s", 295.154},
+		{"mach", 0.8},
+		// TAS = M·a, q = ½γpM² (definitions).
+		{"tas_m_s", 0.8 * 295.154},
+		{"dynamic_pressure_pa", 0.5 * 1.4 * 22700 * 0.64},
+	}
+	for _, c := range checks {
+		v, ok := m[c.key].(float64)
+		if !ok {
+			t.Errorf("point --json %s = %v, want a number", c.key, m[c.key])
+			continue
+		}
+		if math.Abs(v-c.want) > rel*math.Abs(c.want) {
+			t.Errorf("point --json %s = %g, want %g", c.key, v, c.want)
+		}
+	}
+	re, rePerM := m["reynolds"].(float64), m["reynolds_per_m"].(float64)
+	if math.Abs(re-3.5*rePerM) > 1e-9*re {
+		t.Errorf("reynolds = %g, want 3.5 m × reynolds_per_m = %g", re, 3.5*rePerM)
+	}
+	if m["regime"] != "transonic" {
+		t.Errorf("regime = %v, want transonic (M 0.8 is the lower transonic bound, common practice)", m["regime"])
+	}
+	if m["continuum"] != true {
+		t.Errorf("continuum = %v, want true at 11 km with a 3.5 m length", m["continuum"])
+	}
+}
+
+func TestPointTable(t *testing.T) {
+	code, out, errs := runCmd("point", "--alt", "35000ft", "--cas", "250kt", "--dt", "10K")
+	if code != 0 {
+		t.Fatalf("point exit = %d, want 0; stderr: %s", code, errs)
+	}
+	for _, want := range []string{"Mach number", "Reynolds number per metre", "Knudsen number", "standard +10.0 K"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("point table lacks %q:\n%s", want, out)
+		}
+	}
+}
+
+func TestPointBadInputExits2(t *testing.T) {
+	cases := []struct {
+		name string
+		args []string
+		want string // part of the message
+	}{
+		{"no altitude", []string{"point", "--mach", "0.8"}, "--alt"},
+		{"no speed", []string{"point", "--alt", "11km"}, "--mach"},
+		{"two speeds", []string{"point", "--alt", "11km", "--mach", "0.8", "--tas", "200m/s"}, "exactly one"},
+		{"bad unit", []string{"point", "--alt", "11 furlongs", "--mach", "0.8"}, "--alt"},
+		{"too high", []string{"point", "--alt", "90km", "--mach", "0.8"}, "point"},
+		{"unknown flag", []string{"point", "--speed", "3"}, "speed"},
+		{"zero length", []string{"point", "--alt", "1km", "--mach", "0.5", "--length", "0m"}, "--length"},
+		{"negative speed", []string{"point", "--alt", "1km", "--tas", "-5m/s"}, "negative"},
+	}
+	for _, c := range cases {
+		code, _, errs := runCmd(c.args...)
+		if code != 2 {
+			t.Errorf("%s: exit = %d, want 2 (stderr %q)", c.name, code, errs)
+		}
+		if !strings.Contains(errs, c.want) {
+			t.Errorf("%s: stderr = %q, want it to mention %q", c.name, errs, c.want)
+		}
+	}
+}
