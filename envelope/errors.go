@@ -218,11 +218,17 @@ func (s *lineScanner) header() {
 		s.i++
 	}
 	keys := s.key()
-	path := s.resolve(keys)
+	var path string
 	if isArray {
+		path = joinPath(s.resolve(keys[:len(keys)-1]), keys[len(keys)-1])
+		if _, ok := s.idx[path]; !ok {
+			s.idx[path] = line
+		}
 		n := s.arrays[path]
 		s.arrays[path] = n + 1
 		path += "[" + strconv.Itoa(n) + "]"
+	} else {
+		path = s.resolve(keys)
 	}
 	s.table = path
 	if _, ok := s.idx[path]; !ok {

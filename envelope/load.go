@@ -327,11 +327,47 @@ func (t *table) finish() {
 		if t.path == "" {
 			exp = "only the tables " + strings.Join(t.allowed, ", ")
 		}
+		if near := nearest(k, t.allowed); near != "" {
+			exp = fmt.Sprintf("%q, or %s", near, exp)
+		}
 		if t.hint != "" {
 			exp += " (" + t.hint + ")"
 		}
 		t.d.fail(p, display(p), "unknown key "+strconv.Quote(k), exp)
 	}
+}
+
+// nearest returns the allowed key closest to a misspelt one, or "" when
+// none is within two edits.
+func nearest(key string, allowed []string) string {
+	best, bestD := "", 3
+	for _, a := range allowed {
+		if d := editDistance(strings.ToLower(key), a); d < bestD {
+			best, bestD = a, d
+		}
+	}
+	return best
+}
+
+// editDistance is the Levenshtein distance between two short strings.
+func editDistance(a, b string) int {
+	prev := make([]int, len(b)+1)
+	cur := make([]int, len(b)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(a); i++ {
+		cur[0] = i
+		for j := 1; j <= len(b); j++ {
+			cost := 1
+			if a[i-1] == b[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+		}
+		prev, cur = cur, prev
+	}
+	return prev[len(b)]
 }
 
 func contains(list []string, s string) bool {
@@ -433,13 +469,13 @@ func (u unit) expect() string {
 	case u.perLength:
 		return `a unit Reynolds number per metre or per foot, e.g. "30e6 /m" or "9e6 /ft"`
 	case u.ratio:
-		return fmt.Sprintf(`a number, fraction or percentage, e.g. "0.025", "1/40" or %q`, u.example)
+		return fmt.Sprintf(`a number, fraction or percentage, e.g. "0.025", "1/40" or "2.5 %%"`)
 	case u.mach:
 		return fmt.Sprintf(`a Mach number, e.g. %q`, u.example)
 	case u.dim == atmos.Dimensionless:
 		return fmt.Sprintf(`a number, e.g. %q`, u.example)
 	}
-	return fmt.Sprintf("a %s with its unit, e.g. %q (units: %s)", u.dim, u.example, strings.Join(atmos.UnitsFor(u.dim), ", "))
+	return fmt.Sprintf("a%s %s with its unit, e.g. %q (units: %s)", article(u.dim.String()), u.dim, u.example, strings.Join(atmos.UnitsFor(u.dim), ", "))
 }
 
 // qty is a number read from the file, with where it came from.
@@ -763,8 +799,13 @@ func (d *doc) boundary(et *table, v *Vehicle, kindsOK bool) bool {
 		}
 		// The speed must mean something at this altitude (a CAS beyond
 		// what the standard atmosphere allows does not).
-		if _, err := convertSpeed(v, alt.v, v.BoundaryKind, sp.v, atmos.Mach); err != nil {
-			d.fail(ep, field, describe(el), fmt.Sprintf("a %s that exists at this altitude on the design day (%v)", v.BoundaryKind, err))
+		if m, err := convertSpeed(v, alt.v, v.BoundaryKind, sp.v, atmos.Mach); err != nil || m > maxMach {
+			why := fmt.Sprintf("Mach %.3g", m)
+			if err != nil {
+				why = err.Error()
+			}
+			d.fail(ep, field, fmt.Sprintf("%s (%s)", describe(el), why),
+				fmt.Sprintf("a %s that exists at this altitude on the design day, at most Mach %g", v.BoundaryKind, maxMach))
 			good = false
 			continue
 		}
@@ -1223,4 +1264,172 @@ func article(word string) string {
 		return "n"
 	}
 	return ""
+}
+
+// MarshalVehicle writes v in the vehicle file format, every quantity in SI
+// units at full precision, so that ParseVehicle gives back the same vehicle
+// (apart from Source). Limits that are not set are left out; the grid is
+// written as loaded, with its defaults filled in.
+func MarshalVehicle(v *Vehicle) []byte {
+	var b strings.Builder
+	b.WriteString("# likewind vehicle file (SI units; see docs/FORMAT.md)\n\n[vehicle]\n")
+	kv(&b, "name", tomlQuote(v.Name))
+	kv(&b, "reference_length", si(v.RefLength, "m"))
+	kv(&b, "reference_length_is", tomlQuote(v.RefLengthName))
+	kv(&b, "reference_area", si(v.RefArea, "m2"))
+	kv(&b, "span", si(v.Span, "m"))
+	kv(&b, "frontal_area", si(v.FrontalArea, "m2"))
+
+	b.WriteString("\n[envelope]\n")
+	kv(&b, "speed_kind", tomlQuote(v.BoundaryKind.String()))
+	kv(&b, "altitude_kind", tomlQuote(v.AltitudeKind.String()))
+	kv(&b, "temperature_offset", si(v.DeltaT, "K"))
+	b.WriteString("boundary = [\n")
+	for _, w := range v.Boundary {
+		fmt.Fprintf(&b, "  [%s, %s],\n", si(w.Altitude, "m"), speedText(w.Speed, v.BoundaryKind))
+	}
+	b.WriteString("]\n")
+
+	l := v.Limits
+	if l != (Limits{}) {
+		b.WriteString("\n[limits]\n")
+		if l.Ceiling != 0 {
+			kv(&b, "ceiling", si(l.Ceiling, "m"))
+		}
+		if l.MaxMach != 0 {
+			kv(&b, "max_mach", si(l.MaxMach, ""))
+		}
+		if l.MaxEAS != 0 {
+			kv(&b, "max_eas", si(l.MaxEAS, "m/s"))
+		}
+		if l.MaxCAS != 0 {
+			kv(&b, "max_cas", si(l.MaxCAS, "m/s"))
+		}
+		if l.MaxQ != 0 {
+			kv(&b, "max_dynamic_pressure", si(l.MaxQ, "Pa"))
+		}
+		if l.MinSpeed != 0 {
+			if l.MinSpeedKind == atmos.Mach {
+				kv(&b, "min_speed", tomlQuote("M"+num(l.MinSpeed)))
+			} else {
+				kv(&b, "min_speed", tomlQuote(num(l.MinSpeed)+" m/s "+l.MinSpeedKind.String()))
+			}
+		}
+	}
+
+	b.WriteString("\n[grid]\n")
+	kv(&b, "speed_kind", tomlQuote(v.Grid.SpeedKind.String()))
+	writeAxis(&b, "altitude", v.Grid.Altitude, "m")
+	su := "m/s"
+	if v.Grid.SpeedKind == atmos.Mach {
+		su = ""
+	}
+	writeAxis(&b, "speed", v.Grid.Speed, su)
+	return []byte(b.String())
+}
+
+func writeAxis(b *strings.Builder, name string, a Axis, u string) {
+	fmt.Fprintf(b, "\n[grid.%s]\n", name)
+	kv(b, "from", si(a.Min, u))
+	kv(b, "to", si(a.Max, u))
+	if a.Step > 0 {
+		kv(b, "step", si(a.Step, u))
+	} else if a.Count > 0 {
+		kv(b, "count", strconv.Itoa(a.Count))
+	}
+}
+
+// MarshalFacilities writes facilities in the facility file format, every
+// quantity in SI units at full precision, so that ParseFacilities gives
+// back the same facilities (apart from Source).
+func MarshalFacilities(fs []Facility) []byte {
+	var b strings.Builder
+	b.WriteString("# likewind facility file (SI units; see docs/FORMAT.md)\n")
+	for _, f := range fs {
+		b.WriteString("\n[[facility]]\n")
+		kv(&b, "name", tomlQuote(f.Name))
+		if f.Class != "" {
+			kv(&b, "class", tomlQuote(f.Class))
+		}
+		kv(&b, "medium", tomlQuote(f.Medium.String()))
+		if f.Medium.IsGas() {
+			kv(&b, "mach_range", rangeText(f.MachMin, f.MachMax, ""))
+			kv(&b, "stagnation_pressure_range", rangeText(f.P0Min, f.P0Max, "Pa"))
+			kv(&b, "stagnation_temperature_range", rangeText(f.T0Min, f.T0Max, "K"))
+			if f.MinStaticT != 0 {
+				kv(&b, "min_static_temperature", si(f.MinStaticT, "K"))
+			}
+			kv(&b, "condensation_check", strconv.FormatBool(f.Condensation))
+			kv(&b, "peak_local_mach", si(f.PeakLocalMach, ""))
+		} else {
+			kv(&b, "speed_range", rangeText(f.SpeedMin, f.SpeedMax, "m/s"))
+			kv(&b, "static_pressure_range", rangeText(f.P0Min, f.P0Max, "Pa"))
+			kv(&b, "water_temperature_range", rangeText(f.T0Min, f.T0Max, "K"))
+		}
+		if f.QMax != 0 {
+			kv(&b, "max_dynamic_pressure", si(f.QMax, "Pa"))
+		}
+		if f.MaxReynoldsPerM != 0 {
+			kv(&b, "max_reynolds_per_metre", tomlQuote(num(f.MaxReynoldsPerM)+" /m"))
+		}
+		kv(&b, "section_width", si(f.Width, "m"))
+		kv(&b, "section_height", si(f.Height, "m"))
+		b.WriteString("\n[facility.model]\n")
+		if f.Model.Scale != 0 {
+			kv(&b, "scale", si(f.Model.Scale, ""))
+		}
+		kv(&b, "max_span_fraction", si(f.Model.MaxSpanFraction, ""))
+		if f.Model.MaxBlockage != 0 {
+			kv(&b, "max_blockage", si(f.Model.MaxBlockage, ""))
+		}
+	}
+	return []byte(b.String())
+}
+
+func kv(b *strings.Builder, key, value string) {
+	b.WriteString(key)
+	b.WriteString(" = ")
+	b.WriteString(value)
+	b.WriteByte('\n')
+}
+
+// num writes x with the fewest digits that read back exactly.
+func num(x float64) string { return strconv.FormatFloat(x, 'g', -1, 64) }
+
+// si writes a quoted quantity in unit u ("" for pure numbers).
+func si(x float64, u string) string {
+	if u == "" {
+		return tomlQuote(num(x))
+	}
+	return tomlQuote(num(x) + " " + u)
+}
+
+func speedText(x float64, k atmos.SpeedKind) string {
+	if k == atmos.Mach {
+		return si(x, "")
+	}
+	return si(x, "m/s")
+}
+
+func rangeText(lo, hi float64, u string) string {
+	return "[" + si(lo, u) + ", " + si(hi, u) + "]"
+}
+
+// tomlQuote writes s as a TOML basic string.
+func tomlQuote(s string) string {
+	var b strings.Builder
+	b.WriteByte('"')
+	for _, r := range s {
+		switch {
+		case r == '"' || r == '\\':
+			b.WriteByte('\\')
+			b.WriteRune(r)
+		case r < 0x20 || r == 0x7f:
+			fmt.Fprintf(&b, `\u%04X`, r)
+		default:
+			b.WriteRune(r)
+		}
+	}
+	b.WriteByte('"')
+	return b.String()
 }
