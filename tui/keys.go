@@ -28,11 +28,15 @@ type KeyMap struct {
 	Quit key.Binding
 
 	// Keys inside lists, the input line and the quit question.
+	Prev    key.Binding
+	Next    key.Binding
 	Select  key.Binding
 	Back    key.Binding
 	Yes     key.Binding
 	No      key.Binding
 	SaveYes key.Binding
+	// Interrupt quits (asking first) even from the input line.
+	Interrupt key.Binding
 
 	// Editing keys of the input line; typed characters are inserted.
 	InputLeft, InputRight, InputHome, InputEnd key.Binding
@@ -67,11 +71,14 @@ func DefaultKeyMap() KeyMap {
 		Save:      b([]string{"s", "ctrl+s"}, "s", "save session"),
 		Help:      b([]string{"?"}, "?", "help"),
 		Quit:      b([]string{"q", "ctrl+c"}, "q", "quit"),
+		Prev:      b([]string{"up", "k"}, "↑/k", "previous"),
+		Next:      b([]string{"down", "j"}, "↓/j", "next"),
 		Select:    b([]string{"enter"}, "enter", "choose/apply"),
 		Back:      b([]string{"esc"}, "esc", "back"),
 		Yes:       b([]string{"y"}, "y", "quit without saving"),
 		No:        b([]string{"n", "esc"}, "n/esc", "stay"),
 		SaveYes:   b([]string{"s"}, "s", "save and quit"),
+		Interrupt: b([]string{"ctrl+c"}, "ctrl+c", "quit"),
 
 		InputLeft:      b([]string{"left", "ctrl+b"}, "←", "cursor left"),
 		InputRight:     b([]string{"right", "ctrl+f"}, "→", "cursor right"),
@@ -103,7 +110,7 @@ func (k KeyMap) FullHelp() [][]key.Binding {
 type listKeys struct{ k *KeyMap }
 
 func (l listKeys) ShortHelp() []key.Binding {
-	return []key.Binding{l.k.Up, l.k.Down, l.k.Select, l.k.Restore, l.k.Back}
+	return []key.Binding{l.k.Prev, l.k.Next, l.k.Select, l.k.Restore, l.k.Back}
 }
 func (l listKeys) FullHelp() [][]key.Binding { return [][]key.Binding{l.ShortHelp()} }
 

@@ -236,11 +236,16 @@ type LegendEntry struct {
 }
 
 // Legend lists every glyph the layer can draw, with labels completed from
-// the Reynolds tolerance reTol, followed by the outside-envelope glyph.
-func Legend(l Layer, reTol float64) []LegendEntry {
+// the Reynolds tolerance reTol, followed by the outside-envelope and
+// test-point glyphs. The "no facility" class appears only when noFacility
+// is set (no facility loaded or solved).
+func Legend(l Layer, reTol float64, noFacility bool) []LegendEntry {
 	t := layerTable(l)
 	out := make([]LegendEntry, 0, len(t)+2)
 	for k, d := range t {
+		if l == LayerClass && k == lvClassNoFacility && !noFacility {
+			continue
+		}
 		label := d.label
 		if l == LayerReynolds {
 			lo, hi := 1-reTol, 1+reTol

@@ -325,15 +325,24 @@ func padRight(s string, n int) string {
 	return s + strings.Repeat(" ", n-w)
 }
 
+// LegendInput is what RenderLegend draws: the layer's glyphs and, in
+// best-of-all mode, the facility letters.
+type LegendInput struct {
+	Layer      Layer
+	ReTol      float64  // Reynolds tolerance, for the Reynolds-ratio labels
+	NoFacility bool     // show the "no facility" class
+	Tags       []string // "a Name" entries for facility letters
+}
+
 // RenderLegend lists every glyph of the layer with its meaning, wrapped to
-// width. tags, if any, are appended as "letter facility" entries for the
-// best-of-all mode.
-func RenderLegend(l Layer, reTol float64, tags []string, st Styles, width int) string {
+// width, followed by the facility letters if any.
+func RenderLegend(in LegendInput, st Styles, width int) string {
 	if width <= 0 {
 		return ""
 	}
+	l := in.Layer
 	var items []string
-	for _, e := range Legend(l, reTol) {
+	for _, e := range Legend(l, in.ReTol, in.NoFacility) {
 		var g string
 		switch {
 		case e.Level >= 0:
@@ -345,8 +354,7 @@ func RenderLegend(l Layer, reTol float64, tags []string, st Styles, width int) s
 		}
 		items = append(items, g+" "+e.Label)
 	}
-	items = append(items, "[ ] cursor")
-	items = append(items, tags...)
+	items = append(items, in.Tags...)
 	return wrapItems(l.String()+":", items, "  ", width)
 }
 

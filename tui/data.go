@@ -1,0 +1,220 @@
+package tui
+
+import (
+	"fmt"
+
+	"likewind/atmos"
+	"likewind/envelope"
+)
+
+// results is one complete evaluation: the flight grid, one map per
+// facility (same order as the facilities), and the best facility per
+// point. It is replaced as a whole, never changed in place, so a view of
+// an older results stays consistent while a recompute runs.
+type results struct {
+	grid    *envelope.Grid
+	maps    []*envelope.Map
+	best    []int // facility index per point, -1 outside
+	bestRes []envelope.Result
+	full    []float64 // full-match share of inside points, per facility
+	matched []float64 // full match or Mach relaxed, per facility
+	union   float64   // share of inside points some facility matches
+	errs    []error   // per facility: why it has no map (nil map)
+}
+
+// computeGrid evaluates the flight side and every facility.
+func computeGrid(v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings) (results, error) {
+	g, err := envelope.NewGrid(v, s)
+	if err != nil {
+		return results{}, err
+	}
+	return solveAll(g, facs, s)
+}
+
+// solveAll solves every facility on an existing grid.
+func solveAll(g *envelope.Grid, facs []envelope.Facility, s envelope.Settings) (results, error) {
+	r := results{grid: g, maps: make([]*envelope.Map, len(facs)), errs: make([]error, len(facs))}
+	for k := range facs {
+		m, err := envelope.Solve(g, &facs[k], s)
+		if err != nil {
+			// One facility that cannot be solved (no model scale, say)
+			// leaves the others usable.
+			r.errs[k] = err
+			continue
+		}
+		r.maps[k] = m
+	}
+	r.summarise()
+	return r, nil
+}
+
+// solveOne re-solves facility k only, keeping the other maps of prev.
+func solveOne(prev results, facs []envelope.Facility, s envelope.Settings, k int) (results, error) {
+	if prev.grid == nil || k < 0 || k >= len(facs) || len(prev.maps) != len(facs) {
+		return solveAll(prev.grid, facs, s)
+	}
+	m, err := envelope.Solve(prev.grid, &facs[k], s)
+	if err != nil {
+		return results{}, fmt.Errorf("%s: %w", facs[k].Name, err)
+	}
+	r := results{
+		grid: prev.grid,
+		maps: append([]*envelope.Map(nil), prev.maps...),
+		errs: append([]error(nil), prev.errs...),
+	}
+	r.maps[k] = m
+	r.errs[k] = nil
+	r.summarise()
+	return r, nil
+}
+
+// summarise fills the best-of-all arrays and the coverage shares.
+func (r *results) summarise() {
+	if r.grid == nil {
+		return
+	}
+	r.full = make([]float64, len(r.maps))
+	r.matched = make([]float64, len(r.maps))
+	var solved []*envelope.Map
+	var index []int
+	for k, m := range r.maps {
+		if m == nil {
+			continue
+		}
+		sh := m.Shares()
+		r.full[k] = sh.Share(envelope.FullMatch)
+		r.matched[k] = sh.Matched()
+		solved = append(solved, m)
+		index = append(index, k)
+	}
+	if len(solved) == 0 {
+		return
+	}
+	best, bestRes := envelope.Best(solved)
+	for p, b := range best {
+		if b >= 0 {
+			best[p] = index[b]
+		}
+	}
+	r.best, r.bestRes = best, bestRes
+	var n, inside int
+	for _, res := range bestRes {
+		if res.Class != envelope.Outside {
+			inside++
+		}
+		if res.Class.Matched() {
+			n++
+		}
+	}
+	if inside > 0 {
+		r.union = float64(n) / float64(inside)
+	}
+}
+
+// result returns the facility answer at (i, j) for facility fac (-1 =
+// best of all) and the index of the facility that gave it (-1 if none).
+func (r *results) result(fac, i, j int) (envelope.Result, int) {
+	if r.grid == nil || i < 0 || j < 0 || i >= r.grid.Rows() || j >= r.grid.Cols() {
+		return envelope.Result{}, -1
+	}
+	idx := r.grid.Index(i, j)
+	if fac < 0 {
+		if idx >= len(r.best) {
+			return envelope.Result{}, -1
+		}
+		return r.bestRes[idx], r.best[idx]
+	}
+	if fac >= len(r.maps) || r.maps[fac] == nil {
+		return envelope.Result{}, -1
+	}
+	return r.maps[fac].At(i, j), fac
+}
+
+// classLevel maps a match class onto the class layer's levels.
+func classLevel(c envelope.Class) int {
+	switch c {
+	case envelope.FullMatch:
+		return lvClassFull
+	case envelope.ReShort:
+		return lvClassReShort
+	case envelope.MachRelaxed:
+		return lvClassMachRelaxed
+	}
+	return lvClassNoMatch
+}
+
+// regimeLevel maps flight regimes onto the regime layer: the speed regime
+// in continuum flow, the rarefaction regime otherwise.
+func regimeLevel(sp atmos.SpeedRegime, ra atmos.RarefactionRegime) int {
+	switch ra {
+	case atmos.Slip:
+		return lvRegSlip
+	case atmos.Transitional:
+		return lvRegTransitional
+	case atmos.FreeMolecular:
+		return lvRegFreeMolecular
+	}
+	switch sp {
+	case atmos.Incompressible:
+		return lvRegIncompressible
+	case atmos.Subsonic:
+		return lvRegSubsonic
+	case atmos.Transonic:
+		return lvRegTransonic
+	case atmos.Supersonic:
+		return lvRegSupersonic
+	}
+	return lvRegHypersonic
+}
+
+// cellAt computes the cell of layer l at (i, j).
+func (r *results) cellAt(l Layer, fac int, facs []envelope.Facility, reTol float64, i, j int) Cell {
+	c := Cell{Inside: r.grid.Inside(i, j)}
+	if !c.Inside {
+		return c
+	}
+	switch l {
+	case LayerRegime:
+		f := r.grid.Flight(i, j)
+		c.Level = regimeLevel(f.Speed, f.Rarefaction)
+		return c
+	case LayerMach:
+		c.Level = MachLevel(float64(r.grid.Flight(i, j).Mach))
+		return c
+	}
+	res, k := r.result(fac, i, j)
+	if k < 0 {
+		c.Level = lvClassNoFacility
+		if l == LayerReynolds {
+			c.Level = lvReNone
+		} else if l == LayerQ {
+			c.Level = lvQNone
+		}
+		return c
+	}
+	if fac < 0 && res.Class != envelope.NoMatch {
+		c.Tag = facilityTag(k)
+	}
+	switch l {
+	case LayerClass:
+		c.Level = classLevel(res.Class)
+	case LayerReynolds:
+		c.Level = ReynoldsLevel(float64(res.ReRatio), reTol)
+	case LayerQ:
+		qMax := 0.0
+		if k >= 0 && k < len(facs) {
+			qMax = facs[k].QMax
+		}
+		c.Level = QLevel(float64(res.Q), qMax)
+	}
+	return c
+}
+
+// facilityTag is the letter of facility k in best-of-all mode.
+func facilityTag(k int) byte {
+	const tags = "abcdefghijklmnopqrstuvwxyz"
+	if k < 0 {
+		return 0
+	}
+	return tags[k%len(tags)]
+}

@@ -1,0 +1,208 @@
+package tui
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+)
+
+// Session returns the state worth keeping: what-if values changed from the
+// files, marks, the chosen facility, layer, units and cursor.
+func (m Model) Session() Session {
+	s := Session{
+		Version: SessionVersion,
+		Inputs:  append([]string(nil), m.inputs...),
+		Hash:    m.hash,
+		Layer:   m.layer.String(),
+		Units:   m.units.String(),
+	}
+	if m.fac >= 0 && m.fac < len(m.facs) {
+		s.Facility = m.facs[m.fac].Name
+	} else {
+		s.BestOfAll = true
+	}
+	ptr := func(v float64) *float64 { return &v }
+	set, file := m.set, m.fileSet
+	if set.Scale != file.Scale {
+		s.WhatIf.Scale = ptr(set.Scale)
+	}
+	if set.DeltaT != file.DeltaT {
+		s.WhatIf.DeltaT = ptr(set.DeltaT)
+	}
+	if set.MachTol != file.MachTol {
+		s.WhatIf.MachTol = ptr(set.MachTol)
+	}
+	if set.ReTol != file.ReTol {
+		s.WhatIf.ReTol = ptr(set.ReTol)
+	}
+	if set.CompressibilityMach != file.CompressibilityMach {
+		s.WhatIf.CompressibilityMach = ptr(set.CompressibilityMach)
+	}
+	for k := range m.facs {
+		if k >= len(m.fileFacs) {
+			break
+		}
+		now, was := m.facs[k], m.fileFacs[k]
+		var fw FacilityWhatIf
+		if now.P0Max != was.P0Max {
+			fw.P0Max = ptr(now.P0Max)
+		}
+		if now.T0Min != was.T0Min {
+			fw.T0Min = ptr(now.T0Min)
+		}
+		if now.QMax != was.QMax {
+			fw.QMax = ptr(now.QMax)
+		}
+		if !fw.empty() {
+			if s.WhatIf.Facilities == nil {
+				s.WhatIf.Facilities = map[string]FacilityWhatIf{}
+			}
+			s.WhatIf.Facilities[now.Name] = fw
+		}
+	}
+	g := m.res.grid
+	if g != nil && g.Cols() > 0 {
+		idx := make([]int, 0, len(m.marks))
+		for k, on := range m.marks {
+			if on {
+				idx = append(idx, k)
+			}
+		}
+		sort.Ints(idx)
+		for _, k := range idx {
+			i, j := k/g.Cols(), k%g.Cols()
+			if i < g.Rows() {
+				s.Marks = append(s.Marks, Point{Altitude: g.Alts[i], Speed: g.Speeds[j]})
+			}
+		}
+		if m.curI < g.Rows() && m.curJ < g.Cols() {
+			s.Cursor = &Point{Altitude: g.Alts[m.curI], Speed: g.Speeds[m.curJ]}
+		}
+	}
+	return s
+}
+
+// applySession takes over the session's choices and what-if values (before
+// the first evaluation). It returns a status message.
+func (m *Model) applySession(s Session) string {
+	var notes []string
+	if l, err := ParseLayer(s.Layer); err == nil {
+		m.layer = l
+	} else if s.Layer != "" {
+		notes = append(notes, err.Error())
+	}
+	if u, err := ParseUnits(s.Units); err == nil {
+		m.units = u
+	} else {
+		notes = append(notes, err.Error())
+	}
+	if s.BestOfAll || len(m.facs) == 0 {
+		m.fac = -1
+	} else if k := m.facilityIndex(s.Facility); k >= 0 {
+		m.fac, m.lastFac = k, k
+	} else {
+		notes = append(notes, fmt.Sprintf("facility %q not found", s.Facility))
+	}
+	w := s.WhatIf
+	set := func(dst *float64, v *float64) {
+		if v != nil && !math.IsNaN(*v) && !math.IsInf(*v, 0) {
+			*dst = *v
+		}
+	}
+	set(&m.set.Scale, w.Scale)
+	set(&m.set.DeltaT, w.DeltaT)
+	set(&m.set.MachTol, w.MachTol)
+	set(&m.set.ReTol, w.ReTol)
+	if w.CompressibilityMach != nil {
+		set(&m.set.CompressibilityMach, w.CompressibilityMach)
+		m.set.Regimes.Incompressible = m.set.CompressibilityMach
+	}
+	names := make([]string, 0, len(w.Facilities))
+	for n := range w.Facilities {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	for _, name := range names {
+		k := m.facilityIndex(name)
+		if k < 0 {
+			notes = append(notes, fmt.Sprintf("what-if for unknown facility %q ignored", name))
+			continue
+		}
+		fw := w.Facilities[name]
+		set(&m.facs[k].P0Max, fw.P0Max)
+		set(&m.facs[k].T0Min, fw.T0Min)
+		set(&m.facs[k].QMax, fw.QMax)
+	}
+	msg := "session restored"
+	if len(notes) > 0 {
+		msg += "; " + strings.Join(notes, "; ")
+	}
+	return msg
+}
+
+func (m *Model) facilityIndex(name string) int {
+	for k, f := range m.facs {
+		if f.Name == name {
+			return k
+		}
+	}
+	return -1
+}
+
+// restoreSessionPoints puts back marks and the cursor on the evaluated
+// grid, matching each point to the grid point within half a step.
+func (m *Model) restoreSessionPoints(s Session) {
+	g := m.res.grid
+	if g == nil {
+		return
+	}
+	lost := 0
+	marks := map[int]bool{}
+	for _, p := range s.Marks {
+		i, ok1 := nearestIndex(g.Alts, p.Altitude)
+		j, ok2 := nearestIndex(g.Speeds, p.Speed)
+		if !ok1 || !ok2 {
+			lost++
+			continue
+		}
+		marks[g.Index(i, j)] = true
+	}
+	m.marks = marks
+	m.curI, m.curJ = m.startPoint()
+	if s.Cursor != nil {
+		i, ok1 := nearestIndex(g.Alts, s.Cursor.Altitude)
+		j, ok2 := nearestIndex(g.Speeds, s.Cursor.Speed)
+		if ok1 && ok2 {
+			m.curI, m.curJ = i, j
+		}
+	}
+	if lost > 0 && m.status == "" {
+		m.status = fmt.Sprintf("%d marks no longer on the grid were dropped", lost)
+	}
+}
+
+// nearestIndex finds the axis value within half a step of v.
+func nearestIndex(axis []float64, v float64) (int, bool) {
+	if len(axis) == 0 || math.IsNaN(v) {
+		return 0, false
+	}
+	k := sort.SearchFloat64s(axis, v)
+	best, bd := -1, math.Inf(1)
+	for _, c := range []int{k - 1, k} {
+		if c >= 0 && c < len(axis) {
+			if d := math.Abs(axis[c] - v); d < bd {
+				best, bd = c, d
+			}
+		}
+	}
+	step := 0.0
+	if len(axis) > 1 {
+		step = math.Abs(axis[len(axis)-1]-axis[0]) / float64(len(axis)-1)
+	}
+	tol := math.Max(step/2, 1e-9*math.Max(1, math.Abs(v)))
+	if best < 0 || bd > tol {
+		return 0, false
+	}
+	return best, true
+}
