@@ -95,11 +95,14 @@ type FlightDetail struct {
 	Exclusion Exclusion
 }
 
-// flightRec is the stored flight side of one point: 24 bytes.
+// flightRec is the stored flight side of one point: 32 bytes. Mach and
+// Reynolds numbers, the inputs of every facility solve, keep full
+// precision so that a point's class and its detail always agree.
 type flightRec struct {
-	mach, tas, q, re, kn float32
-	speed, rare          uint8
-	excl                 Exclusion
+	mach, re    float64
+	tas, q, kn  float32
+	speed, rare uint8
+	excl        Exclusion
 }
 
 // Grid is the flight side of an envelope evaluated on an altitude × speed
@@ -127,7 +130,10 @@ type Grid struct {
 //
 // A point is inside when its speed, converted to the boundary's kind at
 // that altitude, lies within the boundary polygon (edges included), and each
-// limit line holds in its own kind. Settings supply the day (DeltaT) and the
+// limit line holds in its own kind. Since every speed kind increases with
+// every other at a fixed altitude, NewGrid converts the few boundary
+// crossings and limit lines of each row to the grid's kind instead of
+// converting every point; the answer is the same. Settings supply the day (DeltaT) and the
 // regime thresholds (zero Regimes means atmos.DefaultRegimes).
 func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 	if v == nil {
@@ -184,9 +190,10 @@ func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 		}
 		g.rows[i] = st
 		spans = boundaryEnvSpans(v.Boundary, h, spans[:0])
+		rl := g.rowLimits(h, &st, spans)
 		row := g.points[i*len(speeds) : (i+1)*len(speeds)]
 		for j, sp := range speeds {
-			row[j] = g.evalPoint(h, sp, &st, spans)
+			row[j] = g.evalPoint(sp, &st, &rl)
 			if row[j].excl == InEnvelope {
 				g.inside++
 			}
@@ -195,50 +202,143 @@ func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 	return g, nil
 }
 
-// evalPoint classifies and evaluates one point.
-func (g *Grid) evalPoint(h, sp float64, st *atmos.State, spans []envSpan) flightRec {
+// rowLimits is the envelope on one altitude row expressed in the grid's
+// speed kind: the boundary intervals and each limit line, converted once
+// per row. At fixed altitude every speed kind is an increasing function of
+// every other, so comparing in the grid's kind is the same as converting
+// each point to the boundary's (or the limit's) kind.
+type rowLimits struct {
+	above     bool      // the row is above the ceiling
+	spans     []envSpan // boundary intervals, grid kind
+	spanErr   bool      // a boundary crossing did not convert
+	maxMach   float64   // +Inf when not set
+	maxEAS    float64
+	maxCAS    float64
+	maxQ      float64
+	minSpeed  float64   // -Inf when not set
+	limitFail Exclusion // a limit line that did not convert
+}
+
+func (g *Grid) rowLimits(h float64, st *atmos.State, spans []envSpan) rowLimits {
 	v := g.Vehicle
-	var r flightRec
+	rl := rowLimits{maxMach: math.Inf(1), maxEAS: math.Inf(1), maxCAS: math.Inf(1), maxQ: math.Inf(1), minSpeed: math.Inf(-1)}
 	if lim := v.Limits.Ceiling; lim > 0 && h > lim*(1+gridEdgeTol) {
+		rl.above = true
+		return rl
+	}
+	conv := func(kind atmos.SpeedKind, x float64) (float64, bool) {
+		if kind == g.SpeedKind {
+			return x, true
+		}
+		a, err := atmos.Speeds(kind, x, *st)
+		if err != nil {
+			return 0, false
+		}
+		return gridSpeedOf(a, g.SpeedKind), true
+	}
+	for k, sp := range spans {
+		lo, ok1 := conv(v.BoundaryKind, sp.lo)
+		hi, ok2 := conv(v.BoundaryKind, sp.hi)
+		if !ok1 || !ok2 {
+			rl.spanErr = true
+			continue
+		}
+		spans[k] = envSpan{lo, hi}
+	}
+	rl.spans = spans
+	l := v.Limits
+	set := func(dst *float64, kind atmos.SpeedKind, x float64, why Exclusion) {
+		if c, ok := conv(kind, x); ok {
+			*dst = c
+		} else if rl.limitFail == InEnvelope {
+			rl.limitFail = why
+		}
+	}
+	if l.MaxMach > 0 {
+		set(&rl.maxMach, atmos.Mach, l.MaxMach, AboveMaxMach)
+	}
+	if l.MaxEAS > 0 {
+		set(&rl.maxEAS, atmos.EAS, l.MaxEAS, AboveMaxEAS)
+	}
+	if l.MaxCAS > 0 {
+		set(&rl.maxCAS, atmos.CAS, l.MaxCAS, AboveMaxCAS)
+	}
+	if l.MaxQ > 0 {
+		set(&rl.maxQ, atmos.TAS, math.Sqrt(2*l.MaxQ/st.Density), AboveMaxQ)
+	}
+	if l.MinSpeed > 0 {
+		set(&rl.minSpeed, l.MinSpeedKind, l.MinSpeed, BelowMinSpeed)
+	}
+	return rl
+}
+
+// evalPoint classifies and evaluates one point of speed sp (grid kind) on
+// a row with atmosphere st and limits rl.
+func (g *Grid) evalPoint(sp float64, st *atmos.State, rl *rowLimits) flightRec {
+	var r flightRec
+	hi := 1 + gridEdgeTol
+	switch {
+	case rl.above:
 		r.excl = AboveCeiling
-		return r
-	}
-	a, err := atmos.Speeds(g.SpeedKind, sp, *st)
-	if err != nil {
-		r.excl = SpeedUnusable
-		return r
-	}
-	if !inEnvSpans(spans, gridSpeedOf(a, v.BoundaryKind)) {
+	case !inEnvSpans(rl.spans, sp):
 		r.excl = OutsideBoundary
-		return r
-	}
-	q := 0.5 * st.Density * a.TAS * a.TAS
-	switch l := v.Limits; {
-	case l.MaxMach > 0 && a.Mach > l.MaxMach*(1+gridEdgeTol):
+		if rl.spanErr {
+			r.excl = SpeedUnusable
+		}
+	case sp > rl.maxMach*hi:
 		r.excl = AboveMaxMach
-	case l.MaxEAS > 0 && a.EAS > l.MaxEAS*(1+gridEdgeTol):
+	case sp > rl.maxEAS*hi:
 		r.excl = AboveMaxEAS
-	case l.MaxCAS > 0 && a.CAS > l.MaxCAS*(1+gridEdgeTol):
+	case sp > rl.maxCAS*hi:
 		r.excl = AboveMaxCAS
-	case l.MaxQ > 0 && q > l.MaxQ*(1+gridEdgeTol):
+	case sp > rl.maxQ*hi:
 		r.excl = AboveMaxQ
-	case l.MinSpeed > 0 && gridSpeedOf(a, l.MinSpeedKind) < l.MinSpeed*(1-gridEdgeTol):
+	case sp < rl.minSpeed*(1-gridEdgeTol):
 		r.excl = BelowMinSpeed
-	case !(a.TAS > 0):
-		r.excl = NoFlow
+	case rl.limitFail != InEnvelope:
+		r.excl = rl.limitFail
 	}
 	if r.excl != InEnvelope {
 		return r
 	}
-	L := v.RefLength
-	re := st.Density * a.TAS * L / st.Viscosity
+	// Mach number and true airspeed from the grid's kind, by the same
+	// atmos relations atmos.Speeds uses (so FlightDetail agrees exactly).
+	var M, V float64
+	switch g.SpeedKind {
+	case atmos.Mach:
+		M = sp
+		V = atmos.TASFromMach(M, *st)
+	case atmos.TAS:
+		V = sp
+		M = atmos.MachFromTAS(V, *st)
+	case atmos.EAS:
+		M = atmos.MachFromEAS(sp, *st)
+		V = atmos.TASFromMach(M, *st)
+	case atmos.CAS:
+		var err error
+		if M, err = atmos.MachFromCAS(sp, *st); err != nil {
+			r.excl = SpeedUnusable
+			return r
+		}
+		V = atmos.TASFromMach(M, *st)
+	}
+	if !isFiniteNum(V) {
+		r.excl = SpeedUnusable
+		return r
+	}
+	if !(V > 0) {
+		r.excl = NoFlow
+		return r
+	}
+	L := g.Vehicle.RefLength
+	r.mach = M
+	r.re = st.Density * V * L / st.Viscosity
+	q := 0.5 * st.Density * V * V
 	kn := st.MeanFreePath / L
-	r.mach = float32(a.Mach)
-	r.tas = float32(a.TAS)
+	r.tas = float32(V)
 	r.q = float32(q)
-	r.re = float32(re)
 	r.kn = float32(kn)
-	r.speed = uint8(g.Regimes.Speed(a.Mach))
+	r.speed = uint8(g.Regimes.Speed(M))
 	r.rare = uint8(g.Regimes.Rarefaction(kn))
 	return r
 }
@@ -274,7 +374,7 @@ func (g *Grid) Atmosphere(i int) atmos.State { return g.rows[i] }
 func (g *Grid) Flight(i, j int) FlightPoint {
 	r := g.points[g.Index(i, j)]
 	return FlightPoint{
-		Mach: r.mach, TAS: r.tas, Q: r.q, Re: r.re, Kn: r.kn,
+		Mach: float32(r.mach), TAS: r.tas, Q: r.q, Re: float32(r.re), Kn: r.kn,
 		Speed:       atmos.SpeedRegime(r.speed),
 		Rarefaction: atmos.RarefactionRegime(r.rare),
 	}
@@ -307,7 +407,7 @@ func (g *Grid) FlightDetail(i, j int) (FlightDetail, error) {
 	d.Airspeeds = a
 	d.Q = 0.5 * st.Density * a.TAS * a.TAS
 	d.RePerM = st.Density * a.TAS / st.Viscosity
-	d.Re = d.RePerM * L
+	d.Re = st.Density * a.TAS * L / st.Viscosity // as NewGrid stores it
 	d.Kn = st.MeanFreePath / L
 	d.T0 = st.Temperature / atmos.TemperatureRatio(a.Mach, atmos.GammaAir)
 	d.P0 = st.Pressure / atmos.PressureRatio(a.Mach, atmos.GammaAir)
@@ -319,7 +419,7 @@ func (g *Grid) FlightDetail(i, j int) (FlightDetail, error) {
 // StoredBytes is the memory the grid holds per point set: the per-point
 // records plus the per-row atmosphere and the axes.
 func (g *Grid) StoredBytes() int {
-	const rec = 24   // flightRec
+	const rec = 32   // flightRec
 	const state = 88 // atmos.State: 11 float64
 	return len(g.points)*rec + len(g.rows)*state + 8*(len(g.Alts)+len(g.Speeds))
 }

@@ -154,7 +154,7 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 			if r.excl != InEnvelope {
 				continue
 			}
-			ps := m.sv.solve(float64(r.mach), float64(r.re), tFlight, false)
+			ps := m.sv.solve(r.mach, r.re, tFlight, false)
 			m.Results[base+j] = ps.result()
 		}
 	}
@@ -191,7 +191,7 @@ func (m *Map) Detail(i, j int) (Detail, error) {
 		return d, nil
 	}
 	r := m.Grid.points[m.Grid.Index(i, j)]
-	ps := sv.solve(float64(r.mach), float64(r.re), fd.State.Temperature, true)
+	ps := sv.solve(r.mach, r.re, fd.State.Temperature, true)
 	d.Class, d.Limit, d.Flags = ps.class, ps.limit, ps.flags
 	d.PressureLimit, d.TemperatureLimit = ps.pLim, ps.tLim
 	d.HasSettings = ps.has
@@ -231,7 +231,10 @@ type solver struct {
 	rgas          float64
 	kFac          float64 // Re = M·kFac·p·(T+S)/T², kFac = L·√(γ/R)/β
 	condFlag, air bool
-	peakM         float64
+	tcrit         float64 // top of the saturation line, K
+	peakM         float64 // PeakLocalMach and its isentropic ratios
+	peakTau       float64
+	peakPi        float64
 	p0min, p0max  float64
 	t0min, t0max  float64
 	qmax, minT    float64
@@ -278,10 +281,10 @@ func newSolver(g *Grid, f *Facility, s Settings, scale float64) *solver {
 	sv.beta, sv.suth = gas.Sutherland()
 	sv.kFac = sv.L * math.Sqrt(sv.gamma/sv.rgas) / sv.beta
 	sv.condFlag = f.Condensation
-	sv.peakM = f.PeakLocalMach
-	if sv.peakM == 0 {
-		sv.peakM = DefaultPeakLocalMach
-	}
+	sv.tcrit = gas.CriticalTemperature()
+	sv.peakM = peakMach(f)
+	sv.peakTau = 1 / (1 + 0.5*(sv.gamma-1)*sv.peakM*sv.peakM)
+	sv.peakPi = sv.pressureRatio(sv.peakTau)
 	return sv
 }
 
@@ -322,7 +325,9 @@ func (sv *solver) solve(mf, reF, tFlight float64, detail bool) pointSol {
 	}
 	if ps.has && reF > 0 {
 		ps.ratio = ps.re / reF
-		ps.dcf = skinFrictionDelta(ps.re, reF)
+		if math.Abs(ps.ratio-1) > 1e-9 {
+			ps.dcf = skinFrictionDelta(ps.re, reF)
+		}
 		if ps.ratio > 1+sv.reTol {
 			ps.flags |= FlagReOver
 		}
@@ -357,7 +362,7 @@ func (sv *solver) bounds(M float64) gasBounds {
 	g := sv.gamma
 	c := gasBounds{M: M}
 	c.tau = 1 / (1 + 0.5*(g-1)*M*M)
-	c.pi = math.Pow(c.tau, g/(g-1))
+	c.pi = sv.pressureRatio(c.tau)
 	c.k = M * sv.kFac
 	c.condOn = sv.condFlag || (sv.air && M >= 1)
 	c.p0hi, c.pLim = sv.p0max, LimitP0Max
@@ -387,6 +392,15 @@ func (sv *solver) bounds(M float64) gasBounds {
 	}
 	c.ok = true
 	return c
+}
+
+// pressureRatio is p/p0 = τ^(γ/(γ−1)) for temperature ratio τ = T/T0;
+// for γ = 1.4 it is τ³·√τ, without the cost of math.Pow.
+func (sv *solver) pressureRatio(tau float64) float64 {
+	if sv.gamma == 1.4 {
+		return tau * tau * tau * math.Sqrt(tau)
+	}
+	return math.Pow(tau, sv.gamma/(sv.gamma-1))
 }
 
 // reAt is the model Reynolds number at (p0, T0) on bounds c.
@@ -659,16 +673,14 @@ func (sv *solver) fillGas(ps *pointSol, c *gasBounds, p0, t0, re, mf, tFlight fl
 	ps.q = 0.5 * g * p * c.M * c.M
 
 	var fl Flags
-	if pk := sv.peakM; pk > c.M {
-		tl := 1 / (1 + 0.5*(g-1)*pk*pk)
-		pl := math.Pow(tl, g/(g-1))
-		if p0*pl >= sv.gas.SaturationPressure(t0*tl) {
+	if sv.peakM > c.M {
+		if tl := t0 * sv.peakTau; tl < sv.tcrit && p0*sv.peakPi >= sv.gas.SaturationPressure(tl) {
 			fl |= FlagCondensationWarn
 		}
 	}
 	hyper := mf >= sv.reg.Supersonic
 	if t0 < RealGasT0 || p0 > RealGasP0 || hyper ||
-		p > sv.gas.SaturationPressure(T/RealGasSatMargin) {
+		(T < RealGasSatMargin*sv.tcrit && p > sv.gas.SaturationPressure(T/RealGasSatMargin)) {
 		fl |= FlagRealGas
 	}
 	if t0 < CryogenicT0 {
@@ -864,7 +876,7 @@ func fitMach(g *Grid, f *Facility) float64 {
 	var hi float64
 	for _, r := range g.points {
 		if r.excl == InEnvelope {
-			hi = math.Max(hi, float64(r.mach))
+			hi = math.Max(hi, r.mach)
 		}
 	}
 	return math.Min(hi, f.MachMax)

@@ -1,0 +1,145 @@
+package envelope
+
+import (
+	"testing"
+
+	"likewind/atmos"
+)
+
+// Speed targets (benchmarks, not timed tests): NewGrid+Solve on a 400×400
+// grid for one facility under 30 ms on one core, and under 100 bytes stored
+// per point (grid + one map). Run together with the atmosphere benchmark so
+// the ratio to atmos.At is measured on the same machine in one run:
+//
+//	go test -run '^$' -bench . -cpu 1 ./atmos/ ./envelope/
+
+// benchVehicle is an invented supersonic vehicle whose envelope fills most
+// of a 0–20 km, Mach 0.1–2.4 grid, so that nearly every point is solved.
+func benchVehicle(n int) *Vehicle {
+	return &Vehicle{
+		Name:        "bench delta",
+		RefLength:   6,
+		Span:        12,
+		FrontalArea: 3.5,
+		Boundary: []Vertex{
+			{0, 0.12}, {0, 1.0}, {11000, 2.2}, {20000, 2.3}, {20000, 0.9}, {6000, 0.3},
+		},
+		BoundaryKind: atmos.Mach,
+		Grid: GridSpec{
+			Altitude:  Axis{Min: 0, Max: 20000, Count: n},
+			Speed:     Axis{Min: 0.1, Max: 2.4, Count: n},
+			SpeedKind: atmos.Mach,
+		},
+	}
+}
+
+// benchFacilities are six invented facilities covering every solve path:
+// cryogenic nitrogen with the saturation line, pressurised ambient air,
+// atmospheric low speed, supersonic and hypersonic blowdown air, and water.
+func benchFacilities() []Facility {
+	return []Facility{
+		cryoTunnel(),
+		{Name: "pressurised transonic", Medium: MediumAir, MachMin: 0.2, MachMax: 1.3,
+			P0Min: 0.3e5, P0Max: 3e5, T0Min: 300, T0Max: 330, QMax: 1.2e5, Width: 3, Height: 3},
+		{Name: "atmospheric low speed", Medium: MediumAir, MachMin: 0.03, MachMax: 0.3,
+			P0Min: 1e5, P0Max: 1.03e5, T0Min: 285, T0Max: 315, Width: 4, Height: 3},
+		{Name: "supersonic blowdown", Medium: MediumAir, MachMin: 1.5, MachMax: 4.5,
+			P0Min: 1.5e5, P0Max: 1.5e6, T0Min: 280, T0Max: 320, Condensation: true, Width: 0.6, Height: 0.6},
+		{Name: "hypersonic blowdown", Medium: MediumAir, MachMin: 5, MachMax: 10,
+			P0Min: 1e6, P0Max: 12e6, T0Min: 400, T0Max: 1100, Condensation: true, Width: 0.5, Height: 0.5},
+		waterTunnel(),
+	}
+}
+
+// BenchmarkPointEvaluation is one point evaluated fully: airspeeds,
+// envelope test, flight values, and the facility solve in cryogenic
+// nitrogen (saturation line active), reported per point.
+func BenchmarkPointEvaluation(b *testing.B) {
+	v := benchVehicle(2)
+	s := testSettings()
+	g, err := NewGrid(v, s)
+	if err != nil {
+		b.Fatal(err)
+	}
+	f := cryoTunnel()
+	m, err := Solve(g, &f, s)
+	if err != nil {
+		b.Fatal(err)
+	}
+	st, _ := atmos.At(9000)
+	rl := g.rowLimits(9000, &st, boundaryEnvSpans(v.Boundary, 9000, nil))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		r := g.evalPoint(0.85, &st, &rl)
+		ps := m.sv.solve(r.mach, r.re, st.Temperature, false)
+		benchSink = ps.result()
+	}
+}
+
+var benchSink Result
+
+func benchGridSolve(b *testing.B, fs []Facility) {
+	const n = 400
+	v := benchVehicle(n)
+	s := testSettings()
+	b.ReportAllocs()
+	var bytes int
+	for i := 0; i < b.N; i++ {
+		g, err := NewGrid(v, s)
+		if err != nil {
+			b.Fatal(err)
+		}
+		bytes = g.StoredBytes()
+		for k := range fs {
+			m, err := Solve(g, &fs[k], s)
+			if err != nil {
+				b.Fatal(err)
+			}
+			bytes += m.StoredBytes()
+		}
+	}
+	b.ReportMetric(float64(bytes)/(n*n), "B/point")
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/(n*n), "ns/point")
+}
+
+// BenchmarkGridSolve400 is NewGrid plus Solve for the cryogenic facility
+// on a 400×400 grid (target: under 30 ms per op on one core).
+func BenchmarkGridSolve400(b *testing.B) {
+	benchGridSolve(b, benchFacilities()[:1])
+}
+
+// BenchmarkGridSolve400Six is NewGrid plus Solve for all six facilities.
+func BenchmarkGridSolve400Six(b *testing.B) {
+	benchGridSolve(b, benchFacilities())
+}
+
+// BenchmarkNewGrid400 is the flight side alone.
+func BenchmarkNewGrid400(b *testing.B) {
+	v := benchVehicle(400)
+	s := testSettings()
+	for i := 0; i < b.N; i++ {
+		if _, err := NewGrid(v, s); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkResolve400 is a facility what-if: Solve again on an existing
+// grid (NewGrid is not repeated).
+func BenchmarkResolve400(b *testing.B) {
+	v := benchVehicle(400)
+	s := testSettings()
+	g, err := NewGrid(v, s)
+	if err != nil {
+		b.Fatal(err)
+	}
+	f := cryoTunnel()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		f.P0Max = 4e5 + float64(i%2)*0.5e5 // the what-if
+		if _, err := Solve(g, &f, s); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
