@@ -311,27 +311,39 @@ func At(z float64) (State, error) {
 		return State{}, altitudeError(z, Geometric)
 	}
 	h := EarthRadius * z / (EarthRadius + z)
-	tm, p := ussa.layerFor(h).at(h)
-	if z <= 80000 {
-		// Kinetic and molecular-scale temperatures coincide: one square
-		// root serves the speed of sound and T^1.5.
-		sq := math.Sqrt(tm)
-		rho := p * ussaInvR / tm
-		mu := ussaSutherlandBeta * tm * sq / (tm + ussaSutherlandS)
-		return State{
-			Altitude:             z,
-			GeopotentialAltitude: h,
-			PressureAltitude:     z,
-			Temperature:          tm,
-			Pressure:             p,
-			Density:              rho,
-			SpeedOfSound:         ussaSqrtGammaR * sq,
-			Viscosity:            mu,
-			KinematicViscosity:   mu / rho,
-			MeanFreePath:         ussaMFP * tm / p,
-		}, nil
+	l := ussa.layerFor(h)
+	dh := h - l.hBase
+	tm := l.tBase + l.lapse*dh
+	var p float64
+	if l.lapse == 0 {
+		p = l.pBase * math.Exp(l.slope*dh)
+	} else {
+		p = l.pBase * math.Exp(l.expo*math.Log(tm*l.invTBase))
 	}
-	return fill(z, h, tm, p, 0), nil
+	if z > 80000 {
+		return ussaState(z, h, tm, p, 0), nil
+	}
+	// Below 80 km the kinetic and molecular-scale temperatures coincide and
+	// one square root serves both the speed of sound and T^1.5. One
+	// division gives 1/T and 1/(T+S) without waiting for the pressure; 1/p
+	// is the only division after it. (Same formulas as ussaState.)
+	sq := math.Sqrt(tm)
+	ts := tm + ussaSutherlandS
+	r := 1 / (tm * ts)
+	invP := 1 / p
+	mu := ussaSutherlandBeta * tm * tm * sq * r
+	return State{
+		Altitude:             z,
+		GeopotentialAltitude: h,
+		PressureAltitude:     z,
+		Temperature:          tm,
+		Pressure:             p,
+		Density:              p * ussaInvR * ts * r,
+		SpeedOfSound:         ussaSqrtGammaR * sq,
+		Viscosity:            mu,
+		KinematicViscosity:   mu * RAir * tm * invP,
+		MeanFreePath:         ussaMFP * tm * invP,
+	}, nil
 }
 
 // AtDay returns the state at altitude alt read as kind, on a day whose
@@ -375,16 +387,28 @@ func AtDay(alt float64, kind AltitudeKind, dT float64) (State, error) {
 		return State{}, fmt.Errorf("atmosphere at %s altitude %g m: offset %g K on standard %.2f K gives T ≤ 0: %w",
 			kind, alt, dT, tm, ErrTemperatureOffset)
 	}
-	return fill(z, h, tm, p, dT), nil
+	return ussaState(z, h, tm, p, dT), nil
 }
 
-// fill completes a State from the geometric and geopotential altitudes, the
-// standard molecular-scale temperature, the pressure and the offset.
-func fill(z, h, tmStd, p, dT float64) State {
-	tm := tmStd + dT
-	t := tm * molecularWeightRatio(z) // kinetic temperature, USSA 1976 eq. 22
-	rho := p * ussaInvR / tm          // USSA 1976 eq. 42: ρ = p M0/(R* T_M)
-	mu := ussaSutherlandBeta * t * math.Sqrt(t) / (t + ussaSutherlandS)
+// ussaState completes a State from the geometric and geopotential altitudes,
+// the standard molecular-scale temperature, the pressure and the offset.
+func ussaState(z, h, tmStd, p, dT float64) State {
+	tm := tmStd + dT // molecular-scale temperature of the day
+	t := tm          // kinetic temperature
+	sqTM := math.Sqrt(tm)
+	sqT := sqTM
+	ratio := 1.0
+	if z > 80000 {
+		ratio = molecularWeightRatio(z)
+		t = tm * ratio // USSA 1976 eq. 22
+		sqT = math.Sqrt(t)
+	}
+	// One division gives both 1/T and 1/(T+S) and does not wait for the
+	// pressure; 1/p is the only division after it.
+	ts := t + ussaSutherlandS
+	r := 1 / (t * ts)
+	invP := 1 / p
+	mu := ussaSutherlandBeta * t * t * sqT * r // β T^1.5/(T+S), USSA 1976 eq. 51
 	return State{
 		Altitude:             z,
 		GeopotentialAltitude: h,
@@ -392,11 +416,11 @@ func fill(z, h, tmStd, p, dT float64) State {
 		DeltaT:               dT,
 		Temperature:          t,
 		Pressure:             p,
-		Density:              rho,
-		SpeedOfSound:         ussaSqrtGammaR * math.Sqrt(tm), // USSA 1976 eq. 50
+		Density:              p * ussaInvR * ratio * ts * r, // p M0/(R* T_M), eq. 42
+		SpeedOfSound:         ussaSqrtGammaR * sqTM,         // sqrt(γ R* T_M/M0), eq. 50
 		Viscosity:            mu,
-		KinematicViscosity:   mu / rho,
-		MeanFreePath:         ussaMFP * t / p,
+		KinematicViscosity:   mu * RAir * tm * invP, // μ/ρ
+		MeanFreePath:         ussaMFP * t * invP,    // eqs. 17 and 21
 	}
 }
 
