@@ -2,6 +2,7 @@ package tui
 
 import (
 	"fmt"
+	"sync"
 
 	"likewind/atmos"
 	"likewind/envelope"
@@ -34,17 +35,20 @@ func computeGrid(v *envelope.Vehicle, facs []envelope.Facility, s envelope.Setti
 // solveAll solves every facility on an existing grid.
 func solveAll(g *envelope.Grid, facs []envelope.Facility, s envelope.Settings) (results, error) {
 	r := results{grid: g, maps: make([]*envelope.Map, len(facs)), errs: make([]error, len(facs))}
+	// Facilities are independent: Solve only reads the grid, so they run
+	// side by side.
+	var wg sync.WaitGroup
 	for k := range facs {
-		m, err := envelope.Solve(g, &facs[k], s)
-		if err != nil {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
 			// One facility that cannot be solved (no model scale, say)
 			// leaves the others usable.
-			r.errs[k] = err
-			continue
-		}
-		r.maps[k] = m
+			r.maps[k], r.errs[k] = envelope.Solve(g, &facs[k], s)
+		}()
 	}
-	r.summarise()
+	wg.Wait()
+	r.summarise(nil, -1)
 	return r, nil
 }
 
@@ -64,12 +68,13 @@ func solveOne(prev results, facs []envelope.Facility, s envelope.Settings, k int
 	}
 	r.maps[k] = m
 	r.errs[k] = nil
-	r.summarise()
+	r.summarise(&prev, k)
 	return r, nil
 }
 
-// summarise fills the best-of-all arrays and the coverage shares.
-func (r *results) summarise() {
+// summarise fills the best-of-all arrays and the coverage shares. With
+// prev given, the shares of every map but changed are taken from it.
+func (r *results) summarise(prev *results, changed int) {
 	if r.grid == nil {
 		return
 	}
@@ -81,9 +86,13 @@ func (r *results) summarise() {
 		if m == nil {
 			continue
 		}
-		sh := m.Shares()
-		r.full[k] = sh.Share(envelope.FullMatch)
-		r.matched[k] = sh.Matched()
+		if prev != nil && k != changed && k < len(prev.full) && prev.maps[k] == m {
+			r.full[k], r.matched[k] = prev.full[k], prev.matched[k]
+		} else {
+			sh := m.Shares()
+			r.full[k] = sh.Share(envelope.FullMatch)
+			r.matched[k] = sh.Matched()
+		}
 		solved = append(solved, m)
 		index = append(index, k)
 	}

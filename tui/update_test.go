@@ -1,0 +1,440 @@
+package tui
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	tea "github.com/charmbracelet/bubbletea"
+
+	"likewind/envelope"
+)
+
+// TestUpdateKeys checks the effect of every main-screen key.
+func TestUpdateKeys(t *testing.T) {
+	base := newDemo(t, 80, 24)
+	rows, cols := base.rows(), base.cols()
+	if rows < 3 || cols < 3 {
+		t.Fatalf("demo grid %d×%d, want at least 3×3", rows, cols)
+	}
+	mid := func(m Model) Model { m.curI, m.curJ = rows/2, cols/2; return m }
+	cases := []struct {
+		name  string
+		setup func(Model) Model
+		keys  []string
+		check func(t *testing.T, before, after Model, quit bool)
+	}{
+		{"up moves to a higher altitude", mid, []string{"up"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.curI != b.curI+1 || a.curJ != b.curJ {
+				t.Errorf("cursor = (%d,%d), want (%d,%d)", a.curI, a.curJ, b.curI+1, b.curJ)
+			}
+		}},
+		{"k moves up", mid, []string{"k"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.curI != b.curI+1 {
+				t.Errorf("row = %d, want %d", a.curI, b.curI+1)
+			}
+		}},
+		{"down and j move down", mid, []string{"down", "j"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.curI != b.curI-2 {
+				t.Errorf("row = %d, want %d", a.curI, b.curI-2)
+			}
+		}},
+		{"left and h move to lower speed", mid, []string{"left", "h"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.curJ != b.curJ-2 {
+				t.Errorf("column = %d, want %d", a.curJ, b.curJ-2)
+			}
+		}},
+		{"right and l move to higher speed", mid, []string{"right", "l"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.curJ != b.curJ+2 {
+				t.Errorf("column = %d, want %d", a.curJ, b.curJ+2)
+			}
+		}},
+		{"cursor stops at the grid edge", func(m Model) Model { m.curI, m.curJ = rows-1, cols-1; return m },
+			[]string{"up", "right"}, func(t *testing.T, b, a Model, _ bool) {
+				if a.curI != rows-1 || a.curJ != cols-1 {
+					t.Errorf("cursor = (%d,%d), want (%d,%d)", a.curI, a.curJ, rows-1, cols-1)
+				}
+			}},
+		{"pgup jumps a page up", func(m Model) Model { m.curI = 0; return m }, []string{"pgup"}, func(t *testing.T, b, a Model, _ bool) {
+			want := min(max(b.visibleRows()-1, 1), rows-1)
+			if a.curI != want {
+				t.Errorf("row = %d, want %d", a.curI, want)
+			}
+		}},
+		{"pgdown jumps a page down", func(m Model) Model { m.curI = rows - 1; return m }, []string{"pgdown"}, func(t *testing.T, b, a Model, _ bool) {
+			want := max(rows-1-max(b.visibleRows()-1, 1), 0)
+			if a.curI != want {
+				t.Errorf("row = %d, want %d", a.curI, want)
+			}
+		}},
+		{"home goes to the slowest column", mid, []string{"home"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.curJ != 0 {
+				t.Errorf("column = %d, want 0", a.curJ)
+			}
+		}},
+		{"end goes to the fastest column", mid, []string{"end"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.curJ != cols-1 {
+				t.Errorf("column = %d, want %d", a.curJ, cols-1)
+			}
+		}},
+		{"tab cycles the layers and wraps", nil, []string{"tab", "tab", "tab", "tab", "tab"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.layer != LayerClass {
+				t.Errorf("layer after five tabs = %v, want %v", a.layer, LayerClass)
+			}
+		}},
+		{"tab once shows the regime layer", nil, []string{"tab"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.layer != LayerRegime {
+				t.Errorf("layer = %v, want %v", a.layer, LayerRegime)
+			}
+		}},
+		{"u toggles units", nil, []string{"u"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.units != Customary {
+				t.Errorf("units = %v, want customary", a.units)
+			}
+			if !strings.Contains(a.View(), "altitude ft") {
+				t.Errorf("view after u does not label the altitude axis in ft")
+			}
+		}},
+		{"f opens the picker, esc closes it", nil, []string{"f"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.mode != modePicker {
+				t.Fatalf("mode = %v, want picker", a.mode)
+			}
+			c, _ := press(a, "esc")
+			if c.mode != modeMain {
+				t.Errorf("mode after esc = %v, want main", c.mode)
+			}
+		}},
+		{"picker chooses a facility", nil, []string{"f", "down", "down", "enter"}, func(t *testing.T, b, a Model, _ bool) {
+			// Rows: best of all, then facilities; the picker starts on the
+			// current facility (0), so two downs land on facility 2.
+			if a.fac != 2 || a.mode != modeMain {
+				t.Errorf("facility = %d mode %v, want 2 main", a.fac, a.mode)
+			}
+		}},
+		{"] and [ step through facilities", nil, []string{"]", "]", "["}, func(t *testing.T, b, a Model, _ bool) {
+			if a.fac != b.fac+1 {
+				t.Errorf("facility = %d, want %d", a.fac, b.fac+1)
+			}
+		}},
+		{"[ from the first facility goes to best of all", nil, []string{"["}, func(t *testing.T, b, a Model, _ bool) {
+			if a.fac != -1 {
+				t.Errorf("facility = %d, want -1 (best of all)", a.fac)
+			}
+		}},
+		{"b toggles best of all and back", func(m Model) Model { m.fac = 3; return m }, []string{"b"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.fac != -1 {
+				t.Fatalf("facility = %d, want -1", a.fac)
+			}
+			c, _ := press(a, "b")
+			if c.fac != 3 {
+				t.Errorf("facility after second b = %d, want 3", c.fac)
+			}
+		}},
+		{"e opens the what-if editor", nil, []string{"e"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.mode != modeEdit {
+				t.Errorf("mode = %v, want edit", a.mode)
+			}
+		}},
+		{"? opens help and ? closes it", nil, []string{"?"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.mode != modeHelp {
+				t.Fatalf("mode = %v, want help", a.mode)
+			}
+			c, _ := press(a, "?")
+			if c.mode != modeMain {
+				t.Errorf("mode after ? = %v, want main", c.mode)
+			}
+		}},
+		{"space marks and unmarks an inside point", nil, []string{"space"}, func(t *testing.T, b, a Model, _ bool) {
+			idx := a.res.grid.Index(a.curI, a.curJ)
+			if !a.marks[idx] {
+				t.Fatalf("point not marked after space")
+			}
+			if b.marks[idx] {
+				t.Errorf("space changed the marks of the model before the key")
+			}
+			c, _ := press(a, "space")
+			if c.marks[idx] {
+				t.Errorf("point still marked after second space")
+			}
+		}},
+		{"space refuses an outside point", func(m Model) Model {
+			for j := 0; j < cols; j++ {
+				if !m.res.grid.Inside(0, j) {
+					m.curI, m.curJ = 0, j
+					return m
+				}
+			}
+			t.Fatal("no outside point on row 0")
+			return m
+		}, []string{"space"}, func(t *testing.T, b, a Model, _ bool) {
+			if len(a.marks) != 0 || !a.statusErr {
+				t.Errorf("marks = %d statusErr %v, want 0 and an error message", len(a.marks), a.statusErr)
+			}
+		}},
+		{"M marks every full match of the facility", func(m Model) Model { m.fac = 2; return m }, []string{"M"}, func(t *testing.T, b, a Model, _ bool) {
+			want := a.res.maps[2].Shares().Count[envelope.FullMatch]
+			if want == 0 {
+				t.Fatal("demo facility 2 has no full match; pick another")
+			}
+			if len(a.marks) != want {
+				t.Errorf("marks = %d, want %d full-match points", len(a.marks), want)
+			}
+			for idx := range a.marks {
+				if a.res.maps[2].Results[idx].Class != envelope.FullMatch {
+					t.Errorf("marked point %d has class %v", idx, a.res.maps[2].Results[idx].Class)
+				}
+			}
+		}},
+		{"X clears the marks", func(m Model) Model { m.fac = 2; return m }, []string{"M", "X"}, func(t *testing.T, b, a Model, _ bool) {
+			if len(a.marks) != 0 {
+				t.Errorf("marks = %d after X, want 0", len(a.marks))
+			}
+		}},
+		{"s without a session file says so", nil, []string{"s"}, func(t *testing.T, b, a Model, _ bool) {
+			if !a.statusErr || !strings.Contains(a.status, "no session file") {
+				t.Errorf("status = %q, want a no-session-file error", a.status)
+			}
+		}},
+		{"q quits at once when nothing is unsaved", nil, []string{"q"}, func(t *testing.T, b, a Model, quit bool) {
+			if !quit || a.mode == modeConfirm {
+				t.Errorf("quit = %v mode %v, want quit without question", quit, a.mode)
+			}
+		}},
+		{"q asks first with unsaved marks", nil, []string{"space", "q"}, func(t *testing.T, b, a Model, quit bool) {
+			if quit || a.mode != modeConfirm {
+				t.Fatalf("quit = %v mode %v, want the question", quit, a.mode)
+			}
+			c, _ := press(a, "n")
+			if c.mode != modeMain {
+				t.Errorf("mode after n = %v, want main", c.mode)
+			}
+			d, q := press(a, "y")
+			if !q || !d.discard || d.WantsSave() {
+				t.Errorf("after y: quit %v discard %v, want quit and discard", q, d.discard)
+			}
+		}},
+		{"R with nothing changed leaves the results", nil, []string{"R"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.res.grid != b.res.grid {
+				t.Errorf("R recomputed although nothing changed")
+			}
+		}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			m := base
+			if c.setup != nil {
+				m = c.setup(m)
+				m.relayout()
+			}
+			after, quit := press(m, c.keys...)
+			c.check(t, m, after, quit)
+		})
+	}
+}
+
+// edit opens the editor on field f, types text and applies it.
+func edit(t *testing.T, m Model, f field, text string) Model {
+	t.Helper()
+	m, _ = press(m, "e")
+	for m.editor.sel != int(f) {
+		m, _ = press(m, "down")
+	}
+	m, _ = press(m, "enter")
+	if !m.editor.editing {
+		t.Fatalf("input line did not open for %v (err %q)", f.label(false), m.editor.err)
+	}
+	m, _ = press(m, "ctrl+u")
+	m = typeText(m, text)
+	m, _ = press(m, "enter")
+	return m
+}
+
+func TestWhatIfFacilityEditResolvesOnlyThatFacility(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	k := facilityNamed(t, m, "Harl Cove")
+	m.fac = k
+	before := m
+	m = edit(t, m, fieldP0Max, "3 bar")
+	if m.editor.err != "" {
+		t.Fatalf("edit error %q", m.editor.err)
+	}
+	if got, want := m.facs[k].P0Max, 3e5; got != want {
+		t.Errorf("p0 max = %g Pa, want %g", got, want)
+	}
+	if m.fileFacs[k].P0Max == 3e5 || before.facs[k].P0Max == 3e5 {
+		t.Errorf("the edit changed the files' values or the earlier model")
+	}
+	if m.res.grid != before.res.grid {
+		t.Errorf("a facility edit rebuilt the grid; only Solve should run")
+	}
+	for j := range m.res.maps {
+		same := m.res.maps[j] == before.res.maps[j]
+		if j == k && same {
+			t.Errorf("map of the edited facility was not re-solved")
+		}
+		if j != k && !same {
+			t.Errorf("map of facility %d was re-solved; only %d should be", j, k)
+		}
+	}
+	if m.res.maps[k].Facility.P0Max != 3e5 {
+		t.Errorf("re-solved map used p0 max %g, want 3e5", m.res.maps[k].Facility.P0Max)
+	}
+	head := m.headerText()
+	if !strings.Contains(head, "what-if:") || !strings.Contains(head, "p0 max 300") {
+		t.Errorf("header does not list the change:\n%s", head)
+	}
+	if !m.hasUnsaved() {
+		t.Errorf("hasUnsaved() = false after an edit")
+	}
+	// R restores the files' values.
+	r, _ := press(m, "esc", "R")
+	if r.facs[k].P0Max != r.fileFacs[k].P0Max || len(r.changes()) != 0 {
+		t.Errorf("after R: p0 max %g, changes %v; want the file value and none", r.facs[k].P0Max, r.changes())
+	}
+}
+
+func TestWhatIfDeltaTRebuildsGrid(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	before := m
+	m = edit(t, m, fieldDeltaT, "-150 degC")
+	if m.editor.err == "" {
+		t.Errorf("ΔT of -150 K accepted; want a range error")
+	}
+	m, _ = press(m, "ctrl+u")
+	m = typeText(m, "15")
+	m, _ = press(m, "enter")
+	if m.editor.err != "" {
+		t.Fatalf("edit error %q", m.editor.err)
+	}
+	if m.set.DeltaT != 15 {
+		t.Errorf("ΔT = %g K, want 15 (a bare number takes K in SI)", m.set.DeltaT)
+	}
+	if m.res.grid == before.res.grid || m.res.grid.DeltaT != 15 {
+		t.Errorf("grid not rebuilt for the new ΔT")
+	}
+}
+
+func TestWhatIfT0MinTakesUnits(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	k := facilityNamed(t, m, "Kellen Fold")
+	m.fac = k
+	m = edit(t, m, fieldT0Min, "-150 degC")
+	if m.editor.err != "" {
+		t.Fatalf("edit error %q", m.editor.err)
+	}
+	// -150 °C = 123.15 K (definition of the Celsius scale).
+	if got := m.facs[k].T0Min; got < 123.149 || got > 123.151 {
+		t.Errorf("T0 min = %g K, want 123.15", got)
+	}
+}
+
+func TestWhatIfBadInputKeepsEditing(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	before := m
+	m = edit(t, m, fieldMachTol, "fast")
+	if m.editor.err == "" || !m.editor.editing {
+		t.Errorf("err %q editing %v, want an error with the line still open", m.editor.err, m.editor.editing)
+	}
+	if m.busy || m.gen != before.gen {
+		t.Errorf("bad input started a recompute")
+	}
+}
+
+func TestStaleRecomputeIgnored(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	m.fac = 0
+	cmd1 := m.recompute(recomputeSolve)
+	old := cmd1().(computedMsg)
+	cmd2 := m.recompute(recomputeSolve)
+	newer := cmd2().(computedMsg)
+	got, _ := drive(m, old)
+	if !got.busy {
+		t.Errorf("an outdated result ended the running recompute")
+	}
+	got, _ = drive(got, newer)
+	if got.busy || got.res.maps[0] != newer.res.maps[0] {
+		t.Errorf("the latest result was not taken")
+	}
+}
+
+func TestSaveKeyWritesSession(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "s.json")
+	m := newDemo(t, 80, 24, func(o *Options) { o.SessionPath = path })
+	m, _ = press(m, "space", "s")
+	if m.statusErr {
+		t.Fatalf("save failed: %s", m.status)
+	}
+	if m.hasUnsaved() {
+		t.Errorf("still unsaved after s")
+	}
+	s, err := LoadSession(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(s.Marks) != 1 {
+		t.Errorf("saved marks = %d, want 1", len(s.Marks))
+	}
+	// Quitting now asks nothing.
+	if _, quit := press(m, "q"); !quit {
+		t.Errorf("q after save did not quit")
+	}
+}
+
+func TestQuitQuestionOffersSave(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "s.json")
+	m := newDemo(t, 80, 24, func(o *Options) { o.SessionPath = path })
+	m, _ = press(m, "space", "q")
+	if m.mode != modeConfirm {
+		t.Fatalf("mode = %v, want confirm", m.mode)
+	}
+	if !strings.Contains(m.View(), "save and quit") {
+		t.Errorf("question does not offer saving")
+	}
+	m, quit := press(m, "s")
+	if !quit || !m.WantsSave() {
+		t.Errorf("s at the question: quit %v wantsSave %v, want both", quit, m.WantsSave())
+	}
+	if _, err := os.Stat(path); err == nil {
+		t.Errorf("the model wrote the file itself; Run writes it on exit")
+	}
+}
+
+func TestResizeReflows(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	if m.wide {
+		t.Fatalf("80 columns laid out wide")
+	}
+	m, _ = drive(m, tea.WindowSizeMsg{Width: 160, Height: 48})
+	if !m.wide {
+		t.Errorf("160 columns not laid out wide")
+	}
+	m, _ = drive(m, tea.WindowSizeMsg{Width: 30, Height: 8})
+	if !strings.Contains(m.View(), "too small") {
+		t.Errorf("30×8 view does not say the terminal is too small:\n%s", m.View())
+	}
+}
+
+func TestInputLineEditing(t *testing.T) {
+	k := DefaultKeyMap()
+	var l lineInput
+	for _, r := range "3 br" {
+		l.update(&k, tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{r}})
+	}
+	l.update(&k, keyMsg("left"))
+	l.update(&k, tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{'a'}})
+	if got := l.Value(); got != "3 bar" {
+		t.Errorf("value = %q, want %q", got, "3 bar")
+	}
+	l.update(&k, keyMsg("home"))
+	l.update(&k, keyMsg("delete"))
+	l.update(&k, keyMsg("end"))
+	l.update(&k, keyMsg("backspace"))
+	if got := l.Value(); got != " ba" {
+		t.Errorf("value = %q, want %q", got, " ba")
+	}
+	l.update(&k, keyMsg("ctrl+u"))
+	if l.Value() != "" {
+		t.Errorf("value after ctrl+u = %q, want empty", l.Value())
+	}
+}
