@@ -78,7 +78,7 @@ func MinScaleFullMatch(g *Grid, f *Facility, s Settings, i, j int) (float64, boo
 	if f.Medium == MediumWater || checkFacility(f) != nil || checkSettings(s) != nil {
 		return 0, false
 	}
-	sv := newSolver(g, f, s, 1)
+	sv := newSolver(f, s, g.Regimes, g.Vehicle.RefLength)
 	return sv.minScale(&g.points[g.Index(i, j)])
 }
 
@@ -86,7 +86,7 @@ func (sv *solver) minScale(r *flightRec) (float64, bool) {
 	if r.excl != InEnvelope {
 		return 0, false
 	}
-	mf := float64(r.mach)
+	mf := r.mach
 	mm := math.Min(math.Max(mf, sv.f.MachMin), sv.f.MachMax)
 	if math.Abs(mm-mf) > sv.mTol*(1+1e-9)+1e-12 {
 		return 0, false
@@ -99,7 +99,7 @@ func (sv *solver) minScale(r *flightRec) (float64, bool) {
 	if !ok || !(re1 > 0) {
 		return 0, false
 	}
-	return (1 - sv.reTol) * float64(r.re) / re1, true
+	return (1 - sv.reTol) * r.re / re1, true
 }
 
 // MinScaleEnvelope is the smallest model scale at which every inside point
@@ -111,7 +111,7 @@ func MinScaleEnvelope(g *Grid, f *Facility, s Settings) (float64, bool) {
 	if f.Medium == MediumWater || checkFacility(f) != nil || checkSettings(s) != nil {
 		return 0, false
 	}
-	sv := newSolver(g, f, s, 1)
+	sv := newSolver(f, s, g.Regimes, g.Vehicle.RefLength)
 	var most float64
 	all, any := true, false
 	for k := range g.points {

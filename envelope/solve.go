@@ -143,7 +143,7 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	default:
 		return nil, fmt.Errorf("solve %q: no model scale: set a scale, or give the vehicle span or frontal area and the section width and height", f.Name)
 	}
-	m.sv = newSolver(g, f, s, m.Scale)
+	m.sv = newSolver(f, s, g.Regimes, m.Scale*g.Vehicle.RefLength)
 	m.Results = make([]Result, len(g.points))
 	cols := len(g.Speeds)
 	for i := range g.Alts {
@@ -245,15 +245,18 @@ type solver struct {
 	pStatic float64
 }
 
-func newSolver(g *Grid, f *Facility, s Settings, scale float64) *solver {
+// newSolver prepares facility f (already checked) for a model of
+// reference length L (m), with the tolerances of s and regime thresholds
+// reg.
+func newSolver(f *Facility, s Settings, reg atmos.Regimes, L float64) *solver {
 	sv := &solver{
 		f:     f,
 		water: f.Medium == MediumWater,
-		reg:   g.Regimes,
+		reg:   reg,
 		mTol:  s.MachTol,
 		reTol: s.ReTol,
 		cm:    s.CompressibilityMach,
-		L:     scale * g.Vehicle.RefLength,
+		L:     L,
 		p0min: f.P0Min, p0max: f.P0Max,
 		t0min: f.T0Min, t0max: f.T0Max,
 		qmax: f.QMax, minT: f.MinStaticT,
@@ -419,7 +422,7 @@ func (sv *solver) floorT0(c *gasBounds, p0 float64) (float64, Limit) {
 			t0, lim = sv.gas.SaturationTemperature(p)/c.tau, LimitCondensation
 		}
 	}
-	return math.Min(t0, sv.t0max), lim
+	return lesserOf(t0, sv.t0max), lim
 }
 
 // best returns the highest-Reynolds setting on bounds c: p0 at p0hi, T0 at
@@ -457,10 +460,10 @@ func (sv *solver) best(c *gasBounds) (p0, t0, re float64, pLim, tLim Limit, ok b
 func (sv *solver) hit(c *gasBounds, target, tFloor float64) (p0, t0, re float64, over bool) {
 	a := c.k * c.p0hi * c.pi / target
 	T := 0.5 * (a + math.Sqrt(a*a+4*a*sv.suth))
-	t0 = math.Max(math.Min(T/c.tau, sv.t0max), tFloor)
+	t0 = greaterOf(lesserOf(T/c.tau, sv.t0max), tFloor)
 	T = t0 * c.tau
 	p0 = target * T * T / (c.k * c.pi * (T + sv.suth))
-	p0 = math.Min(p0, c.p0hi)
+	p0 = lesserOf(p0, c.p0hi)
 	if p0 < sv.p0min {
 		p0, over = sv.p0min, true
 	}
@@ -479,7 +482,7 @@ func (sv *solver) tryHit(c *gasBounds, target float64) (p0, t0, re float64, over
 	}
 	a := c.k * c.p0hi * c.pi / target
 	T := 0.5 * (a + math.Sqrt(a*a+4*a*sv.suth))
-	tw := math.Min(T/c.tau, sv.t0max)
+	tw := lesserOf(T/c.tau, sv.t0max)
 	if tw < c.t0lo {
 		return 0, 0, 0, false, false
 	}
@@ -514,7 +517,7 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool) {
 	f := sv.f
 	target := ps.reFlight
 	need := (1 - sv.reTol) * target
-	mm := math.Min(math.Max(mf, f.MachMin), f.MachMax)
+	mm := lesserOf(greaterOf(mf, f.MachMin), f.MachMax)
 	matched := math.Abs(mm-mf) <= sv.mTol*(1+1e-9)+1e-12
 
 	var c gasBounds
@@ -876,7 +879,7 @@ func fitMach(g *Grid, f *Facility) float64 {
 	var hi float64
 	for _, r := range g.points {
 		if r.excl == InEnvelope {
-			hi = math.Max(hi, r.mach)
+			hi = greaterOf(hi, r.mach)
 		}
 	}
 	return math.Min(hi, f.MachMax)
@@ -939,4 +942,20 @@ func checkFacility(f *Facility) error {
 		return fmt.Errorf("medium %d: want air, nitrogen or water", f.Medium)
 	}
 	return nil
+}
+
+// lesserOf and greaterOf are math.Min and math.Max for operands known not
+// to be NaN, without their special-case cost in the per-point loop.
+func lesserOf(a, b float64) float64 {
+	if a < b {
+		return a
+	}
+	return b
+}
+
+func greaterOf(a, b float64) float64 {
+	if a > b {
+		return a
+	}
+	return b
 }
