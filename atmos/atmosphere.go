@@ -7,8 +7,9 @@ import (
 	"strings"
 )
 
-// Defining constants of the U.S. Standard Atmosphere 1976 (USSA 1976,
-// Table 2 and section 1.2) and values derived from them.
+// Defining constants of the U.S. Standard Atmosphere 1976 (USSA 1976, Part 1;
+// table and section numbers in these comments are from memory unless a test
+// names another source) and values derived from them.
 const (
 	// GasConstantUniversal is R*, the gas constant as adopted by USSA 1976,
 	// J/(mol·K). (It differs from the present CODATA value; the standard's
@@ -152,8 +153,8 @@ const (
 
 // Derived constants used on the hot path.
 const (
-	// ussaMFP turns T/p into the mean free path:
-	// λ = 1/(√2 π σ² n) with n = N_A p/(R* T)  (USSA 1976, equations 17 and 21),
+	// ussaMFP turns T/p into the mean free path of USSA 1976:
+	// λ = 1/(√2 π σ² n) with the number density n = N_A p/(R* T),
 	// so λ = R*/(√2 π σ² N_A) · T/p.
 	ussaMFP = GasConstantUniversal / (math.Sqrt2 * math.Pi * CollisionDiameterAir * CollisionDiameterAir * AvogadroUSSA)
 	// ussaInvR is 1/R for the density p/(R T_M).
@@ -166,8 +167,9 @@ const (
 const ussaSqrtGammaR = 20.046802759190566
 
 // ussaLayer is one layer of the temperature profile in geopotential altitude.
-// Temperatures here are molecular-scale temperatures T_M (USSA 1976 section
-// 1.2.5); T_M equals the kinetic temperature below 80 km geometric.
+// Temperatures here are molecular-scale temperatures T_M, on which USSA 1976
+// defines its layers; T_M equals the kinetic temperature below 80 km
+// geometric.
 type ussaLayer struct {
 	hBase    float64 // base geopotential altitude, m'
 	tBase    float64 // T_M at the base, K
@@ -185,7 +187,7 @@ const ussaLayerCount = 7
 
 // ussaTable is the immutable table of layer bases, computed once from the
 // defining base altitudes and lapse rates (USSA 1976, Table 4) with the exact
-// hydrostatic solution of each layer.
+// hydrostatic solution of each layer (USSA 1976, equations 33a and 33b).
 type ussaTable struct {
 	layers [ussaLayerCount]ussaLayer
 	// hMin, hMax: the model range on the geopotential scale.
@@ -263,42 +265,42 @@ func (t *ussaTable) layerFor(h float64) *ussaLayer {
 	return &t.layers[6]
 }
 
-// ussaMolecularWeightRatio tabulates M/M0 from 80 to 86 km geometric at
-// 0.5 km steps (USSA 1976, Table 8). Above 80 km the kinetic temperature is
-// T = T_M·M/M0 (USSA 1976, equation 22); below it the ratio is 1.
-// Values written from memory of Table 8; they agree digit for digit with an
-// independent public transcription, and the 86 km value with the standard's
-// M7/M0 = 0.99957908.
-var ussaMolecularWeightRatio = [13]float64{
+// ussaMWRatios tabulates M/M0 from 80 to 86 km geometric at 0.5 km steps
+// (USSA 1976, Table 8). Above 80 km the kinetic temperature is T = T_M·M/M0,
+// by the definition of the molecular-scale temperature; below it the ratio
+// is 1. Values written from memory of Table 8; they agree digit for digit
+// with an independent public transcription, and the 86 km value with the
+// standard's M7/M0 = 0.99957908 (also from memory).
+var ussaMWRatios = [13]float64{
 	1.000000, 0.999996, 0.999989, 0.999971, 0.999941, 0.999909, 0.999870,
 	0.999829, 0.999786, 0.999741, 0.999694, 0.999641, 0.999579,
 }
 
-// molecularWeightRatio returns M/M0 at geometric altitude z by linear
-// interpolation in Table 8 (1 at and below 80 km).
-func molecularWeightRatio(z float64) float64 {
+// ussaMWRatio returns M/M0 at geometric altitude z by linear interpolation
+// in Table 8 (1 at and below 80 km).
+func ussaMWRatio(z float64) float64 {
 	if z <= 80000 {
 		return 1
 	}
 	x := (z - 80000) / 500
 	i := int(x)
-	if i >= len(ussaMolecularWeightRatio)-1 {
-		return ussaMolecularWeightRatio[len(ussaMolecularWeightRatio)-1]
+	if i >= len(ussaMWRatios)-1 {
+		return ussaMWRatios[len(ussaMWRatios)-1]
 	}
 	f := x - float64(i)
-	return ussaMolecularWeightRatio[i] + f*(ussaMolecularWeightRatio[i+1]-ussaMolecularWeightRatio[i])
+	return ussaMWRatios[i] + f*(ussaMWRatios[i+1]-ussaMWRatios[i])
 }
 
 // GeopotentialFromGeometric converts geometric altitude z (m) to geopotential
-// altitude (m'): H = r0 z/(r0 + z) (USSA 1976, equation 18). It does no range
-// check.
+// altitude (m'): H = r0 z/(r0 + z) (USSA 1976, equation 19). It does no
+// range check.
 func GeopotentialFromGeometric(z float64) float64 {
 	return EarthRadius * z / (EarthRadius + z)
 }
 
 // GeometricFromGeopotential converts geopotential altitude h (m') to
-// geometric altitude (m): z = r0 h/(r0 - h) (USSA 1976, equation 19). It does
-// no range check.
+// geometric altitude (m): z = r0 h/(r0 - h), the inverse of
+// GeopotentialFromGeometric. It does no range check.
 func GeometricFromGeopotential(h float64) float64 {
 	return EarthRadius * h / (EarthRadius - h)
 }
@@ -399,8 +401,8 @@ func ussaState(z, h, tmStd, p, dT float64) State {
 	sqT := sqTM
 	ratio := 1.0
 	if z > 80000 {
-		ratio = molecularWeightRatio(z)
-		t = tm * ratio // USSA 1976 eq. 22
+		ratio = ussaMWRatio(z)
+		t = tm * ratio // kinetic T from T_M
 		sqT = math.Sqrt(t)
 	}
 	// One division gives both 1/T and 1/(T+S) and does not wait for the
@@ -420,7 +422,7 @@ func ussaState(z, h, tmStd, p, dT float64) State {
 		SpeedOfSound:         ussaSqrtGammaR * sqTM,         // sqrt(γ R* T_M/M0), eq. 50
 		Viscosity:            mu,
 		KinematicViscosity:   mu * RAir * tm * invP, // μ/ρ
-		MeanFreePath:         ussaMFP * t * invP,    // eqs. 17 and 21
+		MeanFreePath:         ussaMFP * t * invP,    // λ = 1/(√2 π σ² n)
 	}
 }
 

@@ -130,7 +130,7 @@ var ussa76Rows = []ussa76Row{
 	{alt: 71000, geop: true, T: "214.650", p: "3.95639e0", rho: "6.42105e-5", a: "293.704", mu: "1.4106e-5", nu: "2.1968e-1", mfp: "1.2654e-3"},
 	{alt: 75000, geop: true, T: "206.650", p: "2.06790e0", rho: "3.48604e-5", a: "288.179", mu: "1.3661e-5", nu: "3.9188e-1", mfp: "2.3308e-3"},
 	// Above 80 km geometric the standard's kinetic temperature is T_M·M/M0
-	// (USSA 1976 eq. 22 and Table 8): 196.648 K on this row. The
+	// (USSA 1976, Table 8): 196.648 K on this row. The
 	// transcription lists T = 196.650 K, the molecular-scale value, and a μ
 	// and ν that follow from it, so those three are left unchecked here; p,
 	// ρ and a depend on T_M only.
