@@ -1,0 +1,169 @@
+package envelope
+
+import (
+	"fmt"
+	"strings"
+	"testing"
+)
+
+// outRun builds a hand-made gas run.
+func outRun(row int, t0, p0, mach float64) Run {
+	return Run{GridPoint: GridPoint{Row: row}, T0: t0, P0: p0, Mach: mach, HasSettings: true, Class: FullMatch}
+}
+
+func runNames(runs []Run, names map[GridPoint]string) string {
+	var b []string
+	for _, r := range runs {
+		b = append(b, names[r.GridPoint])
+	}
+	return strings.Join(b, " ")
+}
+
+func TestOrderRunsGas(t *testing.T) {
+	// Hand-built runs; rows only identify them. Worked by hand:
+	// T0 groups {C,E} at 250 K, {A,D,B} within 1 K of 300 K, {F} at
+	// 310 K; in the second group p0 groups {B} 1 bar and {A,D} within
+	// 0.5 % of 2 bar; Mach ascending inside each.
+	in := []struct {
+		name         string
+		t0, p0, mach float64
+	}{
+		{"A", 300, 2e5, 0.8},
+		{"B", 300.4, 1e5, 0.6},
+		{"C", 250, 2e5, 0.7},
+		{"D", 300, 2.005e5, 0.5},
+		{"E", 250, 2e5, 0.4},
+		{"F", 310, 1e5, 0.9},
+	}
+	names := map[GridPoint]string{}
+	var runs []Run
+	for k, r := range in {
+		run := outRun(k, r.t0, r.p0, r.mach)
+		names[run.GridPoint] = r.name
+		runs = append(runs, run)
+	}
+	before := CountChanges(runs, false)
+	// Grid order A..F: T0 moves at B→C, C→D, D→E, E→F (A→B is 0.4 K).
+	if before.T0 != 4 {
+		t.Errorf("CountChanges(grid order).T0 = %d, want 4", before.T0)
+	}
+	got := OrderRuns(runs, false)
+	if order := runNames(runs, names); order != "E C B D A F" {
+		t.Errorf("OrderRuns order = %s, want E C B D A F", order)
+	}
+	// E→C Mach; C→B all three; B→D p0 and Mach (T0 0.4 K apart);
+	// D→A Mach (p0 0.25 % apart); A→F all three.
+	want := Changes{T0: 2, P0: 3, Mach: 5, Any: 5}
+	if got != want {
+		t.Errorf("OrderRuns changes = %+v, want %+v", got, want)
+	}
+}
+
+func TestOrderRunsWater(t *testing.T) {
+	// Water: group by temperature, then static pressure, then speed
+	// ascending.
+	mk := func(row int, temp, speed float64) Run {
+		return Run{GridPoint: GridPoint{Row: row}, T0: temp, P0: 2e5, Speed: speed, HasSettings: true}
+	}
+	runs := []Run{mk(0, 308, 6), mk(1, 290, 9), mk(2, 308, 2), mk(3, 290, 3), mk(4, 308.5, 4)}
+	got := OrderRuns(runs, true)
+	var rows []string
+	for _, r := range runs {
+		rows = append(rows, fmt.Sprint(r.Row))
+	}
+	// 290 K: speeds 3, 9 (rows 3, 1); 308–308.5 K: speeds 2, 4, 6 (rows
+	// 2, 4, 0).
+	if s := strings.Join(rows, " "); s != "3 1 2 4 0" {
+		t.Errorf("water order rows = %s, want 3 1 2 4 0", s)
+	}
+	want := Changes{T0: 1, P0: 0, Mach: 4, Any: 4}
+	if got != want {
+		t.Errorf("water changes = %+v, want %+v", got, want)
+	}
+}
+
+func TestCountChangesEmpty(t *testing.T) {
+	if c := CountChanges(nil, false); c != (Changes{}) {
+		t.Errorf("CountChanges(nil) = %+v, want zero", c)
+	}
+	one := []Run{{T0: 300, P0: 1e5, Mach: 0.5}}
+	if c := OrderRuns(one, false); c != (Changes{}) {
+		t.Errorf("OrderRuns(one run) = %+v, want zero", c)
+	}
+}
+
+func TestPlanRunsDemo(t *testing.T) {
+	g, maps := outDemoMaps(t)
+	var tested int
+	for _, m := range maps {
+		pts := FullMatchPoints(m)
+		if len(pts) == 0 {
+			continue
+		}
+		tested++
+		// Add a duplicate and an outside point.
+		extra := append([]GridPoint{}, pts...)
+		extra = append(extra, pts[0])
+		var outside GridPoint
+		found := false
+		for i := 0; i < g.Rows() && !found; i++ {
+			for j := 0; j < g.Cols() && !found; j++ {
+				if !g.Inside(i, j) {
+					outside, found = GridPoint{i, j}, true
+				}
+			}
+		}
+		extra = append(extra, outside)
+		rl, err := PlanRuns(m, extra)
+		if err != nil {
+			t.Fatalf("PlanRuns(%s) = %v", m.Facility.Name, err)
+		}
+		if len(rl.Runs) != len(pts) {
+			t.Errorf("%s: %d runs, want %d full-match points", m.Facility.Name, len(rl.Runs), len(pts))
+		}
+		if len(rl.Unrunnable) != 1 || rl.Unrunnable[0].GridPoint != outside {
+			t.Errorf("%s: unrunnable = %+v, want the outside point %v", m.Facility.Name, rl.Unrunnable, outside)
+		}
+		water := m.Facility.Medium == MediumWater
+		if c := CountChanges(rl.Runs, water); c != rl.Changes {
+			t.Errorf("%s: Changes = %+v, CountChanges = %+v", m.Facility.Name, rl.Changes, c)
+		}
+		if c := rl.Changes; c.Any > len(rl.Runs)-1 || c.T0 > c.Any || c.P0 > c.Any || c.Mach > c.Any {
+			t.Errorf("%s: changes %+v inconsistent with %d runs", m.Facility.Name, c, len(rl.Runs))
+		}
+		for k, r := range rl.Runs {
+			d, _ := m.Detail(r.Row, r.Col)
+			if r.T0 != d.T0 || r.P0 != d.P0 || r.Re != d.Re || r.Class != FullMatch {
+				t.Fatalf("%s run %d = %+v, want the settings of Detail (T0 %g, p0 %g, Re %g)", m.Facility.Name, k, r, d.T0, d.P0, d.Re)
+			}
+			// T0 never falls back by a whole step along the list.
+			if k > 0 && r.T0 < rl.Runs[k-1].T0-RunT0Step {
+				t.Errorf("%s: T0 falls from %g to %g at run %d", m.Facility.Name, rl.Runs[k-1].T0, r.T0, k)
+			}
+		}
+		// Ordering never needs more T0 changes than grid order.
+		grid := append([]Run(nil), rl.Runs...)
+		sortGridOrder(grid)
+		if naive := CountChanges(grid, water); rl.Changes.T0 > naive.T0 {
+			t.Errorf("%s: ordered list has %d T0 changes, grid order %d", m.Facility.Name, rl.Changes.T0, naive.T0)
+		}
+	}
+	if tested == 0 {
+		t.Fatal("no demo facility has full-match points")
+	}
+	if _, err := PlanRuns(maps[0], []GridPoint{{Row: g.Rows(), Col: 0}}); err == nil {
+		t.Error("PlanRuns(off-grid point) = nil error, want an error")
+	}
+}
+
+func sortGridOrder(rs []Run) {
+	for a := 1; a < len(rs); a++ {
+		for b := a; b > 0; b-- {
+			x, y := rs[b-1].GridPoint, rs[b].GridPoint
+			if x.Row < y.Row || (x.Row == y.Row && x.Col <= y.Col) {
+				break
+			}
+			rs[b-1], rs[b] = rs[b], rs[b-1]
+		}
+	}
+}
