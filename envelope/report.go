@@ -1,0 +1,346 @@
+package envelope
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+)
+
+// Evaluation is a vehicle's grid with every facility solved on it. A
+// facility that cannot be solved (no model scale, say) has a nil map and
+// its error; the others stay usable.
+type Evaluation struct {
+	Grid       *Grid
+	Facilities []Facility
+	Settings   Settings
+	Maps       []*Map  // per facility, nil when Errs has the reason
+	Errs       []error // per facility
+}
+
+// Evaluate builds the grid of v and solves every facility on it.
+func Evaluate(v *Vehicle, facs []Facility, s Settings) (*Evaluation, error) {
+	g, err := NewGrid(v, s)
+	if err != nil {
+		return nil, err
+	}
+	e := &Evaluation{Grid: g, Facilities: facs, Settings: s,
+		Maps: make([]*Map, len(facs)), Errs: make([]error, len(facs))}
+	for k := range facs {
+		e.Maps[k], e.Errs[k] = Solve(g, &facs[k], s)
+	}
+	return e, nil
+}
+
+// Solved returns the maps that exist, in facility order.
+func (e *Evaluation) Solved() []*Map {
+	var out []*Map
+	for _, m := range e.Maps {
+		if m != nil {
+			out = append(out, m)
+		}
+	}
+	return out
+}
+
+// Err joins the errors of the facilities that could not be solved (nil
+// when every facility was).
+func (e *Evaluation) Err() error { return errors.Join(e.Errs...) }
+
+// Facility returns the index of the facility named name (case-insensitive,
+// surrounding space ignored), or -1.
+func (e *Evaluation) Facility(name string) int {
+	name = strings.TrimSpace(name)
+	for k, f := range e.Facilities {
+		if strings.EqualFold(f.Name, name) {
+			return k
+		}
+	}
+	return -1
+}
+
+// CoverageRow is one facility's line of the coverage report.
+type CoverageRow struct {
+	Facility string `json:"facility"`
+	Medium   string `json:"medium"`
+	// Error says why the facility could not be evaluated ("" when it
+	// was); the numbers below are then zero.
+	Error     string `json:"error,omitempty"`
+	Scale     Num    `json:"model_scale"`
+	ScaleRule string `json:"scale_rule"`
+	FitScale  Num    `json:"fit_scale"` // largest scale the section takes, null when unknown
+
+	Counts [NumClasses]int `json:"-"`
+	// Shares of inside points per class (0–1).
+	FullMatch   float64 `json:"full_match"`
+	ReShort     float64 `json:"reynolds_short"`
+	MachRelaxed float64 `json:"mach_relaxed"`
+	NoMatch     float64 `json:"out_of_reach"`
+	Matched     float64 `json:"matched"` // full match or Mach relaxed
+
+	// MinScale is the smallest model scale at which every inside point
+	// the facility can run at flight Mach number becomes a full match
+	// (null when no point can: water, or no Mach overlap). MachMatchable
+	// counts those points; MinScaleCoversAll says they are all of the
+	// inside points, so MinScale gives a full match over the whole
+	// envelope. MinScaleFits says a model of MinScale fits the section
+	// by the span and blockage rules.
+	MinScale          Num  `json:"min_scale_full_match"`
+	MachMatchable     int  `json:"mach_matchable_points"`
+	MinScaleCoversAll bool `json:"min_scale_covers_envelope"`
+	MinScaleFits      bool `json:"min_scale_fits_section"`
+}
+
+// CoverageReport is the facilities × match classes table of a vehicle's
+// envelope, the best-of-all shares and the union coverage.
+type CoverageReport struct {
+	Vehicle    string         `json:"vehicle"`
+	GridRows   int            `json:"grid_rows"`
+	GridCols   int            `json:"grid_cols"`
+	Inside     int            `json:"inside_points"`
+	Settings   ExportSettings `json:"settings"`
+	Facilities []CoverageRow  `json:"facilities"`
+	Best       CoverageRow    `json:"best_of_all"`
+	Union      float64        `json:"union_coverage"`
+	Caution    string         `json:"caution"`
+	// SolvedCount is the number of facilities that could be evaluated.
+	SolvedCount int `json:"solved_facilities"`
+}
+
+// NewCoverageReport summarises an evaluation.
+func NewCoverageReport(e *Evaluation) CoverageReport {
+	g := e.Grid
+	s := e.Settings
+	r := CoverageReport{
+		Vehicle: g.Vehicle.Name, GridRows: g.Rows(), GridCols: g.Cols(), Inside: g.InsideCount(),
+		Settings: ExportSettings{ScaleOverride: na, DeltaT: Num(s.DeltaT), MachTol: Num(s.MachTol),
+			ReTol: Num(s.ReTol), CompressibilityMach: Num(s.CompressibilityMach)},
+		Caution:    PlanningNote,
+		Facilities: []CoverageRow{},
+	}
+	if s.Scale > 0 {
+		r.Settings.ScaleOverride = Num(s.Scale)
+	}
+	for k := range e.Facilities {
+		f := &e.Facilities[k]
+		row := CoverageRow{Facility: f.Name, Medium: f.Medium.String(), Scale: na, FitScale: na, MinScale: na}
+		m := e.Maps[k]
+		if m == nil {
+			row.Error = "not evaluated"
+			if e.Errs[k] != nil {
+				row.Error = e.Errs[k].Error()
+			}
+			r.Facilities = append(r.Facilities, row)
+			continue
+		}
+		r.SolvedCount++
+		row.Scale, row.ScaleRule = Num(m.Scale), m.ScaleRule
+		if m.FitScale > 0 {
+			row.FitScale = Num(m.FitScale)
+		}
+		row.setShares(m.Shares())
+		most, n := 0.0, 0
+		for i := 0; i < g.Rows(); i++ {
+			for j := 0; j < g.Cols(); j++ {
+				if !g.Inside(i, j) {
+					continue
+				}
+				if sc, ok := MinScaleFullMatch(g, f, s, i, j); ok {
+					most = math.Max(most, sc)
+					n++
+				}
+			}
+		}
+		row.MachMatchable = n
+		if n > 0 {
+			row.MinScale = Num(most)
+			row.MinScaleCoversAll = n == g.InsideCount()
+			row.MinScaleFits = m.Fits(most)
+		}
+		r.Facilities = append(r.Facilities, row)
+	}
+	r.Best = CoverageRow{Facility: "best of all", Scale: na, FitScale: na, MinScale: na}
+	if solved := e.Solved(); len(solved) > 0 {
+		r.Best.setShares(BestShares(solved))
+		r.Union = UnionCoverage(solved)
+	}
+	return r
+}
+
+func (row *CoverageRow) setShares(sh Shares) {
+	row.Counts = sh.Count
+	row.FullMatch = sh.Share(FullMatch)
+	row.ReShort = sh.Share(ReShort)
+	row.MachRelaxed = sh.Share(MachRelaxed)
+	row.NoMatch = sh.Share(NoMatch)
+	row.Matched = sh.Matched()
+}
+
+// pct formats a share as a percentage with one decimal.
+func pct(x float64) string { return strconv.FormatFloat(100*x, 'f', 1, 64) + " %" }
+
+// g3 formats a number with three significant digits, "-" when not valid.
+func g3(x Num) string {
+	if !x.Valid() {
+		return "-"
+	}
+	return strconv.FormatFloat(float64(x), 'g', 3, 64)
+}
+
+// WriteText writes the report as an aligned table for a terminal or a
+// review document.
+func (r CoverageReport) WriteText(w io.Writer) error {
+	var b strings.Builder
+	fmt.Fprintf(&b, "Coverage of %s: %d×%d grid, %d points inside the envelope\n", r.Vehicle, r.GridRows, r.GridCols, r.Inside)
+	st := r.Settings
+	scale := "per facility"
+	if st.ScaleOverride.Valid() {
+		scale = g3(st.ScaleOverride) + " for every facility"
+	}
+	fmt.Fprintf(&b, "Match: Mach within %s, Reynolds number within %s, Mach relaxed below Mach %s; ΔT %s K; model scale %s\n\n",
+		st.MachTol.String(), pct(float64(st.ReTol)), st.CompressibilityMach.String(), st.DeltaT.String(), scale)
+
+	head := []string{"facility", "medium", "scale", FullMatch.String(), ReShort.String(), MachRelaxed.String(),
+		NoMatch.String(), "matched", "min scale", "fits"}
+	var rows [][]string
+	for _, row := range r.Facilities {
+		if row.Error != "" {
+			rows = append(rows, []string{row.Facility, row.Medium, "-", "-", "-", "-", "-", "-", "-", "-"})
+			continue
+		}
+		minScale, fits := g3(row.MinScale), "-"
+		if row.MinScale.Valid() {
+			if !row.MinScaleCoversAll {
+				minScale += "*"
+			}
+			fits = "no"
+			if row.MinScaleFits {
+				fits = "yes"
+			}
+		}
+		rows = append(rows, []string{row.Facility, row.Medium, g3(row.Scale), pct(row.FullMatch), pct(row.ReShort),
+			pct(row.MachRelaxed), pct(row.NoMatch), pct(row.Matched), minScale, fits})
+	}
+	bo := r.Best
+	rows = append(rows, []string{bo.Facility, "", "", pct(bo.FullMatch), pct(bo.ReShort), pct(bo.MachRelaxed),
+		pct(bo.NoMatch), pct(bo.Matched), "", ""})
+	writeTable(&b, head, rows, 2)
+	fmt.Fprintf(&b, "\nUnion coverage (full match or Mach relaxed in at least one facility): %s of inside points.\n", pct(r.Union))
+	b.WriteString("Shares are of inside points. min scale: smallest model scale giving a full match at every inside\n" +
+		"point the facility can run at flight Mach number; * marks a facility that cannot Mach-match every\n" +
+		"point, so the scale covers only those it can; - where none (water tunnels never match Mach).\n" +
+		"fits: that scale is within the largest the test section takes by the span and blockage rules.\n")
+	for _, row := range r.Facilities {
+		if row.Error != "" {
+			fmt.Fprintf(&b, "%s: not evaluated: %s\n", row.Facility, row.Error)
+		} else if row.MinScale.Valid() && !row.MinScaleCoversAll {
+			fmt.Fprintf(&b, "%s: %d of %d inside points can be run at flight Mach number.\n", row.Facility, row.MachMatchable, r.Inside)
+		}
+	}
+	b.WriteString(wrapWords("Caution: "+r.Caution, 100))
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// writeTable writes rows under head in aligned columns two spaces apart:
+// the first left columns left-aligned, the others right-aligned, no
+// trailing space. Widths count runes.
+func writeTable(b *strings.Builder, head []string, rows [][]string, left int) {
+	w := make([]int, len(head))
+	all := append([][]string{head}, rows...)
+	for _, r := range all {
+		for k, c := range r {
+			w[k] = max(w[k], utf8.RuneCountInString(c))
+		}
+	}
+	for _, r := range all {
+		var line strings.Builder
+		for k, c := range r {
+			pad := strings.Repeat(" ", w[k]-utf8.RuneCountInString(c))
+			if k > 0 {
+				line.WriteString("  ")
+			}
+			if k < left {
+				line.WriteString(c + pad)
+			} else {
+				line.WriteString(pad + c)
+			}
+		}
+		b.WriteString(strings.TrimRight(line.String(), " "))
+		b.WriteByte('\n')
+	}
+}
+
+// wrapWords wraps s at width columns, ending every line with a newline.
+func wrapWords(s string, width int) string {
+	var b strings.Builder
+	n := 0
+	for _, word := range strings.Fields(s) {
+		l := utf8.RuneCountInString(word)
+		if n > 0 && n+1+l > width {
+			b.WriteByte('\n')
+			n = 0
+		}
+		if n > 0 {
+			b.WriteByte(' ')
+			n++
+		}
+		b.WriteString(word)
+		n += l
+	}
+	b.WriteByte('\n')
+	return b.String()
+}
+
+// coverageCSVHeader are the CSV columns of the coverage report.
+var coverageCSVHeader = []string{
+	"facility", "medium", "error", "model_scale", "scale_rule", "fit_scale", "inside_points",
+	"full_match", "reynolds_short", "mach_relaxed", "out_of_reach", "matched",
+	"min_scale_full_match", "mach_matchable_points", "min_scale_covers_envelope", "min_scale_fits_section",
+}
+
+// WriteCSV writes one row per facility and a last row "best of all" whose
+// matched column is the union coverage. Shares are fractions of the inside
+// points (0–1).
+func (r CoverageReport) WriteCSV(w io.Writer) error {
+	cw := csv.NewWriter(w)
+	f := func(x float64) string { return strconv.FormatFloat(x, 'g', -1, 64) }
+	rec := func(row CoverageRow) []string {
+		return []string{row.Facility, row.Medium, row.Error, row.Scale.String(), row.ScaleRule, row.FitScale.String(),
+			strconv.Itoa(r.Inside), f(row.FullMatch), f(row.ReShort), f(row.MachRelaxed), f(row.NoMatch), f(row.Matched),
+			row.MinScale.String(), strconv.Itoa(row.MachMatchable), strconv.FormatBool(row.MinScaleCoversAll),
+			strconv.FormatBool(row.MinScaleFits)}
+	}
+	if err := cw.Write(coverageCSVHeader); err != nil {
+		return err
+	}
+	for _, row := range r.Facilities {
+		if err := cw.Write(rec(row)); err != nil {
+			return err
+		}
+	}
+	best := rec(r.Best)
+	best[11] = f(r.Union)
+	best[13], best[14], best[15] = "", "", ""
+	if err := cw.Write(best); err != nil {
+		return err
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+// WriteJSON writes the report as one indented JSON object.
+func (r CoverageReport) WriteJSON(w io.Writer) error {
+	b, err := json.MarshalIndent(r, "", "  ")
+	if err != nil {
+		return err
+	}
+	b = append(b, '\n')
+	_, err = w.Write(b)
+	return err
+}
