@@ -28,6 +28,9 @@ const (
 	// earlier once the bracket is narrower than waterTolK (kelvin).
 	waterIter = 60
 	waterTolK = 1e-6
+	// solveSlack is the relative rounding allowance with which a setting
+	// that hits its target counts as reaching it.
+	solveSlack = 1e-9
 )
 
 // Map is one facility's answer over a grid: a Result per grid point, in
@@ -555,7 +558,7 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool) {
 		if reached {
 			ps.class = MachRelaxed
 			sv.usePick(ps, &rp, mf, tFlight)
-			if rp.re >= target {
+			if rp.re >= target*(1-solveSlack) {
 				ps.limit = LimitNone
 				if rp.over {
 					ps.limit = LimitP0Min
@@ -586,7 +589,7 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool) {
 func (sv *solver) usePick(ps *pointSol, g *gasPick, mf, tFlight float64) {
 	sv.fillGas(ps, &g.c, g.p0, g.t0, g.re, mf, tFlight)
 	ps.reMax, ps.pLim, ps.tLim = g.re, g.pLim, g.tLim
-	if g.re < ps.reFlight {
+	if g.re < ps.reFlight*(1-solveSlack) {
 		ps.limit = bindingLimit(g.pLim, g.tLim)
 	}
 }
