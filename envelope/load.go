@@ -392,13 +392,13 @@ func (t *table) sub(key string, allowed []string, required bool) *table {
 	raw, ok := t.get(key)
 	if !ok {
 		if required {
-			t.d.fail(p, display(p), "", "a ["+display(p)+"] table")
+			t.d.fail(p, display(p), "", "the ["+display(p)+"] table")
 		}
 		return nil
 	}
 	m, ok := raw.(map[string]any)
 	if !ok {
-		t.d.fail(p, display(p), describe(raw), "a ["+display(p)+"] table")
+		t.d.fail(p, display(p), describe(raw), "the ["+display(p)+"] table")
 		return nil
 	}
 	return t.d.table(p, m, allowed)

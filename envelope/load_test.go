@@ -292,6 +292,8 @@ func TestBadFiles(t *testing.T) {
 			`unknown_key.toml:6: vehicle.spann: found unknown key "spann", expected "span", or one of: name, reference_length, reference_length_is, reference_area, span, frontal_area`}},
 		{"missing_field.toml", []string{
 			`missing_field.toml:2: vehicle.reference_length: missing, expected a length with its unit, e.g. "1.2 m" ` + lengthUnits}},
+		{"missing_table.toml", []string{
+			`missing_table.toml: envelope: missing, expected the [envelope] table`}},
 		{"missing_unit.toml", []string{
 			`missing_unit.toml:6: vehicle.span: found "24" (missing length unit), expected a length with its unit, e.g. "1.2 m" ` + lengthUnits}},
 		{"bare_number.toml", []string{
@@ -787,6 +789,30 @@ z = 3
 	} {
 		if got := idx.line(path); got != want {
 			t.Errorf("line(%q) = %d, want %d", path, got, want)
+		}
+	}
+}
+
+func BenchmarkParseVehicle(b *testing.B) {
+	data, err := demoFiles.ReadFile("demo/" + demoDefaultVehicle)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		if _, err := ParseVehicle("demo.toml", data); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkParseFacilities(b *testing.B) {
+	data, err := demoFiles.ReadFile("demo/" + demoFacilityFile)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		if _, err := ParseFacilities("demo.toml", data); err != nil {
+			b.Fatal(err)
 		}
 	}
 }
