@@ -78,7 +78,7 @@ func MinScaleFullMatch(g *Grid, f *Facility, s Settings, i, j int) (float64, boo
 	if f.Medium == MediumWater || checkFacility(f) != nil || checkSettings(s) != nil {
 		return 0, false
 	}
-	sv := newSolver(f, s, g.Regimes, g.Vehicle.RefLength)
+	sv := solverFor(f, s, g.Regimes, g.Vehicle.RefLength)
 	return sv.minScale(&g.points[g.Index(i, j)])
 }
 
@@ -111,7 +111,7 @@ func MinScaleEnvelope(g *Grid, f *Facility, s Settings) (float64, bool) {
 	if f.Medium == MediumWater || checkFacility(f) != nil || checkSettings(s) != nil {
 		return 0, false
 	}
-	sv := newSolver(f, s, g.Regimes, g.Vehicle.RefLength)
+	sv := solverFor(f, s, g.Regimes, g.Vehicle.RefLength)
 	var most float64
 	all, any := true, false
 	for k := range g.points {

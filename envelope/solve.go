@@ -146,7 +146,7 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	default:
 		return nil, fmt.Errorf("solve %q: no model scale: set a scale, or give the vehicle span or frontal area and the section width and height", f.Name)
 	}
-	m.sv = newSolver(f, s, g.Regimes, m.Scale*g.Vehicle.RefLength)
+	m.sv = solverFor(f, s, g.Regimes, m.Scale*g.Vehicle.RefLength)
 	m.Results = make([]Result, len(g.points))
 	cols := len(g.Speeds)
 	for i := range g.Alts {
@@ -218,6 +218,31 @@ func (m *Map) Detail(i, j int) (Detail, error) {
 	return d, nil
 }
 
+// ReynoldsRange is the span of model Reynolds numbers the map's gas
+// facility reaches at test Mach number mach with the map's model: from the
+// lowest setting (P0Min at T0Max, within the unit-Reynolds cap) to the
+// best setting within every limit. ok is false for a water facility, for a
+// Mach number outside the facility range, and where no setting exists.
+func (m *Map) ReynoldsRange(mach float64) (lo, hi float64, ok bool) {
+	sv := m.sv
+	if sv == nil || sv.water || mach < sv.f.MachMin || mach > sv.f.MachMax || !(mach > 0) {
+		return 0, 0, false
+	}
+	c := sv.bounds(mach)
+	if !c.ok {
+		return 0, 0, false
+	}
+	_, _, hi, _, _, ok = sv.best(&c)
+	if !ok {
+		return 0, 0, false
+	}
+	lo = sv.reAt(&c, sv.p0min, sv.t0max)
+	if sv.rpm > 0 {
+		lo = lesserOf(lo, sv.rpm*sv.L)
+	}
+	return lo, hi, true
+}
+
 // solver holds the per-facility constants of a Solve.
 type solver struct {
 	f     *Facility
@@ -248,10 +273,16 @@ type solver struct {
 	pStatic float64
 }
 
-// newSolver prepares facility f (already checked) for a model of
+// newSolver prepares facility f (already checked) for grid g at model
+// scale scale.
+func newSolver(g *Grid, f *Facility, s Settings, scale float64) *solver {
+	return solverFor(f, s, g.Regimes, scale*g.Vehicle.RefLength)
+}
+
+// solverFor prepares facility f (already checked) for a model of
 // reference length L (m), with the tolerances of s and regime thresholds
 // reg.
-func newSolver(f *Facility, s Settings, reg atmos.Regimes, L float64) *solver {
+func solverFor(f *Facility, s Settings, reg atmos.Regimes, L float64) *solver {
 	sv := &solver{
 		f:     f,
 		water: f.Medium == MediumWater,

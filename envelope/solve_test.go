@@ -58,7 +58,7 @@ func testSolver(t testing.TB, f Facility, s Settings, L float64) *solver {
 	if err := checkFacility(&f); err != nil {
 		t.Fatal(err)
 	}
-	return newSolver(&f, s, atmos.DefaultRegimes(), L)
+	return solverFor(&f, s, atmos.DefaultRegimes(), L)
 }
 
 // TestIsentropicSteps checks the isentropic ratios and q/p0 used by the
@@ -690,5 +690,28 @@ func TestDetailAgreesWithMap(t *testing.T) {
 				}
 			}
 		}
+	}
+}
+
+// TestReynoldsRange: the reachable range at a test Mach number runs from
+// P0Min at T0Max up to the best setting.
+func TestReynoldsRange(t *testing.T) {
+	g, err := NewGrid(testTransport(), testSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := classTunnel()
+	m, err := Solve(g, &f, testSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	lo, hi, ok := m.ReynoldsRange(0.7)
+	c := m.sv.bounds(0.7)
+	_, _, best, _, _, _ := m.sv.best(&c)
+	if !ok || relErr(hi, best) > exactTol || relErr(lo, m.sv.reAt(&c, f.P0Min, f.T0Max)) > exactTol || !(lo < hi) {
+		t.Errorf("ReynoldsRange(0.7) = %v, %v, %v; want P0Min/T0Max Re up to the best %v", lo, hi, ok, best)
+	}
+	if _, _, ok := m.ReynoldsRange(0.95); ok {
+		t.Error("ReynoldsRange above the Mach range: want ok false")
 	}
 }
