@@ -124,6 +124,10 @@ type Detail struct {
 // that reach the flight Reynolds number the warmest T0 is taken, then the
 // lowest p0. Water facilities: warmest water (lowest viscosity), then the
 // lowest speed.
+//
+// The day (DeltaT) and regime thresholds are the grid's; of s, Solve uses
+// the scale override and the tolerances. The model scale is s.Scale if set,
+// else the facility's Model.Scale, else the largest that fits (FitScale).
 func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	if g == nil || f == nil {
 		return nil, errors.New("solve: need a grid and a facility")
@@ -905,7 +909,8 @@ func peakMach(f *Facility) float64 {
 }
 
 // fitMach is the Mach number the model is sized for: the highest inside
-// flight Mach number the facility can run (gas), 0 for water.
+// flight Mach number, held within the facility's Mach range (gas); 0 for
+// water.
 func fitMach(g *Grid, f *Facility) float64 {
 	if f.Medium == MediumWater {
 		return 0
@@ -916,7 +921,7 @@ func fitMach(g *Grid, f *Facility) float64 {
 			hi = greaterOf(hi, r.mach)
 		}
 	}
-	return math.Min(hi, f.MachMax)
+	return greaterOf(lesserOf(hi, f.MachMax), f.MachMin)
 }
 
 // checkSettings checks the tolerances and scale of s.
