@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"unsafe"
 
 	"likewind/atmos"
 )
@@ -416,11 +417,11 @@ func (g *Grid) FlightDetail(i, j int) (FlightDetail, error) {
 	return d, nil
 }
 
-// StoredBytes is the memory the grid holds per point set: the per-point
-// records plus the per-row atmosphere and the axes.
+// StoredBytes is the memory the grid holds: the per-point records (32
+// bytes each) plus the per-row atmosphere and the axes.
 func (g *Grid) StoredBytes() int {
-	const rec = 32   // flightRec
-	const state = 88 // atmos.State: 11 float64
+	rec := int(unsafe.Sizeof(flightRec{}))
+	state := int(unsafe.Sizeof(atmos.State{}))
 	return len(g.points)*rec + len(g.rows)*state + 8*(len(g.Alts)+len(g.Speeds))
 }
 

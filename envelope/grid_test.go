@@ -3,6 +3,7 @@ package envelope
 import (
 	"math"
 	"testing"
+	"unsafe"
 
 	"likewind/atmos"
 )
@@ -339,5 +340,16 @@ func TestGridOtherKinds(t *testing.T) {
 				}
 			}
 		}
+	}
+}
+
+// TestStoredSizes holds the per-point storage to its documented size:
+// 32 bytes of flight data and 32 bytes per facility result.
+func TestStoredSizes(t *testing.T) {
+	if n := unsafe.Sizeof(flightRec{}); n != 32 {
+		t.Errorf("flightRec is %d bytes, want 32", n)
+	}
+	if n := unsafe.Sizeof(Result{}); n != 32 {
+		t.Errorf("Result is %d bytes, want 32", n)
 	}
 }

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"unsafe"
 
 	"likewind/atmos"
 )
@@ -171,8 +172,9 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 // At returns the stored result of point (i, j).
 func (m *Map) At(i, j int) Result { return m.Results[m.Grid.Index(i, j)] }
 
-// StoredBytes is the memory the map holds for its results.
-func (m *Map) StoredBytes() int { return len(m.Results) * 32 }
+// StoredBytes is the memory the map holds for its results (32 bytes per
+// point).
+func (m *Map) StoredBytes() int { return len(m.Results) * int(unsafe.Sizeof(Result{})) }
 
 // Detail recomputes point (i, j) at full precision and adds what the
 // compact Result leaves out: the test-section state, the Reynolds sweep at
