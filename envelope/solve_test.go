@@ -715,3 +715,26 @@ func TestReynoldsRange(t *testing.T) {
 		t.Error("ReynoldsRange above the Mach range: want ok false")
 	}
 }
+
+// TestEveryClassOnAMap: over the test transport's envelope, the class
+// tunnel (top Mach number cut to 0.85) at scale 0.05 shows every class.
+func TestEveryClassOnAMap(t *testing.T) {
+	g, err := NewGrid(testTransport(), testSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := classTunnel()
+	f.MachMax = 0.85
+	s := testSettings()
+	s.Scale = 0.05
+	m, err := Solve(g, &f, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sh := m.Shares()
+	for c := Class(0); int(c) < NumClasses; c++ {
+		if sh.Count[c] == 0 {
+			t.Errorf("no point classed %v (shares %+v)", c, sh)
+		}
+	}
+}
