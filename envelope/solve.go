@@ -567,14 +567,16 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool) {
 		c = sv.bounds(mm)
 		if p0, t0, re, over, ok := sv.tryHit(&c, target); ok {
 			ps.class = FullMatch
-			if over {
-				ps.limit = LimitP0Min
-			}
 			sv.fillGas(ps, &c, p0, t0, re, mf, tFlight)
 			if detail {
 				if _, _, r, pl, tl, ok := sv.best(&c); ok {
 					ps.reMax, ps.pLim, ps.tLim = r, pl, tl
 				}
+			}
+			if over {
+				// Overshoot only happens at T0Max: the settings cannot come
+				// down further on either side.
+				ps.limit, ps.pLim, ps.tLim = LimitP0Min, LimitP0Min, LimitT0Max
 			}
 			return
 		}
@@ -698,6 +700,9 @@ func (sv *solver) relaxAt(b *gasBounds, target float64) gasPick {
 	g := gasPick{c: *b}
 	g.p0, g.t0, g.re, g.over, _ = sv.tryHit(b, target)
 	_, _, _, g.pLim, g.tLim, _ = sv.best(b)
+	if g.over {
+		g.pLim, g.tLim = LimitP0Min, LimitT0Max
+	}
 	return g
 }
 

@@ -529,6 +529,9 @@ func TestOvershoot(t *testing.T) {
 	if ps.class != FullMatch || ps.limit != LimitP0Min || !ps.flags.Has(FlagReOver) {
 		t.Errorf("overshoot: class %v limit %v flags %v, want full match, minimum p0, Reynolds over", ps.class, ps.limit, ps.flags)
 	}
+	if ps.pLim != LimitP0Min || ps.tLim != LimitT0Max {
+		t.Errorf("overshoot side limits %v, %v; want minimum p0, maximum T0", ps.pLim, ps.tLim)
+	}
 	if ps.p0 != f.P0Min || ps.t0 != f.T0Max || relErr(ps.ratio, 2) > exactTol {
 		t.Errorf("overshoot setting p0 %v T0 %v ratio %v, want P0Min, T0Max, 2", ps.p0, ps.t0, ps.ratio)
 	}
