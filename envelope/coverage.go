@@ -50,21 +50,28 @@ func sharesOf(rs []Result) Shares {
 // Best picks, point by point, the facility whose result is best (by
 // Better: class rank, then Reynolds ratio nearest 1). It returns the index
 // into maps per point (-1 outside the envelope) and the winning results.
-// All maps must be solved on the same grid; maps on another grid are
-// skipped.
+// All maps must be solved on the same grid (that of the first non-nil
+// map); nil maps and maps on another grid are skipped, keeping their index.
 func Best(maps []*Map) ([]int, []Result) {
-	if len(maps) == 0 {
+	var first *Map
+	for _, m := range maps {
+		if m != nil {
+			first = m
+			break
+		}
+	}
+	if first == nil {
 		return nil, nil
 	}
-	g := maps[0].Grid
-	n := len(maps[0].Results)
+	g := first.Grid
+	n := len(first.Results)
 	idx := make([]int, n)
 	best := make([]Result, n)
 	for k := range idx {
 		idx[k] = -1
 	}
 	for f, m := range maps {
-		if m.Grid != g || len(m.Results) != n {
+		if m == nil || m.Grid != g || len(m.Results) != n {
 			continue
 		}
 		for k, r := range m.Results {

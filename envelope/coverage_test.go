@@ -52,6 +52,10 @@ func TestBestAndUnion(t *testing.T) {
 	if got := UnionCoverage([]*Map{a, other}); math.Abs(got-1.0/3) > 1e-15 {
 		t.Errorf("UnionCoverage with a foreign map = %v, want A's own 1/3", got)
 	}
+	idx, _ = Best([]*Map{nil, b})
+	if idx[1] != 1 || idx[2] != 1 {
+		t.Errorf("Best with a nil map first: indexes %v, want B's index 1 kept", idx)
+	}
 	if idx, best := Best(nil); idx != nil || best != nil {
 		t.Error("Best(nil) should return nil slices")
 	}
