@@ -129,6 +129,14 @@ func (m Model) detailBlocks(w int) detailBlocks {
 	}
 	d.facility = append(d.facility, pair("scale", sig(det.Scale, 3), "model", u.Length(det.ModelLength)))
 
+	if !m.wide {
+		// Narrow screens list the cautions by name on one line; the wide
+		// layout has room for the full text.
+		if det.Flags != 0 {
+			d.cautions = append(d.cautions, st.Caution.Render("! "+det.Flags.String()))
+		}
+		return d
+	}
 	for _, c := range det.Cautions {
 		if c == envelope.PlanningNote {
 			continue

@@ -22,7 +22,7 @@ type helpView struct {
 func newHelpView(f frame) helpView {
 	h := help.New()
 	h.ShortSeparator = "  "
-	h.FullSeparator = "   "
+	h.FullSeparator = "  "
 	h.Ellipsis = "…"
 	h.Styles = help.Styles{
 		Ellipsis:       f.st.HelpSep,

@@ -23,7 +23,7 @@ const (
 	// rather than below it.
 	WideWidth = 110
 
-	minMatrixHeight = matrixOverhead + 4
+	minMatrixHeight = matrixOverhead + 6
 )
 
 // Options configures New.

@@ -236,8 +236,13 @@ func TestUpdateKeys(t *testing.T) {
 // edit opens the editor on field f, types text and applies it.
 func edit(t *testing.T, m Model, f field, text string) Model {
 	t.Helper()
-	m, _ = press(m, "e")
-	for m.editor.sel != int(f) {
+	if m.mode != modeEdit {
+		m, _ = press(m, "e")
+	}
+	for n := 0; m.editor.sel != int(f); n++ {
+		if n > int(fieldCount) || m.mode != modeEdit {
+			t.Fatalf("cannot reach field %v in the editor", f.label(false))
+		}
 		m, _ = press(m, "down")
 	}
 	m, _ = press(m, "enter")

@@ -146,7 +146,7 @@ func (m *Model) relayout() {
 	m.headerH = lineCount(m.headerText())
 	m.legend.SetSize(W, H)
 	m.legendH = lineCount(m.legend.View(m.legendInput()))
-	m.bodyH = max(H-m.headerH-m.legendH-2, 1)
+	m.bodyH = max(H-m.headerH-m.legendH-1, 1)
 	m.wide = W >= WideWidth
 	if m.mode == modeHelp {
 		m.help.SetSize(W, H-m.headerH-1)
@@ -210,7 +210,6 @@ func (m Model) View() string {
 	}
 	parts = append(parts, m.bodyView())
 	parts = append(parts, box(m.legend.View(m.legendInput()), W, m.legendH))
-	parts = append(parts, m.statusLine())
 	parts = append(parts, m.footer())
 	return clip(strings.Join(parts, "\n"), W, H)
 }
@@ -296,9 +295,13 @@ func (m Model) statusLine() string {
 	return clip(st.Status.Render(m.status), m.fr.width, 1)
 }
 
-// footer is the key help line, the input line or the quit question.
+// footer is the last line: the quit question, the input line, a status
+// message, or the key help.
 func (m Model) footer() string {
 	k := m.fr.keys
+	if m.status != "" && m.mode != modeConfirm && !(m.mode == modeEdit && m.editor.editing) {
+		return m.statusLine()
+	}
 	switch m.mode {
 	case modeConfirm:
 		q := "Unsaved what-if changes or marks. "
