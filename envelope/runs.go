@@ -89,6 +89,25 @@ func FullMatchPoints(m *Map) []GridPoint {
 	return out
 }
 
+// DefaultRunPoints lists the points a run list covers when no test points
+// are marked: the full-match points, or for a water tunnel, where Mach
+// number is never matched, its matched points (Mach relaxed).
+func DefaultRunPoints(m *Map) []GridPoint {
+	if m.Facility.Medium != MediumWater {
+		return FullMatchPoints(m)
+	}
+	var out []GridPoint
+	g := m.Grid
+	for i := 0; i < g.Rows(); i++ {
+		for j := 0; j < g.Cols(); j++ {
+			if m.At(i, j).Class.Matched() {
+				out = append(out, GridPoint{i, j})
+			}
+		}
+	}
+	return out
+}
+
 // PlanRuns builds the run list of facility map m for the given points
 // (duplicates are dropped) and orders it with OrderRuns.
 func PlanRuns(m *Map, points []GridPoint) (RunList, error) {

@@ -167,3 +167,18 @@ func sortGridOrder(rs []Run) {
 		}
 	}
 }
+
+func TestDefaultRunPoints(t *testing.T) {
+	_, maps := outDemoMaps(t)
+	for _, m := range maps {
+		for _, p := range DefaultRunPoints(m) {
+			c := m.At(p.Row, p.Col).Class
+			if m.Facility.Medium == MediumWater && c != MachRelaxed {
+				t.Errorf("%s: default run point class %v, want Mach relaxed", m.Facility.Name, c)
+			}
+			if m.Facility.Medium != MediumWater && c != FullMatch {
+				t.Errorf("%s: default run point class %v, want full match", m.Facility.Name, c)
+			}
+		}
+	}
+}

@@ -1,0 +1,417 @@
+package main
+
+import (
+	"flag"
+	"fmt"
+	"io"
+	"strings"
+
+	"github.com/charmbracelet/lipgloss"
+	"github.com/muesli/termenv"
+
+	"likewind/atmos"
+	"likewind/envelope"
+	"likewind/tui"
+)
+
+// runDump writes the envelope matrix of one facility and layer as text,
+// drawn by the interface's own matrix and legend renderer, under a header
+// that says what it shows.
+func runDump(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("dump", stderr)
+	var o outFlags
+	o.register(fs)
+	facility := fs.String("facility", "", `facility to show: name, unique part of a name, number, or "best" (default: the first, as the interface opens)`)
+	layer := fs.String("layer", "", "layer: class, regime, reynolds, q or mach (default class)")
+	plain := fs.Bool("plain", false, "no colour, even on a terminal")
+	color := fs.Bool("color", false, "ANSI colour, even into a file or pipe")
+	customary := fs.Bool("customary", false, "altitude in ft and airspeeds in kt")
+	session := fs.String("session", "", "apply this session file: what-if values, marks, facility, layer and units")
+	date := fs.String("date", "", "date written into the header, YYYY-MM-DD (default today)")
+	fs.Usage = func() {
+		fmt.Fprintln(stderr, "usage: likewind dump [VEHICLE.toml FACILITIES.toml...] [-o FILE] [--force] [--facility NAME] [--layer NAME] [--plain|--color] [--customary] [--session FILE]")
+		fs.PrintDefaults()
+	}
+	files, code := parseArgs(fs, args, stderr)
+	if code >= 0 {
+		return code
+	}
+	if *plain && *color {
+		return usageFail(stderr, fmt.Errorf("dump: --plain and --color exclude each other"))
+	}
+	set := flagsSet(fs)
+	var lay tui.Layer
+	if set["layer"] {
+		l, err := parseLayer(*layer)
+		if err != nil {
+			return usageFail(stderr, fmt.Errorf("dump: %w", err))
+		}
+		lay = l
+	}
+	day, err := reportDate(*date)
+	if err != nil {
+		return usageFail(stderr, fmt.Errorf("dump: %w", err))
+	}
+	if code := o.precheck(stderr); code >= 0 {
+		return code
+	}
+	ev, code := evaluateInputs(files, *session, stderr)
+	if code >= 0 {
+		return code
+	}
+	units := tui.SI
+	if *customary {
+		units = tui.Customary
+	}
+	fac := 0
+	if len(ev.e.Facilities) == 0 {
+		fac = -1
+	}
+	if s := ev.session; s != nil {
+		// The session's choices, unless a flag overrides them.
+		if !set["layer"] && s.Layer != "" {
+			if l, err := tui.ParseLayer(s.Layer); err == nil {
+				lay = l
+			}
+		}
+		if !set["customary"] {
+			if u, err := tui.ParseUnits(s.Units); err == nil {
+				units = u
+			}
+		}
+		if !set["facility"] {
+			if s.BestOfAll {
+				fac = -1
+			} else if k := ev.e.Facility(s.Facility); k >= 0 {
+				fac = k
+			}
+		}
+	}
+	if set["facility"] {
+		k, err := pickFacility(ev.e, *facility, true)
+		if err != nil {
+			return usageFail(stderr, fmt.Errorf("dump: %w", err))
+		}
+		fac = k
+	}
+	if fac >= 0 && ev.e.Maps[fac] == nil {
+		return fail(stderr, fmt.Errorf("dump: %s could not be evaluated: %w", ev.e.Facilities[fac].Name, ev.e.Errs[fac]))
+	}
+
+	var st tui.Styles
+	switch {
+	case *plain:
+		st = tui.PlainStyles()
+	case *color:
+		r := lipgloss.NewRenderer(io.Discard)
+		r.SetColorProfile(termenv.TrueColor)
+		st = tui.NewStyles(r)
+	case o.path != "":
+		st = tui.PlainStyles()
+	default:
+		st = tui.NewStyles(lipgloss.NewRenderer(stdout))
+	}
+	text, err := renderDump(ev, dumpView{fac: fac, layer: lay, units: units, date: day}, st)
+	if err != nil {
+		return fail(stderr, fmt.Errorf("dump: %w", err))
+	}
+	if err := o.write(stdout, func(w io.Writer) error {
+		_, err := io.WriteString(w, text)
+		return err
+	}); err != nil {
+		return fail(stderr, fmt.Errorf("dump: %w", err))
+	}
+	return 0
+}
+
+// flagsSet reports which flags were given on the command line.
+func flagsSet(fs *flag.FlagSet) map[string]bool {
+	set := map[string]bool{}
+	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	return set
+}
+
+// layerAliases are the short layer names accepted on the command line,
+// besides the names the interface writes into session files.
+var layerAliases = map[string]tui.Layer{
+	"class": tui.LayerClass, "match": tui.LayerClass,
+	"regime": tui.LayerRegime, "flow": tui.LayerRegime,
+	"reynolds": tui.LayerReynolds, "re": tui.LayerReynolds,
+	"q": tui.LayerQ,
+	"mach": tui.LayerMach,
+}
+
+func parseLayer(s string) (tui.Layer, error) {
+	if l, ok := layerAliases[strings.ToLower(strings.TrimSpace(s))]; ok {
+		return l, nil
+	}
+	l, err := tui.ParseLayer(s)
+	if err != nil {
+		return l, fmt.Errorf("--layer %q: expected class, regime, reynolds, q or mach", s)
+	}
+	return l, nil
+}
+
+// dumpView is what a dump shows.
+type dumpView struct {
+	fac   int // facility index, -1 best of all
+	layer tui.Layer
+	units tui.Units
+	date  string
+}
+
+// renderDump draws the header, the matrix and the legend.
+func renderDump(ev *evaluated, v dumpView, st tui.Styles) (string, error) {
+	e := ev.e
+	g := e.Grid
+	lv, err := newLevels()
+	if err != nil {
+		return "", err
+	}
+	marks := map[int]bool{}
+	for _, p := range ev.marks {
+		marks[g.Index(p.Row, p.Col)] = true
+	}
+	var best []int
+	var bestRes []envelope.Result
+	if v.fac < 0 {
+		best, bestRes = bestOfAll(e)
+	}
+	reTol := e.Settings.ReTol
+	cell := func(i, j int) tui.Cell {
+		c := tui.Cell{Inside: g.Inside(i, j), Marked: marks[g.Index(i, j)]}
+		if !c.Inside {
+			return c
+		}
+		f := g.Flight(i, j)
+		switch v.layer {
+		case tui.LayerRegime:
+			c.Level = lv.regime(f.Speed, f.Rarefaction)
+			return c
+		case tui.LayerMach:
+			c.Level = tui.MachLevel(float64(f.Mach))
+			return c
+		}
+		var res envelope.Result
+		k := v.fac
+		if k < 0 {
+			if best != nil {
+				k, res = best[g.Index(i, j)], bestRes[g.Index(i, j)]
+			}
+			if k >= 0 {
+				c.Tag = facilityLetter(k)
+			}
+		} else {
+			res = e.Maps[k].At(i, j)
+		}
+		if k < 0 {
+			switch v.layer {
+			case tui.LayerReynolds:
+				c.Level = tui.ReynoldsLevel(0, reTol)
+			case tui.LayerQ:
+				c.Level = tui.QLevel(0, 0)
+			default:
+				c.Level = lv.noFacility
+			}
+			return c
+		}
+		switch v.layer {
+		case tui.LayerClass:
+			c.Level = lv.class[res.Class]
+		case tui.LayerReynolds:
+			c.Level = tui.ReynoldsLevel(float64(res.ReRatio), reTol)
+		case tui.LayerQ:
+			c.Level = tui.QLevel(float64(res.Q), e.Facilities[k].QMax)
+		}
+		return c
+	}
+	in := tui.MatrixInput{
+		Layer:     v.layer,
+		Rows:      g.Rows(),
+		Cols:      g.Cols(),
+		AltTitle:  "altitude " + v.units.AltUnit(),
+		Cell:      cell,
+		Tags:      v.fac < 0 && v.layer.NeedsFacility() && len(e.Facilities) > 0,
+		CursorRow: -1,
+		CursorCol: -1,
+	}
+	title, label := v.units.SpeedAxis(g.SpeedKind)
+	in.SpeedTitle = title
+	in.AltLabels = make([]string, g.Rows())
+	for i, a := range g.Alts {
+		in.AltLabels[i] = v.units.AltLabel(a)
+	}
+	in.SpeedLabel = make([]string, g.Cols())
+	for j, s := range g.Speeds {
+		in.SpeedLabel[j] = label(s)
+	}
+	w, h := tui.MatrixSize(in)
+	leg := tui.LegendInput{Layer: v.layer, ReTol: reTol, NoFacility: len(e.Solved()) == 0}
+	if in.Tags {
+		// As the interface labels them: the first word of each name (the
+		// header lists the full names).
+		for k, f := range e.Facilities {
+			word := f.Name
+			if w := strings.Fields(f.Name); len(w) > 0 {
+				word = w[0]
+			}
+			leg.Tags = append(leg.Tags, fmt.Sprintf("%c %s", facilityLetter(k), word))
+		}
+	}
+	var b strings.Builder
+	b.WriteString(dumpHeader(ev, v))
+	b.WriteString("\n")
+	b.WriteString(tui.RenderMatrix(in, st, w, h))
+	b.WriteString("\n\n")
+	b.WriteString(tui.RenderLegend(leg, st, max(w, 78)))
+	b.WriteString("\n")
+	return b.String(), nil
+}
+
+// facilityLetter is facility k's letter in best-of-all mode, as the
+// interface assigns them.
+func facilityLetter(k int) byte {
+	const letters = "abcdefghijklmnopqrstuvwxyz"
+	return letters[k%len(letters)]
+}
+
+// bestOfAll returns, per grid point, the index (into e.Facilities) of the
+// best facility and its result; -1 outside or where none was evaluated.
+func bestOfAll(e *envelope.Evaluation) ([]int, []envelope.Result) {
+	var solved []*envelope.Map
+	var index []int
+	for k, m := range e.Maps {
+		if m != nil {
+			solved = append(solved, m)
+			index = append(index, k)
+		}
+	}
+	if len(solved) == 0 {
+		return nil, nil
+	}
+	best, res := envelope.Best(solved)
+	for p, b := range best {
+		if b >= 0 {
+			best[p] = index[b]
+		}
+	}
+	return best, res
+}
+
+// levels maps engine classes and regimes onto the interface's level
+// indices. The tui package keeps those indices to itself, so they are
+// found by the labels its legend gives them; newLevels fails if a label is
+// missing, so a change there shows up at once.
+type levels struct {
+	class      [envelope.NumClasses]int
+	noFacility int
+	speed      map[atmos.SpeedRegime]int
+	rare       map[atmos.RarefactionRegime]int
+}
+
+func legendKey(s string) string {
+	s = strings.ToLower(strings.NewReplacer("-", " ", "_", " ").Replace(s))
+	return strings.TrimSuffix(strings.TrimSpace(s), " flow")
+}
+
+func newLevels() (levels, error) {
+	lv := levels{speed: map[atmos.SpeedRegime]int{}, rare: map[atmos.RarefactionRegime]int{}}
+	find := func(l tui.Layer, name string) (int, error) {
+		for _, en := range tui.Legend(l, 0.1, true) {
+			if en.Level >= 0 && legendKey(en.Label) == legendKey(name) {
+				return en.Level, nil
+			}
+		}
+		return 0, fmt.Errorf("the %s legend has no entry %q", l, name)
+	}
+	var err error
+	for _, c := range []envelope.Class{envelope.FullMatch, envelope.ReShort, envelope.MachRelaxed, envelope.NoMatch} {
+		if lv.class[c], err = find(tui.LayerClass, c.String()); err != nil {
+			return lv, err
+		}
+	}
+	if lv.noFacility, err = find(tui.LayerClass, "no facility"); err != nil {
+		return lv, err
+	}
+	for _, r := range []atmos.SpeedRegime{atmos.Incompressible, atmos.Subsonic, atmos.Transonic, atmos.Supersonic, atmos.Hypersonic} {
+		if lv.speed[r], err = find(tui.LayerRegime, r.String()); err != nil {
+			return lv, err
+		}
+	}
+	for _, r := range []atmos.RarefactionRegime{atmos.Slip, atmos.Transitional, atmos.FreeMolecular} {
+		if lv.rare[r], err = find(tui.LayerRegime, r.String()); err != nil {
+			return lv, err
+		}
+	}
+	return lv, nil
+}
+
+// regime is the regime layer's level: the rarefaction regime where the
+// flow is not continuum, else the speed regime (as the interface shows
+// it).
+func (lv levels) regime(sp atmos.SpeedRegime, ra atmos.RarefactionRegime) int {
+	if k, ok := lv.rare[ra]; ok {
+		return k
+	}
+	return lv.speed[sp]
+}
+
+// dumpHeader says what the matrix shows.
+func dumpHeader(ev *evaluated, v dumpView) string {
+	e := ev.e
+	g := e.Grid
+	veh := g.Vehicle
+	s := e.Settings
+	u := v.units
+	var b strings.Builder
+	line := func(k, format string, a ...any) {
+		fmt.Fprintf(&b, "%-9s %s\n", k, fmt.Sprintf(format, a...))
+	}
+	fmt.Fprintf(&b, "likewind %s matrix dump, %s\n", version, v.date)
+	src := "built-in demo data"
+	if len(ev.in.files) > 0 {
+		src = strings.Join(ev.in.files, ", ")
+	}
+	line("vehicle", "%s (%s)", veh.Name, src)
+	if v.fac < 0 {
+		line("facility", "best of all: per point the facility with the best class, by the letter beside each cell")
+		for k, f := range e.Facilities {
+			note := fmt.Sprintf("model scale %.3g", e.Maps[k].Scale)
+			if e.Maps[k] == nil {
+				note = "not evaluated"
+			}
+			line("", "%c  %s (%s)", facilityLetter(k), f.Name, note)
+		}
+	} else {
+		f := &e.Facilities[v.fac]
+		m := e.Maps[v.fac]
+		desc := f.Medium.String()
+		if f.Class != "" {
+			desc = f.Class + ", " + desc
+		}
+		line("facility", "%s (%s); model scale %.3g, %s", f.Name, desc, m.Scale, m.ScaleRule)
+	}
+	line("layer", "%s", v.layer)
+	scale := "each facility's own"
+	if s.Scale > 0 {
+		scale = fmt.Sprintf("%.3g for every facility", s.Scale)
+	}
+	wi := fmt.Sprintf("model scale %s; ΔT %s; Mach within %g; Reynolds number within %g %%; Mach relaxed below %g",
+		scale, u.DeltaT(s.DeltaT), s.MachTol, 100*s.ReTol, s.CompressibilityMach)
+	if len(ev.changed) > 0 {
+		wi += "; changed by the session: " + strings.Join(ev.changed, ", ")
+	}
+	line("what-if", "%s", wi)
+	speedTitle, _ := u.SpeedAxis(g.SpeedKind)
+	line("units", "%s: altitude %s (%s altitude), speed %s", u, u.AltUnit(), veh.AltitudeKind, speedTitle)
+	_, lab := u.SpeedAxis(g.SpeedKind)
+	grid := fmt.Sprintf("%d altitudes %s–%s × %d speeds %s–%s, %d points inside the envelope",
+		g.Rows(), u.AltLabel(g.Alts[0]), u.Alt(g.Alts[g.Rows()-1]), g.Cols(),
+		lab(g.Speeds[0]), lab(g.Speeds[g.Cols()-1]), g.InsideCount())
+	if len(ev.marks) > 0 {
+		grid += fmt.Sprintf(", %d marked", len(ev.marks))
+	}
+	line("grid", "%s", grid)
+	line("caution", "%s", tui.SafetyNote)
+	return b.String()
+}
