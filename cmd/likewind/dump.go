@@ -137,7 +137,7 @@ var layerAliases = map[string]tui.Layer{
 	"class": tui.LayerClass, "match": tui.LayerClass,
 	"regime": tui.LayerRegime, "flow": tui.LayerRegime,
 	"reynolds": tui.LayerReynolds, "re": tui.LayerReynolds,
-	"q": tui.LayerQ,
+	"q":    tui.LayerQ,
 	"mach": tui.LayerMach,
 }
 
