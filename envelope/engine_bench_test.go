@@ -143,3 +143,18 @@ func BenchmarkResolve400(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkWaterCooling is the one searched water case: the minimum speed
+// overshoots warm water, so the water temperature that brings the
+// Reynolds number down to flight is found (a few atmos.WaterAt calls).
+func BenchmarkWaterCooling(b *testing.B) {
+	f := waterTunnel()
+	f.SpeedMin = 3
+	sv := testSolver(b, f, testSettings(), 0.5)
+	target := 0.8 * 3 * 0.5 / sv.hot.KinematicViscosity
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		ps := sv.solve(0.2, target, 288.15, false)
+		benchSink = ps.result()
+	}
+}

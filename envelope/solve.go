@@ -24,9 +24,10 @@ const (
 	// it stops earlier once the bracket is narrower than relaxTol.
 	relaxIter = 48
 	relaxTol  = 1e-7
-	// waterIter caps the bisection for the water temperature that brings
-	// the Reynolds number down to flight at the minimum speed; it stops
-	// earlier once the bracket is narrower than waterTolK (kelvin).
+	// waterIter caps the regula-falsi search for the water temperature
+	// that brings the Reynolds number down to flight at the minimum speed;
+	// it stops earlier once the bracket is narrower than waterTolK
+	// (kelvin) or the viscosity is met to 1e-12 relative.
 	waterIter = 60
 	waterTolK = 1e-6
 	// solveSlack is the relative rounding allowance with which a setting
@@ -276,6 +277,7 @@ type solver struct {
 
 	// water
 	hot     atmos.WaterState // at T0Max
+	cold    atmos.WaterState // at T0Min
 	pStatic float64
 }
 
@@ -304,6 +306,7 @@ func solverFor(f *Facility, s Settings, reg atmos.Regimes, L float64) *solver {
 	}
 	if sv.water {
 		sv.hot, _ = atmos.WaterAt(f.T0Max) // range checked by checkFacility
+		sv.cold, _ = atmos.WaterAt(f.T0Min)
 		switch {
 		case f.P0Max > 0:
 			sv.pStatic = f.P0Max
@@ -826,30 +829,50 @@ func (sv *solver) solveWater(ps *pointSol, mf float64) {
 }
 
 // coolFor finds the water temperature at which speed V gives exactly the
-// target Reynolds number (kinematic viscosity V·L/target), by bisection
-// over the facility range (viscosity falls as the water warms). over
+// target Reynolds number (kinematic viscosity V·L/target) within the
+// facility range; viscosity falls as the water warms. It runs regula falsi
+// with the Illinois modification on ln ν(T), which is nearly straight over a
+// facility's range, so it ends in a few steps: at most waterIter, stopping
+// when the bracket is narrower than waterTolK or ν is met to 1e-12. over
 // reports that even the coldest water overshoots.
 func (sv *solver) coolFor(V, target float64) (atmos.WaterState, bool) {
-	want := V * sv.L / target
-	cold, err := atmos.WaterAt(sv.f.T0Min)
-	if err != nil || cold.KinematicViscosity <= want {
-		return cold, true
+	want := math.Log(V * sv.L / target)
+	if sv.cold.KinematicViscosity <= V*sv.L/target {
+		return sv.cold, true
 	}
-	lo, hi := sv.f.T0Min, sv.f.T0Max // nu(lo) > want >= nu(hi)
+	lo, hi := sv.f.T0Min, sv.f.T0Max
+	flo := math.Log(sv.cold.KinematicViscosity) - want // > 0
+	fhi := math.Log(sv.hot.KinematicViscosity) - want  // <= 0
+	best := sv.hot
+	side := 0
 	for it := 0; it < waterIter && hi-lo > waterTolK; it++ {
-		mid := 0.5 * (lo + hi)
-		w, err := atmos.WaterAt(mid)
+		T := hi - fhi*(hi-lo)/(fhi-flo)
+		if !(T > lo && T < hi) {
+			T = 0.5 * (lo + hi)
+		}
+		w, err := atmos.WaterAt(T)
 		if err != nil {
 			break
 		}
-		if w.KinematicViscosity > want {
-			lo = mid
+		fm := math.Log(w.KinematicViscosity) - want
+		if math.Abs(fm) <= 1e-12 {
+			return w, false
+		}
+		if fm > 0 {
+			lo, flo = T, fm
+			if side == -1 {
+				fhi /= 2
+			}
+			side = -1
 		} else {
-			hi = mid
+			hi, fhi, best = T, fm, w
+			if side == 1 {
+				flo /= 2
+			}
+			side = 1
 		}
 	}
-	w, _ := atmos.WaterAt(hi)
-	return w, false
+	return best, false
 }
 
 // waterSweep is the Reynolds range at dynamic pressure q as the water
