@@ -456,7 +456,11 @@ func (sv *solver) reAt(c *gasBounds, p0, t0 float64) float64 {
 }
 
 // floorT0 is the lowest T0 allowed at stagnation pressure p0 (the larger
-// of t0lo and the saturation floor), never above T0Max.
+// of t0lo and the saturation floor), never above T0Max. The saturation
+// floor needs the inverse vapour-pressure line, which atmos iterates
+// (Newton in a bracket to 1e-12 relative, at most 100 steps); it is only
+// evaluated when the floor binds, i.e. when the static state at t0lo would
+// be on the liquid side. Every other step of the gas solve is closed form.
 func (sv *solver) floorT0(c *gasBounds, p0 float64) (float64, Limit) {
 	t0, lim := c.t0lo, c.tLim
 	if c.condOn {
