@@ -376,9 +376,9 @@ func dumpHeader(ev *evaluated, v dumpView) string {
 	if v.fac < 0 {
 		line("facility", "best of all: per point the facility with the best class, by the letter beside each cell")
 		for k, f := range e.Facilities {
-			note := fmt.Sprintf("model scale %.3g", e.Maps[k].Scale)
-			if e.Maps[k] == nil {
-				note = "not evaluated"
+			note := "not evaluated"
+			if m := e.Maps[k]; m != nil {
+				note = fmt.Sprintf("model scale %.3g", m.Scale)
 			}
 			line("", "%c  %s (%s)", facilityLetter(k), f.Name, note)
 		}
@@ -389,7 +389,7 @@ func dumpHeader(ev *evaluated, v dumpView) string {
 		if f.Class != "" {
 			desc = f.Class + ", " + desc
 		}
-		line("facility", "%s (%s); model scale %.3g, %s", f.Name, desc, m.Scale, m.ScaleRule)
+		line("facility", "%s (%s); model scale %.3g (%s)", f.Name, desc, m.Scale, m.ScaleRule)
 	}
 	line("layer", "%s", v.layer)
 	scale := "each facility's own"
