@@ -1,0 +1,203 @@
+package main
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"math"
+	"strconv"
+	"strings"
+	"testing"
+
+	"likewind/envelope"
+	"likewind/tui"
+)
+
+// outRunsDoc is the JSON run list read back.
+type outRunsDoc struct {
+	Tool, Version, Generated, Caution, Units, Vehicle, Points string
+	Facilities                                                []struct {
+		Facility   string
+		Medium     string
+		Scale      envelope.Num `json:"model_scale"`
+		Changes    struct{ T0, P0, Mach, Any int }
+		Runs       []runRecord
+		Unrunnable []runRecord
+	}
+}
+
+func outRunsJSON(t *testing.T, args ...string) outRunsDoc {
+	t.Helper()
+	code, out, errs := outCmd(append([]string{"runs", "--format", "json", "--date", "2025-01-01"}, args...)...)
+	if code != 0 {
+		t.Fatalf("runs %v exit %d: %s", args, code, errs)
+	}
+	var doc outRunsDoc
+	if err := json.Unmarshal([]byte(out), &doc); err != nil {
+		t.Fatalf("runs JSON read back: %v\n%s", err, out)
+	}
+	return doc
+}
+
+// back rebuilds engine runs from records, to recount changes.
+func back(recs []runRecord) []envelope.Run {
+	var rs []envelope.Run
+	for _, r := range recs {
+		run := envelope.Run{Mach: float64(r.TestMach), P0: float64(r.P0), T0: float64(r.T0), Speed: float64(r.TestSpeed)}
+		if r.Medium == "water" {
+			run.Mach, run.P0, run.T0 = 0, float64(r.StaticPressure), float64(r.WaterTemperature)
+		}
+		rs = append(rs, run)
+	}
+	return rs
+}
+
+func TestRunsFullMatch(t *testing.T) {
+	e := outDemoEval(t)
+	doc := outRunsJSON(t)
+	if doc.Points != "full match" || doc.Generated != "2025-01-01" || doc.Caution == "" {
+		t.Errorf("header points %q date %q caution %q", doc.Points, doc.Generated, doc.Caution)
+	}
+	if len(doc.Facilities) != len(e.Solved()) {
+		t.Fatalf("facilities %d, want %d", len(doc.Facilities), len(e.Solved()))
+	}
+	total := 0
+	for _, f := range doc.Facilities {
+		k := e.Facility(f.Facility)
+		m := e.Maps[k]
+		want := envelope.DefaultRunPoints(m)
+		if len(f.Runs) != len(want) || len(f.Unrunnable) != 0 {
+			t.Errorf("%s: %d runs, %d unrunnable; want %d and 0", f.Facility, len(f.Runs), len(f.Unrunnable), len(want))
+		}
+		total += len(f.Runs)
+		water := f.Medium == "water"
+		c := envelope.CountChanges(back(f.Runs), water)
+		if c.T0 != f.Changes.T0 || c.P0 != f.Changes.P0 || c.Mach != f.Changes.Mach || c.Any != f.Changes.Any {
+			t.Errorf("%s: changes %+v, recounted %+v", f.Facility, f.Changes, c)
+		}
+		for n, r := range f.Runs {
+			if r.Run != n+1 {
+				t.Fatalf("%s: run %d numbered %d", f.Facility, n+1, r.Run)
+			}
+			d, err := m.Detail(r.Row, r.Col)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !outClose(float64(r.ModelRe), d.Re) || !outClose(float64(r.TestQ), d.Q) {
+				t.Errorf("%s run %d: Re %g q %g, want %g %g", f.Facility, r.Run, float64(r.ModelRe), float64(r.TestQ), d.Re, d.Q)
+			}
+			t0, prev := float64(r.T0), 0.0
+			if water {
+				t0 = float64(r.WaterTemperature)
+			}
+			if n > 0 {
+				prev = float64(f.Runs[n-1].T0)
+				if water {
+					prev = float64(f.Runs[n-1].WaterTemperature)
+				}
+			}
+			if moved := n > 0 && math.Abs(t0-prev) >= envelope.RunT0Step; moved != r.T0Change {
+				t.Errorf("%s run %d: T0 %g after %g, change flag %v", f.Facility, r.Run, t0, prev, r.T0Change)
+			}
+		}
+	}
+	if total == 0 {
+		t.Fatal("no runs at all for the demo")
+	}
+}
+
+func TestRunsMarkedFromSession(t *testing.T) {
+	e := outDemoEval(t)
+	g := e.Grid
+	// Marks: three inside points and one outside (row 0, last column).
+	var marks [][2]int
+	for i := 0; i < g.Rows() && len(marks) < 3; i += 7 {
+		for j := 0; j < g.Cols(); j++ {
+			if g.Inside(i, j) {
+				marks = append(marks, [2]int{i, j})
+				break
+			}
+		}
+	}
+	outside := [2]int{0, g.Cols() - 1}
+	if g.Inside(outside[0], outside[1]) {
+		t.Fatal("test assumes the sea-level fastest point is outside")
+	}
+	marks = append(marks, outside)
+	sess := outDemoSession(t, marks, tui.WhatIf{}, "")
+	doc := outRunsJSON(t, "--session", sess)
+	if doc.Points != "marked" {
+		t.Errorf("points = %q, want marked", doc.Points)
+	}
+	for _, f := range doc.Facilities {
+		if n := len(f.Runs) + len(f.Unrunnable); n != len(marks) {
+			t.Errorf("%s: %d runs + unrunnable, want %d marks", f.Facility, n, len(marks))
+		}
+		found := false
+		for _, u := range f.Unrunnable {
+			if u.Row == outside[0] && u.Col == outside[1] {
+				found = true
+				if u.Class != envelope.Outside.String() || u.P0.Valid() {
+					t.Errorf("%s: outside mark listed as %q with p0 %v", f.Facility, u.Class, float64(u.P0))
+				}
+			}
+		}
+		if !found {
+			t.Errorf("%s: the outside mark is not listed as unrunnable", f.Facility)
+		}
+	}
+
+	// Text and CSV of the same list.
+	code, out, errs := outCmd("runs", "--session", sess, "--facility", "Kellen", "--customary")
+	if code != 0 {
+		t.Fatalf("runs text exit %d: %s", code, errs)
+	}
+	for _, want := range []string{"marked test points", "Kellen Fold", "T0 °F", "p0 psi", "not runnable", "caution"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("runs text lacks %q:\n%s", want, out)
+		}
+	}
+	code, out, errs = outCmd("runs", "--session", sess, "--format", "csv")
+	if code != 0 {
+		t.Fatalf("runs csv exit %d: %s", code, errs)
+	}
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if strings.Join(rows[0], ",") != strings.Join(runCSVHeader, ",") {
+		t.Errorf("CSV header = %v", rows[0])
+	}
+	if got, want := len(rows)-1, len(marks)*len(e.Solved()); got != want {
+		t.Errorf("CSV rows %d, want %d", got, want)
+	}
+	for _, r := range rows[1:] {
+		if _, err := strconv.Atoi(r[2]); err != nil {
+			t.Errorf("run column %q is not a number", r[2])
+		}
+	}
+}
+
+func TestApplyWhatIf(t *testing.T) {
+	v, facs, err := envelope.Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := envelope.DefaultSettings(v)
+	p := func(x float64) *float64 { return &x }
+	w := tui.WhatIf{Scale: p(0.05), CompressibilityMach: p(0.25),
+		Facilities: map[string]tui.FacilityWhatIf{facs[1].Name: {P0Max: p(6e5)}}}
+	changed, err := applyWhatIf(w, &s, facs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Scale != 0.05 || s.CompressibilityMach != 0.25 || s.Regimes.Incompressible != 0.25 || facs[1].P0Max != 6e5 {
+		t.Errorf("after what-if: scale %g, cm %g, incompressible %g, p0 max %g", s.Scale, s.CompressibilityMach, s.Regimes.Incompressible, facs[1].P0Max)
+	}
+	if len(changed) != 3 {
+		t.Errorf("changed = %v, want 3 entries", changed)
+	}
+	w = tui.WhatIf{Facilities: map[string]tui.FacilityWhatIf{"No such tunnel": {QMax: p(1)}}}
+	if _, err := applyWhatIf(w, &s, facs); err == nil {
+		t.Error("what-if for an unknown facility accepted")
+	}
+}
