@@ -2,6 +2,7 @@ package tui
 
 import (
 	"fmt"
+	"runtime"
 	"sync"
 
 	"likewind/atmos"
@@ -99,15 +100,17 @@ func (r *results) summarise(prev *results, changed int) {
 	if len(solved) == 0 {
 		return
 	}
-	best, bestRes := envelope.Best(solved)
-	for p, b := range best {
-		if b >= 0 {
-			best[p] = index[b]
+	if prev == nil || changed < 0 || !r.incrementalBest(prev, changed) {
+		best, bestRes := envelope.Best(solved)
+		for p, b := range best {
+			if b >= 0 {
+				best[p] = index[b]
+			}
 		}
+		r.best, r.bestRes = best, bestRes
 	}
-	r.best, r.bestRes = best, bestRes
 	var n, inside int
-	for _, res := range bestRes {
+	for _, res := range r.bestRes {
 		if res.Class != envelope.Outside {
 			inside++
 		}
@@ -118,6 +121,68 @@ func (r *results) summarise(prev *results, changed int) {
 	if inside > 0 {
 		r.union = float64(n) / float64(inside)
 	}
+}
+
+// incrementalBest updates the best-of-all arrays of prev after facility k
+// alone was re-solved: a point keeps its previous winner unless the new
+// answer of k beats it, and points k used to win are decided afresh. The
+// outcome equals envelope.Best (ties go to the lower facility index). It
+// reports false when prev cannot be reused.
+func (r *results) incrementalBest(prev *results, k int) bool {
+	n := len(r.grid.Alts) * len(r.grid.Speeds)
+	if prev.grid != r.grid || len(prev.best) != n || len(prev.maps) != len(r.maps) || r.maps[k] == nil {
+		return false
+	}
+	for j, m := range r.maps {
+		if m == nil || len(m.Results) != n || (j != k && prev.maps[j] != m) {
+			return false
+		}
+	}
+	best := append([]int(nil), prev.best...)
+	bestRes := append([]envelope.Result(nil), prev.bestRes...)
+	newK := r.maps[k].Results
+	update := func(lo, hi int) {
+		for p := lo; p < hi; p++ {
+			nk := newK[p]
+			if nk.Class == envelope.Outside {
+				continue
+			}
+			w := best[p]
+			switch {
+			case w == k || w < 0:
+				// k was the winner (or none was): decide the point again.
+				bi, br := -1, envelope.Result{}
+				for j, m := range r.maps {
+					res := m.Results[p]
+					if res.Class == envelope.Outside {
+						continue
+					}
+					if bi < 0 || envelope.Better(res, br) {
+						bi, br = j, res
+					}
+				}
+				best[p], bestRes[p] = bi, br
+			case envelope.Better(nk, bestRes[p]):
+				best[p], bestRes[p] = k, nk
+			case k < w && !envelope.Better(bestRes[p], nk):
+				// a tie goes to the lower index
+				best[p], bestRes[p] = k, nk
+			}
+		}
+	}
+	// Points are independent: split them over the processors.
+	parts := min(runtime.GOMAXPROCS(0), 8)
+	var wg sync.WaitGroup
+	for c := range parts {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			update(c*n/parts, (c+1)*n/parts)
+		}()
+	}
+	wg.Wait()
+	r.best, r.bestRes = best, bestRes
+	return true
 }
 
 // result returns the facility answer at (i, j) for facility fac (-1 =

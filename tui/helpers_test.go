@@ -1,10 +1,13 @@
 package tui
 
 import (
+	"io"
 	"math"
 	"testing"
 
 	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/lipgloss"
+	"github.com/muesli/termenv"
 
 	"likewind/envelope"
 )
@@ -121,4 +124,11 @@ func facilityNamed(tb testing.TB, m Model, prefix string) int {
 	}
 	tb.Fatalf("no demo facility named %q…", prefix)
 	return -1
+}
+
+// trueColourRenderer is a lipgloss renderer fixed to 24-bit colour.
+func trueColourRenderer() *lipgloss.Renderer {
+	r := lipgloss.NewRenderer(io.Discard)
+	r.SetColorProfile(termenv.TrueColor)
+	return r
 }

@@ -443,3 +443,27 @@ func TestInputLineEditing(t *testing.T) {
 		t.Errorf("value after ctrl+u = %q, want empty", l.Value())
 	}
 }
+
+// TestIncrementalBestMatchesBest checks the best-of-all update after a
+// single-facility edit against envelope.Best over all maps.
+func TestIncrementalBestMatchesBest(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	for _, name := range []string{"Harl Cove", "Kellen Fold", "Aldmoor", "Wenlow"} {
+		k := facilityNamed(t, m, name)
+		facs := append([]envelope.Facility(nil), m.facs...)
+		facs[k].P0Max = facs[k].P0Min + 0.7*(facs[k].P0Max-facs[k].P0Min)
+		facs[k].QMax *= 0.5
+		got, err := solveOne(m.res, facs, m.set, k)
+		if err != nil {
+			t.Fatal(err)
+		}
+		wantIdx, wantRes := envelope.Best(got.maps)
+		for p := range wantIdx {
+			if got.best[p] != wantIdx[p] || got.bestRes[p] != wantRes[p] {
+				t.Fatalf("%s: point %d: best = %d %+v, want %d %+v", name, p, got.best[p], got.bestRes[p], wantIdx[p], wantRes[p])
+			}
+		}
+		m.res = got
+		m.facs = facs
+	}
+}

@@ -1,0 +1,114 @@
+package tui
+
+import (
+	"testing"
+
+	tea "github.com/charmbracelet/bubbletea"
+)
+
+// bigDemo is the demo vehicle on a 400×400 grid.
+func bigDemo(tb testing.TB, w, h int) Model {
+	tb.Helper()
+	v, facs := demoData(tb)
+	v.Grid.Altitude.Count, v.Grid.Altitude.Step = 400, 0
+	v.Grid.Speed.Count, v.Grid.Speed.Step = 400, 0
+	st := PlainStyles()
+	m := New(Options{Vehicle: v, Facilities: facs, Styles: &st, Width: w, Height: h})
+	if m.rows() != 400 || m.cols() != 400 {
+		tb.Fatalf("grid %d×%d, want 400×400", m.rows(), m.cols())
+	}
+	return m
+}
+
+// BenchmarkView measures one frame at 200×60 (target < 5 ms), with
+// colour on so the escape sequences are part of the cost.
+func BenchmarkView(b *testing.B) {
+	for _, c := range []struct {
+		name string
+		big  bool
+	}{{"demo", false}, {"grid400", true}} {
+		b.Run(c.name, func(b *testing.B) {
+			var m Model
+			if c.big {
+				m = bigDemo(b, 200, 60)
+			} else {
+				m = newDemo(b, 200, 60)
+			}
+			st := colourStyles()
+			m.fr.st = &st
+			m = relayoutAll(m)
+			b.ReportAllocs()
+			b.ResetTimer()
+			for range b.N {
+				_ = m.View()
+			}
+		})
+	}
+}
+
+// relayoutAll rebuilds the components after the styles were swapped.
+func relayoutAll(m Model) Model {
+	fr := m.fr
+	m.matrix.frame.st, m.details.frame.st, m.legend.frame.st = fr.st, fr.st, fr.st
+	m.picker.frame.st, m.editor.frame.st = fr.st, fr.st
+	m.help = newHelpView(fr)
+	m.relayout()
+	return m
+}
+
+// BenchmarkKeyToFrame measures a key press to the finished frame on a
+// 400×400 grid (target < 16 ms): a cursor move, and what-if edits whose
+// recompute runs in the command, as the runtime would run it.
+func BenchmarkKeyToFrame(b *testing.B) {
+	base := bigDemo(b, 200, 60)
+	b.Run("move", func(b *testing.B) {
+		m := base
+		keys := []tea.Msg{keyMsg("right"), keyMsg("left")}
+		b.ResetTimer()
+		for k := range b.N {
+			m, _ = drive(m, keys[k%2])
+			_ = m.View()
+		}
+	})
+	for _, fc := range []string{"Harl Cove", "Kellen Fold", "Wenlow"} {
+		b.Run("p0max/"+fc, func(b *testing.B) {
+			m := base
+			m.fac = facilityNamed(b, m, fc)
+			m.mode = modeEdit
+			m.editor.sel = int(fieldP0Max)
+			p0 := m.facs[m.fac].P0Max
+			values := []string{sig(0.9*p0/1000, 4) + " kPa", sig(p0/1000, 4) + " kPa"}
+			b.ResetTimer()
+			for k := range b.N {
+				b.StopTimer()
+				m.editor.begin("p0 max", values[k%2])
+				b.StartTimer()
+				m, _ = drive(m, keyMsg("enter"))
+				_ = m.View()
+			}
+			b.StopTimer()
+			if m.busy || m.editor.err != "" {
+				b.Fatalf("recompute did not finish: busy %v err %q", m.busy, m.editor.err)
+			}
+		})
+	}
+	b.Run("deltaT", func(b *testing.B) {
+		m := base
+		m.mode = modeEdit
+		m.editor.sel = int(fieldDeltaT)
+		values := []string{"5 K", "0 K"}
+		b.ResetTimer()
+		for k := range b.N {
+			b.StopTimer()
+			m.editor.begin("ΔT", values[k%2])
+			b.StartTimer()
+			m, _ = drive(m, keyMsg("enter"))
+			_ = m.View()
+		}
+	})
+}
+
+// colourStyles are full-colour styles, independent of the test terminal.
+func colourStyles() Styles {
+	return NewStyles(trueColourRenderer())
+}
