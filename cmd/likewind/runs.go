@@ -209,7 +209,7 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 					changeWords(stepChanges(rl.Runs, k, water), water))
 				rows = append(rows, row)
 			}
-			textTable(&b, head, rows, map[int]bool{12: true, 13: true})
+			textTable(&b, head, rows, map[int]bool{11: true, 12: true})
 		}
 		if len(rl.Unrunnable) > 0 {
 			fmt.Fprintf(&b, "not runnable (%d):\n", len(rl.Unrunnable))
