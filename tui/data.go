@@ -5,7 +5,6 @@ import (
 	"runtime"
 	"sync"
 
-	"likewind/atmos"
 	"likewind/envelope"
 )
 
@@ -81,8 +80,7 @@ func (r *results) summarise(prev *results, changed int) {
 	}
 	r.full = make([]float64, len(r.maps))
 	r.matched = make([]float64, len(r.maps))
-	var solved []*envelope.Map
-	var index []int
+	solved := 0
 	for k, m := range r.maps {
 		if m == nil {
 			continue
@@ -94,20 +92,13 @@ func (r *results) summarise(prev *results, changed int) {
 			r.full[k] = sh.Share(envelope.FullMatch)
 			r.matched[k] = sh.Matched()
 		}
-		solved = append(solved, m)
-		index = append(index, k)
+		solved++
 	}
-	if len(solved) == 0 {
+	if solved == 0 {
 		return
 	}
 	if prev == nil || changed < 0 || !r.incrementalBest(prev, changed) {
-		best, bestRes := envelope.Best(solved)
-		for p, b := range best {
-			if b >= 0 {
-				best[p] = index[b]
-			}
-		}
-		r.best, r.bestRes = best, bestRes
+		r.best, r.bestRes = BestOfAll(r.maps)
 	}
 	var n, inside int
 	for _, res := range r.bestRes {
@@ -202,86 +193,6 @@ func (r *results) result(fac, i, j int) (envelope.Result, int) {
 		return envelope.Result{}, -1
 	}
 	return r.maps[fac].At(i, j), fac
-}
-
-// classLevel maps a match class onto the class layer's levels.
-func classLevel(c envelope.Class) int {
-	switch c {
-	case envelope.FullMatch:
-		return lvClassFull
-	case envelope.ReShort:
-		return lvClassReShort
-	case envelope.MachRelaxed:
-		return lvClassMachRelaxed
-	}
-	return lvClassNoMatch
-}
-
-// regimeLevel maps flight regimes onto the regime layer: the speed regime
-// in continuum flow, the rarefaction regime otherwise.
-func regimeLevel(sp atmos.SpeedRegime, ra atmos.RarefactionRegime) int {
-	switch ra {
-	case atmos.Slip:
-		return lvRegSlip
-	case atmos.Transitional:
-		return lvRegTransitional
-	case atmos.FreeMolecular:
-		return lvRegFreeMolecular
-	}
-	switch sp {
-	case atmos.Incompressible:
-		return lvRegIncompressible
-	case atmos.Subsonic:
-		return lvRegSubsonic
-	case atmos.Transonic:
-		return lvRegTransonic
-	case atmos.Supersonic:
-		return lvRegSupersonic
-	}
-	return lvRegHypersonic
-}
-
-// cellAt computes the cell of layer l at (i, j).
-func (r *results) cellAt(l Layer, fac int, facs []envelope.Facility, reTol float64, i, j int) Cell {
-	c := Cell{Inside: r.grid.Inside(i, j)}
-	if !c.Inside {
-		return c
-	}
-	switch l {
-	case LayerRegime:
-		f := r.grid.Flight(i, j)
-		c.Level = regimeLevel(f.Speed, f.Rarefaction)
-		return c
-	case LayerMach:
-		c.Level = MachLevel(float64(r.grid.Flight(i, j).Mach))
-		return c
-	}
-	res, k := r.result(fac, i, j)
-	if k < 0 {
-		c.Level = lvClassNoFacility
-		if l == LayerReynolds {
-			c.Level = lvReNone
-		} else if l == LayerQ {
-			c.Level = lvQNone
-		}
-		return c
-	}
-	if fac < 0 && res.Class != envelope.NoMatch {
-		c.Tag = facilityTag(k)
-	}
-	switch l {
-	case LayerClass:
-		c.Level = classLevel(res.Class)
-	case LayerReynolds:
-		c.Level = ReynoldsLevel(float64(res.ReRatio), reTol)
-	case LayerQ:
-		qMax := 0.0
-		if k >= 0 && k < len(facs) {
-			qMax = facs[k].QMax
-		}
-		c.Level = QLevel(float64(res.Q), qMax)
-	}
-	return c
 }
 
 // facilityTag is the letter of facility k in best-of-all mode.

@@ -322,23 +322,28 @@ func (m Model) footer() string {
 	return m.help.Short(k.ShortHelp())
 }
 
-// legendInput describes the legend: the layer and, in best-of-all mode on
-// a facility layer, the facility letters (first word of each name; the
-// picker lists the full names).
-func (m Model) legendInput() LegendInput {
-	in := LegendInput{Layer: m.layer, ReTol: m.set.ReTol, NoFacility: m.noFacility()}
-	if m.fac >= 0 || len(m.facs) == 0 || !m.layer.NeedsFacility() {
-		return in
+// gridView is the model's current way of looking at the results.
+func (m Model) gridView() GridView {
+	return GridView{
+		Grid:       m.res.grid,
+		Maps:       m.res.maps,
+		Facilities: m.facs,
+		Facility:   m.fac,
+		Best:       m.res.best,
+		BestRes:    m.res.bestRes,
+		Layer:      m.layer,
+		Units:      m.units,
+		ReTol:      m.set.ReTol,
+		Marks:      m.marks,
+		CursorRow:  m.curI,
+		CursorCol:  m.curJ,
+		ScrollRow:  m.scrollR,
+		ScrollCol:  m.scrollC,
 	}
-	for k, f := range m.facs {
-		word := f.Name
-		if w := strings.Fields(f.Name); len(w) > 0 {
-			word = w[0]
-		}
-		in.Tags = append(in.Tags, fmt.Sprintf("%c %s", facilityTag(k), word))
-	}
-	return in
 }
+
+// legendInput describes the legend of the current view.
+func (m Model) legendInput() LegendInput { return m.gridView().Legend() }
 
 // noFacility reports whether no facility has results.
 func (m Model) noFacility() bool {
@@ -375,37 +380,10 @@ func shortName(s string) string {
 
 // matrixInput describes the matrix for the renderer.
 func (m Model) matrixInput() MatrixInput {
-	g := m.res.grid
-	in := MatrixInput{
-		Layer:     m.layer,
-		AltTitle:  "altitude " + m.units.AltUnit(),
-		CursorRow: m.curI,
-		CursorCol: m.curJ,
-		ScrollRow: m.scrollR,
-		ScrollCol: m.scrollC,
-		Tags:      m.fac < 0 && m.layer.NeedsFacility() && len(m.facs) > 0,
+	if m.res.grid == nil {
+		return MatrixInput{Layer: m.layer, AltTitle: "altitude " + m.units.AltUnit(), CursorRow: -1, CursorCol: -1}
 	}
-	if g == nil {
-		return in
-	}
-	in.Rows, in.Cols = g.Rows(), g.Cols()
-	title, label := m.units.SpeedAxis(g.SpeedKind)
-	in.SpeedTitle = title
-	in.AltLabels = make([]string, len(g.Alts))
-	for i, a := range g.Alts {
-		in.AltLabels[i] = m.units.AltLabel(a)
-	}
-	in.SpeedLabel = make([]string, len(g.Speeds))
-	for j, s := range g.Speeds {
-		in.SpeedLabel[j] = label(s)
-	}
-	res, layer, fac, facs, reTol, marks := &m.res, m.layer, m.fac, m.facs, m.set.ReTol, m.marks
-	in.Cell = func(i, j int) Cell {
-		c := res.cellAt(layer, fac, facs, reTol, i, j)
-		c.Marked = marks[g.Index(i, j)]
-		return c
-	}
-	return in
+	return m.gridView().Matrix()
 }
 
 // pickerRows lists "best of all" and every facility.
