@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
+	"fmt"
 	"math"
 	"strconv"
 	"strings"
@@ -283,4 +284,42 @@ func BenchmarkWriteCSVDemo(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+// FuzzNumJSON: any bytes either fail to parse or read back to a Num that
+// writes and reads again to the same value; any float64 round-trips.
+func FuzzNumJSON(f *testing.F) {
+	for _, s := range []string{"1.5", "null", "-0", "2.5e-07", "1e308", "abc", "", "NaN"} {
+		f.Add([]byte(s), 3.25)
+	}
+	f.Fuzz(func(t *testing.T, b []byte, x float64) {
+		var n Num
+		if err := n.UnmarshalJSON(b); err == nil {
+			out, err := n.MarshalJSON()
+			if err != nil {
+				t.Fatalf("MarshalJSON(%v) = %v", float64(n), err)
+			}
+			var m Num
+			if err := m.UnmarshalJSON(out); err != nil {
+				t.Fatalf("reading back %s: %v", out, err)
+			}
+			if n.Valid() != m.Valid() || (n.Valid() && n != m) {
+				t.Fatalf("%q → %v → %s → %v", b, float64(n), out, float64(m))
+			}
+		}
+		out, _ := Num(x).MarshalJSON()
+		var back Num
+		if err := back.UnmarshalJSON(out); err != nil {
+			t.Fatalf("read back %s: %v", out, err)
+		}
+		if Num(x).Valid() && back != Num(x) {
+			t.Fatalf("%v → %s → %v", x, out, float64(back))
+		}
+	})
+}
+
+func ExampleExportColumns() {
+	cols := ExportColumns()
+	fmt.Println(cols[0], cols[4], cols[len(cols)-1])
+	// Output: facility altitude_m cavitation_number
 }

@@ -149,3 +149,16 @@ func TestMapAxisEdges(t *testing.T) {
 		}
 	}
 }
+
+func BenchmarkMapChartPNGDemo(b *testing.B) {
+	e := outDemoEval(b)
+	for b.Loop() {
+		ch, err := MapChart(e, -1, false)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if _, err := ch.Render("png"); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -192,3 +192,10 @@ func TestCoverageUnsolvedFacility(t *testing.T) {
 		t.Fatalf("JSON with an unsolved facility: %v", err)
 	}
 }
+
+func BenchmarkCoverageReportDemo(b *testing.B) {
+	e := outDemoEval(b)
+	for b.Loop() {
+		_ = NewCoverageReport(e)
+	}
+}

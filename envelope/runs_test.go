@@ -182,3 +182,23 @@ func TestDefaultRunPoints(t *testing.T) {
 		}
 	}
 }
+
+func ExampleOrderRuns() {
+	runs := []Run{
+		{GridPoint: GridPoint{Row: 0}, T0: 300, P0: 2e5, Mach: 0.8},
+		{GridPoint: GridPoint{Row: 1}, T0: 250, P0: 2e5, Mach: 0.7},
+		{GridPoint: GridPoint{Row: 2}, T0: 300, P0: 2e5, Mach: 0.5},
+		{GridPoint: GridPoint{Row: 3}, T0: 250, P0: 2e5, Mach: 0.4},
+	}
+	c := OrderRuns(runs, false)
+	for _, r := range runs {
+		fmt.Printf("T0 %.0f K  Mach %.1f\n", r.T0, r.Mach)
+	}
+	fmt.Printf("changes: T0 %d, p0 %d, Mach %d\n", c.T0, c.P0, c.Mach)
+	// Output:
+	// T0 250 K  Mach 0.4
+	// T0 250 K  Mach 0.7
+	// T0 300 K  Mach 0.5
+	// T0 300 K  Mach 0.8
+	// changes: T0 1, p0 0, Mach 3
+}
