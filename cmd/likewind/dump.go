@@ -9,8 +9,6 @@ import (
 	"github.com/charmbracelet/lipgloss"
 	"github.com/muesli/termenv"
 
-	"likewind/atmos"
-	"likewind/envelope"
 	"likewind/tui"
 )
 
@@ -160,200 +158,38 @@ type dumpView struct {
 	date  string
 }
 
-// renderDump draws the header, the matrix and the legend.
+// renderDump draws the header, the matrix and the legend. The cells and
+// the legend come from tui.GridView, the same code the interface draws
+// its screen with.
 func renderDump(ev *evaluated, v dumpView, st tui.Styles) (string, error) {
 	e := ev.e
 	g := e.Grid
-	lv, err := newLevels()
-	if err != nil {
-		return "", err
-	}
 	marks := map[int]bool{}
 	for _, p := range ev.marks {
 		marks[g.Index(p.Row, p.Col)] = true
 	}
-	var best []int
-	var bestRes []envelope.Result
-	if v.fac < 0 {
-		best, bestRes = bestOfAll(e)
+	gv := tui.GridView{
+		Grid:       g,
+		Maps:       e.Maps,
+		Facilities: e.Facilities,
+		Facility:   v.fac,
+		Layer:      v.layer,
+		Units:      v.units,
+		ReTol:      e.Settings.ReTol,
+		Marks:      marks,
+		CursorRow:  -1,
+		CursorCol:  -1,
 	}
-	reTol := e.Settings.ReTol
-	cell := func(i, j int) tui.Cell {
-		c := tui.Cell{Inside: g.Inside(i, j), Marked: marks[g.Index(i, j)]}
-		if !c.Inside {
-			return c
-		}
-		f := g.Flight(i, j)
-		switch v.layer {
-		case tui.LayerRegime:
-			c.Level = lv.regime(f.Speed, f.Rarefaction)
-			return c
-		case tui.LayerMach:
-			c.Level = tui.MachLevel(float64(f.Mach))
-			return c
-		}
-		var res envelope.Result
-		k := v.fac
-		if k < 0 {
-			if best != nil {
-				k, res = best[g.Index(i, j)], bestRes[g.Index(i, j)]
-			}
-			if k >= 0 {
-				c.Tag = facilityLetter(k)
-			}
-		} else {
-			res = e.Maps[k].At(i, j)
-		}
-		if k < 0 {
-			switch v.layer {
-			case tui.LayerReynolds:
-				c.Level = tui.ReynoldsLevel(0, reTol)
-			case tui.LayerQ:
-				c.Level = tui.QLevel(0, 0)
-			default:
-				c.Level = lv.noFacility
-			}
-			return c
-		}
-		switch v.layer {
-		case tui.LayerClass:
-			c.Level = lv.class[res.Class]
-		case tui.LayerReynolds:
-			c.Level = tui.ReynoldsLevel(float64(res.ReRatio), reTol)
-		case tui.LayerQ:
-			c.Level = tui.QLevel(float64(res.Q), e.Facilities[k].QMax)
-		}
-		return c
-	}
-	in := tui.MatrixInput{
-		Layer:     v.layer,
-		Rows:      g.Rows(),
-		Cols:      g.Cols(),
-		AltTitle:  "altitude " + v.units.AltUnit(),
-		Cell:      cell,
-		Tags:      v.fac < 0 && v.layer.NeedsFacility() && len(e.Facilities) > 0,
-		CursorRow: -1,
-		CursorCol: -1,
-	}
-	title, label := v.units.SpeedAxis(g.SpeedKind)
-	in.SpeedTitle = title
-	in.AltLabels = make([]string, g.Rows())
-	for i, a := range g.Alts {
-		in.AltLabels[i] = v.units.AltLabel(a)
-	}
-	in.SpeedLabel = make([]string, g.Cols())
-	for j, s := range g.Speeds {
-		in.SpeedLabel[j] = label(s)
-	}
+	in := gv.Matrix()
 	w, h := tui.MatrixSize(in)
-	leg := tui.LegendInput{Layer: v.layer, ReTol: reTol, NoFacility: len(e.Solved()) == 0}
-	if in.Tags {
-		// As the interface labels them: the first word of each name (the
-		// header lists the full names).
-		for k, f := range e.Facilities {
-			word := f.Name
-			if w := strings.Fields(f.Name); len(w) > 0 {
-				word = w[0]
-			}
-			leg.Tags = append(leg.Tags, fmt.Sprintf("%c %s", facilityLetter(k), word))
-		}
-	}
 	var b strings.Builder
 	b.WriteString(dumpHeader(ev, v))
 	b.WriteString("\n")
 	b.WriteString(tui.RenderMatrix(in, st, w, h))
 	b.WriteString("\n\n")
-	b.WriteString(tui.RenderLegend(leg, st, max(w, 78)))
+	b.WriteString(tui.RenderLegend(gv.Legend(), st, max(w, 78)))
 	b.WriteString("\n")
 	return b.String(), nil
-}
-
-// facilityLetter is facility k's letter in best-of-all mode, as the
-// interface assigns them.
-func facilityLetter(k int) byte {
-	const letters = "abcdefghijklmnopqrstuvwxyz"
-	return letters[k%len(letters)]
-}
-
-// bestOfAll returns, per grid point, the index (into e.Facilities) of the
-// best facility and its result; -1 outside or where none was evaluated.
-func bestOfAll(e *envelope.Evaluation) ([]int, []envelope.Result) {
-	var solved []*envelope.Map
-	var index []int
-	for k, m := range e.Maps {
-		if m != nil {
-			solved = append(solved, m)
-			index = append(index, k)
-		}
-	}
-	if len(solved) == 0 {
-		return nil, nil
-	}
-	best, res := envelope.Best(solved)
-	for p, b := range best {
-		if b >= 0 {
-			best[p] = index[b]
-		}
-	}
-	return best, res
-}
-
-// levels maps engine classes and regimes onto the interface's level
-// indices. The tui package keeps those indices to itself, so they are
-// found by the labels its legend gives them; newLevels fails if a label is
-// missing, so a change there shows up at once.
-type levels struct {
-	class      [envelope.NumClasses]int
-	noFacility int
-	speed      map[atmos.SpeedRegime]int
-	rare       map[atmos.RarefactionRegime]int
-}
-
-func legendKey(s string) string {
-	s = strings.ToLower(strings.NewReplacer("-", " ", "_", " ").Replace(s))
-	return strings.TrimSuffix(strings.TrimSpace(s), " flow")
-}
-
-func newLevels() (levels, error) {
-	lv := levels{speed: map[atmos.SpeedRegime]int{}, rare: map[atmos.RarefactionRegime]int{}}
-	find := func(l tui.Layer, name string) (int, error) {
-		for _, en := range tui.Legend(l, 0.1, true) {
-			if en.Level >= 0 && legendKey(en.Label) == legendKey(name) {
-				return en.Level, nil
-			}
-		}
-		return 0, fmt.Errorf("the %s legend has no entry %q", l, name)
-	}
-	var err error
-	for _, c := range []envelope.Class{envelope.FullMatch, envelope.ReShort, envelope.MachRelaxed, envelope.NoMatch} {
-		if lv.class[c], err = find(tui.LayerClass, c.String()); err != nil {
-			return lv, err
-		}
-	}
-	if lv.noFacility, err = find(tui.LayerClass, "no facility"); err != nil {
-		return lv, err
-	}
-	for _, r := range []atmos.SpeedRegime{atmos.Incompressible, atmos.Subsonic, atmos.Transonic, atmos.Supersonic, atmos.Hypersonic} {
-		if lv.speed[r], err = find(tui.LayerRegime, r.String()); err != nil {
-			return lv, err
-		}
-	}
-	for _, r := range []atmos.RarefactionRegime{atmos.Slip, atmos.Transitional, atmos.FreeMolecular} {
-		if lv.rare[r], err = find(tui.LayerRegime, r.String()); err != nil {
-			return lv, err
-		}
-	}
-	return lv, nil
-}
-
-// regime is the regime layer's level: the rarefaction regime where the
-// flow is not continuum, else the speed regime (as the interface shows
-// it).
-func (lv levels) regime(sp atmos.SpeedRegime, ra atmos.RarefactionRegime) int {
-	if k, ok := lv.rare[ra]; ok {
-		return k
-	}
-	return lv.speed[sp]
 }
 
 // dumpHeader says what the matrix shows.
@@ -374,13 +210,13 @@ func dumpHeader(ev *evaluated, v dumpView) string {
 	}
 	line("vehicle", "%s (%s)", veh.Name, src)
 	if v.fac < 0 {
-		line("facility", "best of all: per point the facility with the best class, by the letter beside each cell")
+		line("facility", "best of all: per point the facility with the best class, by the letter beside each cell (none where out of reach)")
 		for k, f := range e.Facilities {
 			note := "not evaluated"
 			if m := e.Maps[k]; m != nil {
 				note = fmt.Sprintf("model scale %.3g", m.Scale)
 			}
-			line("", "%c  %s (%s)", facilityLetter(k), f.Name, note)
+			line("", "%c  %s (%s)", tui.FacilityTag(k), f.Name, note)
 		}
 	} else {
 		f := &e.Facilities[v.fac]
