@@ -233,13 +233,10 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 				slot = ']'
 			}
 			line = append(line, slot)
-			if cur {
-				ids = append(ids, plain)
+			if cell.Marked && !cur {
+				ids = append(ids, p)
 			} else {
 				ids = append(ids, plain)
-				if cell.Marked {
-					ids[len(ids)-1] = p
-				}
 			}
 		}
 		if len(line) > avail {

@@ -1,0 +1,212 @@
+package tui
+
+import (
+	"context"
+	"errors"
+	"io"
+	"os"
+	"path/filepath"
+	"reflect"
+	"strings"
+	"testing"
+	"time"
+
+	tea "github.com/charmbracelet/bubbletea"
+)
+
+func TestSessionRoundTripFile(t *testing.T) {
+	f := func(v float64) *float64 { return &v }
+	want := Session{
+		Version:   SessionVersion,
+		Inputs:    []string{"a.toml", "b.toml"},
+		Hash:      "sha256:abc",
+		Facility:  "Tunnel",
+		Layer:     LayerQ.String(),
+		Units:     Customary.String(),
+		WhatIf:    WhatIf{Scale: f(0.05), DeltaT: f(-10), Facilities: map[string]FacilityWhatIf{"Tunnel": {P0Max: f(3e5), QMax: f(0)}}},
+		Marks:     []Point{{Altitude: 1000, Speed: 0.8}, {Altitude: 2000, Speed: 0.9}},
+		Cursor:    &Point{Altitude: 1000, Speed: 0.8},
+		BestOfAll: false,
+	}
+	dir := t.TempDir()
+	path := filepath.Join(dir, "session.json")
+	if err := SaveSession(path, want); err != nil {
+		t.Fatal(err)
+	}
+	got, err := LoadSession(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(got, want) {
+		t.Errorf("LoadSession = %+v, want %+v", got, want)
+	}
+	// Overwrite, and no temporary file is left behind.
+	want.Marks = nil
+	if err := SaveSession(path, want); err != nil {
+		t.Fatal(err)
+	}
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 1 {
+		var names []string
+		for _, e := range entries {
+			names = append(names, e.Name())
+		}
+		t.Errorf("files in the session folder = %v, want only session.json", names)
+	}
+}
+
+func TestSaveSessionErrors(t *testing.T) {
+	if err := SaveSession("", Session{}); err == nil {
+		t.Errorf("SaveSession(\"\") = nil, want an error")
+	}
+	bad := filepath.Join(t.TempDir(), "missing", "s.json")
+	if err := SaveSession(bad, Session{}); err == nil || !strings.Contains(err.Error(), "save session") {
+		t.Errorf("SaveSession into a missing folder = %v, want a wrapped error", err)
+	}
+}
+
+func TestLoadSessionRefusesBadFiles(t *testing.T) {
+	dir := t.TempDir()
+	cases := map[string]string{
+		"not json":      "{version: 1",
+		"wrong version": `{"version": 99, "inputs": [], "hash": "", "layer": "", "units": "SI", "what_if": {}}`,
+		"unknown field": `{"version": 1, "colour": "red"}`,
+	}
+	for name, body := range cases {
+		p := filepath.Join(dir, strings.ReplaceAll(name, " ", "_")+".json")
+		if err := os.WriteFile(p, []byte(body), 0o600); err != nil {
+			t.Fatal(err)
+		}
+		if _, err := LoadSession(p); err == nil {
+			t.Errorf("%s: LoadSession = nil error, want a refusal", name)
+		}
+	}
+	if _, err := LoadSession(filepath.Join(dir, "none.json")); err == nil {
+		t.Errorf("missing file: LoadSession = nil error")
+	}
+}
+
+func TestCheckSessionRefusesOtherFiles(t *testing.T) {
+	s := Session{Version: SessionVersion, Inputs: []string{"old.toml"}, Hash: "sha256:1"}
+	if err := CheckSession(s, []string{"old.toml"}, "sha256:1"); err != nil {
+		t.Errorf("same hash: %v", err)
+	}
+	err := CheckSession(s, []string{"new.toml"}, "sha256:2")
+	if !errors.Is(err, ErrSessionMismatch) {
+		t.Fatalf("other hash: err = %v, want ErrSessionMismatch", err)
+	}
+	if !strings.Contains(err.Error(), "old.toml") || !strings.Contains(err.Error(), "new.toml") {
+		t.Errorf("message %q does not name both file sets", err)
+	}
+}
+
+func TestHashFiles(t *testing.T) {
+	dir := t.TempDir()
+	a, b := filepath.Join(dir, "a"), filepath.Join(dir, "b")
+	os.WriteFile(a, []byte("x = 1\n"), 0o600)
+	os.WriteFile(b, []byte("x = 2\n"), 0o600)
+	ha, err := HashFiles(a)
+	if err != nil {
+		t.Fatal(err)
+	}
+	hb, _ := HashFiles(b)
+	ha2, _ := HashFiles(a)
+	if ha == hb || ha != ha2 {
+		t.Errorf("HashFiles: a %s, b %s, a again %s; want a≠b and a stable", ha, hb, ha2)
+	}
+	if _, err := HashFiles(filepath.Join(dir, "none")); err == nil {
+		t.Errorf("HashFiles of a missing file = nil error")
+	}
+}
+
+func TestModelSessionRoundTrip(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	k := facilityNamed(t, m, "Harl Cove")
+	m.fac = k
+	m = edit(t, m, fieldP0Max, "3 bar")
+	m = edit(t, m, fieldScale, "0.3")
+	m = edit(t, m, fieldReTol, "5 %")
+	m, _ = press(m, "esc", "M", "tab", "tab", "u", "up", "left")
+	s := m.Session()
+	if s.Facility != m.facs[k].Name || s.BestOfAll {
+		t.Errorf("session facility = %q best %v", s.Facility, s.BestOfAll)
+	}
+	if s.WhatIf.Scale == nil || *s.WhatIf.Scale != 0.3 || s.WhatIf.DeltaT != nil {
+		t.Errorf("session what-if scale %v ΔT %v, want 0.3 and unchanged", s.WhatIf.Scale, s.WhatIf.DeltaT)
+	}
+
+	path := filepath.Join(t.TempDir(), "s.json")
+	if err := SaveSession(path, s); err != nil {
+		t.Fatal(err)
+	}
+	loaded, err := LoadSession(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := newDemo(t, 80, 24, func(o *Options) { o.Session = &loaded })
+	if r.statusErr {
+		t.Fatalf("restore failed: %s", r.status)
+	}
+	if r.fac != m.fac || r.layer != m.layer || r.units != m.units {
+		t.Errorf("restored facility/layer/units = %d/%v/%v, want %d/%v/%v", r.fac, r.layer, r.units, m.fac, m.layer, m.units)
+	}
+	if r.set != m.set {
+		t.Errorf("restored settings %+v, want %+v", r.set, m.set)
+	}
+	if r.facs[k] != m.facs[k] {
+		t.Errorf("restored facility %+v, want %+v", r.facs[k], m.facs[k])
+	}
+	if !reflect.DeepEqual(r.marks, m.marks) || len(r.marks) == 0 {
+		t.Errorf("restored %d marks, want the %d saved", len(r.marks), len(m.marks))
+	}
+	if r.curI != m.curI || r.curJ != m.curJ {
+		t.Errorf("restored cursor (%d,%d), want (%d,%d)", r.curI, r.curJ, m.curI, m.curJ)
+	}
+	if len(r.changes()) != len(m.changes()) {
+		t.Errorf("restored header lists %d changes, want %d", len(r.changes()), len(m.changes()))
+	}
+}
+
+func TestNewRefusesForeignSession(t *testing.T) {
+	s := Session{Version: SessionVersion, Inputs: []string{"other.toml"}, Hash: "sha256:other", Layer: LayerMach.String(), Units: "customary"}
+	m := newDemo(t, 80, 24, func(o *Options) { o.Session = &s })
+	if !m.statusErr || !strings.Contains(m.status, "session not restored") {
+		t.Errorf("status = %q, want a refusal", m.status)
+	}
+	if m.layer != LayerClass || m.units != SI {
+		t.Errorf("a foreign session was applied: layer %v units %v", m.layer, m.units)
+	}
+	if !strings.Contains(m.View(), "session not restored") {
+		t.Errorf("the refusal is not on screen")
+	}
+}
+
+// TestRunWritesSessionWhenCancelled runs the real program loop on pipes
+// and cancels it the way the caller does on SIGHUP/SIGTERM: the session
+// must be written.
+func TestRunWritesSessionWhenCancelled(t *testing.T) {
+	v, facs := demoData(t)
+	path := filepath.Join(t.TempDir(), "s.json")
+	ctx, cancel := context.WithCancel(context.Background())
+	inR, inW := io.Pipe()
+	defer inW.Close()
+	done := make(chan error, 1)
+	go func() {
+		_, err := Run(ctx, Options{Vehicle: v, Facilities: facs, SessionPath: path},
+			tea.WithInput(inR), tea.WithOutput(io.Discard))
+		done <- err
+	}()
+	time.Sleep(200 * time.Millisecond)
+	cancel()
+	select {
+	case err := <-done:
+		if err == nil || !errors.Is(err, tea.ErrProgramKilled) {
+			t.Errorf("Run error = %v, want ErrProgramKilled", err)
+		}
+	case <-time.After(10 * time.Second):
+		t.Fatal("Run did not return after the context was cancelled")
+	}
+	if _, err := LoadSession(path); err != nil {
+		t.Errorf("session not written on cancel: %v", err)
+	}
+}
