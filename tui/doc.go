@@ -1,0 +1,79 @@
+// Package tui is the terminal interface of likewind: a keyboard-driven
+// view of a vehicle's altitude–speed envelope as a matrix, with the flight
+// conditions and the facility answer of the point under the cursor, what-if
+// editing of settings and facility limits, marked test points and a
+// session that survives restarts. It also holds the matrix renderer, a
+// plain function the text dump uses without Bubble Tea.
+//
+// # Entry points
+//
+//	New(opts Options) Model
+//	    The root Bubble Tea model. New evaluates the grid and every
+//	    facility once, synchronously, so the first frame shows results.
+//	Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Model, error)
+//	    Runs the program in the alternate screen until the user quits or
+//	    ctx is cancelled (the caller cancels it on SIGHUP/SIGTERM). On
+//	    every exit, including cancellation, it writes the session to
+//	    opts.SessionPath unless the user chose to quit without saving.
+//	(Model) Session() Session, (Model) WantsSave() bool
+//	    The state to keep, and whether to keep it, for callers that run the
+//	    model themselves.
+//	SaveSession(path string, s Session) error   // atomic: temp file + rename
+//	LoadSession(path string) (Session, error)
+//	CheckSession(s Session, inputs []string, hash string) error
+//	HashFiles(paths ...string) (string, error), DataHash(v, facs) string
+//	NewStyles(r *lipgloss.Renderer) Styles      // colour by r's profile (NO_COLOR honoured)
+//	PlainStyles() Styles                        // no colour; glyphs carry every meaning
+//	RenderMatrix(in MatrixInput, st Styles, width, height int) string
+//	RenderLegend(in LegendInput, st Styles, width int) string
+//	GridView{...}.Matrix() / .Legend()          // renderer inputs from a grid and its maps
+//
+// # Screen
+//
+// A header names the facility (or "best of all"), the layer, the unit
+// system and the vehicle, followed by every what-if value that differs
+// from the files. The matrix has altitude rows, highest on top, and speed
+// columns; each cell is a glyph and a slot that shows '*' for a marked test
+// point. The cursor cell is bracketed, drawn in reverse video, and its row
+// and column are marked on the axes ('>' and '^'). Points outside the
+// envelope are a faint '.'. When the grid is larger than the screen the
+// matrix scrolls under fixed axis labels. Point details sit beside the
+// matrix on wide screens (WideWidth columns and more) and below it on
+// narrow ones; the legend of the current layer follows, then one line of
+// key help (or a status message, the input line or the quit question).
+// Below MinWidth×MinHeight the screen says it is too small.
+//
+// # Keys
+//
+// The one KeyMap (DefaultKeyMap) feeds the key line, the help screen and
+// Update:
+//
+//	↑/k ↓/j ←/h →/l  move        pgup/pgdn  page       home/g end/G  first/last column
+//	tab  next layer               u  SI/customary units
+//	f    facility list            [ ]  previous/next facility    b  best of all
+//	e    what-if editor           R  restore the files' values
+//	space  mark/unmark point      M  mark every full match       X  clear marks
+//	s    save session             ?  help                        q  quit (asks when unsaved)
+//
+// In lists ↑/↓ (or k/j) move, enter chooses, esc closes. What-if values
+// take units ("3 bar", "45 psi", "-150 degC", "10 K"); a bare number takes
+// the field's unit in the current unit system.
+//
+// # Layers
+//
+// Match class (default), flow regime, Reynolds ratio model/flight on a
+// graded scale, tunnel dynamic pressure as a share of its limit, and flight
+// Mach number. Each level has its own glyph as well as its own colour.
+//
+// # Recompute
+//
+// Facility limit edits re-run envelope.Solve for that facility only (and
+// update the best-of-all answer incrementally); scale and tolerance edits
+// re-run Solve for every facility; ΔT and compressibility-threshold edits
+// rebuild the grid as well. The work runs in a tea.Cmd that returns a
+// typed message; a newer request supersedes an older one.
+//
+// Results are planning estimates. Pressure vessels, cryogenic nitrogen and
+// model loads need the facility's own procedures, local codes and licensed
+// engineering practice.
+package tui
