@@ -109,3 +109,28 @@ func checkFits(t *testing.T, out string, w, h int) {
 		}
 	}
 }
+
+// TestColourViewSameText builds every golden state with colour styles:
+// without its escape sequences the screen must read exactly as the plain
+// one, so nothing is said by colour alone.
+func TestColourViewSameText(t *testing.T) {
+	for _, s := range goldenStates(t) {
+		plain := s.make(100, 30)
+		colour := plain
+		st := colourStyles()
+		colour.fr.st = &st
+		colour = relayoutAll(colour)
+		c, p := colour.View(), plain.View()
+		if s.name == "editing" {
+			// The input line's text cursor is a reverse-video cell with
+			// colour and '|' without; compare the rest.
+			c, p = c[:strings.LastIndex(c, "\n")], p[:strings.LastIndex(p, "\n")]
+		}
+		if !strings.Contains(c, "\x1b[") {
+			t.Errorf("%s: colour view has no colour", s.name)
+		}
+		if ansi.Strip(c) != p {
+			t.Errorf("%s: colour view text differs from plain:\n%s\n---\n%s", s.name, ansi.Strip(c), p)
+		}
+	}
+}

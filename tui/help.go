@@ -12,6 +12,9 @@ const SafetyNote = "Results are planning estimates. Pressure vessels, cryogenic 
 	"and model loads need the facility's own procedures, local codes and " +
 	"licensed engineering practice."
 
+// helpTextWidth caps the width of the help paragraphs for reading.
+const helpTextWidth = 96
+
 // helpView draws the short key line and the full help overlay from the
 // one KeyMap.
 type helpView struct {
@@ -49,7 +52,7 @@ func (v helpView) Short(b []key.Binding) string {
 
 // Overlay renders the full help screen.
 func (v helpView) Overlay() string {
-	w := v.width
+	w := min(v.width, helpTextWidth)
 	var b strings.Builder
 	b.WriteString(v.st.Section.Render("Keys"))
 	b.WriteString("\n")
