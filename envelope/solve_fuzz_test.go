@@ -1,0 +1,288 @@
+package envelope
+
+import (
+	"math"
+	"testing"
+
+	"likewind/atmos"
+)
+
+// fuzzSlack is the relative allowance with which a solved setting counts
+// as inside a facility limit (the solver's own rounding allowance is
+// solveSlack, 1e-9).
+const fuzzSlack = 1e-7
+
+// unitOf folds any fuzz value into [0, 1): the fractional part of |x|, and
+// 0 for NaN and infinities.
+func unitOf(x float64) float64 {
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return 0
+	}
+	x = math.Abs(x)
+	return x - math.Floor(x)
+}
+
+// logBetween maps u in [0, 1) log-uniformly onto [lo, hi).
+func logBetween(u, lo, hi float64) float64 {
+	return lo * math.Pow(hi/lo, u)
+}
+
+// linBetween maps u in [0, 1) onto [lo, hi).
+func linBetween(u, lo, hi float64) float64 { return lo + u*(hi-lo) }
+
+// logUnit is the inverse of logBetween, for writing seeds.
+func logUnit(x, lo, hi float64) float64 { return math.Log(x/lo) / math.Log(hi/lo) }
+
+// solveCase is one fuzz input decoded into a facility, a flight point and
+// settings, every value inside the ranges the file loader accepts.
+type solveCase struct {
+	f        Facility
+	alt, mf  float64 // flight altitude (m) and Mach number
+	refLen   float64
+	settings Settings
+}
+
+// solveInputs is the raw fuzz input: every field is folded into its range
+// by unitOf, so that any bit pattern is a valid case.
+type solveInputs struct {
+	medium                       uint8
+	cond                         bool
+	mLo, mHi, pLo, pHi, tLo, tHi float64
+	q, minT, rpm, peak, scale    float64
+	alt, mach, refLen, dT        float64
+	machTol, reTol, compMach     float64
+}
+
+func decodeSolveCase(in solveInputs) solveCase {
+	var c solveCase
+	f := &c.f
+	f.Name = "fuzz tunnel"
+	f.Medium = Medium(in.medium % 3)
+	if f.Medium.IsGas() {
+		// Loader ranges: Mach above 0 up to 30, p0 above 0 up to 1000 bar,
+		// T0 above 0 up to 3000 K; the lower ends here are far below any
+		// real facility.
+		f.MachMin = logBetween(unitOf(in.mLo), 1e-3, maxMach)
+		f.MachMax = logBetween(unitOf(in.mHi), f.MachMin, maxMach)
+		f.T0Min = logBetween(unitOf(in.tLo), 1, maxGasT0)
+		f.T0Max = logBetween(unitOf(in.tHi), f.T0Min, maxGasT0)
+		f.Condensation = in.cond
+		f.PeakLocalMach = linBetween(unitOf(in.peak), 1, 10)
+		if u := unitOf(in.minT); u > 0.6 {
+			f.MinStaticT = logBetween((u-0.6)/0.4, 1, maxGasT0)
+		}
+	} else {
+		// Water: speed above 0 up to 100 m/s, 0 to 100 °C.
+		f.SpeedMin = logBetween(unitOf(in.mLo), 1e-3, maxWaterSpeed)
+		f.SpeedMax = logBetween(unitOf(in.mHi), f.SpeedMin, maxWaterSpeed)
+		f.T0Min = linBetween(unitOf(in.tLo), waterFreezingK, waterBoilingK)
+		f.T0Max = linBetween(unitOf(in.tHi), f.T0Min, waterBoilingK)
+	}
+	f.P0Min = logBetween(unitOf(in.pLo), 1, maxPressure)
+	f.P0Max = logBetween(unitOf(in.pHi), f.P0Min, maxPressure)
+	if u := unitOf(in.q); u > 0.5 {
+		f.QMax = logBetween((u-0.5)/0.5, 1, maxPressure)
+	}
+	if u := unitOf(in.rpm); u > 0.6 {
+		f.MaxReynoldsPerM = logBetween((u-0.6)/0.4, 1e3, 1e12)
+	}
+	f.Width, f.Height = 2, 1.5
+	f.Model.MaxSpanFraction = DefaultMaxSpanFraction
+
+	c.alt = linBetween(unitOf(in.alt), atmos.MinAltitude, atmos.MaxAltitude)
+	c.mf = logBetween(unitOf(in.mach), 1e-3, maxMach)
+	c.refLen = logBetween(unitOf(in.refLen), 1e-3, maxLength)
+	s := DefaultSettings(nil)
+	s.DeltaT = linBetween(unitOf(in.dT), -maxDeltaT, maxDeltaT)
+	s.MachTol = 0.2 * unitOf(in.machTol)
+	s.ReTol = 0.99 * unitOf(in.reTol)
+	s.CompressibilityMach = unitOf(in.compMach)
+	// A scale in (0, 10], or (below 0.1 of the range) the fitted model.
+	if u := unitOf(in.scale); u >= 0.1 {
+		s.Scale = logBetween((u-0.1)/0.9, 1e-4, maxModelScale)
+	}
+	c.settings = s
+	return c
+}
+
+// onePointVehicle is a vehicle whose 1 × 1 grid holds the flight point,
+// inside a small rectangular envelope.
+func onePointVehicle(alt, mach, refLen float64) *Vehicle {
+	return &Vehicle{
+		Name: "fuzz vehicle", RefLength: refLen, Span: 3 * refLen, FrontalArea: 0.1 * refLen * refLen,
+		Boundary:     []Vertex{{alt - 100, mach / 2}, {alt - 100, 2 * mach}, {alt + 100, 2 * mach}, {alt + 100, mach / 2}},
+		BoundaryKind: atmos.Mach,
+		Grid: GridSpec{
+			Altitude:  Axis{Min: alt, Max: alt, Count: 1},
+			Speed:     Axis{Min: mach, Max: mach, Count: 1},
+			SpeedKind: atmos.Mach,
+		},
+	}
+}
+
+// within reports lo ≤ x ≤ hi with a relative slack.
+func within(x, lo, hi float64) bool {
+	return x >= lo*(1-fuzzSlack) && x <= hi*(1+fuzzSlack)
+}
+
+// FuzzSolve: for any facility with limits the loader accepts and any
+// flight point of the standard atmosphere, Solve does not panic, gives a
+// finite answer whose settings lie within the facility's limits, and a
+// class that agrees with its own Mach and Reynolds numbers and with the
+// full-precision detail.
+func FuzzSolve(f *testing.F) {
+	// Seeds: each demo-like facility at a low-speed, a transonic and a
+	// supersonic flight point (values written as their unit positions).
+	for _, fac := range benchFacilities() {
+		med := uint8(fac.Medium)
+		lo, hi := fac.MachMin, fac.MachMax
+		if fac.Medium == MediumWater {
+			lo, hi = fac.SpeedMin, fac.SpeedMax
+		}
+		loU := logUnit(lo, 1e-3, maxMach)
+		hiU := logUnit(hi, lo, maxMach)
+		if fac.Medium == MediumWater {
+			loU, hiU = logUnit(lo, 1e-3, maxWaterSpeed), logUnit(hi, lo, maxWaterSpeed)
+		}
+		tLo, tHi := logUnit(fac.T0Min, 1, maxGasT0), logUnit(fac.T0Max, fac.T0Min, maxGasT0)
+		if fac.Medium == MediumWater {
+			tLo = (fac.T0Min - waterFreezingK) / (waterBoilingK - waterFreezingK)
+			tHi = (fac.T0Max - fac.T0Min) / (waterBoilingK - fac.T0Min)
+		}
+		pLo := logUnit(math.Max(fac.P0Min, 1), 1, maxPressure)
+		pHi := logUnit(fac.P0Max, math.Max(fac.P0Min, 1), maxPressure)
+		for _, pt := range []struct{ alt, mach float64 }{{500, 0.2}, {9000, 0.85}, {18000, 2}} {
+			altU := (pt.alt - atmos.MinAltitude) / (atmos.MaxAltitude - atmos.MinAltitude)
+			f.Add(med, fac.Condensation, loU, hiU, pLo, pHi, tLo, tHi,
+				0.8, 0.0, 0.0, 0.04, 0.55, altU, logUnit(pt.mach, 1e-3, maxMach), 0.7, 0.5,
+				0.05, 0.101, 0.3)
+		}
+	}
+	f.Fuzz(func(t *testing.T, medium uint8, cond bool, mLo, mHi, pLo, pHi, tLo, tHi,
+		q, minT, rpm, peak, scale, alt, mach, refLen, dT, machTol, reTol, compMach float64) {
+		c := decodeSolveCase(solveInputs{medium, cond, mLo, mHi, pLo, pHi, tLo, tHi,
+			q, minT, rpm, peak, scale, alt, mach, refLen, dT, machTol, reTol, compMach})
+		checkSolveCase(t, c)
+	})
+}
+
+// checkSolveCase solves one case and checks the answer.
+func checkSolveCase(t *testing.T, c solveCase) {
+	t.Helper()
+	fac := c.f
+	// The facility must be one the loader accepts (written out and read
+	// back unchanged), or the case is not a valid input.
+	back, err := ParseFacilities("fuzz.toml", MarshalFacilities([]Facility{fac}))
+	if err != nil {
+		t.Fatalf("generated facility is not valid: %v\n%+v", err, fac)
+	}
+	fac = back[0]
+	v := onePointVehicle(c.alt, c.mf, c.refLen)
+	g, err := NewGrid(v, c.settings)
+	if err != nil {
+		t.Fatalf("NewGrid(alt %g, Mach %g, ΔT %g): %v", c.alt, c.mf, c.settings.DeltaT, err)
+	}
+	if g.InsideCount() != 1 {
+		t.Fatalf("grid has %d inside points, want the one flight point", g.InsideCount())
+	}
+	m, err := Solve(g, &fac, c.settings)
+	if err != nil {
+		t.Fatalf("Solve: %v\nfacility %+v\nsettings %+v", err, fac, c.settings)
+	}
+	r := m.At(0, 0)
+	d, err := m.Detail(0, 0)
+	if err != nil {
+		t.Fatalf("Detail: %v", err)
+	}
+	ctx := func() string {
+		return "\nfacility " + string(MarshalFacilities([]Facility{fac})) +
+			"\nflight alt " + atmos.FormatNumber(c.alt) + " m, Mach " + atmos.FormatNumber(c.mf) +
+			", L " + atmos.FormatNumber(c.refLen) + " m"
+	}
+	for _, x := range []struct {
+		name string
+		v    float64
+	}{
+		{"Result.P0", float64(r.P0)}, {"Result.T0", float64(r.T0)}, {"Result.Q", float64(r.Q)},
+		{"Result.Re", float64(r.Re)}, {"Result.ReRatio", float64(r.ReRatio)}, {"Result.DCf", float64(r.DCf)},
+		{"Result.V", float64(r.V)},
+		{"Scale", m.Scale}, {"ModelLength", d.ModelLength}, {"Mach", d.Mach}, {"P0", d.P0}, {"T0", d.T0},
+		{"P", d.P}, {"T", d.T}, {"V", d.V}, {"Q", d.Q}, {"Density", d.Density}, {"Viscosity", d.Viscosity},
+		{"Re", d.Re}, {"ReFlight", d.ReFlight}, {"ReRatio", d.ReRatio}, {"RePerM", d.RePerM}, {"DCf", d.DCf},
+		{"ReMax", d.ReMax}, {"ReSweepMin", d.ReSweepMin}, {"ReSweepMax", d.ReSweepMax},
+		{"FlightT0", d.FlightT0}, {"MinT0Condensation", d.MinT0Condensation},
+		{"VapourPressure", d.VapourPressure}, {"Cavitation", d.Cavitation},
+	} {
+		if math.IsNaN(x.v) || math.IsInf(x.v, 0) {
+			t.Fatalf("%s = %g, want a finite number (class %v)%s", x.name, x.v, d.Class, ctx())
+		}
+		// ΔCf has either sign; a cavitation number is negative when the
+		// static pressure is below the vapour pressure (boiling water).
+		if x.v < 0 && x.name != "Result.DCf" && x.name != "DCf" && x.name != "Cavitation" {
+			t.Fatalf("%s = %g, want ≥ 0 (class %v)%s", x.name, x.v, d.Class, ctx())
+		}
+	}
+	if r.Class != d.Class || r.Limit != d.Limit || r.Flags != d.Flags {
+		t.Fatalf("map says %v (%v, %v), detail says %v (%v, %v)%s", r.Class, r.Limit, r.Flags, d.Class, d.Limit, d.Flags, ctx())
+	}
+	s := c.settings
+	water := fac.Medium == MediumWater
+	if d.HasSettings {
+		if !within(d.P0, fac.P0Min, fac.P0Max) {
+			t.Fatalf("p0 %g Pa outside the facility range %g–%g (class %v)%s", d.P0, fac.P0Min, fac.P0Max, d.Class, ctx())
+		}
+		if !within(d.T0, fac.T0Min, fac.T0Max) {
+			t.Fatalf("T0 %g K outside the facility range %g–%g (class %v)%s", d.T0, fac.T0Min, fac.T0Max, d.Class, ctx())
+		}
+		if water && !within(d.V, fac.SpeedMin, fac.SpeedMax) {
+			t.Fatalf("speed %g m/s outside the facility range %g–%g (class %v)%s", d.V, fac.SpeedMin, fac.SpeedMax, d.Class, ctx())
+		}
+		if !water && !within(d.Mach, fac.MachMin, fac.MachMax) {
+			t.Fatalf("Mach %g outside the facility range %g–%g (class %v)%s", d.Mach, fac.MachMin, fac.MachMax, d.Class, ctx())
+		}
+		if fac.QMax > 0 && d.Q > fac.QMax*(1+fuzzSlack) {
+			t.Fatalf("q %g Pa above the facility limit %g (class %v)%s", d.Q, fac.QMax, d.Class, ctx())
+		}
+		if fac.MinStaticT > 0 && d.T < fac.MinStaticT*(1-fuzzSlack) {
+			t.Fatalf("static T %g K below the facility minimum %g (class %v)%s", d.T, fac.MinStaticT, d.Class, ctx())
+		}
+		if fac.MaxReynoldsPerM > 0 && d.RePerM > fac.MaxReynoldsPerM*(1+fuzzSlack) {
+			t.Fatalf("unit Re %g above the facility cap %g (class %v)%s", d.RePerM, fac.MaxReynoldsPerM, d.Class, ctx())
+		}
+		if !(d.Re > 0) || math.Abs(d.ReRatio-d.Re/d.ReFlight) > fuzzSlack*d.ReRatio {
+			t.Fatalf("Re %g, flight %g, ratio %g: want Re > 0 and ratio = Re/flight%s", d.Re, d.ReFlight, d.ReRatio, ctx())
+		}
+	}
+	machMatched := math.Abs(d.Mach-c.mf) <= s.MachTol*(1+1e-9)+1e-9
+	reMet := d.ReRatio >= (1-s.ReTol)*(1-fuzzSlack)
+	switch d.Class {
+	case FullMatch:
+		if water || !d.HasSettings || !machMatched || !reMet {
+			t.Fatalf("full match with Mach %g (flight %g, tolerance %g), Re ratio %g (tolerance %g)%s",
+				d.Mach, c.mf, s.MachTol, d.ReRatio, s.ReTol, ctx())
+		}
+	case MachRelaxed:
+		if !d.HasSettings || !reMet || !(c.mf < s.CompressibilityMach) ||
+			(!water && d.Mach > s.CompressibilityMach*(1+1e-9)) {
+			t.Fatalf("Mach relaxed at flight Mach %g, test Mach %g (threshold %g), Re ratio %g (tolerance %g)%s",
+				c.mf, d.Mach, s.CompressibilityMach, d.ReRatio, s.ReTol, ctx())
+		}
+	case ReShort:
+		if water || !d.HasSettings || !machMatched || d.ReRatio >= 1-s.ReTol {
+			t.Fatalf("Reynolds short with Mach %g (flight %g), Re ratio %g (tolerance %g)%s",
+				d.Mach, c.mf, d.ReRatio, s.ReTol, ctx())
+		}
+		if d.Limit == LimitNone {
+			t.Fatalf("Reynolds short with no limit named%s", ctx())
+		}
+	case NoMatch:
+		if d.Limit == LimitNone {
+			t.Fatalf("out of reach with no limit named%s", ctx())
+		}
+	default:
+		t.Fatalf("class %v for a point inside the envelope%s", d.Class, ctx())
+	}
+	if len(d.Cautions) == 0 || d.Cautions[0] != PlanningNote {
+		t.Fatalf("cautions %q, want the planning note first%s", d.Cautions, ctx())
+	}
+}
