@@ -537,6 +537,11 @@ func (sv *solver) tryHit(c *gasBounds, target float64) (p0, t0, re float64, over
 		return 0, 0, 0, false, false
 	}
 	p0, t0, re, over = sv.hit(c, target, c.t0lo)
+	if over && sv.rpm > 0 && re > sv.rpm*sv.L*(1+solveSlack) {
+		// Even the lowest setting (P0Min at the warmest T0) breaks the
+		// unit-Reynolds cap: nothing runs at this Mach number.
+		return 0, 0, 0, false, false
+	}
 	return p0, t0, re, over, true
 }
 
