@@ -90,7 +90,6 @@ type Model struct {
 	res      results
 	gen      int  // generation of the latest recompute request
 	busy     bool // a recompute is running
-	lastErr  string
 
 	layer   Layer
 	units   Units
@@ -107,14 +106,13 @@ type Model struct {
 	statusErr bool
 
 	// layout
-	wide      bool
-	tooSmall  bool
-	headerH   int
-	bodyH     int
-	legendH   int
-	sideW     int
-	lowerH    int
-	compactDt bool
+	wide     bool
+	tooSmall bool
+	headerH  int
+	bodyH    int
+	legendH  int
+	sideW    int
+	lowerH   int
 
 	dirty       bool // state changed since the last save
 	discard     bool // user chose to quit without saving

@@ -467,3 +467,28 @@ func TestIncrementalBestMatchesBest(t *testing.T) {
 		m.facs = facs
 	}
 }
+
+// TestNoDataNoFacilities: the screen works without a vehicle and without
+// facilities, and every key is safe.
+func TestNoDataNoFacilities(t *testing.T) {
+	v, _ := demoData(t)
+	st := PlainStyles()
+	for name, o := range map[string]Options{
+		"no vehicle":    {Styles: &st},
+		"no facilities": {Vehicle: v, Styles: &st},
+	} {
+		m := New(o)
+		for _, k := range fuzzKeys {
+			m, _ = press(m, k)
+			checkFits(t, m.View(), 80, 24)
+		}
+		m, _ = press(m, "esc", "esc")
+		out := m.View()
+		if name == "no facilities" && !strings.Contains(out, "no facilities") {
+			t.Errorf("%s: view does not say so:\n%s", name, out)
+		}
+		if name == "no vehicle" && !strings.Contains(out, "no vehicle") {
+			t.Errorf("%s: view does not say so:\n%s", name, out)
+		}
+	}
+}
