@@ -29,6 +29,9 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		if b == "" {
 			return left
 		}
+		if visibleWidth(left) >= colW {
+			return left + " " + st.Label.Render(b) + " " + bv
+		}
 		return padRight(left, colW) + st.Label.Render(b) + " " + bv
 	}
 

@@ -37,7 +37,7 @@ func TestProgramEndToEnd(t *testing.T) {
 	waitFor("what-if:")
 	tm.Send(tea.KeyMsg{Type: tea.KeyEsc})
 	tm.Type("q")
-	waitFor("Unsaved what-if")
+	waitFor("Unsaved changes")
 	tm.Type("y")
 	final := tm.FinalModel(t, teatest.WithFinalTimeout(5*time.Second)).(Model)
 	if final.layer != LayerRegime || final.units != Customary {

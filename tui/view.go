@@ -306,7 +306,7 @@ func (m Model) footer() string {
 	case modeConfirm:
 		q := "Unsaved what-if changes or marks. "
 		if m.sessionPath == "" {
-			q += "No session file: they will be lost. "
+			q = "Unsaved changes; no session file. "
 		}
 		return clip(m.fr.st.Changed.Render(q)+m.help.Short(confirmKeys{k: k, canSave: m.sessionPath != ""}.ShortHelp()), m.fr.width, 1)
 	case modeHelp:
