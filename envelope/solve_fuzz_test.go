@@ -249,6 +249,16 @@ func checkSolveCase(t *testing.T, c solveCase) {
 		if fac.MaxReynoldsPerM > 0 && d.RePerM > fac.MaxReynoldsPerM*(1+fuzzSlack) {
 			t.Fatalf("unit Re %g above the facility cap %g (class %v)%s", d.RePerM, fac.MaxReynoldsPerM, d.Class, ctx())
 		}
+		if !water && (fac.Condensation || fac.Medium == MediumAir && d.Mach >= 1) {
+			gas := atmos.Air()
+			if fac.Medium == MediumNitrogen {
+				gas = atmos.Nitrogen()
+			}
+			if d.T < gas.CriticalTemperature() && d.P > gas.SaturationPressure(d.T)*(1+fuzzSlack) {
+				t.Fatalf("static state p %g Pa, T %g K on the liquid side of the saturation line (psat %g Pa, class %v)%s",
+					d.P, d.T, gas.SaturationPressure(d.T), d.Class, ctx())
+			}
+		}
 		if !(d.Re > 0) || math.Abs(d.ReRatio-d.Re/d.ReFlight) > fuzzSlack*d.ReRatio {
 			t.Fatalf("Re %g, flight %g, ratio %g: want Re > 0 and ratio = Re/flight%s", d.Re, d.ReFlight, d.ReRatio, ctx())
 		}
