@@ -90,10 +90,43 @@ func ParseVehicle(name string, data []byte) (*Vehicle, error) {
 		return nil, d.result()
 	}
 	v := d.vehicle()
+	if len(d.errs) == 0 {
+		d.checkInside(v)
+	}
 	if err := d.result(); err != nil {
 		return nil, err
 	}
 	return v, nil
+}
+
+// checkInside reports a vehicle whose grid has no point inside the
+// envelope, so that nothing would be evaluated: either the limit lines
+// exclude every point the boundary holds, or no grid point falls inside the
+// boundary at all.
+func (d *doc) checkInside(v *Vehicle) {
+	s := DefaultSettings(v)
+	g, err := NewGrid(v, s)
+	if err != nil || g.InsideCount() > 0 {
+		return
+	}
+	open := *v
+	open.Limits = Limits{}
+	if g, err := NewGrid(&open, s); err == nil && g.InsideCount() > 0 {
+		d.fail("limits", "limits", "limit lines that exclude every grid point of the envelope",
+			"limits that leave part of the envelope inside")
+		return
+	}
+	// Report at the grid's first table, or at the boundary when the file
+	// leaves the grid to its defaults.
+	p := "envelope.boundary"
+	for _, q := range []string{"grid", "grid.altitude", "grid.speed"} {
+		if d.idx[q] > 0 {
+			p = q
+			break
+		}
+	}
+	d.fail(p, "grid", fmt.Sprintf("no grid point inside the envelope boundary (%d × %d points)", g.Rows(), g.Cols()),
+		"grid axes that overlap the envelope, with steps fine enough to put points inside it")
 }
 
 // ParseFacilities reads the facilities of a facility file from its text;

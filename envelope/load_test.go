@@ -334,6 +334,10 @@ func TestBadFiles(t *testing.T) {
 			`single_brackets.toml:2: facility: found a table, expected one or more [[facility]] tables (note the double brackets)`}},
 		{"mixed_file.toml", []string{
 			`mixed_file.toml:17: facility: found [[facility]] tables in a vehicle file, expected vehicles and facilities in separate files`}},
+		{"limits_exclude_all.toml", []string{
+			`limits_exclude_all.toml:16: limits: found limit lines that exclude every grid point of the envelope, expected limits that leave part of the envelope inside`}},
+		{"grid_misses_envelope.toml", []string{
+			`grid_misses_envelope.toml:17: grid: found no grid point inside the envelope boundary (40 × 60 points), expected grid axes that overlap the envelope, with steps fine enough to put points inside it`}},
 		{"many_faults.toml", []string{
 			`many_faults.toml:6: facility[1].stagnation_pressure_range high: found "4.5 psx" (unknown pressure unit "psx"), expected a pressure with its unit, e.g. "2.5 bar" (units: Pa, hPa, kPa, MPa, mbar, bar, psi, psf, atm, inHg, mmHg, torr)`,
 			`many_faults.toml:9: facility[1].section_height: found "-2 m", expected a length above 0 m`,
