@@ -1,0 +1,158 @@
+package main
+
+import (
+	"fmt"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+)
+
+// smokeTmux drives the built binary in a real terminal (tmux) the way a
+// user would. It skips when tmux is not installed or in -short mode.
+type smokeTmux struct {
+	t    *testing.T
+	name string
+}
+
+func newSmokeTmux(t *testing.T, width, height int, command ...string) *smokeTmux {
+	t.Helper()
+	if testing.Short() {
+		t.Skip("terminal smoke test skipped in -short mode")
+	}
+	if _, err := exec.LookPath("tmux"); err != nil {
+		t.Skip("tmux not installed; terminal smoke test skipped")
+	}
+	name := fmt.Sprintf("likewind-smoke-%d", time.Now().UnixNano())
+	args := []string{"new-session", "-d", "-s", name, "-x", fmt.Sprint(width), "-y", fmt.Sprint(height)}
+	args = append(args, command...)
+	cmd := exec.Command("tmux", args...)
+	cmd.Env = append(os.Environ(), "TERM=xterm-256color")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("tmux new-session: %v\n%s", err, out)
+	}
+	s := &smokeTmux{t: t, name: name}
+	t.Cleanup(func() { _ = exec.Command("tmux", "kill-session", "-t", name).Run() })
+	return s
+}
+
+func (s *smokeTmux) screen() string {
+	out, err := exec.Command("tmux", "capture-pane", "-p", "-t", s.name).CombinedOutput()
+	if err != nil {
+		return ""
+	}
+	return string(out)
+}
+
+func (s *smokeTmux) alive() bool {
+	return exec.Command("tmux", "has-session", "-t", s.name).Run() == nil
+}
+
+// keys sends tmux key names one at a time, so each arrives as its own key
+// press.
+func (s *smokeTmux) keys(keys ...string) {
+	s.t.Helper()
+	for _, k := range keys {
+		if out, err := exec.Command("tmux", "send-keys", "-t", s.name, k).CombinedOutput(); err != nil {
+			s.t.Fatalf("tmux send-keys %q: %v\n%s", k, err, out)
+		}
+		time.Sleep(60 * time.Millisecond)
+	}
+}
+
+// waitFor waits until the screen contains want, failing after a generous
+// bound (this is a correctness check, not a speed check).
+func (s *smokeTmux) waitFor(want string) string {
+	s.t.Helper()
+	deadline := time.Now().Add(15 * time.Second)
+	for {
+		scr := s.screen()
+		if strings.Contains(scr, want) {
+			return scr
+		}
+		if time.Now().After(deadline) {
+			s.t.Fatalf("screen never showed %q; last screen:\n%s", want, scr)
+		}
+		time.Sleep(100 * time.Millisecond)
+	}
+}
+
+// buildLikewind compiles the command into a temporary folder.
+func buildLikewind(t *testing.T) string {
+	t.Helper()
+	bin := filepath.Join(t.TempDir(), "likewind")
+	out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput()
+	if err != nil {
+		t.Fatalf("go build: %v\n%s", err, out)
+	}
+	return bin
+}
+
+// TestTerminalSmoke starts the interface on the demo, moves the cursor,
+// changes the layer, edits the model scale, toggles units and quits.
+func TestTerminalSmoke(t *testing.T) {
+	bin := buildLikewind(t)
+	dir := t.TempDir()
+	session := filepath.Join(dir, "smoke-session.json")
+	s := newSmokeTmux(t, 120, 40, "env", "XDG_STATE_HOME="+dir, bin, "--fresh", "--session", session)
+
+	first := s.waitFor("likewind |")
+	if !strings.Contains(first, "match class") {
+		t.Errorf("first screen lacks the default layer name 'match class':\n%s", first)
+	}
+	flight := func(scr string) string {
+		for _, line := range strings.Split(scr, "\n") {
+			if i := strings.Index(line, "FLIGHT"); i >= 0 {
+				return strings.TrimSpace(line[i:])
+			}
+		}
+		return ""
+	}
+
+	// Move: the flight-condition line follows the cursor.
+	s.keys("k", "k")
+	moved := s.waitFor("FLIGHT")
+	if flight(moved) == flight(first) {
+		t.Errorf("cursor move did not change the flight line %q", flight(first))
+	}
+
+	// Layer: tab moves to the flow-regime layer.
+	s.keys("Tab")
+	s.waitFor("flow regime")
+
+	// What-if: edit the model scale.
+	s.keys("e")
+	s.waitFor("model scale")
+	s.keys("Enter", "C-u")
+	s.keys("0", ".", "0", "5", "Enter")
+	s.keys("Escape")
+	edited := s.waitFor("what-if:")
+	if !strings.Contains(edited, "model scale 0.05") {
+		t.Errorf("header does not list the edited model scale:\n%s", edited)
+	}
+
+	// Units: toggle to customary, altitude axis in feet.
+	s.keys("u")
+	s.waitFor("altitude ft")
+
+	// Quit: unsaved changes ask first; answer "save and quit".
+	s.keys("q")
+	s.waitFor("Unsaved")
+	s.keys("s")
+	deadline := time.Now().Add(10 * time.Second)
+	for s.alive() && time.Now().Before(deadline) {
+		time.Sleep(100 * time.Millisecond)
+	}
+	if s.alive() {
+		t.Fatalf("likewind still running after quit; screen:\n%s", s.screen())
+	}
+	data, err := os.ReadFile(session)
+	if err != nil {
+		t.Fatalf("session file not written on quit: %v", err)
+	}
+	if !strings.Contains(string(data), `"scale": 0.05`) {
+		t.Errorf("session file lacks the edited scale:\n%s", data)
+	}
+}
