@@ -334,6 +334,61 @@ func TestBadFiles(t *testing.T) {
 			`single_brackets.toml:2: facility: found a table, expected one or more [[facility]] tables (note the double brackets)`}},
 		{"mixed_file.toml", []string{
 			`mixed_file.toml:17: facility: found [[facility]] tables in a vehicle file, expected vehicles and facilities in separate files`}},
+		{"altitude_below_range.toml", []string{
+			`altitude_below_range.toml:11: envelope.boundary point 1 altitude: found "-6 km", expected a geometric altitude from -5000 m to 86000 m (the standard atmosphere's range)`}},
+		{"below_absolute_zero.toml", []string{
+			`below_absolute_zero.toml:7: facility[1].stagnation_temperature_range low: found "-300 degC" (temperature -26.850000000000023 K is below absolute zero), expected a temperature with its unit, e.g. "-20 degC" (units: K, degC, degF, degR)`}},
+		{"cas_too_high.toml", []string{
+			`cas_too_high.toml:14: envelope.boundary point 4: found ["80 km", "400 kt"] (Mach 145), expected a CAS that exists at this altitude on the design day, at most Mach 30`}},
+		{"ceiling_too_low.toml", []string{
+			`ceiling_too_low.toml:17: limits.ceiling: found "0 ft", expected a ceiling above the lowest boundary point`}},
+		{"condensation_on_water.toml", []string{
+			`condensation_on_water.toml:8: facility[1].condensation_check: found condensation_check on a water facility, expected no condensation_check (condensation limits apply to air and nitrogen only)`}},
+		{"duplicate_key.toml", []string{
+			`duplicate_key.toml:9: syntax after facility.section_width: found Key 'facility.section_width' has already been defined., expected valid TOML`}},
+		{"empty_boundary.toml", []string{
+			`empty_boundary.toml:10: envelope.boundary: found 0 distinct points, expected at least 3 points enclosing an area`}},
+		{"empty_file.toml", []string{
+			`empty_file.toml:1: found neither [vehicle] nor [[facility]] tables, expected a vehicle file ([vehicle], [envelope], optional [limits], [grid]) or a facility file ([[facility]] tables)`}},
+		{"gauge_pressure.toml", []string{
+			`gauge_pressure.toml:6: facility[1].stagnation_pressure_range high: found "4 barg" ("barg" is a gauge pressure unit), expected a pressure with its unit, e.g. "2.5 bar" (units: Pa, hPa, kPa, MPa, mbar, bar, psi, psf, atm, inHg, mmHg, torr)`}},
+		{"grid_count_too_large.toml", []string{
+			`grid_count_too_large.toml:18: grid.speed.count: found 5000, expected from 2 to 1000 points (the grid is limited to 1000 × 1000)`}},
+		{"grid_inverted.toml", []string{
+			`grid_inverted.toml:17: grid.altitude: found from "30000 ft" to "10000 ft", expected a range whose to is above its from`}},
+		{"infinite.toml", []string{
+			`infinite.toml:6: vehicle.span: found "1e999 m" (number out of range), expected a length with its unit, e.g. "1.2 m" (units: m, km, mm, cm, in, ft, kft, mi, nmi)`}},
+		{"mach_too_high.toml", []string{
+			`mach_too_high.toml:13: envelope.boundary point 3 speed: found "35", expected a Mach number from 0 to 30`}},
+		{"min_speed_kind.toml", []string{
+			`min_speed_kind.toml:17: limits.min_speed: found "90", expected a speed with its kind, e.g. "M0.25", "90 KEAS", "120 kt CAS" or "60 m/s TAS"`}},
+		{"missing_medium.toml", []string{
+			`missing_medium.toml:2: facility[1].medium: missing, expected "air", "nitrogen" or "water"`}},
+		{"not_utf8.toml", []string{
+			`not_utf8.toml:3: syntax after vehicle.name: found invalid UTF-8 byte: 0xff, expected valid TOML`}},
+		{"peak_local_mach.toml", []string{
+			`peak_local_mach.toml:8: facility[1].peak_local_mach: found "0.8", expected a Mach number from 1 to 10`}},
+		{"speed_range_on_air.toml", []string{
+			`speed_range_on_air.toml:2: facility[1].mach_range: missing, expected a range [low, high] of two values, each a Mach number, e.g. "0.85"`,
+			`speed_range_on_air.toml:5: facility[1].speed_range: found speed_range on an air facility, expected mach_range instead`}},
+		{"step_zero.toml", []string{
+			`step_zero.toml:18: grid.altitude.step: found "0 ft", expected an altitude step above 0`}},
+		{"temperature_offset.toml", []string{
+			`temperature_offset.toml:10: envelope.temperature_offset: found "80 K", expected a temperature offset from the standard day within ±60 K`}},
+		{"thousands_separator.toml", []string{
+			`thousands_separator.toml:13: envelope.boundary point 3 altitude: found "30,000 ft" (malformed number (use '.' for decimals and no thousands separators)), expected a length with its unit, e.g. "41000 ft" (units: m, km, mm, cm, in, ft, kft, mi, nmi)`}},
+		{"too_many_points.toml", []string{
+			`too_many_points.toml:10: envelope.boundary: found 1001 points, expected at most 1000 points`}},
+		{"unknown_unit.toml", []string{
+			`unknown_unit.toml:6: facility[1].stagnation_pressure_range high: found "5 bars" (unknown pressure unit "bars"), expected a pressure with its unit, e.g. "2.5 bar" (units: Pa, hPa, kPa, MPa, mbar, bar, psi, psf, atm, inHg, mmHg, torr)`}},
+		{"water_too_fast.toml", []string{
+			`water_too_fast.toml:5: facility[1].speed_range high: found "150 m/s", expected a water speed up to 100 m/s`}},
+		{"wrong_type.toml", []string{
+			`wrong_type.toml:8: facility[1].condensation_check: found "yes", expected true or false, without quotes`}},
+		{"zero_scale.toml", []string{
+			`zero_scale.toml:12: facility[1].model.scale: found "0", expected a model scale above 0 and at most 10`}},
+		{"zero_width.toml", []string{
+			`zero_width.toml:8: facility[1].section_width: found "0 m", expected a length above 0 m`}},
 		{"limits_exclude_all.toml", []string{
 			`limits_exclude_all.toml:16: limits: found limit lines that exclude every grid point of the envelope, expected limits that leave part of the envelope inside`}},
 		{"grid_misses_envelope.toml", []string{
