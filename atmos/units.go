@@ -434,7 +434,7 @@ func checkSign(si float64, d Dimension) error {
 		}
 	case Temperature:
 		if si < 0 {
-			return fmt.Errorf("temperature %g K is below absolute zero: %w", si, ErrOutOfRange)
+			return fmt.Errorf("temperature %.6g K is below absolute zero: %w", si, ErrOutOfRange)
 		}
 	}
 	return nil

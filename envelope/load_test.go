@@ -337,7 +337,7 @@ func TestBadFiles(t *testing.T) {
 		{"altitude_below_range.toml", []string{
 			`altitude_below_range.toml:11: envelope.boundary point 1 altitude: found "-6 km", expected a geometric altitude from -5000 m to 86000 m (the standard atmosphere's range)`}},
 		{"below_absolute_zero.toml", []string{
-			`below_absolute_zero.toml:7: facility[1].stagnation_temperature_range low: found "-300 degC" (temperature -26.850000000000023 K is below absolute zero), expected a temperature with its unit, e.g. "-20 degC" (units: K, degC, degF, degR)`}},
+			`below_absolute_zero.toml:7: facility[1].stagnation_temperature_range low: found "-300 degC" (temperature -26.85 K is below absolute zero), expected a temperature with its unit, e.g. "-20 degC" (units: K, degC, degF, degR)`}},
 		{"cas_too_high.toml", []string{
 			`cas_too_high.toml:14: envelope.boundary point 4: found ["80 km", "400 kt"] (Mach 145), expected a CAS that exists at this altitude on the design day, at most Mach 30`}},
 		{"ceiling_too_low.toml", []string{
