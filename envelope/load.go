@@ -254,7 +254,7 @@ func syntaxErrors(name string, err error) *FileErrors {
 	var pe toml.ParseError
 	if errors.As(err, &pe) {
 		fe := FileError{File: name, Line: pe.Position.Line, Field: "syntax",
-			Found: pe.Message, Expected: "valid TOML"}
+			Found: strings.TrimSuffix(pe.Message, "."), Expected: "valid TOML"}
 		if pe.LastKey != "" {
 			fe.Field = "syntax after " + pe.LastKey
 		}

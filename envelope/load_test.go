@@ -345,7 +345,7 @@ func TestBadFiles(t *testing.T) {
 		{"condensation_on_water.toml", []string{
 			`condensation_on_water.toml:8: facility[1].condensation_check: found condensation_check on a water facility, expected no condensation_check (condensation limits apply to air and nitrogen only)`}},
 		{"duplicate_key.toml", []string{
-			`duplicate_key.toml:9: syntax after facility.section_width: found Key 'facility.section_width' has already been defined., expected valid TOML`}},
+			`duplicate_key.toml:9: syntax after facility.section_width: found Key 'facility.section_width' has already been defined, expected valid TOML`}},
 		{"empty_boundary.toml", []string{
 			`empty_boundary.toml:10: envelope.boundary: found 0 distinct points, expected at least 3 points enclosing an area`}},
 		{"empty_file.toml", []string{
