@@ -67,7 +67,7 @@ type IdealGas struct {
 	r     float64
 	beta  float64
 	s     float64
-	sat   satCurve
+	sat   *satCurve // one of the immutable curves below
 }
 
 // Air returns dry air as modelled by the U.S. Standard Atmosphere 1976:
@@ -81,7 +81,7 @@ func Air() IdealGas {
 		r:     RAir,
 		beta:  SutherlandBetaAir,
 		s:     SutherlandSAir,
-		sat:   airDewLine,
+		sat:   &airDewLine,
 	}
 }
 
@@ -96,7 +96,7 @@ func Nitrogen() IdealGas {
 		r:     GasConstantUniversal / MolarMassNitrogen,
 		beta:  SutherlandBeta(SutherlandMu0Nitrogen, SutherlandT0Nitrogen, SutherlandSNitrogen),
 		s:     SutherlandSNitrogen,
-		sat:   nitrogenVapourLine,
+		sat:   &nitrogenVapourLine,
 	}
 }
 
@@ -203,6 +203,28 @@ type satCurve struct {
 	n, e   [4]float64
 	tt     float64
 	b      float64
+
+	// Filled by prepared: k[i] = 2·e[i] when every exponent is a multiple
+	// of one half (halves set), so that θ^e is a product of θ and √θ and
+	// u^(2e) a product of u, without math.Pow; lt = ln(p/pc) at tt.
+	halves bool
+	k      [4]int
+	lt     float64
+}
+
+// prepared returns c with its derived fields filled in.
+func prepared(c satCurve) satCurve {
+	c.halves = true
+	for i, e := range c.e {
+		k := math.Round(2 * e)
+		if k != 2*e || k < 0 || k > 64 {
+			c.halves = false
+			break
+		}
+		c.k[i] = int(k)
+	}
+	c.lt = c.lnRatio(c.tt)
+	return c
 }
 
 // nitrogenVapourLine is the vapour-pressure ancillary equation of Span,
@@ -211,7 +233,7 @@ type satCurve struct {
 // 29(6), 1361 (2000), with Tc = 126.192 K, pc = 3.3958 MPa, triple point
 // 63.151 K. Below the triple point: Lemmon's sublimation line (see
 // satCurve).
-var nitrogenVapourLine = satCurve{
+var nitrogenVapourLine = prepared(satCurve{
 	source: "N2 vapour pressure: Span et al., J. Phys. Chem. Ref. Data 29, 1361 (2000), ancillary equation; " +
 		"below 63.151 K the sublimation line of Lemmon (b = 13.088692)",
 	tc: 126.192,
@@ -220,7 +242,7 @@ var nitrogenVapourLine = satCurve{
 	e:  [4]float64{1, 1.5, 2.5, 5},
 	tt: 63.151,
 	b:  13.088692,
-}
+})
 
 // airDewLine is the dew-point ancillary equation of Lemmon, Jacobsen,
 // Penoncello & Friend, "Thermodynamic properties of air and mixtures of
@@ -232,7 +254,7 @@ var nitrogenVapourLine = satCurve{
 // taken through the air dew point at 59.75 K. That predicts condensation at
 // a higher temperature than extending the liquid dew line would, which errs
 // on the cautious side; treat it as an estimate.
-var airDewLine = satCurve{
+var airDewLine = prepared(satCurve{
 	source: "air dew line: Lemmon et al., J. Phys. Chem. Ref. Data 29, 331 (2000), dew-point ancillary equation; " +
 		"below 59.75 K continued with the N2 sublimation slope (estimate)",
 	tc: 132.6312,
@@ -241,29 +263,51 @@ var airDewLine = satCurve{
 	e:  [4]float64{0.5, 1, 2.5, 4},
 	tt: 59.75,
 	b:  13.088692 * 63.151 / 59.75,
-}
+})
 
-// lnRatio returns ln(p/pc) of the ancillary at T in [tt, tc] and its
-// derivative with respect to T.
-func (c *satCurve) lnRatio(T float64) (v, dv float64) {
+// lnRatio returns ln(p/pc) of the ancillary at T in [tt, tc].
+func (c *satCurve) lnRatio(T float64) float64 {
 	th := 1 - T/c.tc
-	var s, ds float64
-	for i, n := range c.n {
-		e := c.e[i]
-		if th > 0 {
-			p := math.Pow(th, e)
-			s += n * p
-			ds += n * e * p / th
+	if !(th > 0) {
+		return 0
+	}
+	var s float64
+	if c.halves {
+		r := math.Sqrt(th)
+		for i, n := range c.n {
+			s += n * halfPow(th, r, c.k[i])
+		}
+	} else {
+		for i, n := range c.n {
+			s += n * math.Pow(th, c.e[i])
 		}
 	}
-	// d/dT [(tc/T) s(theta)] with dtheta/dT = -1/tc.
-	return c.tc / T * s, -c.tc/(T*T)*s - ds/T
+	return c.tc / T * s
 }
 
-// lnTriple is ln(p/pc) at the lower end of the ancillary.
-func (c *satCurve) lnTriple() float64 {
-	v, _ := c.lnRatio(c.tt)
-	return v
+// halfPow is x^(k/2) for r = √x: the integer power of x times r when k is
+// odd.
+func halfPow(x, r float64, k int) float64 {
+	p := intPow(x, k>>1)
+	if k&1 != 0 {
+		p *= r
+	}
+	return p
+}
+
+// intPow is x^n for n >= 0 by repeated squaring.
+func intPow(x float64, n int) float64 {
+	p := 1.0
+	for n > 0 {
+		if n&1 != 0 {
+			p *= x
+		}
+		n >>= 1
+		if n > 0 {
+			x *= x
+		}
+	}
+	return p
 }
 
 func (c *satCurve) pressure(T float64) float64 {
@@ -275,10 +319,9 @@ func (c *satCurve) pressure(T float64) float64 {
 	case T > c.tc:
 		return math.Inf(1)
 	case T >= c.tt:
-		v, _ := c.lnRatio(T)
-		return c.pc * math.Exp(v)
+		return c.pc * math.Exp(c.lnRatio(T))
 	}
-	return c.pc * math.Exp(c.lnTriple()-c.b*(c.tt/T-1))
+	return c.pc * math.Exp(c.lt-c.b*(c.tt/T-1))
 }
 
 // temperature inverts pressure. Between the triple point and the critical
@@ -297,7 +340,7 @@ func (c *satCurve) temperature(p float64) float64 {
 		return c.tc
 	}
 	target := math.Log(p / c.pc)
-	lt := c.lnTriple()
+	lt := c.lt
 	if target <= lt {
 		// Sublimation branch: target = lt - b*(tt/T - 1).
 		return c.tt / (1 + (lt-target)/c.b)
@@ -313,7 +356,12 @@ func (c *satCurve) temperature(p float64) float64 {
 		var s, ds float64
 		for i, n := range c.n {
 			k := 2 * c.e[i]
-			pk := math.Pow(u, k)
+			var pk float64
+			if c.halves {
+				pk = intPow(u, c.k[i])
+			} else {
+				pk = math.Pow(u, k)
+			}
 			s += n * pk
 			if u > 0 {
 				ds += n * k * pk / u
