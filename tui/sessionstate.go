@@ -104,35 +104,12 @@ func (m *Model) applySession(s Session) string {
 	} else {
 		notes = append(notes, fmt.Sprintf("facility %q not found", s.Facility))
 	}
-	w := s.WhatIf
-	set := func(dst *float64, v *float64) {
-		if v != nil && !math.IsNaN(*v) && !math.IsInf(*v, 0) {
-			*dst = *v
+	// Unknown facilities and values that are not numbers are left out
+	// and named on the status line.
+	if _, err := ApplyWhatIf(s.WhatIf, &m.set, m.facs); err != nil {
+		for _, line := range strings.Split(err.Error(), "\n") {
+			notes = append(notes, line+" ignored")
 		}
-	}
-	set(&m.set.Scale, w.Scale)
-	set(&m.set.DeltaT, w.DeltaT)
-	set(&m.set.MachTol, w.MachTol)
-	set(&m.set.ReTol, w.ReTol)
-	if w.CompressibilityMach != nil {
-		set(&m.set.CompressibilityMach, w.CompressibilityMach)
-		m.set.Regimes.Incompressible = m.set.CompressibilityMach
-	}
-	names := make([]string, 0, len(w.Facilities))
-	for n := range w.Facilities {
-		names = append(names, n)
-	}
-	sort.Strings(names)
-	for _, name := range names {
-		k := m.facilityIndex(name)
-		if k < 0 {
-			notes = append(notes, fmt.Sprintf("what-if for unknown facility %q ignored", name))
-			continue
-		}
-		fw := w.Facilities[name]
-		set(&m.facs[k].P0Max, fw.P0Max)
-		set(&m.facs[k].T0Min, fw.T0Min)
-		set(&m.facs[k].QMax, fw.QMax)
 	}
 	msg := "session restored"
 	if len(notes) > 0 {
@@ -157,24 +134,16 @@ func (m *Model) restoreSessionPoints(s Session) {
 	if g == nil {
 		return
 	}
-	lost := 0
-	marks := map[int]bool{}
-	for _, p := range s.Marks {
-		i, ok1 := nearestIndex(g.Alts, p.Altitude)
-		j, ok2 := nearestIndex(g.Speeds, p.Speed)
-		if !ok1 || !ok2 {
-			lost++
-			continue
-		}
-		marks[g.Index(i, j)] = true
+	snapped, lost := SnapMarks(g, s.Marks)
+	marks := make(map[int]bool, len(snapped))
+	for _, p := range snapped {
+		marks[g.Index(p.Row, p.Col)] = true
 	}
 	m.marks = marks
 	m.curI, m.curJ = m.startPoint()
 	if s.Cursor != nil {
-		i, ok1 := nearestIndex(g.Alts, s.Cursor.Altitude)
-		j, ok2 := nearestIndex(g.Speeds, s.Cursor.Speed)
-		if ok1 && ok2 {
-			m.curI, m.curJ = i, j
+		if p, ok := SnapPoint(g, *s.Cursor); ok {
+			m.curI, m.curJ = p.Row, p.Col
 		}
 	}
 	if lost > 0 && m.status == "" {

@@ -158,96 +158,23 @@ type dumpView struct {
 	date  string
 }
 
-// renderDump draws the header, the matrix and the legend. The cells and
-// the legend come from tui.GridView, the same code the interface draws
-// its screen with.
+// renderDump draws the header, the matrix and the legend with tui.Dump,
+// the code the interface's write key uses, so both give the same text for
+// the same view.
 func renderDump(ev *evaluated, v dumpView, st tui.Styles) (string, error) {
 	e := ev.e
-	g := e.Grid
-	marks := map[int]bool{}
-	for _, p := range ev.marks {
-		marks[g.Index(p.Row, p.Col)] = true
-	}
-	gv := tui.GridView{
-		Grid:       g,
+	return tui.Dump(tui.DumpInput{
+		Version:    version,
+		Date:       v.date,
+		Sources:    ev.in.files,
+		Grid:       e.Grid,
 		Maps:       e.Maps,
 		Facilities: e.Facilities,
+		Settings:   e.Settings,
+		Changed:    ev.changed,
 		Facility:   v.fac,
 		Layer:      v.layer,
 		Units:      v.units,
-		ReTol:      e.Settings.ReTol,
-		Marks:      marks,
-		CursorRow:  -1,
-		CursorCol:  -1,
-	}
-	in := gv.Matrix()
-	w, h := tui.MatrixSize(in)
-	var b strings.Builder
-	b.WriteString(dumpHeader(ev, v))
-	b.WriteString("\n")
-	b.WriteString(tui.RenderMatrix(in, st, w, h))
-	b.WriteString("\n\n")
-	b.WriteString(tui.RenderLegend(gv.Legend(), st, max(w, 78)))
-	b.WriteString("\n")
-	return b.String(), nil
-}
-
-// dumpHeader says what the matrix shows.
-func dumpHeader(ev *evaluated, v dumpView) string {
-	e := ev.e
-	g := e.Grid
-	veh := g.Vehicle
-	s := e.Settings
-	u := v.units
-	var b strings.Builder
-	line := func(k, format string, a ...any) {
-		fmt.Fprintf(&b, "%-9s %s\n", k, fmt.Sprintf(format, a...))
-	}
-	fmt.Fprintf(&b, "likewind %s matrix dump, %s\n", version, v.date)
-	src := "built-in demo data"
-	if len(ev.in.files) > 0 {
-		src = strings.Join(ev.in.files, ", ")
-	}
-	line("vehicle", "%s (%s)", veh.Name, src)
-	if v.fac < 0 {
-		line("facility", "best of all: per point the facility with the best class, by the letter beside each cell (none where out of reach)")
-		for k, f := range e.Facilities {
-			note := "not evaluated"
-			if m := e.Maps[k]; m != nil {
-				note = fmt.Sprintf("model scale %.3g", m.Scale)
-			}
-			line("", "%c  %s (%s)", tui.FacilityTag(k), f.Name, note)
-		}
-	} else {
-		f := &e.Facilities[v.fac]
-		m := e.Maps[v.fac]
-		desc := f.Medium.String()
-		if f.Class != "" {
-			desc = f.Class + ", " + desc
-		}
-		line("facility", "%s (%s); model scale %.3g (%s)", f.Name, desc, m.Scale, m.ScaleRule)
-	}
-	line("layer", "%s", v.layer)
-	scale := "each facility's own"
-	if s.Scale > 0 {
-		scale = fmt.Sprintf("%.3g for every facility", s.Scale)
-	}
-	wi := fmt.Sprintf("model scale %s; ΔT %s; Mach within %g; Reynolds number within %g %%; Mach relaxed below %g",
-		scale, u.DeltaT(s.DeltaT), s.MachTol, 100*s.ReTol, s.CompressibilityMach)
-	if len(ev.changed) > 0 {
-		wi += "; changed by the session: " + strings.Join(ev.changed, ", ")
-	}
-	line("what-if", "%s", wi)
-	speedTitle, _ := u.SpeedAxis(g.SpeedKind)
-	line("units", "%s: altitude %s (%s altitude), speed %s", u, u.AltUnit(), veh.AltitudeKind, speedTitle)
-	_, lab := u.SpeedAxis(g.SpeedKind)
-	grid := fmt.Sprintf("%d altitudes %s–%s × %d speeds %s–%s, %d points inside the envelope",
-		g.Rows(), u.AltLabel(g.Alts[0]), u.Alt(g.Alts[g.Rows()-1]), g.Cols(),
-		lab(g.Speeds[0]), lab(g.Speeds[g.Cols()-1]), g.InsideCount())
-	if len(ev.marks) > 0 {
-		grid += fmt.Sprintf(", %d marked", len(ev.marks))
-	}
-	line("grid", "%s", grid)
-	line("caution", "%s", tui.SafetyNote)
-	return b.String()
+		Marks:      ev.marks,
+	}, st)
 }

@@ -5,10 +5,8 @@ import (
 	"flag"
 	"fmt"
 	"io"
-	"math"
 	"os"
 	"path/filepath"
-	"sort"
 	"strconv"
 	"strings"
 	"time"
@@ -212,11 +210,11 @@ func evaluateInputs(files []string, sessionPath string, stderr io.Writer) (*eval
 		if err != nil {
 			return nil, fail(stderr, err)
 		}
-		if err := checkSessionInputs(sess, in); err != nil {
+		if err := tui.CheckSessionInputs(sess, in.files, in.vehicle, in.facilities); err != nil {
 			return nil, fail(stderr, fmt.Errorf("session %s: %w", sessionPath, err))
 		}
 		ev.session = &sess
-		ev.changed, err = applyWhatIf(sess.WhatIf, &s, facs)
+		ev.changed, err = tui.ApplyWhatIf(sess.WhatIf, &s, facs)
 		if err != nil {
 			return nil, fail(stderr, fmt.Errorf("session %s: %w", sessionPath, err))
 		}
@@ -232,134 +230,12 @@ func evaluateInputs(files []string, sessionPath string, stderr io.Writer) (*eval
 		}
 	}
 	if ev.session != nil {
-		g := e.Grid
-		seen := map[envelope.GridPoint]bool{}
-		for _, p := range ev.session.Marks {
-			i, ok1 := nearestOnAxis(g.Alts, p.Altitude)
-			j, ok2 := nearestOnAxis(g.Speeds, p.Speed)
-			if !ok1 || !ok2 {
-				ev.lostMarks++
-				continue
-			}
-			gp := envelope.GridPoint{Row: i, Col: j}
-			if !seen[gp] {
-				seen[gp] = true
-				ev.marks = append(ev.marks, gp)
-			}
-		}
+		ev.marks, ev.lostMarks = tui.SnapMarks(e.Grid, ev.session.Marks)
 		if ev.lostMarks > 0 {
 			fmt.Fprintf(stderr, "likewind: warning: %d marked point(s) of the session are no longer on the grid\n", ev.lostMarks)
 		}
 	}
 	return ev, -1
-}
-
-// checkSessionInputs accepts a session saved for the same data: the hash
-// of the input files, or of the loaded data (the demo, or a session that
-// was hashed that way).
-func checkSessionInputs(s tui.Session, in inputs) error {
-	var hashes []string
-	if len(in.files) > 0 {
-		if h, err := tui.HashFiles(in.files...); err == nil {
-			hashes = append(hashes, h)
-		}
-	}
-	hashes = append(hashes, tui.DataHash(in.vehicle, in.facilities))
-	var err error
-	for _, h := range hashes {
-		if err = tui.CheckSession(s, in.files, h); err == nil {
-			return nil
-		}
-	}
-	return err
-}
-
-// applyWhatIf applies a session's what-if values to the settings and
-// facilities (by name), as the interface does on restore, and lists what
-// changed.
-func applyWhatIf(w tui.WhatIf, s *envelope.Settings, facs []envelope.Facility) ([]string, error) {
-	var changed []string
-	set := func(name string, dst *float64, v *float64) error {
-		if v == nil {
-			return nil
-		}
-		if math.IsNaN(*v) || math.IsInf(*v, 0) {
-			return fmt.Errorf("what-if %s: %v is not a number", name, *v)
-		}
-		*dst = *v
-		changed = append(changed, name)
-		return nil
-	}
-	for _, x := range []struct {
-		name string
-		dst  *float64
-		v    *float64
-	}{
-		{"model scale", &s.Scale, w.Scale},
-		{"ΔT", &s.DeltaT, w.DeltaT},
-		{"Mach tolerance", &s.MachTol, w.MachTol},
-		{"Reynolds tolerance", &s.ReTol, w.ReTol},
-		{"compressibility Mach", &s.CompressibilityMach, w.CompressibilityMach},
-	} {
-		if err := set(x.name, x.dst, x.v); err != nil {
-			return nil, err
-		}
-	}
-	if w.CompressibilityMach != nil {
-		s.Regimes.Incompressible = s.CompressibilityMach
-	}
-	names := make([]string, 0, len(w.Facilities))
-	for n := range w.Facilities {
-		names = append(names, n)
-	}
-	sort.Strings(names)
-	for _, name := range names {
-		k := -1
-		for i := range facs {
-			if facs[i].Name == name {
-				k = i
-			}
-		}
-		if k < 0 {
-			return nil, fmt.Errorf("what-if for unknown facility %q", name)
-		}
-		fw := w.Facilities[name]
-		for _, x := range []struct {
-			name string
-			dst  *float64
-			v    *float64
-		}{{"p0 max", &facs[k].P0Max, fw.P0Max}, {"T0 min", &facs[k].T0Min, fw.T0Min}, {"q max", &facs[k].QMax, fw.QMax}} {
-			if err := set(name+" "+x.name, x.dst, x.v); err != nil {
-				return nil, err
-			}
-		}
-	}
-	return changed, nil
-}
-
-// nearestOnAxis finds the axis point within half a step of v.
-func nearestOnAxis(axis []float64, v float64) (int, bool) {
-	if len(axis) == 0 || math.IsNaN(v) {
-		return 0, false
-	}
-	k := sort.SearchFloat64s(axis, v)
-	best, bd := -1, math.Inf(1)
-	for _, c := range []int{k - 1, k} {
-		if c >= 0 && c < len(axis) {
-			if d := math.Abs(axis[c] - v); d < bd {
-				best, bd = c, d
-			}
-		}
-	}
-	step := 0.0
-	if len(axis) > 1 {
-		step = math.Abs(axis[len(axis)-1]-axis[0]) / float64(len(axis)-1)
-	}
-	tol := math.Max(step/2, 1e-9*math.Max(1, math.Abs(v)))
-	if best < 0 || bd > tol {
-		return 0, false
-	}
-	return best, true
 }
 
 // pickFacility finds a facility by exact name, unique case-insensitive

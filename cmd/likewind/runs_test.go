@@ -186,7 +186,7 @@ func TestApplyWhatIf(t *testing.T) {
 	p := func(x float64) *float64 { return &x }
 	w := tui.WhatIf{Scale: p(0.05), CompressibilityMach: p(0.25),
 		Facilities: map[string]tui.FacilityWhatIf{facs[1].Name: {P0Max: p(6e5)}}}
-	changed, err := applyWhatIf(w, &s, facs)
+	changed, err := tui.ApplyWhatIf(w, &s, facs)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -197,7 +197,7 @@ func TestApplyWhatIf(t *testing.T) {
 		t.Errorf("changed = %v, want 3 entries", changed)
 	}
 	w = tui.WhatIf{Facilities: map[string]tui.FacilityWhatIf{"No such tunnel": {QMax: p(1)}}}
-	if _, err := applyWhatIf(w, &s, facs); err == nil {
+	if _, err := tui.ApplyWhatIf(w, &s, facs); err == nil {
 		t.Error("what-if for an unknown facility accepted")
 	}
 }

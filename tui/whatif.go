@@ -1,0 +1,124 @@
+package tui
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+
+	"likewind/envelope"
+)
+
+// ApplyWhatIf applies a session's what-if values to the settings s and to
+// the facilities facs (found by exact name), the way the interface does
+// when it restores a session, and lists what it changed in a fixed order:
+// the settings first, then each facility's limits by facility name, e.g.
+// "ΔT" or "<facility> p0 max".
+//
+// A value that is not a finite number, or a facility that is not among
+// facs, is left out; the returned error lists every such value (nil when
+// everything was applied). A new compressibility Mach number also moves
+// the incompressible bound of the regime classes, as in the editor.
+func ApplyWhatIf(w WhatIf, s *envelope.Settings, facs []envelope.Facility) (changed []string, err error) {
+	var problems []error
+	set := func(name string, dst *float64, v *float64) bool {
+		if v == nil {
+			return false
+		}
+		if math.IsNaN(*v) || math.IsInf(*v, 0) {
+			problems = append(problems, fmt.Errorf("what-if %s: %v is not a number", name, *v))
+			return false
+		}
+		*dst = *v
+		changed = append(changed, name)
+		return true
+	}
+	set("model scale", &s.Scale, w.Scale)
+	set("ΔT", &s.DeltaT, w.DeltaT)
+	set("Mach tolerance", &s.MachTol, w.MachTol)
+	set("Reynolds tolerance", &s.ReTol, w.ReTol)
+	if set("compressibility Mach", &s.CompressibilityMach, w.CompressibilityMach) {
+		s.Regimes.Incompressible = s.CompressibilityMach
+	}
+	names := make([]string, 0, len(w.Facilities))
+	for n := range w.Facilities {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	for _, name := range names {
+		k := facilityByName(facs, name)
+		if k < 0 {
+			problems = append(problems, fmt.Errorf("what-if for unknown facility %q", name))
+			continue
+		}
+		fw := w.Facilities[name]
+		set(name+" p0 max", &facs[k].P0Max, fw.P0Max)
+		set(name+" T0 min", &facs[k].T0Min, fw.T0Min)
+		set(name+" q max", &facs[k].QMax, fw.QMax)
+	}
+	return changed, errors.Join(problems...)
+}
+
+// facilityByName is the index of the facility named exactly name, or -1.
+func facilityByName(facs []envelope.Facility, name string) int {
+	for k := range facs {
+		if facs[k].Name == name {
+			return k
+		}
+	}
+	return -1
+}
+
+// SnapPoint finds the grid point of a saved point: the altitude and speed
+// each within half a grid step of an axis value. It reports false when
+// the point is no longer on the grid (the grid or ΔT changed).
+func SnapPoint(g *envelope.Grid, p Point) (envelope.GridPoint, bool) {
+	if g == nil {
+		return envelope.GridPoint{}, false
+	}
+	i, ok1 := nearestIndex(g.Alts, p.Altitude)
+	j, ok2 := nearestIndex(g.Speeds, p.Speed)
+	if !ok1 || !ok2 {
+		return envelope.GridPoint{}, false
+	}
+	return envelope.GridPoint{Row: i, Col: j}, true
+}
+
+// SnapMarks puts saved marks on the grid with SnapPoint, in their saved
+// order without repeats, and counts those no longer on the grid.
+func SnapMarks(g *envelope.Grid, pts []Point) (marks []envelope.GridPoint, lost int) {
+	seen := map[envelope.GridPoint]bool{}
+	for _, p := range pts {
+		gp, ok := SnapPoint(g, p)
+		if !ok {
+			lost++
+			continue
+		}
+		if !seen[gp] {
+			seen[gp] = true
+			marks = append(marks, gp)
+		}
+	}
+	return marks, lost
+}
+
+// CheckSessionInputs accepts a session saved for the same data as the
+// input files (their content hash, HashFiles) or as the loaded vehicle
+// and facilities (DataHash: the built-in demo, or a session hashed that
+// way). It returns CheckSession's reason otherwise.
+func CheckSessionInputs(s Session, files []string, v *envelope.Vehicle, facs []envelope.Facility) error {
+	var hashes []string
+	if len(files) > 0 {
+		if h, err := HashFiles(files...); err == nil {
+			hashes = append(hashes, h)
+		}
+	}
+	hashes = append(hashes, DataHash(v, facs))
+	var err error
+	for _, h := range hashes {
+		if err = CheckSession(s, files, h); err == nil {
+			return nil
+		}
+	}
+	return err
+}

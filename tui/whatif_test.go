@@ -1,0 +1,100 @@
+package tui
+
+import (
+	"errors"
+	"math"
+	"path/filepath"
+	"slices"
+	"strings"
+	"testing"
+
+	"likewind/envelope"
+)
+
+func TestApplyWhatIfOrderAndBadValues(t *testing.T) {
+	v, facs := demoData(t)
+	s := envelope.DefaultSettings(v)
+	p := func(x float64) *float64 { return &x }
+	w := WhatIf{
+		DeltaT:              p(10),
+		Scale:               p(0.05),
+		ReTol:               p(math.NaN()),
+		CompressibilityMach: p(0.25),
+		Facilities: map[string]FacilityWhatIf{
+			facs[2].Name:     {QMax: p(5e4), P0Max: p(6e5)},
+			facs[0].Name:     {T0Min: p(100)},
+			"No such tunnel": {QMax: p(1)},
+		},
+	}
+	wantReTol := s.ReTol
+	changed, err := ApplyWhatIf(w, &s, facs)
+	want := []string{"model scale", "ΔT", "compressibility Mach",
+		facs[0].Name + " T0 min", facs[2].Name + " p0 max", facs[2].Name + " q max"}
+	if facs[2].Name < facs[0].Name {
+		want = []string{"model scale", "ΔT", "compressibility Mach",
+			facs[2].Name + " p0 max", facs[2].Name + " q max", facs[0].Name + " T0 min"}
+	}
+	if !slices.Equal(changed, want) {
+		t.Errorf("ApplyWhatIf changed = %q, want %q", changed, want)
+	}
+	if s.Scale != 0.05 || s.DeltaT != 10 || s.ReTol != wantReTol || s.CompressibilityMach != 0.25 || s.Regimes.Incompressible != 0.25 {
+		t.Errorf("settings after what-if = %+v", s)
+	}
+	if facs[2].QMax != 5e4 || facs[2].P0Max != 6e5 || facs[0].T0Min != 100 {
+		t.Errorf("facility limits after what-if: q %g p0 %g T0 %g", facs[2].QMax, facs[2].P0Max, facs[0].T0Min)
+	}
+	if err == nil {
+		t.Fatal("ApplyWhatIf error = nil, want the NaN and the unknown facility named")
+	}
+	for _, part := range []string{"Reynolds tolerance", "No such tunnel"} {
+		if !strings.Contains(err.Error(), part) {
+			t.Errorf("ApplyWhatIf error %q lacks %q", err, part)
+		}
+	}
+}
+
+func TestSnapMarks(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	g := m.res.grid
+	if g.Rows() < 3 || g.Cols() < 3 {
+		t.Fatalf("demo grid %d×%d too small", g.Rows(), g.Cols())
+	}
+	dAlt := g.Alts[1] - g.Alts[0]
+	dSpd := g.Speeds[1] - g.Speeds[0]
+	pts := []Point{
+		{Altitude: g.Alts[1] + 0.4*dAlt, Speed: g.Speeds[2] - 0.4*dSpd}, // snaps to (1,2)
+		{Altitude: g.Alts[1], Speed: g.Speeds[2]},                       // repeat
+		{Altitude: g.Alts[0] - 0.6*dAlt, Speed: g.Speeds[0]},            // below the grid
+		{Altitude: math.NaN(), Speed: g.Speeds[0]},
+		{Altitude: g.Alts[2], Speed: g.Speeds[1]},
+	}
+	marks, lost := SnapMarks(g, pts)
+	want := []envelope.GridPoint{{Row: 1, Col: 2}, {Row: 2, Col: 1}}
+	if !slices.Equal(marks, want) || lost != 2 {
+		t.Errorf("SnapMarks = %v, %d lost; want %v, 2 lost", marks, lost, want)
+	}
+	if _, ok := SnapPoint(nil, pts[0]); ok {
+		t.Error("SnapPoint on no grid reported a point")
+	}
+}
+
+func TestCheckSessionInputs(t *testing.T) {
+	v, facs := demoData(t)
+	s := Session{Version: SessionVersion, Hash: DataHash(v, facs)}
+	if err := CheckSessionInputs(s, nil, v, facs); err != nil {
+		t.Errorf("CheckSessionInputs(demo session) = %v, want nil", err)
+	}
+	files := []string{filepath.Join("..", "testdata", "corvane-sx3.toml"), filepath.Join("..", "testdata", "facilities.toml")}
+	h, err := HashFiles(files...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Hash = h
+	if err := CheckSessionInputs(s, files, v, facs); err != nil {
+		t.Errorf("CheckSessionInputs(file-hash session) = %v, want nil", err)
+	}
+	s.Hash = "sha256:other"
+	if err := CheckSessionInputs(s, files, v, facs); !errors.Is(err, ErrSessionMismatch) {
+		t.Errorf("CheckSessionInputs(other data) = %v, want ErrSessionMismatch", err)
+	}
+}
