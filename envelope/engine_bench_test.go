@@ -1,6 +1,7 @@
 package envelope
 
 import (
+	"sync"
 	"testing"
 
 	"likewind/atmos"
@@ -157,4 +158,87 @@ func BenchmarkWaterCooling(b *testing.B) {
 		ps := sv.solve(0.2, target, 288.15, false)
 		benchSink = ps.result()
 	}
+}
+
+// demo400 is the demo vehicle on a 400×400 grid with the demo facilities
+// and the vehicle's default settings, as the interface opens it.
+func demo400(b *testing.B) (*Vehicle, []Facility, Settings) {
+	b.Helper()
+	v, facs, err := Demo()
+	if err != nil {
+		b.Fatal(err)
+	}
+	v.Grid.Altitude.Count, v.Grid.Altitude.Step = 400, 0
+	v.Grid.Speed.Count, v.Grid.Speed.Step = 400, 0
+	return v, facs, DefaultSettings(v)
+}
+
+// shortName is the first word of a facility name, for sub-benchmarks.
+func shortName(f *Facility) string {
+	for k, r := range f.Name {
+		if r == ' ' {
+			return f.Name[:k]
+		}
+	}
+	return f.Name
+}
+
+// BenchmarkDemoSolve400 is the engine side of a facility what-if in the
+// interface: Solve of one demo facility on the demo vehicle's 400×400 grid
+// (the grid is not rebuilt). The interface budget for the whole key press
+// is 16 ms (tui BenchmarkKeyToFrame).
+func BenchmarkDemoSolve400(b *testing.B) {
+	v, facs, s := demo400(b)
+	g, err := NewGrid(v, s)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for k := range facs {
+		b.Run(shortName(&facs[k]), func(b *testing.B) {
+			f := facs[k]
+			for i := 0; b.Loop(); i++ {
+				f.P0Max = facs[k].P0Max * (1 - 0.05*float64(i%2)) // the what-if
+				if _, err := Solve(g, &f, s); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkDemoDeltaT400 is the engine side of a ΔT what-if in the
+// interface: NewGrid on the demo vehicle's 400×400 grid, Solve of the six
+// demo facilities side by side (as the interface runs them), and Best.
+func BenchmarkDemoDeltaT400(b *testing.B) {
+	v, facs, s := demo400(b)
+	b.Run("NewGrid", func(b *testing.B) {
+		for i := 0; b.Loop(); i++ {
+			s.DeltaT = 5 * float64(i%2)
+			if _, err := NewGrid(v, s); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+	b.Run("all", func(b *testing.B) {
+		maps := make([]*Map, len(facs))
+		errs := make([]error, len(facs))
+		for i := 0; b.Loop(); i++ {
+			s.DeltaT = 5 * float64(i%2)
+			g, err := NewGrid(v, s)
+			if err != nil {
+				b.Fatal(err)
+			}
+			var wg sync.WaitGroup
+			for k := range facs {
+				wg.Go(func() { maps[k], errs[k] = Solve(g, &facs[k], s) })
+			}
+			wg.Wait()
+			for _, err := range errs {
+				if err != nil {
+					b.Fatal(err)
+				}
+			}
+			Best(maps)
+		}
+	})
 }
