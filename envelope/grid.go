@@ -4,7 +4,10 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"runtime"
 	"sort"
+	"sync"
+	"sync/atomic"
 	"unsafe"
 
 	"likewind/atmos"
@@ -119,9 +122,16 @@ type Grid struct {
 	DeltaT    float64         // K, temperature offset of the day
 	Regimes   atmos.Regimes   // thresholds the regimes were classified with
 
-	rows   []atmos.State // atmosphere per row
-	points []flightRec   // per point, Index(i, j)
-	inside int
+	rows    []atmos.State // atmosphere per row
+	points  []flightRec   // per point, Index(i, j)
+	inside  int
+	maxMach float64 // highest inside flight Mach number (0 when none)
+
+	// cf is a memo of the flight skin-friction coefficient per point
+	// (float64 bits, 0 until first needed), shared by the Solves on this
+	// grid; see flightCf.
+	cfOnce sync.Once
+	cf     []atomic.Uint64
 }
 
 // NewGrid evaluates the flight side of vehicle v on its grid: the
@@ -183,24 +193,88 @@ func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 		rows:      make([]atmos.State, len(alts)),
 		points:    make([]flightRec, len(alts)*len(speeds)),
 	}
-	var spans []envSpan
-	for i, h := range alts {
-		st, err := atmos.AtDay(h, v.AltitudeKind, s.DeltaT)
-		if err != nil {
-			return nil, fmt.Errorf("grid for %q: row %d: %w", v.Name, i, err)
-		}
-		g.rows[i] = st
-		spans = boundaryEnvSpans(v.Boundary, h, spans[:0])
-		rl := g.rowLimits(h, &st, spans)
-		row := g.points[i*len(speeds) : (i+1)*len(speeds)]
-		for j, sp := range speeds {
-			row[j] = g.evalPoint(sp, &st, &rl)
-			if row[j].excl == InEnvelope {
-				g.inside++
+	// Rows are independent: they are evaluated side by side in blocks,
+	// each point written to its own slot, so the grid is the same as a
+	// row-by-row evaluation. The first failing row (lowest index) is
+	// reported.
+	var (
+		mu      sync.Mutex
+		errRow  = -1
+		errFail error
+	)
+	forRowBlocks(len(alts), len(speeds), func(i0, i1 int) {
+		var spans []envSpan
+		inside := 0
+		maxMach := 0.0
+		for i := i0; i < i1; i++ {
+			h := alts[i]
+			st, err := atmos.AtDay(h, v.AltitudeKind, s.DeltaT)
+			if err != nil {
+				mu.Lock()
+				if errRow < 0 || i < errRow {
+					errRow, errFail = i, err
+				}
+				mu.Unlock()
+				return
+			}
+			g.rows[i] = st
+			spans = boundaryEnvSpans(v.Boundary, h, spans[:0])
+			rl := g.rowLimits(h, &st, spans)
+			row := g.points[i*len(speeds) : (i+1)*len(speeds)]
+			for j, sp := range speeds {
+				row[j] = g.evalPoint(sp, &st, &rl)
+				if row[j].excl == InEnvelope {
+					inside++
+					maxMach = greaterOf(maxMach, row[j].mach)
+				}
 			}
 		}
+		mu.Lock()
+		g.inside += inside
+		g.maxMach = greaterOf(g.maxMach, maxMach)
+		mu.Unlock()
+	})
+	if errRow >= 0 {
+		return nil, fmt.Errorf("grid for %q: row %d: %w", v.Name, errRow, errFail)
 	}
 	return g, nil
+}
+
+// Work splitting for NewGrid and Solve: grids of fewer than parallelMin
+// points are done on the calling goroutine; larger ones are cut into blocks
+// of whole rows, about blocksPerWorker per processor, taken in turn by
+// runtime.GOMAXPROCS workers (rows differ in cost, so small blocks keep the
+// workers evenly loaded).
+const (
+	parallelMin     = 4096
+	blocksPerWorker = 8
+)
+
+// forRowBlocks calls work(i0, i1) for consecutive blocks of rows covering
+// 0..rows-1, on up to runtime.GOMAXPROCS goroutines at once, and returns
+// when all are done. Each row is in exactly one block.
+func forRowBlocks(rows, cols int, work func(i0, i1 int)) {
+	workers := runtime.GOMAXPROCS(0)
+	if workers < 2 || rows < 2 || rows*cols < parallelMin {
+		work(0, rows)
+		return
+	}
+	workers = min(workers, rows)
+	size := max(1, rows/(workers*blocksPerWorker))
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Go(func() {
+			for {
+				i0 := int(next.Add(int64(size))) - size
+				if i0 >= rows {
+					return
+				}
+				work(i0, min(i0+size, rows))
+			}
+		})
+	}
+	wg.Wait()
 }
 
 // rowLimits is the envelope on one altitude row expressed in the grid's
@@ -344,6 +418,14 @@ func (g *Grid) evalPoint(sp float64, st *atmos.State, rl *rowLimits) flightRec {
 	return r
 }
 
+// flightCf returns the grid's memo of SkinFriction(flight Re) per point,
+// in Index order: a slot holds the float64 bits once computed, 0 before.
+// Concurrent Solves may fill the same slot; they store the same value.
+func (g *Grid) flightCf() []atomic.Uint64 {
+	g.cfOnce.Do(func() { g.cf = make([]atomic.Uint64, len(g.points)) })
+	return g.cf
+}
+
 // Rows is the number of altitudes.
 func (g *Grid) Rows() int { return len(g.Alts) }
 
@@ -418,11 +500,13 @@ func (g *Grid) FlightDetail(i, j int) (FlightDetail, error) {
 }
 
 // StoredBytes is the memory the grid holds: the per-point records (32
-// bytes each) plus the per-row atmosphere and the axes.
+// bytes each), the per-row atmosphere and the axes, and, once a facility
+// has been solved on it, the flight skin-friction memo (8 bytes per point).
 func (g *Grid) StoredBytes() int {
 	rec := int(unsafe.Sizeof(flightRec{}))
 	state := int(unsafe.Sizeof(atmos.State{}))
-	return len(g.points)*rec + len(g.rows)*state + 8*(len(g.Alts)+len(g.Speeds))
+	n := len(g.points)*rec + len(g.rows)*state + 8*(len(g.Alts)+len(g.Speeds))
+	return n + len(g.flightCf())*8
 }
 
 // pick returns the speed of kind k from a.

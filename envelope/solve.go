@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"sync/atomic"
 	"unsafe"
 
 	"likewind/atmos"
@@ -155,19 +156,47 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	m.sv = solverFor(f, s, g.Regimes, m.Scale*g.Vehicle.RefLength)
 	m.Results = make([]Result, len(g.points))
 	cols := len(g.Speeds)
-	for i := range g.Alts {
-		tFlight := g.rows[i].Temperature
-		base := i * cols
-		for j := 0; j < cols; j++ {
-			r := &g.points[base+j]
-			if r.excl != InEnvelope {
-				continue
+	cfFlight := g.flightCf()
+	// Points are independent: blocks of rows are solved side by side, each
+	// result written to its own slot, so the map is the same as a
+	// point-by-point solve.
+	forRowBlocks(len(g.Alts), cols, func(i0, i1 int) {
+		// Gas facilities reuse the bounds of a column's Mach number down
+		// the column (on a Mach grid every row shares them).
+		var col []gasBounds
+		if !m.sv.water {
+			col = make([]gasBounds, cols)
+			for j := range col {
+				col[j].M = math.NaN()
 			}
-			ps := m.sv.solve(r.mach, r.re, tFlight, false)
-			m.Results[base+j] = ps.result()
 		}
-	}
+		aux := pointAux{}
+		for i := i0; i < i1; i++ {
+			tFlight := g.rows[i].Temperature
+			base := i * cols
+			for j := 0; j < cols; j++ {
+				r := &g.points[base+j]
+				if r.excl != InEnvelope {
+					continue
+				}
+				if col != nil {
+					aux.col = &col[j]
+				}
+				aux.cf = &cfFlight[base+j]
+				ps := m.sv.solveAux(r.mach, r.re, tFlight, false, &aux)
+				m.Results[base+j] = ps.result()
+			}
+		}
+	})
 	return m, nil
+}
+
+// pointAux is what a Solve worker reuses between points: the gas bounds
+// last computed for this column's facility Mach number, and this point's
+// slot of the grid's flight skin-friction memo.
+type pointAux struct {
+	col *gasBounds
+	cf  *atomic.Uint64
 }
 
 // At returns the stored result of point (i, j).
@@ -362,17 +391,31 @@ func (ps *pointSol) result() Result {
 // flight static temperature tFlight. With detail set it also finds the
 // highest reachable Reynolds number where the target was hit directly.
 func (sv *solver) solve(mf, reF, tFlight float64, detail bool) pointSol {
+	return sv.solveAux(mf, reF, tFlight, detail, nil)
+}
+
+// solveAux is solve with the reusable values of aux (nil: none); the
+// answer is the same.
+func (sv *solver) solveAux(mf, reF, tFlight float64, detail bool, aux *pointAux) pointSol {
 	var ps pointSol
 	ps.reFlight = reF
 	if sv.water {
 		sv.solveWater(&ps, mf)
 	} else {
-		sv.solveGas(&ps, mf, tFlight, detail)
+		var col *gasBounds
+		if aux != nil {
+			col = aux.col
+		}
+		sv.solveGas(&ps, mf, tFlight, detail, col)
 	}
 	if ps.has && reF > 0 {
 		ps.ratio = ps.re / reF
 		if math.Abs(ps.ratio-1) > 1e-9 {
-			ps.dcf = skinFrictionDelta(ps.re, reF)
+			if aux != nil && aux.cf != nil {
+				ps.dcf = skinFrictionDeltaMemo(ps.re, reF, aux.cf)
+			} else {
+				ps.dcf = skinFrictionDelta(ps.re, reF)
+			}
 		}
 		if ps.ratio > 1+sv.reTol {
 			ps.flags |= FlagReOver
@@ -565,7 +608,15 @@ type gasPick struct {
 	over       bool
 }
 
-func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool) {
+// solveGas answers one point of a gas facility. Mach number is matched
+// (within MachTol, inside the facility range) where it can be; otherwise,
+// below the compressibility threshold, relaxed; otherwise the point is out
+// of reach.
+//
+// col, when not nil, holds the bounds of an earlier point at the same
+// facility Mach number (its M is NaN when empty); it is used if its Mach
+// number matches and refilled otherwise.
+func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *gasBounds) {
 	f := sv.f
 	target := ps.reFlight
 	need := (1 - sv.reTol) * target
@@ -576,7 +627,15 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool) {
 	var cb gasPick // best setting at the matched Mach number
 	var cok bool
 	if matched {
-		c = sv.bounds(mm)
+		switch {
+		case col == nil:
+			c = sv.bounds(mm)
+		case col.M == mm:
+			c = *col
+		default:
+			c = sv.bounds(mm)
+			*col = c
+		}
 		if p0, t0, re, over, ok := sv.tryHit(&c, target); ok {
 			ps.class = FullMatch
 			sv.fillGas(ps, &c, p0, t0, re, mf, tFlight)
@@ -954,13 +1013,7 @@ func fitMach(g *Grid, f *Facility) float64 {
 	if f.Medium == MediumWater {
 		return 0
 	}
-	var hi float64
-	for _, r := range g.points {
-		if r.excl == InEnvelope {
-			hi = greaterOf(hi, r.mach)
-		}
-	}
-	return greaterOf(lesserOf(hi, f.MachMax), f.MachMin)
+	return greaterOf(lesserOf(g.maxMach, f.MachMax), f.MachMin)
 }
 
 // checkSettings checks the tolerances and scale of s.
