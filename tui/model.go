@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"math"
 	"strings"
+	"time"
 
 	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
@@ -49,6 +50,15 @@ type Options struct {
 	// other input files is refused with a message on the status line.
 	Session *Session
 
+	// DumpDir is the folder the write-view key puts text dumps of the
+	// current view in; empty means the key only says it is unavailable.
+	// Version is the tool version the dump header names ("dev" when
+	// empty), and Clock gives the dump's date and file-name time
+	// (time.Now when nil); it is called in the write command only.
+	DumpDir string
+	Version string
+	Clock   func() time.Time
+
 	// Styles and Keys default to PlainStyles() and DefaultKeyMap().
 	Styles *Styles
 	Keys   *KeyMap
@@ -90,6 +100,11 @@ type Model struct {
 	res      results
 	gen      int  // generation of the latest recompute request
 	busy     bool // a recompute is running
+	// pending is the kind of the running recompute and pendingFac its
+	// facility, so a newer request still covers what the one it
+	// supersedes would have done.
+	pending    recomputeKind
+	pendingFac int
 
 	layer   Layer
 	units   Units
@@ -120,6 +135,10 @@ type Model struct {
 	sessionPath string
 	inputs      []string
 	hash        string
+
+	dumpDir string
+	version string
+	clock   func() time.Time
 }
 
 // New builds the model and runs the first evaluation synchronously, so the
@@ -151,6 +170,15 @@ func New(opts Options) Model {
 		sessionPath: opts.SessionPath,
 		inputs:      append([]string(nil), opts.Inputs...),
 		hash:        opts.InputHash,
+		dumpDir:     opts.DumpDir,
+		version:     opts.Version,
+		clock:       opts.Clock,
+	}
+	if m.version == "" {
+		m.version = "dev"
+	}
+	if m.clock == nil {
+		m.clock = time.Now
 	}
 	if opts.Settings != nil {
 		m.fileSet = *opts.Settings
@@ -238,6 +266,11 @@ type (
 		path string
 		err  error
 	}
+	// viewWrittenMsg reports a text dump of the view written to a file.
+	viewWrittenMsg struct {
+		path string
+		err  error
+	}
 )
 
 // recompute kinds
@@ -249,15 +282,23 @@ const (
 	recomputeOneFac                      // only the chosen facility
 )
 
-// recompute starts a recompute in a command and returns it.
+// recompute starts a recompute in a command and returns it. A request
+// made while another runs supersedes it, so it takes on the older one's
+// work as well: a grid rebuild still pending is never lost to a newer
+// one-facility solve on the old grid.
 func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 	if m.vehicle == nil {
 		return nil
 	}
+	fac := m.fac
+	if m.busy {
+		kind, fac = mergeRecompute(m.pending, m.pendingFac, kind, fac)
+	}
 	m.gen++
 	m.busy = true
+	m.pending, m.pendingFac = kind, fac
 	gen := m.gen
-	v, facs, set, prev, fac := m.vehicle, m.facs, m.set, m.res, m.fac
+	v, facs, set, prev := m.vehicle, m.facs, m.set, m.res
 	return func() tea.Msg {
 		var r results
 		var err error
@@ -271,6 +312,19 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 		}
 		return computedMsg{gen: gen, res: r, err: err}
 	}
+}
+
+// mergeRecompute is the work that covers a pending recompute (a, fa) and
+// a new one (b, fb): the grid when either rebuilds it, every facility
+// when either solves all or they solve different facilities.
+func mergeRecompute(a recomputeKind, fa int, b recomputeKind, fb int) (recomputeKind, int) {
+	switch {
+	case a == recomputeGrid || b == recomputeGrid:
+		return recomputeGrid, fb
+	case a == recomputeOneFac && b == recomputeOneFac && fa == fb:
+		return recomputeOneFac, fb
+	}
+	return recomputeSolve, fb
 }
 
 // Update implements tea.Model.
@@ -287,6 +341,12 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		} else {
 			m.dirty = false
 			m.setStatus("session saved to " + msg.path)
+		}
+	case viewWrittenMsg:
+		if msg.err != nil {
+			m.setError("view not written: " + msg.err.Error())
+		} else {
+			m.setStatus("view written to " + msg.path)
 		}
 	case tea.KeyMsg:
 		cmd = m.onKey(msg)
@@ -386,6 +446,8 @@ func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
 		}
 	case matches(msg, k.Save):
 		return m.save()
+	case matches(msg, k.WriteView):
+		return m.writeView()
 	}
 	return nil
 }
