@@ -27,6 +27,15 @@
 //	RenderMatrix(in MatrixInput, st Styles, width, height int) string
 //	RenderLegend(in LegendInput, st Styles, width int) string
 //	GridView{...}.Matrix() / .Legend()          // renderer inputs from a grid and its maps
+//	Dump(in DumpInput, st Styles) (string, error)
+//	    The text dump of one view (header, whole matrix, legend) that
+//	    `likewind dump` prints and the write key saves; pure, the date
+//	    and version come in with DumpInput.
+//	(Model) DumpInput() (DumpInput, error)      // the current view, date left empty
+//	WriteDumpFile(dir string, in DumpInput, t time.Time) (string, error)
+//	ApplyWhatIf(w WhatIf, s *envelope.Settings, facs []envelope.Facility) ([]string, error)
+//	SnapPoint(g, p) / SnapMarks(g, pts)         // saved points back onto a grid
+//	CheckSessionInputs(s, files, vehicle, facs) // a session for these files or this data
 //
 // # Screen
 //
@@ -53,7 +62,13 @@
 //	f    facility list            [ ]  previous/next facility    b  best of all
 //	e    what-if editor           R  restore the files' values
 //	space  mark/unmark point      M  mark every full match       X  clear marks
-//	s    save session             ?  help                        q  quit (asks when unsaved)
+//	s    save session             w  write view to a text file   ?  help
+//	q    quit (asks when unsaved)
+//
+// The write key saves the text dump of the current view (facility or best
+// of all, layer, units, what-if values, marks) to a new file in
+// Options.DumpDir named after vehicle, facility, layer and the time, and
+// shows its path; it never replaces a file.
 //
 // In lists ↑/↓ (or k/j) move, enter chooses, esc closes. What-if values
 // take units ("3 bar", "45 psi", "-150 degC", "10 K"); a bare number takes

@@ -23,9 +23,10 @@ type KeyMap struct {
 	MarkMatch key.Binding
 	ClearMark key.Binding
 
-	Save key.Binding
-	Help key.Binding
-	Quit key.Binding
+	Save      key.Binding
+	WriteView key.Binding
+	Help      key.Binding
+	Quit      key.Binding
 
 	// Keys inside lists, the input line and the quit question.
 	Prev    key.Binding
@@ -69,6 +70,7 @@ func DefaultKeyMap() KeyMap {
 		MarkMatch: b([]string{"M"}, "M", "mark matches"),
 		ClearMark: b([]string{"X"}, "X", "clear marks"),
 		Save:      b([]string{"s", "ctrl+s"}, "s", "save session"),
+		WriteView: b([]string{"w"}, "w", "write view"),
 		Help:      b([]string{"?"}, "?", "help"),
 		Quit:      b([]string{"q", "ctrl+c"}, "q", "quit"),
 		Prev:      b([]string{"up", "k"}, "↑/k", "previous"),
@@ -92,7 +94,7 @@ func DefaultKeyMap() KeyMap {
 
 // ShortHelp is the key line at the bottom of the main screen.
 func (k KeyMap) ShortHelp() []key.Binding {
-	return []key.Binding{k.Help, k.Layer, k.Facility, k.Edit, k.Mark, k.Units, k.Save, k.Quit}
+	return []key.Binding{k.Help, k.Layer, k.Facility, k.Edit, k.Mark, k.Units, k.Save, k.WriteView, k.Quit}
 }
 
 // FullHelp is the help overlay, in columns.
@@ -101,7 +103,7 @@ func (k KeyMap) FullHelp() [][]key.Binding {
 		{k.Up, k.Down, k.Left, k.Right, k.PageUp, k.PageDown, k.Home, k.End},
 		{k.Layer, k.Units, k.Facility, k.PrevFac, k.NextFac, k.BestOfAll},
 		{k.Edit, k.Restore, k.Mark, k.MarkMatch, k.ClearMark},
-		{k.Save, k.Help, k.Quit, k.Select, k.Back},
+		{k.Save, k.WriteView, k.Help, k.Quit, k.Select, k.Back},
 	}
 }
 

@@ -8,7 +8,9 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
 
+	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/x/ansi"
 
 	"likewind/envelope"
@@ -307,5 +309,110 @@ func TestDumpWithUnevaluatedFacility(t *testing.T) {
 	}
 	if !strings.Contains(out, "? no facility") {
 		t.Errorf("no facility evaluated: legend lacks the no-facility glyph:\n%s", out)
+	}
+}
+
+// uiDrive sends messages to an interface model and feeds every command's
+// result back, as the Bubble Tea runtime would.
+func uiDrive(t *testing.T, m tui.Model, msgs ...tea.Msg) tui.Model {
+	t.Helper()
+	queue := append([]tea.Msg(nil), msgs...)
+	for len(queue) > 0 {
+		msg := queue[0]
+		queue = queue[1:]
+		next, cmd := m.Update(msg)
+		m = next.(tui.Model)
+		if cmd != nil {
+			if out := cmd(); out != nil {
+				queue = append(queue, out)
+			}
+		}
+	}
+	return m
+}
+
+// uiKeys turns key names into key messages; a name of more than one rune
+// that is not a special key is typed rune by rune.
+func uiKeys(names ...string) []tea.Msg {
+	special := map[string]tea.KeyType{
+		"up": tea.KeyUp, "down": tea.KeyDown, "tab": tea.KeyTab, "enter": tea.KeyEnter,
+		"esc": tea.KeyEsc, "ctrl+u": tea.KeyCtrlU, "space": tea.KeySpace,
+	}
+	var out []tea.Msg
+	for _, n := range names {
+		if k, ok := special[n]; ok {
+			out = append(out, tea.KeyMsg{Type: k})
+			continue
+		}
+		for _, r := range n {
+			if r == ' ' {
+				out = append(out, tea.KeyMsg{Type: tea.KeySpace, Runes: []rune{' '}})
+				continue
+			}
+			out = append(out, tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{r}})
+		}
+	}
+	return out
+}
+
+// TestInterfaceWriteEqualsDump drives the interface into a state, writes
+// the view with its write key, saves the session of that state, and
+// checks the file holds exactly what `likewind dump --plain --session`
+// prints for the same state.
+func TestInterfaceWriteEqualsDump(t *testing.T) {
+	v, facs, err := envelope.Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	day := time.Date(2025, 3, 4, 9, 30, 0, 0, time.Local)
+	cases := []struct {
+		name string
+		keys []string
+	}{
+		{"start", nil},
+		{"facility, layer, units, what-if, marks", []string{
+			"]", "]", "tab", "tab", "u", "space", "up", "up", "space",
+			"e", "down", "enter", "ctrl+u", "10 K", "enter", // ΔT
+			"down", "down", "down", "down", "enter", "ctrl+u", "40 psi", "enter", // p0 max
+			"esc"}},
+		{"best of all with marks", []string{"b", "tab", "tab", "M", "e", "enter", "ctrl+u", "0.03", "enter", "esc"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			dir := t.TempDir()
+			st := tui.PlainStyles()
+			m := tui.New(tui.Options{
+				Vehicle: v, Facilities: facs, Styles: &st, Width: 250, Height: 60,
+				DumpDir: dir, Version: version, Clock: func() time.Time { return day },
+			})
+			m = uiDrive(t, m, uiKeys(c.keys...)...)
+			m = uiDrive(t, m, uiKeys("w")...)
+			screen := m.View()
+			const prefix = "view written to "
+			k := strings.Index(screen, prefix)
+			if k < 0 {
+				t.Fatalf("screen shows no written path:\n%s", screen)
+			}
+			path := strings.TrimSpace(strings.SplitN(screen[k+len(prefix):], "\n", 2)[0])
+			if filepath.Dir(path) != dir {
+				t.Fatalf("written to %q, want a file in %q", path, dir)
+			}
+			got, err := os.ReadFile(path)
+			if err != nil {
+				t.Fatal(err)
+			}
+
+			sess := filepath.Join(t.TempDir(), "session.json")
+			if err := tui.SaveSession(sess, m.Session()); err != nil {
+				t.Fatal(err)
+			}
+			code, want, errs := outCmd("dump", "--plain", "--date", day.Format(time.DateOnly), "--session", sess)
+			if code != 0 {
+				t.Fatalf("dump --session exit %d: %s", code, errs)
+			}
+			if string(got) != want {
+				t.Errorf("written view differs from likewind dump --plain:\n--- written\n%s\n--- dump\n%s", got, want)
+			}
+		})
 	}
 }

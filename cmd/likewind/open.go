@@ -93,12 +93,21 @@ func runOpen(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		}
 	}
 
+	// The write key puts text dumps of the view in the folder the tool was
+	// started from.
+	dumpDir, err := os.Getwd()
+	if err != nil {
+		fmt.Fprintln(stderr, "likewind: the view cannot be written to files:", err)
+		dumpDir = ""
+	}
 	opts := tui.Options{
 		Vehicle:     in.vehicle,
 		Facilities:  in.facilities,
 		Inputs:      in.files,
 		InputHash:   hash,
 		SessionPath: sessionPath,
+		DumpDir:     dumpDir,
+		Version:     version,
 		Width:       80,
 		Height:      24,
 	}
