@@ -171,6 +171,7 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 			}
 		}
 		aux := pointAux{}
+		var ps pointSol
 		for i := i0; i < i1; i++ {
 			tFlight := g.rows[i].Temperature
 			base := i * cols
@@ -183,7 +184,8 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 					aux.col = &col[j]
 				}
 				aux.cf = &cfFlight[base+j]
-				ps := m.sv.solveAux(r.mach, r.re, tFlight, false, &aux)
+				ps = pointSol{}
+				m.sv.solveInto(&ps, r.mach, r.re, tFlight, false, &aux)
 				m.Results[base+j] = ps.result()
 			}
 		}
@@ -391,22 +393,23 @@ func (ps *pointSol) result() Result {
 // flight static temperature tFlight. With detail set it also finds the
 // highest reachable Reynolds number where the target was hit directly.
 func (sv *solver) solve(mf, reF, tFlight float64, detail bool) pointSol {
-	return sv.solveAux(mf, reF, tFlight, detail, nil)
+	var ps pointSol
+	sv.solveInto(&ps, mf, reF, tFlight, detail, nil)
+	return ps
 }
 
-// solveAux is solve with the reusable values of aux (nil: none); the
-// answer is the same.
-func (sv *solver) solveAux(mf, reF, tFlight float64, detail bool, aux *pointAux) pointSol {
-	var ps pointSol
+// solveInto is solve writing into ps, which must be zero, with the
+// reusable values of aux (nil: none); the answer is the same.
+func (sv *solver) solveInto(ps *pointSol, mf, reF, tFlight float64, detail bool, aux *pointAux) {
 	ps.reFlight = reF
 	if sv.water {
-		sv.solveWater(&ps, mf)
+		sv.solveWater(ps, mf)
 	} else {
 		var col *gasBounds
 		if aux != nil {
 			col = aux.col
 		}
-		sv.solveGas(&ps, mf, tFlight, detail, col)
+		sv.solveGas(ps, mf, tFlight, detail, col)
 	}
 	if ps.has && reF > 0 {
 		ps.ratio = ps.re / reF
@@ -421,7 +424,6 @@ func (sv *solver) solveAux(mf, reF, tFlight float64, detail bool, aux *pointAux)
 			ps.flags |= FlagReOver
 		}
 	}
-	return ps
 }
 
 // gasBounds is the feasible (p0, T0) region of a gas facility at one Mach
@@ -623,24 +625,25 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *
 	mm := lesserOf(greaterOf(mf, f.MachMin), f.MachMax)
 	matched := math.Abs(mm-mf) <= sv.mTol*(1+1e-9)+1e-12
 
-	var c gasBounds
+	var cl gasBounds
+	c := &cl       // bounds at the matched Mach number (read only)
 	var cb gasPick // best setting at the matched Mach number
 	var cok bool
 	if matched {
 		switch {
 		case col == nil:
-			c = sv.bounds(mm)
+			cl = sv.bounds(mm)
 		case col.M == mm:
-			c = *col
+			c = col
 		default:
-			c = sv.bounds(mm)
-			*col = c
+			*col = sv.bounds(mm)
+			c = col
 		}
-		if p0, t0, re, over, ok := sv.tryHit(&c, target); ok {
+		if p0, t0, re, over, ok := sv.tryHit(c, target); ok {
 			ps.class = FullMatch
-			sv.fillGas(ps, &c, p0, t0, re, mf, tFlight)
+			sv.fillGas(ps, c, p0, t0, re, mf, tFlight)
 			if detail {
-				if _, _, r, pl, tl, ok := sv.best(&c); ok {
+				if _, _, r, pl, tl, ok := sv.best(c); ok {
 					ps.reMax, ps.pLim, ps.tLim = r, pl, tl
 				}
 			}
@@ -652,8 +655,8 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *
 			return
 		}
 		if c.ok {
-			cb.c = c
-			cb.p0, cb.t0, cb.re, cb.pLim, cb.tLim, cok = sv.best(&c)
+			cb.c = *c
+			cb.p0, cb.t0, cb.re, cb.pLim, cb.tLim, cok = sv.best(c)
 			if cok && cb.re >= need {
 				ps.class = FullMatch
 				sv.usePick(ps, &cb, mf, tFlight)
