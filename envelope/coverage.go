@@ -67,23 +67,61 @@ func Best(maps []*Map) ([]int, []Result) {
 	n := len(first.Results)
 	idx := make([]int, n)
 	best := make([]Result, n)
-	for k := range idx {
-		idx[k] = -1
-	}
+	var use []*Map // the maps taking part, with their index in maps
+	var at []int
 	for f, m := range maps {
 		if m == nil || m.Grid != g || len(m.Results) != n {
 			continue
 		}
-		for k, r := range m.Results {
-			if r.Class == Outside {
+		use, at = append(use, m), append(at, f)
+	}
+	// Points are independent: ranges of points are decided side by side,
+	// each writing only its own slots. Per point the maps are taken in
+	// order and a later one replaces the winner only when Better, so ties
+	// go to the lower index, as in a map-by-map pass.
+	forRanges(n, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			w, wr := -1, Result{}
+			var wd float64 // ratioDistance(wr.ReRatio), once per winner
+			for u, m := range use {
+				r := m.Results[k]
+				if r.Class == Outside {
+					continue
+				}
+				if w < 0 {
+					w, wr, wd = u, r, ratioDistance(r.ReRatio)
+					continue
+				}
+				// Better(r, wr), with the winner's distance kept.
+				ra, rb := r.Class.Rank(), wr.Class.Rank()
+				if ra != rb {
+					if ra < rb {
+						w, wr, wd = u, r, ratioDistance(r.ReRatio)
+					}
+					continue
+				}
+				if d := ratioDistance(r.ReRatio); d < wd {
+					w, wr, wd = u, r, d
+				}
+			}
+			if w < 0 {
+				idx[k] = -1
 				continue
 			}
-			if idx[k] < 0 || Better(r, best[k]) {
-				idx[k], best[k] = f, r
-			}
+			idx[k], best[k] = at[w], wr
 		}
-	}
+	})
 	return idx, best
+}
+
+// forRanges calls work(lo, hi) for consecutive ranges covering 0..n-1,
+// side by side as forRowBlocks does for rows.
+func forRanges(n int, work func(lo, hi int)) {
+	const chunk = 1024
+	rows := (n + chunk - 1) / chunk
+	forRowBlocks(rows, chunk, func(i0, i1 int) {
+		work(i0*chunk, min(i1*chunk, n))
+	})
 }
 
 // UnionCoverage is the fraction of inside points that at least one of the
