@@ -1,0 +1,200 @@
+package main
+
+import (
+	"fmt"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"strconv"
+	"strings"
+	"syscall"
+	"testing"
+	"time"
+
+	"likewind/tui"
+)
+
+// Bounds of the signal test: generous, since a loaded machine may be slow
+// to start and draw; they only stop a broken run from hanging the test.
+const (
+	signalDrawWait = 20 * time.Second
+	signalExitWait = 10 * time.Second
+	// signalIdle is how long the drawn screen sits before the signal, as
+	// it would between key presses.
+	signalIdle = time.Second
+	// signalRounds is how many runs each signal gets: the signal races the
+	// program's own shutdown, and one run can miss a deadlock.
+	signalRounds = 3
+)
+
+// signalWrapper runs likewind under a shell that prints its exit status
+// when it ends, so the status can be read from the terminal: $1 is the
+// state folder, $2 the binary, $3 the session file.
+const signalWrapper = `env XDG_STATE_HOME="$1" "$2" --fresh --session "$3"; echo "likewind exit status $?"`
+
+var signalStatusLine = regexp.MustCompile(`likewind exit status (\d+)`)
+
+// sigTmux is a detached tmux session running the wrapper.
+type sigTmux struct {
+	t    *testing.T
+	name string
+}
+
+func startSigTmux(t *testing.T, state, bin, session string) *sigTmux {
+	t.Helper()
+	name := fmt.Sprintf("likewind-signal-%d-%d", os.Getpid(), time.Now().UnixNano())
+	cmd := exec.Command("tmux", "new-session", "-d", "-s", name, "-x", "100", "-y", "32",
+		"sh", "-c", signalWrapper+"; sleep 60", "sh", state, bin, session)
+	cmd.Env = append(os.Environ(), "TERM=xterm-256color")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("tmux new-session: %v\n%s", err, out)
+	}
+	t.Cleanup(func() { _ = exec.Command("tmux", "kill-session", "-t", name).Run() })
+	return &sigTmux{t: t, name: name}
+}
+
+// screen is the pane's text with its scroll-back (what the program printed
+// after leaving the alternate screen may have scrolled off).
+func (s *sigTmux) screen() string {
+	out, err := exec.Command("tmux", "capture-pane", "-p", "-S", "-", "-t", s.name).Output()
+	if err != nil {
+		return ""
+	}
+	return string(out)
+}
+
+// exitStatus is the status the wrapper printed, or -1 while likewind runs.
+func (s *sigTmux) exitStatus() int {
+	m := signalStatusLine.FindStringSubmatch(s.screen())
+	if m == nil {
+		return -1
+	}
+	n, _ := strconv.Atoi(m[1])
+	return n
+}
+
+// waitScreen waits until the screen contains want.
+func (s *sigTmux) waitScreen(want string) {
+	s.t.Helper()
+	deadline := time.Now().Add(signalDrawWait)
+	for !strings.Contains(s.screen(), want) {
+		if code := s.exitStatus(); code >= 0 {
+			s.t.Fatalf("likewind ended (status %d) before the screen showed %q; screen:\n%s", code, want, s.screen())
+		}
+		if time.Now().After(deadline) {
+			s.t.Fatalf("screen never showed %q within %v; screen:\n%s", want, signalDrawWait, s.screen())
+		}
+		time.Sleep(100 * time.Millisecond)
+	}
+}
+
+// likewindPID is the wrapper shell's child, the likewind process. A
+// process still running when the test ends is killed, so that a failure
+// leaves nothing behind.
+func (s *sigTmux) likewindPID() int {
+	s.t.Helper()
+	out, err := exec.Command("tmux", "display-message", "-p", "-t", s.name, "#{pane_pid}").Output()
+	if err != nil {
+		s.t.Fatalf("tmux pane pid: %v", err)
+	}
+	sh := strings.TrimSpace(string(out))
+	children, err := os.ReadFile(filepath.Join("/proc", sh, "task", sh, "children"))
+	if err != nil {
+		s.t.Skipf("cannot find the child of the wrapper shell %s: %v", sh, err)
+	}
+	fields := strings.Fields(string(children))
+	if len(fields) != 1 {
+		s.t.Fatalf("wrapper shell %s has children %q, want likewind alone", sh, fields)
+	}
+	pid, err := strconv.Atoi(fields[0])
+	if err != nil || pid <= 1 {
+		s.t.Fatalf("likewind pid %q: %v", fields[0], err)
+	}
+	s.t.Cleanup(func() {
+		if s.exitStatus() < 0 {
+			_ = syscall.Kill(pid, syscall.SIGKILL)
+		}
+	})
+	return pid
+}
+
+// waitExit waits for the wrapper to print likewind's exit status.
+func (s *sigTmux) waitExit() int {
+	s.t.Helper()
+	deadline := time.Now().Add(signalExitWait)
+	for {
+		if code := s.exitStatus(); code >= 0 {
+			return code
+		}
+		if time.Now().After(deadline) {
+			s.t.Fatalf("likewind still running %v after the signal (a shutdown deadlock; see TestSignalSavesSession); screen:\n%s",
+				signalExitWait, s.screen())
+		}
+		time.Sleep(50 * time.Millisecond)
+	}
+}
+
+// TestSignalSavesSession starts the interface in a real terminal, waits for
+// the first screen, then ends it with SIGTERM (a polite kill) or SIGHUP (a
+// dropped SSH connection): the program must exit with status 0, say where
+// the session went, and leave a session file that loads, with no temporary
+// file beside it.
+//
+// A program that never ends after SIGTERM is the deadlock this test was
+// written for: bubbletea installs its own SIGINT/SIGTERM handler unless
+// told not to (tea.WithoutSignalHandler), and when the signal context of
+// runOpen wins the race, the event loop stops first and bubbletea's handler
+// blocks for ever sending its QuitMsg, so Program.Run never returns and the
+// session is never written.
+func TestSignalSavesSession(t *testing.T) {
+	if testing.Short() {
+		t.Skip("terminal signal test skipped in -short mode")
+	}
+	if _, err := exec.LookPath("tmux"); err != nil {
+		t.Skip("tmux not installed; terminal signal test skipped")
+	}
+	bin := filepath.Join(t.TempDir(), "likewind")
+	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
+		t.Fatalf("go build: %v\n%s", err, out)
+	}
+	for _, sig := range []syscall.Signal{syscall.SIGTERM, syscall.SIGHUP} {
+		for round := 1; round <= signalRounds; round++ {
+			t.Run(fmt.Sprintf("%s/%d", sig, round), func(t *testing.T) {
+				state := t.TempDir()
+				session := filepath.Join(t.TempDir(), "signal-session.json")
+				s := startSigTmux(t, state, bin, session)
+				s.waitScreen("likewind |")
+				time.Sleep(signalIdle)
+				pid := s.likewindPID()
+				if err := syscall.Kill(pid, sig); err != nil {
+					t.Fatalf("kill(%d, %v): %v", pid, sig, err)
+				}
+				if code := s.waitExit(); code != 0 {
+					t.Errorf("after %v likewind exited with status %d, want 0; screen:\n%s", sig, code, s.screen())
+				}
+				if scr := s.screen(); !strings.Contains(scr, "session saved to "+session) {
+					t.Errorf("after %v the terminal lacks %q; screen:\n%s", sig, "session saved to "+session, scr)
+				}
+				got, err := tui.LoadSession(session)
+				if err != nil {
+					t.Fatalf("after %v: %v", sig, err)
+				}
+				if got.Version != tui.SessionVersion || got.Hash == "" || got.Layer == "" {
+					t.Errorf("after %v the session is %+v, want version %d with the data hash and layer", sig, got, tui.SessionVersion)
+				}
+				entries, err := os.ReadDir(filepath.Dir(session))
+				if err != nil {
+					t.Fatal(err)
+				}
+				if len(entries) != 1 {
+					var names []string
+					for _, e := range entries {
+						names = append(names, e.Name())
+					}
+					t.Errorf("after %v the session folder holds %q, want only the session file", sig, names)
+				}
+			})
+		}
+	}
+}
