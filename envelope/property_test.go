@@ -1,6 +1,11 @@
 package envelope
 
-import "testing"
+import (
+	"fmt"
+	"math"
+	"math/rand/v2"
+	"testing"
+)
 
 // TestOvershootWithinUnitReynoldsCap: where even the lowest setting (P0Min
 // at T0Max) overshoots flight and breaks the facility's unit-Reynolds cap,
@@ -51,5 +56,138 @@ func TestOvershootWithinUnitReynoldsCap(t *testing.T) {
 	}
 	if d.HasSettings && d.RePerM > f.MaxReynoldsPerM*(1+fuzzSlack) {
 		t.Errorf("Mach 0.25: class %v, settings give unit Re %.4g, above the cap %.4g", d.Class, d.RePerM, f.MaxReynoldsPerM)
+	}
+}
+
+// propCases is how many random facility and flight-point cases each
+// property test solves.
+const propCases = 20000
+
+// randomSolveCase draws a case the way FuzzSolve decodes its input: a
+// facility the loader accepts, a flight point of the standard atmosphere
+// and matching tolerances.
+func randomSolveCase(rng *rand.Rand) solveCase {
+	u := rng.Float64
+	return decodeSolveCase(solveInputs{uint8(rng.IntN(3)), rng.IntN(2) == 0,
+		u(), u(), u(), u(), u(), u(), u(), u(), u(), u(), u(), u(), u(), u(), u(), u(), u(), u()})
+}
+
+// solveOne solves a case's single grid point with settings s.
+func solveOne(t *testing.T, c solveCase, s Settings) Detail {
+	t.Helper()
+	g, err := NewGrid(onePointVehicle(c.alt, c.mf, c.refLen), s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f := c.f
+	m, err := Solve(g, &f, s)
+	if err != nil {
+		t.Fatalf("Solve: %v\n%+v", err, f)
+	}
+	d, err := m.Detail(0, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r := m.At(0, 0); r.Class != d.Class {
+		t.Fatalf("map class %v, detail class %v", r.Class, d.Class)
+	}
+	return d
+}
+
+func caseText(c solveCase) string {
+	return fmt.Sprintf("%s\nflight alt %g m, Mach %g, L %g m, settings %+v",
+		MarshalFacilities([]Facility{c.f}), c.alt, c.mf, c.refLen, c.settings)
+}
+
+// TestPropertyClassMonotoneInScale: a larger model never gives a worse
+// class (Class.Rank), for random facilities and flight points; the fixed
+// demo-like cases are in TestClassMonotoneInScale.
+func TestPropertyClassMonotoneInScale(t *testing.T) {
+	rng := rand.New(rand.NewPCG(21, 40))
+	for n := 0; n < propCases; n++ {
+		c := randomSolveCase(rng)
+		s := c.settings
+		s.Scale = 1e-4 * math.Pow(1e4, rng.Float64())
+		small := solveOne(t, c, s)
+		s.Scale *= 1 + 9*rng.Float64()
+		large := solveOne(t, c, s)
+		if large.Class.Rank() > small.Class.Rank() {
+			t.Errorf("scale %g gives %v (%v), scale %g gave %v (%v)\n%s",
+				s.Scale, large.Class, large.Limit, small.Scale, small.Class, small.Limit, caseText(c))
+		}
+	}
+}
+
+// TestPropertyClassMonotoneInTolerances: a looser Mach or Reynolds-number
+// tolerance never gives a worse class.
+func TestPropertyClassMonotoneInTolerances(t *testing.T) {
+	rng := rand.New(rand.NewPCG(17, 2))
+	for n := 0; n < propCases; n++ {
+		c := randomSolveCase(rng)
+		tight := c.settings
+		if tight.Scale == 0 {
+			tight.Scale = 0.05
+		}
+		base := solveOne(t, c, tight)
+		for _, loosen := range []struct {
+			name string
+			f    func(*Settings)
+		}{
+			{"Mach tolerance", func(s *Settings) { s.MachTol += 0.2 * rng.Float64() }},
+			{"Reynolds tolerance", func(s *Settings) { s.ReTol += (0.99 - s.ReTol) * rng.Float64() }},
+		} {
+			loose := tight
+			loosen.f(&loose)
+			d := solveOne(t, c, loose)
+			if d.Class.Rank() > base.Class.Rank() {
+				t.Errorf("looser %s (%+v) gives %v (%v), tighter gave %v (%v)\n%s",
+					loosen.name, loose, d.Class, d.Limit, base.Class, base.Limit, caseText(c))
+			}
+		}
+	}
+}
+
+// TestPropertyReynoldsLinearInP0: with only the p0 and T0 ranges limiting
+// (no dynamic-pressure, static-temperature, unit-Reynolds or saturation
+// limit), scaling both ends of the p0 range by k scales the facility's
+// reachable Reynolds numbers at every Mach number by k exactly: Re is
+// proportional to p0 at fixed Mach number and T0.
+func TestPropertyReynoldsLinearInP0(t *testing.T) {
+	rng := rand.New(rand.NewPCG(8, 1))
+	for n := 0; n < propCases; n++ {
+		c := randomSolveCase(rng)
+		if c.f.Medium == MediumWater {
+			continue
+		}
+		c.f.QMax, c.f.MinStaticT, c.f.MaxReynoldsPerM, c.f.Condensation = 0, 0, 0, false
+		s := c.settings
+		s.Scale = 0.05
+		k := 1 + 9*rng.Float64()
+		if c.f.P0Max*k > maxPressure {
+			k = maxPressure / c.f.P0Max
+		}
+		g, err := NewGrid(onePointVehicle(c.alt, c.mf, c.refLen), s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		f1, fk := c.f, c.f
+		fk.P0Min, fk.P0Max = k*c.f.P0Min, k*c.f.P0Max
+		m1, err1 := Solve(g, &f1, s)
+		mk, errk := Solve(g, &fk, s)
+		if err1 != nil || errk != nil {
+			t.Fatal(err1, errk)
+		}
+		M := f1.MachMin + (f1.MachMax-f1.MachMin)*rng.Float64()
+		if M >= 1 && f1.Medium == MediumAir {
+			continue // the saturation line always applies to supersonic air
+		}
+		lo1, hi1, ok1 := m1.ReynoldsRange(M)
+		lok, hik, okk := mk.ReynoldsRange(M)
+		if !ok1 || !okk {
+			t.Fatalf("ReynoldsRange(%g): ok %v, %v with no coupled limits\n%s", M, ok1, okk, caseText(c))
+		}
+		if math.Abs(lok/(k*lo1)-1) > exactTol*10 || math.Abs(hik/(k*hi1)-1) > exactTol*10 {
+			t.Errorf("Mach %g: p0 × %g gives Re %g–%g, want %g × (%g–%g)\n%s", M, k, lok, hik, k, lo1, hi1, caseText(c))
+		}
 	}
 }
