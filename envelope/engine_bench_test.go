@@ -219,6 +219,21 @@ func BenchmarkDemoDeltaT400(b *testing.B) {
 			}
 		}
 	})
+	b.Run("Best", func(b *testing.B) {
+		g, err := NewGrid(v, s)
+		if err != nil {
+			b.Fatal(err)
+		}
+		maps := make([]*Map, len(facs))
+		for k := range facs {
+			if maps[k], err = Solve(g, &facs[k], s); err != nil {
+				b.Fatal(err)
+			}
+		}
+		for b.Loop() {
+			Best(maps)
+		}
+	})
 	b.Run("all", func(b *testing.B) {
 		maps := make([]*Map, len(facs))
 		errs := make([]error, len(facs))
