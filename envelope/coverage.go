@@ -119,8 +119,8 @@ func Best(maps []*Map) ([]int, []Result) {
 func forRanges(n int, work func(lo, hi int)) {
 	const chunk = 1024
 	rows := (n + chunk - 1) / chunk
-	forRowBlocks(rows, chunk, func(i0, i1 int) {
-		work(i0*chunk, min(i1*chunk, n))
+	forRowBlocks(rows, chunk, func() func(i0, i1 int) {
+		return func(i0, i1 int) { work(i0*chunk, min(i1*chunk, n)) }
 	})
 }
 

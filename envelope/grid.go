@@ -197,47 +197,63 @@ func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 	// each point written to its own slot, so the grid is the same as a
 	// row-by-row evaluation. The first failing row (lowest index) is
 	// reported.
-	var (
-		mu      sync.Mutex
-		errRow  = -1
-		errFail error
-	)
-	forRowBlocks(len(alts), len(speeds), func(i0, i1 int) {
-		var spans []envSpan
-		inside := 0
-		maxMach := 0.0
-		for i := i0; i < i1; i++ {
-			h := alts[i]
-			st, err := atmos.AtDay(h, v.AltitudeKind, s.DeltaT)
-			if err != nil {
-				mu.Lock()
-				if errRow < 0 || i < errRow {
-					errRow, errFail = i, err
-				}
-				mu.Unlock()
-				return
+	acc := rowsAcc{errRow: -1}
+	forRowBlocks(len(alts), len(speeds), func() func(i0, i1 int) {
+		var spans []envSpan // scratch space of one worker
+		return func(i0, i1 int) { g.evalRows(i0, i1, s.DeltaT, &spans, &acc) }
+	})
+	if acc.errRow >= 0 {
+		return nil, fmt.Errorf("grid for %q: row %d: %w", v.Name, acc.errRow, acc.err)
+	}
+	g.inside, g.maxMach = acc.inside, acc.maxMach
+	return g, nil
+}
+
+// rowsAcc gathers what the row blocks of NewGrid add up, under mu.
+type rowsAcc struct {
+	mu      sync.Mutex
+	inside  int     // inside points
+	maxMach float64 // highest inside Mach number
+	errRow  int     // first row whose atmosphere failed (-1: none)
+	err     error
+}
+
+// evalRows evaluates rows i0..i1-1 of g on the day dT: the atmosphere, the
+// envelope limits and every point, with spans as scratch space, and adds
+// the inside count and highest Mach number to acc. A row whose atmosphere
+// fails is recorded in acc and ends the block.
+func (g *Grid) evalRows(i0, i1 int, dT float64, spans *[]envSpan, acc *rowsAcc) {
+	v := g.Vehicle
+	cols := len(g.Speeds)
+	inside := 0
+	maxMach := 0.0
+	for i := i0; i < i1; i++ {
+		h := g.Alts[i]
+		st, err := atmos.AtDay(h, v.AltitudeKind, dT)
+		if err != nil {
+			acc.mu.Lock()
+			if acc.errRow < 0 || i < acc.errRow {
+				acc.errRow, acc.err = i, err
 			}
-			g.rows[i] = st
-			spans = boundaryEnvSpans(v.Boundary, h, spans[:0])
-			rl := g.rowLimits(h, &st, spans)
-			row := g.points[i*len(speeds) : (i+1)*len(speeds)]
-			for j, sp := range speeds {
-				row[j] = g.evalPoint(sp, &st, &rl)
-				if row[j].excl == InEnvelope {
-					inside++
-					maxMach = greaterOf(maxMach, row[j].mach)
-				}
+			acc.mu.Unlock()
+			return
+		}
+		g.rows[i] = st
+		*spans = boundaryEnvSpans(v.Boundary, h, (*spans)[:0])
+		rl := g.rowLimits(h, &st, *spans)
+		row := g.points[i*cols : (i+1)*cols]
+		for j, sp := range g.Speeds {
+			row[j] = g.evalPoint(sp, &st, &rl)
+			if row[j].excl == InEnvelope {
+				inside++
+				maxMach = greaterOf(maxMach, row[j].mach)
 			}
 		}
-		mu.Lock()
-		g.inside += inside
-		g.maxMach = greaterOf(g.maxMach, maxMach)
-		mu.Unlock()
-	})
-	if errRow >= 0 {
-		return nil, fmt.Errorf("grid for %q: row %d: %w", v.Name, errRow, errFail)
 	}
-	return g, nil
+	acc.mu.Lock()
+	acc.inside += inside
+	acc.maxMach = greaterOf(acc.maxMach, maxMach)
+	acc.mu.Unlock()
 }
 
 // Work splitting for NewGrid and Solve: grids of fewer than parallelMin
@@ -252,11 +268,13 @@ const (
 
 // forRowBlocks calls work(i0, i1) for consecutive blocks of rows covering
 // 0..rows-1, on up to runtime.GOMAXPROCS goroutines at once, and returns
-// when all are done. Each row is in exactly one block.
-func forRowBlocks(rows, cols int, work func(i0, i1 int)) {
+// when all are done. Each row is in exactly one block. Each goroutine gets
+// its work function from newWorker, once, so that it can keep scratch
+// space of its own.
+func forRowBlocks(rows, cols int, newWorker func() func(i0, i1 int)) {
 	workers := runtime.GOMAXPROCS(0)
 	if workers < 2 || rows < 2 || rows*cols < parallelMin {
-		work(0, rows)
+		newWorker()(0, rows)
 		return
 	}
 	workers = min(workers, rows)
@@ -265,6 +283,7 @@ func forRowBlocks(rows, cols int, work func(i0, i1 int)) {
 	var wg sync.WaitGroup
 	for range workers {
 		wg.Go(func() {
+			work := newWorker()
 			for {
 				i0 := int(next.Add(int64(size))) - size
 				if i0 >= rows {

@@ -262,8 +262,9 @@ func skinFrictionDelta(reModel, reFlight float64) float64 {
 
 // skinFrictionDeltaMemo is skinFrictionDelta with Cf(flight) kept in memo
 // (float64 bits; 0 means not yet computed): the flight value of a grid
-// point is the same for every facility.
-func skinFrictionDeltaMemo(reModel, reFlight float64, memo *atomic.Uint64) float64 {
+// point is the same for every facility; and Cf(model) kept with the model
+// Reynolds number it belongs to in *lastRe, *lastCf.
+func skinFrictionDeltaMemo(reModel, reFlight float64, memo *atomic.Uint64, lastRe, lastCf *float64) float64 {
 	if !(reModel > 1) || !(reFlight > 1) || reModel == reFlight {
 		return 0
 	}
@@ -272,7 +273,10 @@ func skinFrictionDeltaMemo(reModel, reFlight float64, memo *atomic.Uint64) float
 		cff = SkinFriction(reFlight)
 		memo.Store(math.Float64bits(cff))
 	}
-	return skinFrictionFast(reModel) - cff
+	if *lastRe != reModel {
+		*lastRe, *lastCf = reModel, skinFrictionFast(reModel)
+	}
+	return *lastCf - cff
 }
 
 // skinFrictionFast is SkinFriction for Re > 1 as exp(−2.58·ln log10 Re),

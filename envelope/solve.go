@@ -160,45 +160,105 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	// Points are independent: blocks of rows are solved side by side, each
 	// result written to its own slot, so the map is the same as a
 	// point-by-point solve.
-	forRowBlocks(len(g.Alts), cols, func(i0, i1 int) {
-		// Gas facilities reuse the bounds of a column's Mach number down
-		// the column (on a Mach grid every row shares them).
-		var col []gasBounds
-		if !m.sv.water {
-			col = make([]gasBounds, cols)
-			for j := range col {
-				col[j].M = math.NaN()
-			}
+	forRowBlocks(len(g.Alts), cols, func() func(i0, i1 int) {
+		// What depends only on the facility Mach number is reused down a
+		// column (on a Mach grid every row shares it): one memo per column
+		// and worker.
+		col := make([]colMemo, cols)
+		for j := range col {
+			col[j].reset()
 		}
-		aux := pointAux{}
-		var ps pointSol
-		for i := i0; i < i1; i++ {
-			tFlight := g.rows[i].Temperature
-			base := i * cols
-			for j := 0; j < cols; j++ {
-				r := &g.points[base+j]
-				if r.excl != InEnvelope {
-					continue
-				}
-				if col != nil {
-					aux.col = &col[j]
-				}
-				aux.cf = &cfFlight[base+j]
-				ps = pointSol{}
-				m.sv.solveInto(&ps, r.mach, r.re, tFlight, false, &aux)
-				m.Results[base+j] = ps.result()
-			}
-		}
+		return func(i0, i1 int) { m.solveRows(i0, i1, col, cfFlight) }
 	})
 	return m, nil
 }
 
-// pointAux is what a Solve worker reuses between points: the gas bounds
-// last computed for this column's facility Mach number, and this point's
-// slot of the grid's flight skin-friction memo.
+// solveRows solves the inside points of rows i0..i1-1 into m.Results, with
+// the column memos col and the grid's flight skin-friction memo cfFlight.
+func (m *Map) solveRows(i0, i1 int, col []colMemo, cfFlight []atomic.Uint64) {
+	g, sv := m.Grid, m.sv
+	cols := len(g.Speeds)
+	var aux pointAux
+	var ps pointSol
+	for i := i0; i < i1; i++ {
+		tFlight := g.rows[i].Temperature
+		base := i * cols
+		for j := 0; j < cols; j++ {
+			r := &g.points[base+j]
+			if r.excl != InEnvelope {
+				continue
+			}
+			if l, out := sv.outOfRange(r.mach); out {
+				m.Results[base+j] = Result{Class: NoMatch, Limit: l}
+				continue
+			}
+			aux.col, aux.cf = &col[j], &cfFlight[base+j]
+			ps = pointSol{}
+			sv.solveInto(&ps, r.mach, r.re, tFlight, false, &aux)
+			m.Results[base+j] = ps.result()
+		}
+	}
+}
+
+// outOfRange reports flight Mach numbers that the facility can neither
+// match nor relax, with the limit: what solve gives them without a search
+// (class NoMatch, no settings, no flags).
+func (sv *solver) outOfRange(mf float64) (Limit, bool) {
+	if mf < sv.cm {
+		return LimitNone, false
+	}
+	if sv.water {
+		return LimitIncompressible, true
+	}
+	mm := lesserOf(greaterOf(mf, sv.f.MachMin), sv.f.MachMax)
+	if sv.machMatched(mm, mf) {
+		return LimitNone, false
+	}
+	return LimitMachRange, true
+}
+
+// machMatched reports whether facility Mach number mm (flight Mach number
+// mf held within the facility range) matches flight within MachTol.
+func (sv *solver) machMatched(mm, mf float64) bool {
+	return math.Abs(mm-mf) <= sv.mTol*(1+1e-9)+1e-12
+}
+
+// pointAux is what a Solve worker reuses between points: the memo of the
+// point's grid column, and the point's slot of the grid's flight
+// skin-friction memo.
 type pointAux struct {
-	col *gasBounds
+	col *colMemo
 	cf  *atomic.Uint64
+}
+
+// colMemo holds values a Solve worker computed for one grid column, each
+// with the exact inputs it was computed from, so that a later point reuses
+// it only when it would compute the same thing: the gas bounds at facility
+// Mach number b.M, the best setting on them, the test-section state and
+// setting cautions of the last setting filled in, and the model skin
+// friction of the last model Reynolds number. Reynolds-short points down a
+// column all share one best setting, so they cost little after the first.
+type colMemo struct {
+	b      gasBounds // bounds at b.M (NaN: none yet)
+	bestM  float64   // Mach number best was found at (NaN: none yet)
+	best   gasPick
+	bestOK bool
+	fill   fillMemo
+	cfRe   float64 // model Reynolds number of cfM (NaN: none yet)
+	cfM    float64 // SkinFriction at cfRe
+}
+
+func (c *colMemo) reset() {
+	nan := math.NaN()
+	c.b.M, c.bestM, c.fill.M, c.cfRe = nan, nan, nan, nan
+}
+
+// fillMemo is the part of fillGas that depends on the setting alone, for
+// the setting (M, p0, t0, re).
+type fillMemo struct {
+	M, p0, t0, re       float64 // the setting (M NaN: none yet)
+	t, p, v, rho, mu, q float64
+	flags               Flags
 }
 
 // At returns the stored result of point (i, j).
@@ -405,7 +465,7 @@ func (sv *solver) solveInto(ps *pointSol, mf, reF, tFlight float64, detail bool,
 	if sv.water {
 		sv.solveWater(ps, mf)
 	} else {
-		var col *gasBounds
+		var col *colMemo
 		if aux != nil {
 			col = aux.col
 		}
@@ -414,8 +474,8 @@ func (sv *solver) solveInto(ps *pointSol, mf, reF, tFlight float64, detail bool,
 	if ps.has && reF > 0 {
 		ps.ratio = ps.re / reF
 		if math.Abs(ps.ratio-1) > 1e-9 {
-			if aux != nil && aux.cf != nil {
-				ps.dcf = skinFrictionDeltaMemo(ps.re, reF, aux.cf)
+			if aux != nil && aux.cf != nil && aux.col != nil {
+				ps.dcf = skinFrictionDeltaMemo(ps.re, reF, aux.cf, &aux.col.cfRe, &aux.col.cfM)
 			} else {
 				ps.dcf = skinFrictionDelta(ps.re, reF)
 			}
@@ -615,33 +675,33 @@ type gasPick struct {
 // below the compressibility threshold, relaxed; otherwise the point is out
 // of reach.
 //
-// col, when not nil, holds the bounds of an earlier point at the same
-// facility Mach number (its M is NaN when empty); it is used if its Mach
-// number matches and refilled otherwise.
-func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *gasBounds) {
+// col, when not nil, is the memo of the point's grid column: its values
+// are used where their inputs match and refilled otherwise.
+func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *colMemo) {
 	f := sv.f
 	target := ps.reFlight
 	need := (1 - sv.reTol) * target
 	mm := lesserOf(greaterOf(mf, f.MachMin), f.MachMax)
-	matched := math.Abs(mm-mf) <= sv.mTol*(1+1e-9)+1e-12
+	matched := sv.machMatched(mm, mf)
 
 	var cl gasBounds
 	c := &cl       // bounds at the matched Mach number (read only)
 	var cb gasPick // best setting at the matched Mach number
 	var cok bool
+	var fm *fillMemo // the column's fill memo, when c is the column's bounds
 	if matched {
 		switch {
 		case col == nil:
 			cl = sv.bounds(mm)
-		case col.M == mm:
-			c = col
+		case col.b.M == mm:
+			c, fm = &col.b, &col.fill
 		default:
-			*col = sv.bounds(mm)
-			c = col
+			col.b = sv.bounds(mm)
+			c, fm = &col.b, &col.fill
 		}
 		if p0, t0, re, over, ok := sv.tryHit(c, target); ok {
 			ps.class = FullMatch
-			sv.fillGas(ps, c, p0, t0, re, mf, tFlight)
+			sv.fillGas(ps, c, p0, t0, re, mf, tFlight, fm)
 			if detail {
 				if _, _, r, pl, tl, ok := sv.best(c); ok {
 					ps.reMax, ps.pLim, ps.tLim = r, pl, tl
@@ -655,11 +715,18 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *
 			return
 		}
 		if c.ok {
-			cb.c = *c
-			cb.p0, cb.t0, cb.re, cb.pLim, cb.tLim, cok = sv.best(c)
+			if col != nil && col.bestM == mm {
+				cb, cok = col.best, col.bestOK
+			} else {
+				cb.c = *c
+				cb.p0, cb.t0, cb.re, cb.pLim, cb.tLim, cok = sv.best(c)
+				if col != nil {
+					col.best, col.bestOK, col.bestM = cb, cok, mm
+				}
+			}
 			if cok && cb.re >= need {
 				ps.class = FullMatch
-				sv.usePick(ps, &cb, mf, tFlight)
+				sv.usePick(ps, &cb, mf, tFlight, fm)
 				return
 			}
 		}
@@ -670,7 +737,7 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *
 		rp, rfound, reached = sv.relax(mf, target, need)
 		if reached {
 			ps.class = MachRelaxed
-			sv.usePick(ps, &rp, mf, tFlight)
+			sv.usePick(ps, &rp, mf, tFlight, nil)
 			if rp.re >= target*(1-solveSlack) {
 				ps.limit = LimitNone
 				if rp.over {
@@ -683,7 +750,7 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *
 	switch {
 	case matched && cok:
 		ps.class = ReShort
-		sv.usePick(ps, &cb, mf, tFlight)
+		sv.usePick(ps, &cb, mf, tFlight, fm)
 	case matched && !c.ok:
 		ps.class, ps.limit = NoMatch, c.why
 	case matched:
@@ -691,7 +758,7 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *
 		ps.class, ps.limit = NoMatch, LimitRePerM
 	case rfound:
 		ps.class = NoMatch
-		sv.usePick(ps, &rp, mf, tFlight)
+		sv.usePick(ps, &rp, mf, tFlight, nil)
 	default:
 		ps.class, ps.limit = NoMatch, LimitMachRange
 	}
@@ -699,8 +766,8 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *
 
 // usePick fills ps from a chosen setting, with the binding limit when the
 // setting falls short of flight.
-func (sv *solver) usePick(ps *pointSol, g *gasPick, mf, tFlight float64) {
-	sv.fillGas(ps, &g.c, g.p0, g.t0, g.re, mf, tFlight)
+func (sv *solver) usePick(ps *pointSol, g *gasPick, mf, tFlight float64, fm *fillMemo) {
+	sv.fillGas(ps, &g.c, g.p0, g.t0, g.re, mf, tFlight, fm)
 	ps.reMax, ps.pLim, ps.tLim = g.re, g.pLim, g.tLim
 	if g.re < ps.reFlight*(1-solveSlack) {
 		ps.limit = bindingLimit(g.pLim, g.tLim)
@@ -781,18 +848,48 @@ func (sv *solver) relaxAt(b *gasBounds, target float64) gasPick {
 }
 
 // fillGas completes the test-section state and the cautions of a gas
-// setting.
-func (sv *solver) fillGas(ps *pointSol, c *gasBounds, p0, t0, re, mf, tFlight float64) {
-	g, R := sv.gamma, sv.rgas
+// setting. fm, when not nil, memoises the part that depends on the setting
+// alone (used when the setting is the one it holds).
+func (sv *solver) fillGas(ps *pointSol, c *gasBounds, p0, t0, re, mf, tFlight float64, fm *fillMemo) {
 	ps.has = true
 	ps.mach, ps.p0, ps.t0, ps.re = c.M, p0, t0, re
+	var s *fillMemo
+	switch {
+	case fm == nil:
+		var local fillMemo
+		s = &local
+		sv.fillSetting(s, c, p0, t0)
+	case fm.M == c.M && fm.p0 == p0 && fm.t0 == t0 && fm.re == re:
+		s = fm
+	default:
+		s = fm
+		s.M, s.p0, s.t0, s.re = c.M, p0, t0, re
+		sv.fillSetting(s, c, p0, t0)
+	}
+	ps.t, ps.p, ps.v, ps.rho, ps.mu, ps.q = s.t, s.p, s.v, s.rho, s.mu, s.q
+	fl := s.flags
+	// The flight side: hypersonic flight makes the ideal-gas result
+	// approximate and asks for the flight enthalpy.
+	if mf >= sv.reg.Supersonic {
+		fl |= FlagRealGas
+		if t0 < EnthalpyShortRatio*tFlight*(1+0.5*(atmos.GammaAir-1)*mf*mf) {
+			fl |= FlagEnthalpyShort
+		}
+	}
+	ps.flags |= fl
+}
+
+// fillSetting is the test-section state and the cautions that depend on
+// the setting (Mach number of c, p0, t0) alone.
+func (sv *solver) fillSetting(s *fillMemo, c *gasBounds, p0, t0 float64) {
+	g, R := sv.gamma, sv.rgas
 	T := t0 * c.tau
 	p := p0 * c.pi
-	ps.t, ps.p = T, p
-	ps.v = c.M * math.Sqrt(g*R*T)
-	ps.rho = p / (R * T)
-	ps.mu = sv.beta * T * math.Sqrt(T) / (T + sv.suth)
-	ps.q = 0.5 * g * p * c.M * c.M
+	s.t, s.p = T, p
+	s.v = c.M * math.Sqrt(g*R*T)
+	s.rho = p / (R * T)
+	s.mu = sv.beta * T * math.Sqrt(T) / (T + sv.suth)
+	s.q = 0.5 * g * p * c.M * c.M
 
 	var fl Flags
 	if sv.peakM > c.M {
@@ -800,8 +897,7 @@ func (sv *solver) fillGas(ps *pointSol, c *gasBounds, p0, t0, re, mf, tFlight fl
 			fl |= FlagCondensationWarn
 		}
 	}
-	hyper := mf >= sv.reg.Supersonic
-	if t0 < RealGasT0 || p0 > RealGasP0 || hyper ||
+	if t0 < RealGasT0 || p0 > RealGasP0 ||
 		(T < RealGasSatMargin*sv.tcrit && p > sv.gas.SaturationPressure(T/RealGasSatMargin)) {
 		fl |= FlagRealGas
 	}
@@ -811,13 +907,10 @@ func (sv *solver) fillGas(ps *pointSol, c *gasBounds, p0, t0, re, mf, tFlight fl
 	if sv.p0max > 0 && p0 >= NearLimitFraction*sv.p0max {
 		fl |= FlagHighP0
 	}
-	if sv.qmax > 0 && ps.q >= NearLimitFraction*sv.qmax {
+	if sv.qmax > 0 && s.q >= NearLimitFraction*sv.qmax {
 		fl |= FlagQNearLimit
 	}
-	if hyper && t0 < EnthalpyShortRatio*tFlight*(1+0.5*(atmos.GammaAir-1)*mf*mf) {
-		fl |= FlagEnthalpyShort
-	}
-	ps.flags |= fl
+	s.flags = fl
 }
 
 // gasSweep is the Reynolds range at the Mach number of c and stagnation
