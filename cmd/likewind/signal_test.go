@@ -135,6 +135,23 @@ func (s *sigTmux) waitExit() int {
 	}
 }
 
+// buildSignalBinary skips without tmux or in -short mode, and builds the
+// command into a temporary folder.
+func buildSignalBinary(t *testing.T) string {
+	t.Helper()
+	if testing.Short() {
+		t.Skip("terminal signal test skipped in -short mode")
+	}
+	if _, err := exec.LookPath("tmux"); err != nil {
+		t.Skip("tmux not installed; terminal signal test skipped")
+	}
+	bin := filepath.Join(t.TempDir(), "likewind")
+	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
+		t.Fatalf("go build: %v\n%s", err, out)
+	}
+	return bin
+}
+
 // TestSignalSavesSession starts the interface in a real terminal, waits for
 // the first screen, then ends it with SIGTERM (a polite kill) or SIGHUP (a
 // dropped SSH connection): the program must exit with status 0, say where
@@ -148,16 +165,7 @@ func (s *sigTmux) waitExit() int {
 // blocks for ever sending its QuitMsg, so Program.Run never returns and the
 // session is never written.
 func TestSignalSavesSession(t *testing.T) {
-	if testing.Short() {
-		t.Skip("terminal signal test skipped in -short mode")
-	}
-	if _, err := exec.LookPath("tmux"); err != nil {
-		t.Skip("tmux not installed; terminal signal test skipped")
-	}
-	bin := filepath.Join(t.TempDir(), "likewind")
-	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
-		t.Fatalf("go build: %v\n%s", err, out)
-	}
+	bin := buildSignalBinary(t)
 	for _, sig := range []syscall.Signal{syscall.SIGTERM, syscall.SIGHUP} {
 		for round := 1; round <= signalRounds; round++ {
 			t.Run(fmt.Sprintf("%s/%d", sig, round), func(t *testing.T) {
@@ -196,5 +204,34 @@ func TestSignalSavesSession(t *testing.T) {
 				}
 			})
 		}
+	}
+}
+
+// TestSignalSaveFailureReported: when the session cannot be written (its
+// folder does not exist), a hang-up must not claim it was saved, and the
+// exit status must say the save failed, so a lost session never passes
+// unnoticed.
+func TestSignalSaveFailureReported(t *testing.T) {
+	bin := buildSignalBinary(t)
+	session := filepath.Join(t.TempDir(), "no-such-folder", "signal-session.json")
+	s := startSigTmux(t, t.TempDir(), bin, session)
+	s.waitScreen("likewind |")
+	time.Sleep(signalIdle)
+	if err := syscall.Kill(s.likewindPID(), syscall.SIGHUP); err != nil {
+		t.Fatal(err)
+	}
+	code := s.waitExit()
+	scr := s.screen()
+	if code == 0 {
+		t.Errorf("after a failed save likewind exited with status 0, want non-zero; screen:\n%s", scr)
+	}
+	if strings.Contains(scr, "session saved to") {
+		t.Errorf("after a failed save the terminal says the session was saved; screen:\n%s", scr)
+	}
+	if !strings.Contains(scr, "save session") {
+		t.Errorf("after a failed save the terminal does not say why; screen:\n%s", scr)
+	}
+	if _, err := os.Stat(session); err == nil {
+		t.Errorf("session file %s exists", session)
 	}
 }
