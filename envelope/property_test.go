@@ -5,6 +5,8 @@ import (
 	"math"
 	"math/rand/v2"
 	"testing"
+
+	"likewind/atmos"
 )
 
 // TestOvershootWithinUnitReynoldsCap: where even the lowest setting (P0Min
@@ -188,6 +190,90 @@ func TestPropertyReynoldsLinearInP0(t *testing.T) {
 		}
 		if math.Abs(lok/(k*lo1)-1) > exactTol*10 || math.Abs(hik/(k*hi1)-1) > exactTol*10 {
 			t.Errorf("Mach %g: p0 × %g gives Re %g–%g, want %g × (%g–%g)\n%s", M, k, lok, hik, k, lo1, hi1, caseText(c))
+		}
+	}
+}
+
+// randomGridVehicle is a vehicle around a case's flight point: a box
+// envelope from a third to three times the flight speed and a few
+// kilometres either side, on a 7 × 9 grid in Mach number or (so that the
+// Mach number changes down each column) in EAS.
+func randomGridVehicle(c solveCase, rng *rand.Rand) *Vehicle {
+	lo := math.Max(c.alt-3000*rng.Float64(), -4999)
+	hi := math.Min(c.alt+3000*rng.Float64()+1, 85999)
+	v := onePointVehicle(c.alt, c.mf, c.refLen)
+	v.Boundary = []Vertex{{lo, c.mf / 3}, {lo, 3 * c.mf}, {hi, 3 * c.mf}, {hi, c.mf / 3}}
+	v.Grid.Altitude = Axis{Min: lo, Max: hi, Count: 7}
+	v.Grid.Speed = Axis{Min: c.mf / 3, Max: 3 * c.mf, Count: 9}
+	if rng.IntN(2) == 0 {
+		st, err := atmos.At(c.alt)
+		if err == nil {
+			eas := atmos.EASFromMach(c.mf, st)
+			v.BoundaryKind, v.Grid.SpeedKind = atmos.EAS, atmos.EAS
+			for k := range v.Boundary {
+				v.Boundary[k].Speed *= eas / c.mf
+			}
+			v.Grid.Speed = Axis{Min: eas / 3, Max: 3 * eas, Count: 9}
+		}
+	}
+	return v
+}
+
+// TestPropertyMapAgreesWithDetail: over random facilities and small grids,
+// every stored result of Solve (which reuses work down columns and across
+// workers) equals the full-precision Detail of its point, solved afresh:
+// the same class, limit and flags, and the same settings to single
+// precision.
+func TestPropertyMapAgreesWithDetail(t *testing.T) {
+	const f32 = 1e-6 // relative rounding of the stored float32 values
+	rng := rand.New(rand.NewPCG(30, 12))
+	for n := 0; n < propCases/10; n++ {
+		c := randomSolveCase(rng)
+		g, err := NewGrid(randomGridVehicle(c, rng), c.settings)
+		if err != nil {
+			t.Fatal(err)
+		}
+		f := c.f
+		s := c.settings
+		if s.Scale == 0 {
+			s.Scale = 0.05
+		}
+		m, err := Solve(g, &f, s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i := 0; i < g.Rows(); i++ {
+			for j := 0; j < g.Cols(); j++ {
+				r := m.At(i, j)
+				d, err := m.Detail(i, j)
+				if err != nil {
+					t.Fatal(err)
+				}
+				same := r.Class == d.Class && r.Limit == d.Limit && r.Flags == d.Flags
+				for _, p := range [][2]float64{
+					{float64(r.P0), d.P0}, {float64(r.T0), d.T0}, {float64(r.Q), d.Q}, {float64(r.Re), d.Re},
+					{float64(r.ReRatio), d.ReRatio}, {float64(r.V), d.V},
+				} {
+					if math.Abs(p[0]-p[1]) > f32*math.Abs(p[1])+1e-30 {
+						same = false
+					}
+				}
+				// ΔCf is a difference of two skin-friction coefficients:
+				// compared to single precision of the larger of them.
+				cf := math.Abs(d.DCf)
+				for _, re := range []float64{d.Re, d.ReFlight} {
+					if re > 1 {
+						cf = math.Max(cf, SkinFriction(re))
+					}
+				}
+				if math.Abs(float64(r.DCf)-d.DCf) > f32*cf {
+					same = false
+				}
+				if !same {
+					t.Fatalf("point (%d, %d) of %d × %d: map %+v, detail class %v limit %v flags %v p0 %g T0 %g q %g Re %g ratio %g ΔCf %g V %g\n%s",
+						i, j, g.Rows(), g.Cols(), r, d.Class, d.Limit, d.Flags, d.P0, d.T0, d.Q, d.Re, d.ReRatio, d.DCf, d.V, caseText(c))
+				}
+			}
 		}
 	}
 }
