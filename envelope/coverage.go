@@ -69,11 +69,13 @@ func Best(maps []*Map) ([]int, []Result) {
 	best := make([]Result, n)
 	var use []*Map // the maps taking part, with their index in maps
 	var at []int
+	allSolved := true
 	for f, m := range maps {
 		if m == nil || m.Grid != g || len(m.Results) != n {
 			continue
 		}
 		use, at = append(use, m), append(at, f)
+		allSolved = allSolved && m.solved
 	}
 	// Points are independent: ranges of points are decided side by side,
 	// each writing only its own slots. Per point the maps are taken in
@@ -81,27 +83,20 @@ func Best(maps []*Map) ([]int, []Result) {
 	// go to the lower index, as in a map-by-map pass.
 	forRanges(n, func(lo, hi int) {
 		for k := lo; k < hi; k++ {
+			if allSolved && len(use) > 0 && use[0].Results[k].Class == Outside {
+				// Outside the envelope, so Outside in every map Solve made
+				// on this grid.
+				idx[k] = -1
+				continue
+			}
 			w, wr := -1, Result{}
-			var wd float64 // ratioDistance(wr.ReRatio), once per winner
 			for u, m := range use {
 				r := m.Results[k]
 				if r.Class == Outside {
 					continue
 				}
-				if w < 0 {
-					w, wr, wd = u, r, ratioDistance(r.ReRatio)
-					continue
-				}
-				// Better(r, wr), with the winner's distance kept.
-				ra, rb := r.Class.Rank(), wr.Class.Rank()
-				if ra != rb {
-					if ra < rb {
-						w, wr, wd = u, r, ratioDistance(r.ReRatio)
-					}
-					continue
-				}
-				if d := ratioDistance(r.ReRatio); d < wd {
-					w, wr, wd = u, r, d
+				if w < 0 || Better(r, wr) {
+					w, wr = u, r
 				}
 			}
 			if w < 0 {

@@ -230,7 +230,7 @@ func Better(a, b Result) bool {
 	if ra != rb {
 		return ra < rb
 	}
-	return ratioDistance(a.ReRatio) < ratioDistance(b.ReRatio)
+	return closerToOne(a.ReRatio, b.ReRatio)
 }
 
 func ratioDistance(r float32) float64 {
@@ -238,6 +238,21 @@ func ratioDistance(r float32) float64 {
 		return math.Inf(1)
 	}
 	return math.Abs(math.Log(float64(r)))
+}
+
+// closerToOne reports ratioDistance(a) < ratioDistance(b). Where a and b
+// lie on the same side of 1 it compares them directly: math.Log is
+// strictly increasing over single-precision numbers (checked for every one
+// from 2^-40 to 2^40), so the answer is the same without the logarithms.
+func closerToOne(a, b float32) bool {
+	const lo, hi = 0x1p-40, 0x1p40
+	if a >= lo && a <= hi && b >= lo && b <= hi && (a >= 1) == (b >= 1) {
+		if a >= 1 {
+			return a < b
+		}
+		return a > b
+	}
+	return ratioDistance(a) < ratioDistance(b)
 }
 
 // SkinFriction is the Prandtl–Schlichting turbulent flat-plate mean skin

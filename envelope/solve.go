@@ -56,6 +56,9 @@ type Map struct {
 	Results []Result
 
 	sv *solver
+	// solved: Results are as Solve made them, Outside exactly at the
+	// points outside the envelope.
+	solved bool
 }
 
 // Detail is the full-precision facility answer for one grid point.
@@ -170,6 +173,7 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 		}
 		return func(i0, i1 int) { m.solveRows(i0, i1, col, cfFlight) }
 	})
+	m.solved = true
 	return m, nil
 }
 
