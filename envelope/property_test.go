@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"sync"
 	"testing"
 
 	"likewind/atmos"
@@ -273,6 +274,40 @@ func TestPropertyMapAgreesWithDetail(t *testing.T) {
 					t.Fatalf("point (%d, %d) of %d × %d: map %+v, detail class %v limit %v flags %v p0 %g T0 %g q %g Re %g ratio %g ΔCf %g V %g\n%s",
 						i, j, g.Rows(), g.Cols(), r, d.Class, d.Limit, d.Flags, d.P0, d.T0, d.Q, d.Re, d.ReRatio, d.DCf, d.V, caseText(c))
 				}
+			}
+		}
+	}
+}
+
+// TestPropertyConcurrentSolves: facilities solved at the same time on one
+// shared grid large enough for Solve's own workers give exactly the maps
+// they give one at a time (run with -race to check the shared memos).
+func TestPropertyConcurrentSolves(t *testing.T) {
+	g, err := NewGrid(benchVehicle(80), testSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	facs := benchFacilities()
+	alone := make([]*Map, len(facs))
+	for k := range facs {
+		if alone[k], err = Solve(g, &facs[k], testSettings()); err != nil {
+			t.Fatal(err)
+		}
+	}
+	together := make([]*Map, len(facs))
+	errs := make([]error, len(facs))
+	var wg sync.WaitGroup
+	for k := range facs {
+		wg.Go(func() { together[k], errs[k] = Solve(g, &facs[k], testSettings()) })
+	}
+	wg.Wait()
+	for k := range facs {
+		if errs[k] != nil {
+			t.Fatal(errs[k])
+		}
+		for p := range alone[k].Results {
+			if a, b := alone[k].Results[p], together[k].Results[p]; a != b && !(a.DCf != a.DCf && b.DCf != b.DCf) {
+				t.Fatalf("%s point %d: alone %+v, concurrently %+v", facs[k].Name, p, a, b)
 			}
 		}
 	}
