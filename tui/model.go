@@ -810,21 +810,31 @@ func (m *Model) applyEdit() tea.Cmd {
 	return m.recompute(kind)
 }
 
+// ErrSessionNotSaved is wrapped by Run's error when the session file could
+// not be written on exit.
+var ErrSessionNotSaved = errors.New("session not saved")
+
 // Run starts the interactive program on the terminal and blocks until it
-// ends. On exit, and also when ctx is cancelled (the caller cancels it on
-// SIGHUP/SIGTERM) or the program is interrupted, the session is written to
-// opts.SessionPath unless the user chose to quit without saving. It
-// returns the final model.
+// ends. On exit, and also when ctx is cancelled, the session is written to
+// opts.SessionPath unless the user chose to quit without saving; a failed
+// write is reported as an error wrapping ErrSessionNotSaved. It returns the
+// final model.
+//
+// Run leaves signals to the caller: the caller cancels ctx on SIGHUP,
+// SIGTERM and SIGINT. (Bubble Tea's own handler is turned off because, with
+// both listening, a signal could make the program quit through ctx while
+// the handler still waits to deliver its quit message, and shutdown would
+// hang.)
 func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Model, error) {
 	m := New(opts)
-	all := append([]tea.ProgramOption{tea.WithAltScreen(), tea.WithContext(ctx)}, progOpts...)
+	all := append([]tea.ProgramOption{tea.WithAltScreen(), tea.WithContext(ctx), tea.WithoutSignalHandler()}, progOpts...)
 	final, err := tea.NewProgram(m, all...).Run()
 	if fm, ok := final.(Model); ok {
 		m = fm
 	}
 	if m.WantsSave() {
 		if serr := SaveSession(opts.SessionPath, m.Session()); serr != nil {
-			err = errors.Join(err, serr)
+			err = errors.Join(err, fmt.Errorf("%w: %w", ErrSessionNotSaved, serr))
 		}
 	}
 	return m, err

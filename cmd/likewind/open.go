@@ -15,6 +15,7 @@ import (
 	"strings"
 	"syscall"
 
+	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/lipgloss"
 	"github.com/mattn/go-isatty"
 
@@ -119,15 +120,20 @@ func runOpen(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	styles := tui.NewStyles(lipgloss.NewRenderer(os.Stdout))
 	opts.Styles = &styles
 
-	// A dropped SSH connection (SIGHUP) or a polite kill (SIGTERM) ends
-	// the program through its context; tui.Run then writes the session.
-	ctx, stop := signal.NotifyContext(context.Background(), syscall.SIGHUP, syscall.SIGTERM)
+	// A dropped SSH connection (SIGHUP), a polite kill (SIGTERM) or an
+	// interrupt when input is not a terminal (SIGINT) ends the program
+	// through its context; tui.Run then writes the session.
+	ctx, stop := signal.NotifyContext(context.Background(), syscall.SIGHUP, syscall.SIGTERM, syscall.SIGINT)
 	defer stop()
 	m, err := tui.Run(ctx, opts)
+	if errors.Is(err, tui.ErrSessionNotSaved) {
+		fmt.Fprintln(stderr, "likewind:", err)
+		return 1
+	}
 	if m.WantsSave() {
 		fmt.Fprintf(stdout, "session saved to %s\n", sessionPath)
 	}
-	if err != nil && !errors.Is(err, context.Canceled) && ctx.Err() == nil {
+	if err != nil && !errors.Is(err, tea.ErrProgramKilled) {
 		fmt.Fprintln(stderr, "likewind:", err)
 		return 1
 	}

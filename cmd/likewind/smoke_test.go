@@ -14,7 +14,13 @@ import (
 // user would. It skips when tmux is not installed or in -short mode.
 type smokeTmux struct {
 	t    *testing.T
-	name string
+	name string // session name, also the name of its private tmux server
+}
+
+// tmux runs a tmux command on the test's own server (-L), so tests never
+// share, or race to stop, a server with other tmux users.
+func (s *smokeTmux) tmux(args ...string) *exec.Cmd {
+	return exec.Command("tmux", append([]string{"-L", s.name}, args...)...)
 }
 
 func newSmokeTmux(t *testing.T, width, height int, command ...string) *smokeTmux {
@@ -26,20 +32,20 @@ func newSmokeTmux(t *testing.T, width, height int, command ...string) *smokeTmux
 		t.Skip("tmux not installed; terminal smoke test skipped")
 	}
 	name := fmt.Sprintf("likewind-smoke-%d", time.Now().UnixNano())
+	s := &smokeTmux{t: t, name: name}
 	args := []string{"new-session", "-d", "-s", name, "-x", fmt.Sprint(width), "-y", fmt.Sprint(height)}
 	args = append(args, command...)
-	cmd := exec.Command("tmux", args...)
+	cmd := s.tmux(args...)
 	cmd.Env = append(os.Environ(), "TERM=xterm-256color")
 	if out, err := cmd.CombinedOutput(); err != nil {
 		t.Fatalf("tmux new-session: %v\n%s", err, out)
 	}
-	s := &smokeTmux{t: t, name: name}
-	t.Cleanup(func() { _ = exec.Command("tmux", "kill-session", "-t", name).Run() })
+	t.Cleanup(func() { _ = s.tmux("kill-server").Run() })
 	return s
 }
 
 func (s *smokeTmux) screen() string {
-	out, err := exec.Command("tmux", "capture-pane", "-p", "-t", s.name).CombinedOutput()
+	out, err := s.tmux("capture-pane", "-p", "-t", s.name).CombinedOutput()
 	if err != nil {
 		return ""
 	}
@@ -47,7 +53,7 @@ func (s *smokeTmux) screen() string {
 }
 
 func (s *smokeTmux) alive() bool {
-	return exec.Command("tmux", "has-session", "-t", s.name).Run() == nil
+	return s.tmux("has-session", "-t", s.name).Run() == nil
 }
 
 // keys sends tmux key names one at a time, so each arrives as its own key
@@ -55,7 +61,7 @@ func (s *smokeTmux) alive() bool {
 func (s *smokeTmux) keys(keys ...string) {
 	s.t.Helper()
 	for _, k := range keys {
-		if out, err := exec.Command("tmux", "send-keys", "-t", s.name, k).CombinedOutput(); err != nil {
+		if out, err := s.tmux("send-keys", "-t", s.name, k).CombinedOutput(); err != nil {
 			s.t.Fatalf("tmux send-keys %q: %v\n%s", k, err, out)
 		}
 		time.Sleep(60 * time.Millisecond)
