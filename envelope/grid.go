@@ -243,10 +243,11 @@ func (g *Grid) evalRows(i0, i1 int, dT float64, spans *[]envSpan, acc *rowsAcc) 
 		rl := g.rowLimits(h, &st, *spans)
 		row := g.points[i*cols : (i+1)*cols]
 		for j, sp := range g.Speeds {
-			row[j] = g.evalPoint(sp, &st, &rl)
-			if row[j].excl == InEnvelope {
+			r := &row[j]
+			g.evalInto(r, sp, &st, &rl)
+			if r.excl == InEnvelope {
 				inside++
-				maxMach = greaterOf(maxMach, row[j].mach)
+				maxMach = greaterOf(maxMach, r.mach)
 			}
 		}
 	}
@@ -370,6 +371,12 @@ func (g *Grid) rowLimits(h float64, st *atmos.State, spans []envSpan) rowLimits 
 // a row with atmosphere st and limits rl.
 func (g *Grid) evalPoint(sp float64, st *atmos.State, rl *rowLimits) flightRec {
 	var r flightRec
+	g.evalInto(&r, sp, st, rl)
+	return r
+}
+
+// evalInto is evalPoint writing into r, which must be zero.
+func (g *Grid) evalInto(r *flightRec, sp float64, st *atmos.State, rl *rowLimits) {
 	hi := 1 + gridEdgeTol
 	switch {
 	case rl.above:
@@ -393,7 +400,7 @@ func (g *Grid) evalPoint(sp float64, st *atmos.State, rl *rowLimits) flightRec {
 		r.excl = rl.limitFail
 	}
 	if r.excl != InEnvelope {
-		return r
+		return
 	}
 	// Mach number and true airspeed from the grid's kind, by the same
 	// atmos relations atmos.Speeds uses (so FlightDetail agrees exactly).
@@ -412,17 +419,17 @@ func (g *Grid) evalPoint(sp float64, st *atmos.State, rl *rowLimits) flightRec {
 		var err error
 		if M, err = atmos.MachFromCAS(sp, *st); err != nil {
 			r.excl = SpeedUnusable
-			return r
+			return
 		}
 		V = atmos.TASFromMach(M, *st)
 	}
 	if !isFiniteNum(V) {
 		r.excl = SpeedUnusable
-		return r
+		return
 	}
 	if !(V > 0) {
 		r.excl = NoFlow
-		return r
+		return
 	}
 	L := g.Vehicle.RefLength
 	r.mach = M
@@ -434,7 +441,6 @@ func (g *Grid) evalPoint(sp float64, st *atmos.State, rl *rowLimits) flightRec {
 	r.kn = float32(kn)
 	r.speed = uint8(g.Regimes.Speed(M))
 	r.rare = uint8(g.Regimes.Rarefaction(kn))
-	return r
 }
 
 // flightCf returns the grid's memo of SkinFriction(flight Re) per point,
