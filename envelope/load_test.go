@@ -429,6 +429,26 @@ func TestBadFiles(t *testing.T) {
 	}
 }
 
+// TestBadFilesSayTheirFault: every file of testdata/bad opens with a
+// "# fault:" comment saying what is wrong with it (many_faults.toml with
+// "# faults:"), so a reader of the folder knows what each one tests.
+func TestBadFilesSayTheirFault(t *testing.T) {
+	files, err := filepath.Glob(filepath.Join("..", "testdata", "bad", "*.toml"))
+	if err != nil || len(files) < 30 {
+		t.Fatalf("testdata/bad: %d files, %v; want at least 30", len(files), err)
+	}
+	for _, f := range files {
+		data, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		first, _, _ := strings.Cut(string(data), "\n")
+		if !strings.HasPrefix(first, "# fault: ") && !strings.HasPrefix(first, "# faults: ") {
+			t.Errorf("%s starts %q, want a \"# fault: ...\" comment", filepath.Base(f), first)
+		}
+	}
+}
+
 // TestErrorsAreFileErrors checks the error types the loaders return.
 func TestErrorsAreFileErrors(t *testing.T) {
 	_, err := LoadFacilities(filepath.Join("..", "testdata", "bad", "many_faults.toml"))
