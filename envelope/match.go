@@ -285,7 +285,7 @@ func skinFrictionDeltaMemo(reModel, reFlight float64, memo *atomic.Uint64, lastR
 	}
 	cff := math.Float64frombits(memo.Load())
 	if cff == 0 {
-		cff = SkinFriction(reFlight)
+		cff = skinFrictionFast(reFlight)
 		memo.Store(math.Float64bits(cff))
 	}
 	if *lastRe != reModel {
@@ -296,7 +296,8 @@ func skinFrictionDeltaMemo(reModel, reFlight float64, memo *atomic.Uint64, lastR
 
 // skinFrictionFast is SkinFriction for Re > 1 as exp(−2.58·ln log10 Re),
 // which differs from the math.Pow form only in rounding (about 1e-15
-// relative) and costs less; the compact map results use it.
+// relative) and costs less; the compact map results use it for model and
+// flight.
 func skinFrictionFast(re float64) float64 {
 	return 0.455 * math.Exp(-2.58*math.Log(math.Log(re)*(1/math.Ln10)))
 }
