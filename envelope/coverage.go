@@ -31,8 +31,12 @@ func (s Shares) Matched() float64 {
 	return float64(s.Count[FullMatch]+s.Count[MachRelaxed]) / float64(s.Inside)
 }
 
-// Shares counts the map's points per class.
+// Shares counts the map's points per class. For a map made by Solve the
+// counts are taken while solving (Results are not to be changed after).
 func (m *Map) Shares() Shares {
+	if m.solved {
+		return m.shares
+	}
 	return sharesOf(m.Results)
 }
 

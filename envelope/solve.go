@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"sync"
 	"sync/atomic"
 	"unsafe"
 
@@ -57,8 +58,9 @@ type Map struct {
 
 	sv *solver
 	// solved: Results are as Solve made them, Outside exactly at the
-	// points outside the envelope.
+	// points outside the envelope, with shares counted while solving.
 	solved bool
+	shares Shares
 }
 
 // Detail is the full-precision facility answer for one grid point.
@@ -163,6 +165,7 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	// Points are independent: blocks of rows are solved side by side, each
 	// result written to its own slot, so the map is the same as a
 	// point-by-point solve.
+	var mu sync.Mutex // guards m.shares while workers add their counts
 	forRowBlocks(len(g.Alts), cols, func() func(i0, i1 int) {
 		// What depends only on the facility Mach number is reused down a
 		// column (on a Mach grid every row shares it): one memo per column
@@ -171,15 +174,26 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 		for j := range col {
 			col[j].reset()
 		}
-		return func(i0, i1 int) { m.solveRows(i0, i1, col, cfFlight) }
+		return func(i0, i1 int) {
+			n := m.solveRows(i0, i1, col, cfFlight)
+			mu.Lock()
+			for c := range n {
+				m.shares.Count[c] += n[c]
+			}
+			mu.Unlock()
+		}
 	})
+	m.shares.Total = len(m.Results)
+	m.shares.Inside = g.inside
+	m.shares.Count[Outside] = m.shares.Total - m.shares.Inside
 	m.solved = true
 	return m, nil
 }
 
 // solveRows solves the inside points of rows i0..i1-1 into m.Results, with
-// the column memos col and the grid's flight skin-friction memo cfFlight.
-func (m *Map) solveRows(i0, i1 int, col []colMemo, cfFlight []atomic.Uint64) {
+// the column memos col and the grid's flight skin-friction memo cfFlight,
+// and returns how many of them fell in each class.
+func (m *Map) solveRows(i0, i1 int, col []colMemo, cfFlight []atomic.Uint64) (n [NumClasses]int) {
 	g, sv := m.Grid, m.sv
 	cols := len(g.Speeds)
 	var aux pointAux
@@ -194,14 +208,17 @@ func (m *Map) solveRows(i0, i1 int, col []colMemo, cfFlight []atomic.Uint64) {
 			}
 			if l, out := sv.outOfRange(r.mach); out {
 				m.Results[base+j] = Result{Class: NoMatch, Limit: l}
+				n[NoMatch]++
 				continue
 			}
 			aux.col, aux.cf = &col[j], &cfFlight[base+j]
 			ps = pointSol{}
 			sv.solveInto(&ps, r.mach, r.re, tFlight, false, &aux)
 			m.Results[base+j] = ps.result()
+			n[ps.class]++
 		}
 	}
+	return n
 }
 
 // outOfRange reports flight Mach numbers that the facility can neither
