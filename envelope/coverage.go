@@ -85,21 +85,26 @@ func Best(maps []*Map) ([]int, []Result) {
 	// each writing only its own slots. Per point the maps are taken in
 	// order and a later one replaces the winner only when Better, so ties
 	// go to the lower index, as in a map-by-map pass.
+	rs := make([][]Result, len(use))
+	for u, m := range use {
+		rs[u] = m.Results
+	}
 	forRanges(n, func(lo, hi int) {
 		for k := lo; k < hi; k++ {
-			if allSolved && len(use) > 0 && use[0].Results[k].Class == Outside {
+			if allSolved && len(rs) > 0 && rs[0][k].Class == Outside {
 				// Outside the envelope, so Outside in every map Solve made
 				// on this grid.
 				idx[k] = -1
 				continue
 			}
-			w, wr := -1, Result{}
-			for u, m := range use {
-				r := m.Results[k]
+			w := -1
+			var wr *Result
+			for u := range rs {
+				r := &rs[u][k]
 				if r.Class == Outside {
 					continue
 				}
-				if w < 0 || Better(r, wr) {
+				if w < 0 || better(r, wr) {
 					w, wr = u, r
 				}
 			}
@@ -107,7 +112,7 @@ func Best(maps []*Map) ([]int, []Result) {
 				idx[k] = -1
 				continue
 			}
-			idx[k], best[k] = at[w], wr
+			idx[k], best[k] = at[w], *wr
 		}
 	})
 	return idx, best

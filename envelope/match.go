@@ -225,7 +225,9 @@ type Result struct {
 // Better reports whether a is a better answer than b for the same point:
 // the better class by Rank, then the Reynolds ratio nearer 1 (on a log
 // scale).
-func Better(a, b Result) bool {
+func Better(a, b Result) bool { return better(&a, &b) }
+
+func better(a, b *Result) bool {
 	ra, rb := a.Class.Rank(), b.Class.Rank()
 	if ra != rb {
 		return ra < rb
