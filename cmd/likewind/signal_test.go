@@ -35,29 +35,38 @@ const signalWrapper = `env XDG_STATE_HOME="$1" "$2" --fresh --session "$3"; echo
 
 var signalStatusLine = regexp.MustCompile(`likewind exit status (\d+)`)
 
-// sigTmux is a detached tmux session running the wrapper.
+// sigTmux is a detached tmux session running the wrapper, on a tmux
+// server of its own (a socket in a temporary folder), so that it neither
+// races other tests' servers starting and stopping nor touches the user's.
 type sigTmux struct {
-	t    *testing.T
-	name string
+	t      *testing.T
+	name   string
+	socket string
+}
+
+// tmux is a tmux command on the test's own server.
+func (s *sigTmux) tmux(args ...string) *exec.Cmd {
+	return exec.Command("tmux", append([]string{"-S", s.socket}, args...)...)
 }
 
 func startSigTmux(t *testing.T, state, bin, session string) *sigTmux {
 	t.Helper()
 	name := fmt.Sprintf("likewind-signal-%d-%d", os.Getpid(), time.Now().UnixNano())
-	cmd := exec.Command("tmux", "new-session", "-d", "-s", name, "-x", "100", "-y", "32",
+	s := &sigTmux{t: t, name: name, socket: filepath.Join(t.TempDir(), "tmux.sock")}
+	cmd := s.tmux("new-session", "-d", "-s", name, "-x", "100", "-y", "32",
 		"sh", "-c", signalWrapper+"; sleep 60", "sh", state, bin, session)
 	cmd.Env = append(os.Environ(), "TERM=xterm-256color")
 	if out, err := cmd.CombinedOutput(); err != nil {
 		t.Fatalf("tmux new-session: %v\n%s", err, out)
 	}
-	t.Cleanup(func() { _ = exec.Command("tmux", "kill-session", "-t", name).Run() })
-	return &sigTmux{t: t, name: name}
+	t.Cleanup(func() { _ = s.tmux("kill-server").Run() })
+	return s
 }
 
 // screen is the pane's text with its scroll-back (what the program printed
 // after leaving the alternate screen may have scrolled off).
 func (s *sigTmux) screen() string {
-	out, err := exec.Command("tmux", "capture-pane", "-p", "-S", "-", "-t", s.name).Output()
+	out, err := s.tmux("capture-pane", "-p", "-S", "-", "-t", s.name).Output()
 	if err != nil {
 		return ""
 	}
@@ -94,7 +103,7 @@ func (s *sigTmux) waitScreen(want string) {
 // leaves nothing behind.
 func (s *sigTmux) likewindPID() int {
 	s.t.Helper()
-	out, err := exec.Command("tmux", "display-message", "-p", "-t", s.name, "#{pane_pid}").Output()
+	out, err := s.tmux("display-message", "-p", "-t", s.name, "#{pane_pid}").Output()
 	if err != nil {
 		s.t.Fatalf("tmux pane pid: %v", err)
 	}
