@@ -304,7 +304,7 @@ func forRowBlocks(rows, cols int, newWorker func() func(i0, i1 int)) {
 // each point to the boundary's (or the limit's) kind.
 type rowLimits struct {
 	above     bool      // the row is above the ceiling
-	spans     []envSpan // boundary intervals, grid kind
+	spans     []envSpan // boundary intervals, grid kind, widened by their edge tolerance
 	spanErr   bool      // a boundary crossing did not convert
 	maxMach   float64   // +Inf when not set
 	maxEAS    float64
@@ -339,6 +339,12 @@ func (g *Grid) rowLimits(h float64, st *atmos.State, spans []envSpan) rowLimits 
 			continue
 		}
 		spans[k] = envSpan{lo, hi}
+	}
+	// Widen each interval by its edge tolerance once here rather than at
+	// every point (see inWideSpans).
+	for k, sp := range spans {
+		tol := gridEdgeTol * math.Max(math.Abs(sp.lo), math.Abs(sp.hi))
+		spans[k] = envSpan{sp.lo - tol, sp.hi + tol}
 	}
 	rl.spans = spans
 	l := v.Limits
@@ -381,7 +387,7 @@ func (g *Grid) evalInto(r *flightRec, sp float64, st *atmos.State, rl *rowLimits
 	switch {
 	case rl.above:
 		r.excl = AboveCeiling
-	case !inEnvSpans(rl.spans, sp):
+	case !inWideSpans(rl.spans, sp):
 		r.excl = OutsideBoundary
 		if rl.spanErr {
 			r.excl = SpeedUnusable
@@ -580,12 +586,12 @@ func boundaryEnvSpans(b []Vertex, h float64, buf []envSpan) []envSpan {
 	return buf
 }
 
-// inEnvSpans reports whether x lies in one of the intervals, ends included
-// with a relative tolerance of gridEdgeTol.
-func inEnvSpans(spans []envSpan, x float64) bool {
+// inWideSpans reports whether x lies in one of the intervals, ends
+// included; rowLimits has widened each by a relative tolerance of
+// gridEdgeTol (tol = gridEdgeTol·max(|lo|, |hi|)).
+func inWideSpans(spans []envSpan, x float64) bool {
 	for _, s := range spans {
-		tol := gridEdgeTol * math.Max(math.Abs(s.lo), math.Abs(s.hi))
-		if x >= s.lo-tol && x <= s.hi+tol {
+		if x >= s.lo && x <= s.hi {
 			return true
 		}
 	}
