@@ -206,12 +206,17 @@ func (m *Map) solveRows(i0, i1 int, col []colMemo, cfFlight []atomic.Uint64) (n 
 			if r.excl != InEnvelope {
 				continue
 			}
-			if l, out := sv.outOfRange(r.mach); out {
-				m.Results[base+j] = Result{Class: NoMatch, Limit: l}
+			c := &col[j]
+			if c.oorM != r.mach {
+				c.oorM = r.mach
+				c.oorL, c.oor = sv.outOfRange(r.mach)
+			}
+			if c.oor {
+				m.Results[base+j] = Result{Class: NoMatch, Limit: c.oorL}
 				n[NoMatch]++
 				continue
 			}
-			aux.col, aux.cf = &col[j], &cfFlight[base+j]
+			aux.col, aux.cf = c, &cfFlight[base+j]
 			ps = pointSol{}
 			sv.solveInto(&ps, r.mach, r.re, tFlight, false, &aux)
 			m.Results[base+j] = ps.result()
@@ -254,10 +259,11 @@ type pointAux struct {
 
 // colMemo holds values a Solve worker computed for one grid column, each
 // with the exact inputs it was computed from, so that a later point reuses
-// it only when it would compute the same thing: the gas bounds at facility
-// Mach number b.M, the best setting on them, the test-section state and
-// setting cautions of the last setting filled in, and the model skin
-// friction of the last model Reynolds number. Reynolds-short points down a
+// it only when it would compute the same thing: whether the flight Mach
+// number is out of the facility's reach, the gas bounds at facility Mach
+// number b.M, the best setting on them, the test-section state and setting
+// cautions of the last setting filled in, and the model skin friction of
+// the last model Reynolds number. Reynolds-short points down a
 // column all share one best setting, so they cost little after the first.
 type colMemo struct {
 	b      gasBounds // bounds at b.M (NaN: none yet)
@@ -267,11 +273,14 @@ type colMemo struct {
 	fill   fillMemo
 	cfRe   float64 // model Reynolds number of cfM (NaN: none yet)
 	cfM    float64 // SkinFriction at cfRe
+	oorM   float64 // flight Mach number of oor, oorL (NaN: none yet)
+	oorL   Limit
+	oor    bool // outOfRange(oorM)
 }
 
 func (c *colMemo) reset() {
 	nan := math.NaN()
-	c.b.M, c.bestM, c.fill.M, c.cfRe = nan, nan, nan, nan
+	c.b.M, c.bestM, c.fill.M, c.cfRe, c.oorM = nan, nan, nan, nan, nan
 }
 
 // fillMemo is the part of fillGas that depends on the setting alone, for
