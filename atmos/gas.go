@@ -176,6 +176,33 @@ func (g IdealGas) SaturationPressure(T float64) float64 { return g.sat.pressure(
 // NaN; any other input gives a finite temperature.
 func (g IdealGas) SaturationTemperature(p float64) float64 { return g.sat.temperature(p) }
 
+// ExceedsVapourPressure reports whether pressure p (Pa) is above the
+// vapour pressure at temperature T (K): p > g.SaturationPressure(T), with
+// the same answer for every input. Far from the saturation line it is
+// settled from a table of the line, without evaluating it.
+func (g IdealGas) ExceedsVapourPressure(p, T float64) bool {
+	switch g.sat.side(p, T) {
+	case 1:
+		return true
+	case -1:
+		return false
+	}
+	return p > g.sat.pressure(T)
+}
+
+// ReachesVapourPressure reports whether pressure p (Pa) is at or above the
+// vapour pressure at temperature T (K): p >= g.SaturationPressure(T), with
+// the same answer for every input (see ExceedsVapourPressure).
+func (g IdealGas) ReachesVapourPressure(p, T float64) bool {
+	switch g.sat.side(p, T) {
+	case 1:
+		return true
+	case -1:
+		return false
+	}
+	return p >= g.sat.pressure(T)
+}
+
 // Condenses reports whether gas g at static temperature T (K) and static
 // pressure p (Pa) lies at or below its saturation temperature, so that
 // condensation can begin (equilibrium view; real expanding flows supercool
@@ -206,11 +233,21 @@ type satCurve struct {
 
 	// Filled by prepared: k[i] = 2·e[i] when every exponent is a multiple
 	// of one half (halves set), so that θ^e is a product of θ and √θ and
-	// u^(2e) a product of u, without math.Pow; lt = ln(p/pc) at tt.
+	// u^(2e) a product of u, without math.Pow; lt = ln(p/pc) at tt; nodes
+	// the pressure at T = j·tc/satNodes, j = 0..satNodes (see side).
 	halves bool
 	k      [4]int
 	lt     float64
+	nodes  []float64
 }
+
+// satNodes is the number of intervals of a curve's node table.
+const satNodes = 1024
+
+// satMargin is the relative allowance side gives the node pressures, far
+// above the rounding of the curve (about 1e-15 relative), so that the
+// computed curve lies inside the bracket wherever the exact one does.
+const satMargin = 1e-12
 
 // prepared returns c with its derived fields filled in.
 func prepared(c satCurve) satCurve {
@@ -224,7 +261,32 @@ func prepared(c satCurve) satCurve {
 		c.k[i] = int(k)
 	}
 	c.lt = c.lnRatio(c.tt)
+	c.nodes = make([]float64, satNodes+1)
+	for j := range c.nodes {
+		c.nodes[j] = c.pressure(float64(j) * c.tc / satNodes)
+	}
 	return c
+}
+
+// side settles p against the vapour pressure at T from the node table
+// when it can: +1 when p is surely above pressure(T), −1 when surely
+// below, 0 when it must be evaluated (near the line, T outside (0, tc), or
+// NaN). The line rises with T; the index of T may be off by one through
+// rounding, so the bracket is taken one node wider on each side, and
+// widened by satMargin.
+func (c *satCurve) side(p, T float64) int {
+	if !(T > 0 && T < c.tc) {
+		return 0
+	}
+	j := int(T * (satNodes / c.tc))
+	lo, hi := c.nodes[max(j-1, 0)], c.nodes[min(j+2, satNodes)]
+	switch {
+	case p > hi*(1+satMargin):
+		return 1
+	case p < lo*(1-satMargin):
+		return -1
+	}
+	return 0
 }
 
 // nitrogenVapourLine is the vapour-pressure ancillary equation of Span,
