@@ -381,7 +381,7 @@ type solver struct {
 	L               float64 // model reference length, m
 
 	// gas
-	gas           atmos.Gas
+	gas           atmos.IdealGas
 	gamma, beta   float64
 	suth          float64 // Sutherland S, K
 	rgas          float64
@@ -600,7 +600,7 @@ func (sv *solver) floorT0(c *gasBounds, p0 float64) (float64, Limit) {
 	t0, lim := c.t0lo, c.tLim
 	if c.condOn {
 		p := p0 * c.pi
-		if sv.gas.SaturationPressure(t0*c.tau) < p {
+		if sv.gas.ExceedsVapourPressure(p, t0*c.tau) {
 			t0, lim = sv.gas.SaturationTemperature(p)/c.tau, LimitCondensation
 		}
 	}
@@ -668,7 +668,7 @@ func (sv *solver) tryHit(c *gasBounds, target float64) (p0, t0, re float64, over
 	if tw < c.t0lo {
 		return 0, 0, 0, false, false
 	}
-	if c.condOn && sv.gas.SaturationPressure(tw*c.tau) < c.p0hi*c.pi {
+	if c.condOn && sv.gas.ExceedsVapourPressure(c.p0hi*c.pi, tw*c.tau) {
 		return 0, 0, 0, false, false
 	}
 	p0, t0, re, over = sv.hit(c, target, c.t0lo)
@@ -923,12 +923,12 @@ func (sv *solver) fillSetting(s *fillMemo, c *gasBounds, p0, t0 float64) {
 
 	var fl Flags
 	if sv.peakM > c.M {
-		if tl := t0 * sv.peakTau; tl < sv.tcrit && p0*sv.peakPi >= sv.gas.SaturationPressure(tl) {
+		if tl := t0 * sv.peakTau; tl < sv.tcrit && sv.gas.ReachesVapourPressure(p0*sv.peakPi, tl) {
 			fl |= FlagCondensationWarn
 		}
 	}
 	if t0 < RealGasT0 || p0 > RealGasP0 ||
-		(T < RealGasSatMargin*sv.tcrit && p > sv.gas.SaturationPressure(T/RealGasSatMargin)) {
+		(T < RealGasSatMargin*sv.tcrit && sv.gas.ExceedsVapourPressure(p, T/RealGasSatMargin)) {
 		fl |= FlagRealGas
 	}
 	if t0 < CryogenicT0 {
