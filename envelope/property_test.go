@@ -312,3 +312,58 @@ func TestPropertyConcurrentSolves(t *testing.T) {
 		}
 	}
 }
+
+// TestWaterCoolingKeepsDynamicPressure: where even the minimum speed
+// overshoots flight and the water is cooled to bring the Reynolds number
+// down, colder (denser) water raises the dynamic pressure at that speed;
+// the cooling must stop where the facility's dynamic-pressure limit is
+// reached. (Found by FuzzSolve.)
+//
+// Invented water tunnel whose minimum speed sits just under the q limit at
+// its warmest water (40 °C); water at 10 °C is about 0.8 % denser
+// (IAPWS-IF97 region 1, as atmos.WaterAt gives it), so cooling all the way
+// would break the limit.
+func TestWaterCoolingKeepsDynamicPressure(t *testing.T) {
+	const qmax = 50e3
+	hot, err := atmos.WaterAt(313.15)
+	if err != nil {
+		t.Fatal(err)
+	}
+	vmin := math.Sqrt(2*qmax/hot.Density) * (1 - 1e-6)
+	f := Facility{Name: "q-limited water", Medium: MediumWater, SpeedMin: vmin, SpeedMax: 3 * vmin,
+		P0Min: 1e5, P0Max: 3e5, T0Min: 283.15, T0Max: 313.15, QMax: qmax, Width: 1, Height: 1}
+	s := testSettings()
+	s.Scale = 0.5
+	g, err := NewGrid(onePointVehicle(10000, 0.01, 1), s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := Solve(g, &f, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := m.Detail(0, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if d.Q > qmax*(1+1e-9) {
+		t.Errorf("q = %.8g Pa at %.3f K, above the limit %g", d.Q, d.T0, qmax)
+	}
+	if d.Class != MachRelaxed || d.Limit != LimitQMax || !d.Flags.Has(FlagReOver) {
+		t.Errorf("class %v, limit %v, flags %v; want Mach relaxed held by the dynamic-pressure limit, Reynolds over", d.Class, d.Limit, d.Flags)
+	}
+	if !(d.T0 >= f.T0Min && d.T0 <= f.T0Max) || d.V != vmin {
+		t.Errorf("setting %.4f K at %.6g m/s, want within %g–%g K at the minimum speed %.6g", d.T0, d.V, f.T0Min, f.T0Max, vmin)
+	}
+	// The water is as cold as the limit allows: 0.01 K colder breaks it.
+	colder, err := atmos.WaterAt(d.T0 - 0.01)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if q := 0.5 * colder.Density * vmin * vmin; q <= qmax {
+		t.Errorf("water %.3f K gives q %.8g Pa within the limit: the cooling stopped short", d.T0-0.01, q)
+	}
+	if r := m.At(0, 0); r.Class != d.Class || r.Limit != d.Limit || float64(r.Q) > qmax*(1+1e-6) {
+		t.Errorf("map %+v disagrees with detail", r)
+	}
+}

@@ -998,6 +998,11 @@ func (sv *solver) solveWater(ps *pointSol, mf float64) {
 			if w, over = sv.coolFor(V, target); over {
 				ps.limit = LimitSpeedRange
 			}
+			if sv.qmax > 0 && 0.5*w.Density*V*V > sv.qmax {
+				// Colder water is denser: at this speed it would break the
+				// dynamic-pressure limit, which the warmest water keeps.
+				w, ps.limit = sv.coldestWithinQ(w, V), LimitQMax
+			}
 		}
 	case reMax >= need:
 		ps.class, ps.limit, V = MachRelaxed, vl, vcap
@@ -1020,6 +1025,27 @@ func (sv *solver) solveWater(ps *pointSol, mf float64) {
 	if sv.qmax > 0 && ps.q >= NearLimitFraction*sv.qmax {
 		ps.flags |= FlagQNearLimit
 	}
+}
+
+// coldestWithinQ is the coldest water, between cold (which breaks the
+// dynamic-pressure limit at speed V) and the facility's warmest (which
+// keeps it), that keeps it: bisection on the temperature, at most waterIter
+// steps, to waterTolK.
+func (sv *solver) coldestWithinQ(cold atmos.WaterState, V float64) atmos.WaterState {
+	keep := sv.hot
+	lo, hi := cold.Temperature, sv.hot.Temperature
+	for it := 0; it < waterIter && hi-lo > waterTolK; it++ {
+		w, err := atmos.WaterAt(0.5 * (lo + hi))
+		if err != nil {
+			break
+		}
+		if 0.5*w.Density*V*V > sv.qmax {
+			lo = w.Temperature
+		} else {
+			hi, keep = w.Temperature, w
+		}
+	}
+	return keep
 }
 
 // coolFor finds the water temperature at which speed V gives exactly the
