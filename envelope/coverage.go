@@ -97,15 +97,17 @@ func Best(maps []*Map) ([]int, []Result) {
 				idx[k] = -1
 				continue
 			}
-			w := -1
+			w, wRank := -1, 0
 			var wr *Result
 			for u := range rs {
 				r := &rs[u][k]
 				if r.Class == Outside {
 					continue
 				}
-				if w < 0 || better(r, wr) {
-					w, wr = u, r
+				// better(r, wr), with the winner's rank kept
+				rank := r.Class.Rank()
+				if w < 0 || rank < wRank || (rank == wRank && closerToOne(r.ReRatio, wr.ReRatio)) {
+					w, wr, wRank = u, r, rank
 				}
 			}
 			if w < 0 {
