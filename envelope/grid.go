@@ -312,11 +312,15 @@ type rowLimits struct {
 	maxQ      float64
 	minSpeed  float64   // -Inf when not set
 	limitFail Exclusion // a limit line that did not convert
+	// stateOK: the row's atmosphere passes atmos's state check, so that
+	// atmos.TASFromMach(M, st) is M·a for every finite M ≥ 0.
+	stateOK bool
 }
 
 func (g *Grid) rowLimits(h float64, st *atmos.State, spans []envSpan) rowLimits {
 	v := g.Vehicle
 	rl := rowLimits{maxMach: math.Inf(1), maxEAS: math.Inf(1), maxCAS: math.Inf(1), maxQ: math.Inf(1), minSpeed: math.Inf(-1)}
+	rl.stateOK = !math.IsNaN(atmos.TASFromMach(1, *st))
 	if lim := v.Limits.Ceiling; lim > 0 && h > lim*(1+gridEdgeTol) {
 		rl.above = true
 		return rl
@@ -414,7 +418,11 @@ func (g *Grid) evalInto(r *flightRec, sp float64, st *atmos.State, rl *rowLimits
 	switch g.SpeedKind {
 	case atmos.Mach:
 		M = sp
-		V = atmos.TASFromMach(M, *st)
+		if rl.stateOK && M >= 0 && !math.IsInf(M, 0) {
+			V = M * st.SpeedOfSound // atmos.TASFromMach without its checks
+		} else {
+			V = atmos.TASFromMach(M, *st)
+		}
 	case atmos.TAS:
 		V = sp
 		M = atmos.MachFromTAS(V, *st)
