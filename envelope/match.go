@@ -310,10 +310,10 @@ func skinFrictionDeltaMemo(reModel, reFlight float64, memo *atomic.Uint64, lastR
 // exp(−2.58·ln log10 Re).
 func skinFrictionFast(re float64) float64 {
 	y := math.Log(re)
-	k := int((y-cfY0)*(1/cfStep) + 0.5)
-	if !(y >= cfY0) || k >= len(cfNodes) {
+	if !(y >= cfY0 && y < cfY0+float64(len(cfNodes)-1)*cfStep) {
 		return 0.455 * math.Exp(-2.58*math.Log(y*(1/math.Ln10)))
 	}
+	k := int((y-cfY0)*(1/cfStep) + 0.5) // 0 ≤ k < len(cfNodes)
 	n := &cfNodes[k]
 	d := (y - (cfY0 + float64(k)*cfStep)) * n.inv
 	c := &cfSeries
