@@ -28,10 +28,6 @@ const (
 // facilityField reports whether the field belongs to the chosen facility.
 func (f field) facilityField() bool { return f >= fieldP0Max }
 
-// gridField reports whether changing the field changes the flight side
-// (NewGrid must run again), not only the facility side.
-func (f field) gridField() bool { return f == fieldDeltaT || f == fieldCompMach }
-
 // label names the field; water facilities bound static pressure and water
 // temperature instead of p0 and T0.
 func (f field) label(water bool) string {

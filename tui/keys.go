@@ -116,14 +116,6 @@ func (l listKeys) ShortHelp() []key.Binding {
 }
 func (l listKeys) FullHelp() [][]key.Binding { return [][]key.Binding{l.ShortHelp()} }
 
-// inputKeys is the key map shown while the input line is open.
-type inputKeys struct{ k *KeyMap }
-
-func (l inputKeys) ShortHelp() []key.Binding { return []key.Binding{l.k.Select, l.k.Back} }
-func (l inputKeys) FullHelp() [][]key.Binding {
-	return [][]key.Binding{l.ShortHelp()}
-}
-
 // confirmKeys is the key map of the quit question.
 type confirmKeys struct {
 	k       *KeyMap

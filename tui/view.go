@@ -345,16 +345,6 @@ func (m Model) gridView() GridView {
 // legendInput describes the legend of the current view.
 func (m Model) legendInput() LegendInput { return m.gridView().Legend() }
 
-// noFacility reports whether no facility has results.
-func (m Model) noFacility() bool {
-	for _, mp := range m.res.maps {
-		if mp != nil {
-			return false
-		}
-	}
-	return true
-}
-
 // shortName cuts a long facility name to its first words.
 func shortName(s string) string {
 	const maxLen = 22

@@ -3,7 +3,6 @@ package tui
 import (
 	"errors"
 	"fmt"
-	"math"
 	"sort"
 
 	"likewind/envelope"
@@ -21,23 +20,25 @@ import (
 // the incompressible bound of the regime classes, as in the editor.
 func ApplyWhatIf(w WhatIf, s *envelope.Settings, facs []envelope.Facility) (changed []string, err error) {
 	var problems []error
-	set := func(name string, dst *float64, v *float64) bool {
+	// Every value goes through the same range check as the editor, so a
+	// hand-edited session cannot bring in what the keyboard would refuse.
+	set := func(f field, name string, dst *float64, v *float64) bool {
 		if v == nil {
 			return false
 		}
-		if math.IsNaN(*v) || math.IsInf(*v, 0) {
-			problems = append(problems, fmt.Errorf("what-if %s: %v is not a number", name, *v))
+		if _, err := checkField(f, *v); err != nil {
+			problems = append(problems, fmt.Errorf("what-if %s: %w", name, err))
 			return false
 		}
 		*dst = *v
 		changed = append(changed, name)
 		return true
 	}
-	set("model scale", &s.Scale, w.Scale)
-	set("ΔT", &s.DeltaT, w.DeltaT)
-	set("Mach tolerance", &s.MachTol, w.MachTol)
-	set("Reynolds tolerance", &s.ReTol, w.ReTol)
-	if set("compressibility Mach", &s.CompressibilityMach, w.CompressibilityMach) {
+	set(fieldScale, "model scale", &s.Scale, w.Scale)
+	set(fieldDeltaT, "ΔT", &s.DeltaT, w.DeltaT)
+	set(fieldMachTol, "Mach tolerance", &s.MachTol, w.MachTol)
+	set(fieldReTol, "Reynolds tolerance", &s.ReTol, w.ReTol)
+	if set(fieldCompMach, "compressibility Mach", &s.CompressibilityMach, w.CompressibilityMach) {
 		s.Regimes.Incompressible = s.CompressibilityMach
 	}
 	names := make([]string, 0, len(w.Facilities))
@@ -52,9 +53,9 @@ func ApplyWhatIf(w WhatIf, s *envelope.Settings, facs []envelope.Facility) (chan
 			continue
 		}
 		fw := w.Facilities[name]
-		set(name+" p0 max", &facs[k].P0Max, fw.P0Max)
-		set(name+" T0 min", &facs[k].T0Min, fw.T0Min)
-		set(name+" q max", &facs[k].QMax, fw.QMax)
+		set(fieldP0Max, name+" p0 max", &facs[k].P0Max, fw.P0Max)
+		set(fieldT0Min, name+" T0 min", &facs[k].T0Min, fw.T0Min)
+		set(fieldQMax, name+" q max", &facs[k].QMax, fw.QMax)
 	}
 	return changed, errors.Join(problems...)
 }

@@ -98,3 +98,34 @@ func TestCheckSessionInputs(t *testing.T) {
 		t.Errorf("CheckSessionInputs(other data) = %v, want ErrSessionMismatch", err)
 	}
 }
+
+// A hand-edited session must not bring in values the editor refuses.
+func TestApplyWhatIfOutOfRange(t *testing.T) {
+	v, facs := demoData(t)
+	p := func(x float64) *float64 { return &x }
+	cases := []struct {
+		name string
+		w    WhatIf
+		want string // part of the error
+	}{
+		{"ΔT far below any day", WhatIf{DeltaT: p(-1000)}, "ΔT"},
+		{"absurd scale", WhatIf{Scale: p(1e300)}, "model scale"},
+		{"negative scale", WhatIf{Scale: p(-0.1)}, "model scale"},
+		{"Mach tolerance of 2", WhatIf{MachTol: p(2)}, "Mach tolerance"},
+		{"compressibility above 1", WhatIf{CompressibilityMach: p(1.5)}, "compressibility"},
+		{"negative p0 max", WhatIf{Facilities: map[string]FacilityWhatIf{facs[0].Name: {P0Max: p(-1)}}}, "p0 max"},
+		{"T0 min at absolute zero", WhatIf{Facilities: map[string]FacilityWhatIf{facs[0].Name: {T0Min: p(0)}}}, "T0 min"},
+	}
+	for _, c := range cases {
+		s := envelope.DefaultSettings(v)
+		before := s
+		fs := append([]envelope.Facility(nil), facs...)
+		changed, err := ApplyWhatIf(c.w, &s, fs)
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%s: ApplyWhatIf error = %v, want one naming %q", c.name, err, c.want)
+		}
+		if len(changed) != 0 || s != before || !slices.Equal(fs, facs) {
+			t.Errorf("%s: ApplyWhatIf changed %q (settings %+v), want nothing applied", c.name, changed, s)
+		}
+	}
+}
