@@ -47,14 +47,14 @@ var (
 // Plausibility bounds. They catch typing slips (a wrong unit, a missing
 // exponent); they are not facility or vehicle limits.
 const (
-	maxLength      = 1000.0  // m, vehicle dimensions and test sections
+	MaxLength      = 1000.0  // m, vehicle dimensions and test sections
 	maxArea        = 1e5     // m²
 	maxMach        = 30.0    // flight and facility Mach numbers
 	maxSpeed       = 10000.0 // m/s, flight speeds
 	maxWaterSpeed  = 100.0   // m/s
 	maxPressure    = 1e8     // Pa, facility pressures (1000 bar)
 	maxGasT0       = 3000.0  // K
-	maxDeltaT      = 60.0    // K, design-day offset either way
+	MaxDeltaT      = 60.0    // K, design-day offset either way
 	maxModelScale  = 10.0
 	maxBlockage    = 0.5
 	waterFreezingK = 273.15
@@ -725,14 +725,14 @@ func (d *doc) vehicle() *Vehicle {
 	if vt := root.sub("vehicle", vehicleKeys, true); vt != nil {
 		v.Name, _ = vt.text("name", true, `the vehicle's name in quotes`)
 		q := vt.quantity("reference_length", uLength, true)
-		v.RefLength = d.positive(&q, maxLength, "a length above 0 m and at most 1000 m")
+		v.RefLength = d.positive(&q, MaxLength, "a length above 0 m and at most 1000 m")
 		if s, ok := vt.text("reference_length_is", false, `what the reference length is, in quotes, e.g. "mean aerodynamic chord"`); ok {
 			v.RefLengthName = s
 		}
 		q = vt.quantity("reference_area", uArea, true)
 		v.RefArea = d.positive(&q, maxArea, "an area above 0 m2")
 		q = vt.quantity("span", uLength, true)
-		v.Span = d.positive(&q, maxLength, "a length above 0 m and at most 1000 m")
+		v.Span = d.positive(&q, MaxLength, "a length above 0 m and at most 1000 m")
 		q = vt.quantity("frontal_area", uArea, true)
 		v.FrontalArea = d.positive(&q, maxArea, "an area above 0 m2")
 		vt.finish()
@@ -762,7 +762,7 @@ func (d *doc) vehicle() *Vehicle {
 			v.AltitudeKind = k
 		}
 		dT := et.quantity("temperature_offset", uDeltaT, false)
-		if d.need(&dT, math.Abs(dT.v) <= maxDeltaT, fmt.Sprintf("a temperature offset from the standard day within ±%g K", maxDeltaT)) {
+		if d.need(&dT, math.Abs(dT.v) <= MaxDeltaT, fmt.Sprintf("a temperature offset from the standard day within ±%g K", MaxDeltaT)) {
 			v.DeltaT = dT.v
 		}
 		dTOK := dT.ok || !et.has("temperature_offset")
@@ -1273,9 +1273,9 @@ func (d *doc) facility(t *table) Facility {
 	q = t.quantity("max_reynolds_per_metre", uPerLength, false)
 	f.MaxReynoldsPerM = d.positive(&q, 1e12, "a unit Reynolds number above 0")
 	q = t.quantity("section_width", uLength, true)
-	f.Width = d.positive(&q, maxLength, "a length above 0 m")
+	f.Width = d.positive(&q, MaxLength, "a length above 0 m")
 	q = t.quantity("section_height", uLength, true)
-	f.Height = d.positive(&q, maxLength, "a length above 0 m")
+	f.Height = d.positive(&q, MaxLength, "a length above 0 m")
 
 	f.Model.MaxSpanFraction = DefaultMaxSpanFraction
 	if mt := t.sub("model", modelKeys, false); mt != nil {

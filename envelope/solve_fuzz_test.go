@@ -91,9 +91,9 @@ func decodeSolveCase(in solveInputs) solveCase {
 
 	c.alt = linBetween(unitOf(in.alt), atmos.MinAltitude, atmos.MaxAltitude)
 	c.mf = logBetween(unitOf(in.mach), 1e-3, maxMach)
-	c.refLen = logBetween(unitOf(in.refLen), 1e-3, maxLength)
+	c.refLen = logBetween(unitOf(in.refLen), 1e-3, MaxLength)
 	s := DefaultSettings(nil)
-	s.DeltaT = linBetween(unitOf(in.dT), -maxDeltaT, maxDeltaT)
+	s.DeltaT = linBetween(unitOf(in.dT), -MaxDeltaT, MaxDeltaT)
 	s.MachTol = 0.2 * unitOf(in.machTol)
 	s.ReTol = 0.99 * unitOf(in.reTol)
 	s.CompressibilityMach = unitOf(in.compMach)

@@ -6,9 +6,11 @@ import (
 	"flag"
 	"fmt"
 	"io"
+	"math"
 	"text/tabwriter"
 
 	"likewind/atmos"
+	"likewind/envelope"
 )
 
 // pointReport is the `point --json` record. The keys are part of the
@@ -42,6 +44,10 @@ func (e usageError) Error() string { return e.err.Error() }
 func (e usageError) Unwrap() error { return e.err }
 
 func usagef(format string, a ...any) error { return usageError{fmt.Errorf(format, a...)} }
+
+// minPointLength is the shortest reference length `point` takes (1 µm),
+// far below any model yet far from underflow.
+const minPointLength = 1e-6
 
 // pointQuery is a parsed `point` command line.
 type pointQuery struct {
@@ -130,11 +136,16 @@ func parsePointFlags(args []string, stderr io.Writer) (pointQuery, error) {
 	if q.length, err = atmos.ParseQuantity(*length, atmos.Length); err != nil {
 		return q, usagef("point: --length: %w", err)
 	}
-	if !(q.length > 0) {
-		return q, usagef("point: --length: %q must be greater than zero", *length)
+	// The same plausibility bounds as the vehicle files: they catch a
+	// wrong unit or a missing exponent, and keep every result finite.
+	if !(q.length >= minPointLength && q.length <= envelope.MaxLength) {
+		return q, usagef("point: --length: %q is out of range, expected a length from %g m to %g m", *length, minPointLength, envelope.MaxLength)
 	}
 	if q.dT, err = atmos.ParseQuantity(*dt, atmos.TemperatureDelta); err != nil {
 		return q, usagef("point: --dt: %w", err)
+	}
+	if math.Abs(q.dT) > envelope.MaxDeltaT {
+		return q, usagef("point: --dt: %q is out of range, expected an offset within ±%g K", *dt, envelope.MaxDeltaT)
 	}
 	return q, nil
 }

@@ -107,6 +107,9 @@ func TestPointBadInputExits2(t *testing.T) {
 		{"too high", []string{"point", "--alt", "90km", "--mach", "0.8"}, "point"},
 		{"unknown flag", []string{"point", "--speed", "3"}, "speed"},
 		{"zero length", []string{"point", "--alt", "1km", "--mach", "0.5", "--length", "0m"}, "--length"},
+		{"huge length", []string{"point", "--alt", "1km", "--mach", "0.5", "--length", "1e308m"}, "--length"},
+		{"tiny length", []string{"point", "--alt", "1km", "--mach", "0.5", "--length", "1e-320m"}, "--length"},
+		{"absurd day", []string{"point", "--alt", "1km", "--mach", "0.5", "--dt", "1000K"}, "--dt"},
 		{"negative speed", []string{"point", "--alt", "1km", "--tas", "-5m/s"}, "negative"},
 	}
 	for _, c := range cases {

@@ -13,14 +13,16 @@ import (
 // smokeTmux drives the built binary in a real terminal (tmux) the way a
 // user would. It skips when tmux is not installed or in -short mode.
 type smokeTmux struct {
-	t    *testing.T
-	name string // session name, also the name of its private tmux server
+	t      *testing.T
+	name   string
+	socket string // the test's own tmux server, in a temporary folder
 }
 
-// tmux runs a tmux command on the test's own server (-L), so tests never
-// share, or race to stop, a server with other tmux users.
+// tmux runs a tmux command on the test's own server (-S), so tests never
+// share, or race to stop, a server with other tmux users, and leave no
+// socket behind.
 func (s *smokeTmux) tmux(args ...string) *exec.Cmd {
-	return exec.Command("tmux", append([]string{"-L", s.name}, args...)...)
+	return exec.Command("tmux", append([]string{"-S", s.socket}, args...)...)
 }
 
 func newSmokeTmux(t *testing.T, width, height int, command ...string) *smokeTmux {
@@ -32,7 +34,7 @@ func newSmokeTmux(t *testing.T, width, height int, command ...string) *smokeTmux
 		t.Skip("tmux not installed; terminal smoke test skipped")
 	}
 	name := fmt.Sprintf("likewind-smoke-%d", time.Now().UnixNano())
-	s := &smokeTmux{t: t, name: name}
+	s := &smokeTmux{t: t, name: name, socket: filepath.Join(t.TempDir(), "tmux.sock")}
 	args := []string{"new-session", "-d", "-s", name, "-x", fmt.Sprint(width), "-y", fmt.Sprint(height)}
 	args = append(args, command...)
 	cmd := s.tmux(args...)
