@@ -193,11 +193,13 @@ func New(opts Options) Model {
 		m.fac = -1
 	}
 	var sessionMsg string
+	restored := false
 	if opts.Session != nil {
 		if err := CheckSession(*opts.Session, m.inputs, m.hash); err != nil {
 			sessionMsg = "session not restored: " + err.Error()
 		} else {
 			sessionMsg = m.applySession(*opts.Session)
+			restored = true
 		}
 	}
 	if m.vehicle == nil {
@@ -208,6 +210,11 @@ func New(opts Options) Model {
 			m.setError("evaluation failed: " + err.Error())
 		} else {
 			m.res = r
+			if !restored {
+				if k := StartFacility(r.maps); k >= 0 {
+					m.fac = k
+				}
+			}
 		}
 	}
 	if opts.Session != nil {

@@ -13,6 +13,7 @@ import (
 // go in through the program, the screen is read back, and q ends it.
 func TestProgramEndToEnd(t *testing.T) {
 	m := newDemo(t, 80, 24)
+	m.fac = 0 // the first facility, so that "]]" below lands on the third
 	tm := teatest.NewTestModel(t, m, teatest.WithInitialTermSize(100, 30))
 	waitFor := func(what string) {
 		t.Helper()

@@ -105,19 +105,19 @@ func TestUpdateKeys(t *testing.T) {
 				t.Errorf("mode after esc = %v, want main", c.mode)
 			}
 		}},
-		{"picker chooses a facility", nil, []string{"f", "down", "down", "enter"}, func(t *testing.T, b, a Model, _ bool) {
+		{"picker chooses a facility", func(m Model) Model { m.fac = 0; return m }, []string{"f", "down", "down", "enter"}, func(t *testing.T, b, a Model, _ bool) {
 			// Rows: best of all, then facilities; the picker starts on the
 			// current facility (0), so two downs land on facility 2.
 			if a.fac != 2 || a.mode != modeMain {
 				t.Errorf("facility = %d mode %v, want 2 main", a.fac, a.mode)
 			}
 		}},
-		{"] and [ step through facilities", nil, []string{"]", "]", "["}, func(t *testing.T, b, a Model, _ bool) {
+		{"] and [ step through facilities", func(m Model) Model { m.fac = 0; return m }, []string{"]", "]", "["}, func(t *testing.T, b, a Model, _ bool) {
 			if a.fac != b.fac+1 {
 				t.Errorf("facility = %d, want %d", a.fac, b.fac+1)
 			}
 		}},
-		{"[ from the first facility goes to best of all", nil, []string{"["}, func(t *testing.T, b, a Model, _ bool) {
+		{"[ from the first facility goes to best of all", func(m Model) Model { m.fac = 0; return m }, []string{"["}, func(t *testing.T, b, a Model, _ bool) {
 			if a.fac != -1 {
 				t.Errorf("facility = %d, want -1 (best of all)", a.fac)
 			}
@@ -490,5 +490,23 @@ func TestNoDataNoFacilities(t *testing.T) {
 		if name == "no vehicle" && !strings.Contains(out, "no vehicle") {
 			t.Errorf("%s: view does not say so:\n%s", name, out)
 		}
+	}
+}
+
+// The interface opens on the facility with the most full matches
+// (StartFacility), not simply the first in the file.
+func TestStartsOnBestCoveredFacility(t *testing.T) {
+	m := newDemo(t, 120, 40)
+	best, bestFull := -1, -1.0
+	for k, mp := range m.res.maps {
+		if f := mp.Shares().Share(envelope.FullMatch); f > bestFull {
+			best, bestFull = k, f
+		}
+	}
+	if m.fac != best {
+		t.Errorf("start facility = %d, want %d (largest full-match share %.3f)", m.fac, best, bestFull)
+	}
+	if StartFacility(nil) != -1 {
+		t.Errorf("StartFacility(nil) = %d, want -1", StartFacility(nil))
 	}
 }

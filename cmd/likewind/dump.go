@@ -19,7 +19,7 @@ func runDump(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("dump", stderr)
 	var o outFlags
 	o.register(fs)
-	facility := fs.String("facility", "", `facility to show: name, unique part of a name, number, or "best" (default: the first, as the interface opens)`)
+	facility := fs.String("facility", "", `facility to show: name, unique part of a name, number, or "best" (default: the one the interface opens on, with the most full matches)`)
 	layer := fs.String("layer", "", "layer: class, regime, reynolds, q or mach (default class)")
 	plain := fs.Bool("plain", false, "no colour, even on a terminal")
 	color := fs.Bool("color", false, "ANSI colour, even into a file or pipe")
@@ -61,10 +61,8 @@ func runDump(args []string, stdout, stderr io.Writer) int {
 	if *customary {
 		units = tui.Customary
 	}
-	fac := 0
-	if len(ev.e.Facilities) == 0 {
-		fac = -1
-	}
+	// Without a choice, the facility the interface opens on.
+	fac := tui.StartFacility(ev.e.Maps)
 	if s := ev.session; s != nil {
 		// The session's choices, unless a flag overrides them.
 		if !set["layer"] && s.Layer != "" {
