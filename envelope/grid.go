@@ -132,6 +132,11 @@ type Grid struct {
 	// grid; see flightCf.
 	cfOnce sync.Once
 	cf     []atomic.Uint64
+	// lnRe, for Mach and true-airspeed grids, splits ln(flight Re) into a
+	// row part (ln ρaL/μ, or ln ρL/μ) and a column part (ln of the grid
+	// speed), so that the skin-friction memo needs no logarithm per point;
+	// nil for other speed kinds.
+	lnReRow, lnReCol []float64
 }
 
 // NewGrid evaluates the flight side of vehicle v on its grid: the
@@ -197,6 +202,13 @@ func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 	// each point written to its own slot, so the grid is the same as a
 	// row-by-row evaluation. The first failing row (lowest index) is
 	// reported.
+	if g.SpeedKind == atmos.Mach || g.SpeedKind == atmos.TAS {
+		g.lnReRow = make([]float64, len(alts))
+		g.lnReCol = make([]float64, len(speeds))
+		for j, sp := range speeds {
+			g.lnReCol[j] = math.Log(sp)
+		}
+	}
 	acc := rowsAcc{errRow: -1}
 	forRowBlocks(len(alts), len(speeds), func() func(i0, i1 int) {
 		var spans []envSpan // scratch space of one worker
@@ -239,6 +251,13 @@ func (g *Grid) evalRows(i0, i1 int, dT float64, spans *[]envSpan, acc *rowsAcc) 
 			return
 		}
 		g.rows[i] = st
+		if g.lnReRow != nil {
+			k := st.Density * v.RefLength / st.Viscosity
+			if g.SpeedKind == atmos.Mach {
+				k *= st.SpeedOfSound
+			}
+			g.lnReRow[i] = math.Log(k)
+		}
 		*spans = boundaryEnvSpans(v.Boundary, h, (*spans)[:0])
 		rl := g.rowLimits(h, &st, *spans)
 		row := g.points[i*cols : (i+1)*cols]
@@ -539,12 +558,13 @@ func (g *Grid) FlightDetail(i, j int) (FlightDetail, error) {
 }
 
 // StoredBytes is the memory the grid holds: the per-point records (32
-// bytes each), the per-row atmosphere and the axes, and, once a facility
-// has been solved on it, the flight skin-friction memo (8 bytes per point).
+// bytes each), the per-row atmosphere, the axes and the split of ln Re,
+// and the flight skin-friction memo (8 bytes per point) that Solve uses.
 func (g *Grid) StoredBytes() int {
 	rec := int(unsafe.Sizeof(flightRec{}))
 	state := int(unsafe.Sizeof(atmos.State{}))
 	n := len(g.points)*rec + len(g.rows)*state + 8*(len(g.Alts)+len(g.Speeds))
+	n += 8 * (len(g.lnReRow) + len(g.lnReCol))
 	return n + len(g.flightCf())*8
 }
 

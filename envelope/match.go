@@ -282,13 +282,20 @@ func skinFrictionDelta(reModel, reFlight float64) float64 {
 // (float64 bits; 0 means not yet computed): the flight value of a grid
 // point is the same for every facility; and Cf(model) kept with the model
 // Reynolds number it belongs to in *lastRe, *lastCf.
-func skinFrictionDeltaMemo(reModel, reFlight float64, memo *atomic.Uint64, lastRe, lastCf *float64) float64 {
+//
+// lnFlight, when not NaN, is ln(reFlight) as the grid keeps it, which
+// spares the logarithm (it differs from math.Log(reFlight) by rounding).
+func skinFrictionDeltaMemo(reModel, reFlight, lnFlight float64, memo *atomic.Uint64, lastRe, lastCf *float64) float64 {
 	if !(reModel > 1) || !(reFlight > 1) || reModel == reFlight {
 		return 0
 	}
 	cff := math.Float64frombits(memo.Load())
 	if cff == 0 {
-		cff = skinFrictionFast(reFlight)
+		if math.IsNaN(lnFlight) {
+			cff = skinFrictionFast(reFlight)
+		} else {
+			cff = skinFrictionLn(lnFlight)
+		}
 		memo.Store(math.Float64bits(cff))
 	}
 	if *lastRe != reModel {
@@ -308,8 +315,10 @@ func skinFrictionDeltaMemo(reModel, reFlight float64, memo *atomic.Uint64, lastR
 // and (1+δ)^−2.58 is summed as its binomial series; |δ| ≤ 3.5e-3, so the
 // terms past δ^8 are below 1e-18. Outside the nodes it is computed as
 // exp(−2.58·ln log10 Re).
-func skinFrictionFast(re float64) float64 {
-	y := math.Log(re)
+func skinFrictionFast(re float64) float64 { return skinFrictionLn(math.Log(re)) }
+
+// skinFrictionLn is skinFrictionFast for y = ln Re.
+func skinFrictionLn(y float64) float64 {
 	if !(y >= cfY0 && y < cfY0+float64(len(cfNodes)-1)*cfStep) {
 		return 0.455 * math.Exp(-2.58*math.Log(y*(1/math.Ln10)))
 	}

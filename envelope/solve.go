@@ -217,6 +217,10 @@ func (m *Map) solveRows(i0, i1 int, col []colMemo, cfFlight []atomic.Uint64) (n 
 				continue
 			}
 			aux.col, aux.cf = c, &cfFlight[base+j]
+			aux.lnRe = math.NaN()
+			if g.lnReRow != nil {
+				aux.lnRe = g.lnReRow[i] + g.lnReCol[j]
+			}
 			ps = pointSol{}
 			sv.solveInto(&ps, r.mach, r.re, tFlight, false, &aux)
 			m.Results[base+j] = ps.result()
@@ -250,11 +254,13 @@ func (sv *solver) machMatched(mm, mf float64) bool {
 }
 
 // pointAux is what a Solve worker reuses between points: the memo of the
-// point's grid column, and the point's slot of the grid's flight
-// skin-friction memo.
+// point's grid column, the point's slot of the grid's flight skin-friction
+// memo, and the logarithm of the flight Reynolds number when the grid
+// keeps it split.
 type pointAux struct {
-	col *colMemo
-	cf  *atomic.Uint64
+	col  *colMemo
+	cf   *atomic.Uint64
+	lnRe float64 // ln of the flight Reynolds number from the grid's split (NaN: none)
 }
 
 // colMemo holds values a Solve worker computed for one grid column, each
@@ -505,7 +511,7 @@ func (sv *solver) solveInto(ps *pointSol, mf, reF, tFlight float64, detail bool,
 		ps.ratio = ps.re / reF
 		if math.Abs(ps.ratio-1) > 1e-9 {
 			if aux != nil && aux.cf != nil && aux.col != nil {
-				ps.dcf = skinFrictionDeltaMemo(ps.re, reF, aux.cf, &aux.col.cfRe, &aux.col.cfM)
+				ps.dcf = skinFrictionDeltaMemo(ps.re, reF, aux.lnRe, aux.cf, &aux.col.cfRe, &aux.col.cfM)
 			} else {
 				ps.dcf = skinFrictionDelta(ps.re, reF)
 			}
