@@ -198,17 +198,17 @@ func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 		rows:      make([]atmos.State, len(alts)),
 		points:    make([]flightRec, len(alts)*len(speeds)),
 	}
-	// Rows are independent: they are evaluated side by side in blocks,
-	// each point written to its own slot, so the grid is the same as a
-	// row-by-row evaluation. The first failing row (lowest index) is
-	// reported.
 	if g.SpeedKind == atmos.Mach || g.SpeedKind == atmos.TAS {
-		g.lnReRow = make([]float64, len(alts))
+		g.lnReRow = make([]float64, len(alts)) // filled row by row
 		g.lnReCol = make([]float64, len(speeds))
 		for j, sp := range speeds {
 			g.lnReCol[j] = math.Log(sp)
 		}
 	}
+	// Rows are independent: they are evaluated side by side in blocks,
+	// each point written to its own slot, so the grid is the same as a
+	// row-by-row evaluation. The first failing row (lowest index) is
+	// reported.
 	acc := rowsAcc{errRow: -1}
 	forRowBlocks(len(alts), len(speeds), func() func(i0, i1 int) {
 		var spans []envSpan // scratch space of one worker

@@ -269,8 +269,8 @@ type pointAux struct {
 // number is out of the facility's reach, the gas bounds at facility Mach
 // number b.M, the best setting on them, the test-section state and setting
 // cautions of the last setting filled in, and the model skin friction of
-// the last model Reynolds number. Reynolds-short points down a
-// column all share one best setting, so they cost little after the first.
+// the last model Reynolds number. Reynolds-short points down a column all
+// share one best setting, so they cost little after the first.
 type colMemo struct {
 	b      gasBounds // bounds at b.M (NaN: none yet)
 	bestM  float64   // Mach number best was found at (NaN: none yet)
