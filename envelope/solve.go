@@ -408,12 +408,6 @@ type solver struct {
 	pStatic float64
 }
 
-// newSolver prepares facility f (already checked) for grid g at model
-// scale scale.
-func newSolver(g *Grid, f *Facility, s Settings, scale float64) *solver {
-	return solverFor(f, s, g.Regimes, scale*g.Vehicle.RefLength)
-}
-
 // solverFor prepares facility f (already checked) for a model of
 // reference length L (m), with the tolerances of s and regime thresholds
 // reg.

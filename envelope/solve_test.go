@@ -409,7 +409,7 @@ func TestLimitLines(t *testing.T) {
 	sv := testSolver(t, f, testSettings(), 0.2)
 	gas := atmos.Nitrogen()
 	c := sv.bounds(0.85)
-	p0, t0, _, pl, _, _ := sv.best(&c)
+	p0, _, _, pl, _, _ := sv.best(&c)
 	if pl != LimitQMax {
 		t.Fatalf("M 0.85 pressure limit %v, want q cap", pl)
 	}
