@@ -269,6 +269,21 @@ func SkinFriction(re float64) float64 {
 	return 0.455 / math.Pow(math.Log10(re), 2.58)
 }
 
+// Reynolds-number range over which the Prandtl–Schlichting formula is
+// normally used: up to about 1e9 (Schlichting, Boundary Layer Theory; from
+// memory); the lower end, where a turbulent flat plate is a fair model, is
+// common practice.
+const (
+	SkinFrictionReMin = 1e5
+	SkinFrictionReMax = 1e9
+)
+
+// SkinFrictionInRange reports whether Re lies where SkinFriction is meant
+// to be used.
+func SkinFrictionInRange(re float64) bool {
+	return re >= SkinFrictionReMin && re <= SkinFrictionReMax
+}
+
 // skinFrictionDelta is Cf(model) − Cf(flight), or 0 where either is not
 // defined.
 func skinFrictionDelta(reModel, reFlight float64) float64 {

@@ -2,6 +2,7 @@ package tui
 
 import (
 	"fmt"
+	"math"
 
 	"likewind/envelope"
 )
@@ -129,6 +130,9 @@ func (m Model) detailBlocks(w int) detailBlocks {
 			qLine,
 			pair("Re", expo(det.Re, 3), "ratio", fixed(det.ReRatio, 3)),
 		)
+		if det.Class == envelope.ReShort {
+			d.facility = append(d.facility, st.Label.Render("ΔCf")+" "+skinFrictionNote(det))
+		}
 	}
 	d.facility = append(d.facility, pair("scale", sig(det.Scale, 3), "model", u.Length(det.ModelLength)))
 
@@ -147,6 +151,22 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		d.cautions = append(d.cautions, st.Caution.Render("! "+c))
 	}
 	return d
+}
+
+// skinFrictionNote grades a Reynolds shortfall by its effect: the change in
+// turbulent flat-plate skin friction (Prandtl–Schlichting) from flight to
+// model, absolute and as a share of the flight value, flagged when either
+// Reynolds number lies outside the formula's range.
+func skinFrictionNote(det envelope.Detail) string {
+	cfFlight := envelope.SkinFriction(det.ReFlight)
+	if math.IsNaN(cfFlight) || math.IsNaN(det.DCf) {
+		return "n/a"
+	}
+	s := fmt.Sprintf("%+.2g (%+.0f %% of flight Cf)", det.DCf, 100*det.DCf/cfFlight)
+	if !envelope.SkinFrictionInRange(det.Re) || !envelope.SkinFrictionInRange(det.ReFlight) {
+		s += " outside formula range"
+	}
+	return s
 }
 
 // classWord is the class name as the details show it.
