@@ -193,6 +193,20 @@ type Airspeeds struct {
 	CAS  float64
 }
 
+// Of returns the speed of kind k: the Mach number, or TAS, EAS or CAS in
+// m/s.
+func (a Airspeeds) Of(k SpeedKind) float64 {
+	switch k {
+	case TAS:
+		return a.TAS
+	case EAS:
+		return a.EAS
+	case CAS:
+		return a.CAS
+	}
+	return a.Mach
+}
+
 // SpeedKind names the form in which a speed is given.
 type SpeedKind int
 

@@ -397,3 +397,17 @@ func BenchmarkSpeeds(b *testing.B) {
 		_, _ = Speeds(Mach, 2.2, s)
 	}
 }
+
+// Airspeeds.Of picks the field of each kind (a definition, no outside
+// reference needed).
+func TestAirspeedsOf(t *testing.T) {
+	a := Airspeeds{Mach: 0.8, TAS: 236, EAS: 129, CAS: 137}
+	for _, c := range []struct {
+		k    SpeedKind
+		want float64
+	}{{Mach, 0.8}, {TAS, 236}, {EAS, 129}, {CAS, 137}} {
+		if got := a.Of(c.k); got != c.want {
+			t.Errorf("Airspeeds.Of(%v) = %g, want %g", c.k, got, c.want)
+		}
+	}
+}

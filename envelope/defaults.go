@@ -97,19 +97,7 @@ func convertSpeed(v *Vehicle, h float64, from atmos.SpeedKind, sp float64, to at
 	if err != nil {
 		return 0, err
 	}
-	return pickSpeed(all, to), nil
-}
-
-func pickSpeed(a atmos.Airspeeds, k atmos.SpeedKind) float64 {
-	switch k {
-	case atmos.TAS:
-		return a.TAS
-	case atmos.EAS:
-		return a.EAS
-	case atmos.CAS:
-		return a.CAS
-	}
-	return a.Mach
+	return all.Of(to), nil
 }
 
 // axisPoints returns how many points an axis has.

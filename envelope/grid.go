@@ -352,7 +352,7 @@ func (g *Grid) rowLimits(h float64, st *atmos.State, spans []envSpan) rowLimits 
 		if err != nil {
 			return 0, false
 		}
-		return gridSpeedOf(a, g.SpeedKind), true
+		return a.Of(g.SpeedKind), true
 	}
 	for k, sp := range spans {
 		lo, ok1 := conv(v.BoundaryKind, sp.lo)
@@ -566,19 +566,6 @@ func (g *Grid) StoredBytes() int {
 	n := len(g.points)*rec + len(g.rows)*state + 8*(len(g.Alts)+len(g.Speeds))
 	n += 8 * (len(g.lnReRow) + len(g.lnReCol))
 	return n + len(g.flightCf())*8
-}
-
-// pick returns the speed of kind k from a.
-func gridSpeedOf(a atmos.Airspeeds, k atmos.SpeedKind) float64 {
-	switch k {
-	case atmos.TAS:
-		return a.TAS
-	case atmos.EAS:
-		return a.EAS
-	case atmos.CAS:
-		return a.CAS
-	}
-	return a.Mach
 }
 
 // envSpan is one interval of boundary speeds inside the envelope at one

@@ -342,7 +342,7 @@ func speedIn(g *Grid, h float64, k atmos.SpeedKind, sp float64) (float64, error)
 	if err != nil {
 		return 0, err
 	}
-	return gridSpeedOf(a, g.SpeedKind), nil
+	return a.Of(g.SpeedKind), nil
 }
 
 // limitCurves returns the limit lines of the vehicle that are set, in
@@ -373,7 +373,7 @@ func limitCurves(g *Grid, ax chartAxes) []plotter.XYs {
 			if err != nil {
 				continue
 			}
-			xy = append(xy, plotter.XY{X: ax.speed(gridSpeedOf(a, g.SpeedKind)), Y: ax.alt(h)})
+			xy = append(xy, plotter.XY{X: ax.speed(a.Of(g.SpeedKind)), Y: ax.alt(h)})
 		}
 		if len(xy) > 1 {
 			out = append(out, xy)

@@ -229,7 +229,7 @@ func (r CoverageReport) WriteText(w io.Writer) error {
 	bo := r.Best
 	rows = append(rows, []string{bo.Facility, "", "", pct(bo.FullMatch), pct(bo.ReShort), pct(bo.MachRelaxed),
 		pct(bo.NoMatch), pct(bo.Matched), "", ""})
-	writeTable(&b, head, rows, 2)
+	WriteTable(&b, head, rows, func(k int) bool { return k < 2 })
 	fmt.Fprintf(&b, "\nUnion coverage (full match or Mach relaxed in at least one facility): %s of inside points.\n", pct(r.Union))
 	b.WriteString("Shares are of inside points. min scale: smallest model scale giving a full match at every inside\n" +
 		"point the facility can run at flight Mach number; * marks a facility that cannot Mach-match every\n" +
@@ -247,10 +247,11 @@ func (r CoverageReport) WriteText(w io.Writer) error {
 	return err
 }
 
-// writeTable writes rows under head in aligned columns two spaces apart:
-// the first left columns left-aligned, the others right-aligned, no
-// trailing space. Widths count runes.
-func writeTable(b *strings.Builder, head []string, rows [][]string, left int) {
+// WriteTable writes rows under head in aligned columns two spaces apart:
+// columns for which left(k) is true left-aligned, the others (numbers)
+// right-aligned, no trailing space. Widths count runes. The text reports of
+// the command line share it.
+func WriteTable(b *strings.Builder, head []string, rows [][]string, left func(col int) bool) {
 	w := make([]int, len(head))
 	all := append([][]string{head}, rows...)
 	for _, r := range all {
@@ -265,7 +266,7 @@ func writeTable(b *strings.Builder, head []string, rows [][]string, left int) {
 			if k > 0 {
 				line.WriteString("  ")
 			}
-			if k < left {
+			if left(k) {
 				line.WriteString(c + pad)
 			} else {
 				line.WriteString(pad + c)

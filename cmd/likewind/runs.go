@@ -8,7 +8,6 @@ import (
 	"math"
 	"strconv"
 	"strings"
-	"unicode/utf8"
 
 	"likewind/atmos"
 	"likewind/envelope"
@@ -209,7 +208,7 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 					changeWords(stepChanges(rl.Runs, k, water), water))
 				rows = append(rows, row)
 			}
-			textTable(&b, head, rows, map[int]bool{11: true, 12: true})
+			envelope.WriteTable(&b, head, rows, func(k int) bool { return k == 11 || k == 12 })
 		}
 		if len(rl.Unrunnable) > 0 {
 			fmt.Fprintf(&b, "not runnable (%d):\n", len(rl.Unrunnable))
@@ -240,34 +239,6 @@ func changeWords(c envelope.Changes, water bool) string {
 		}
 	}
 	return strings.Join(parts, " ")
-}
-
-// textTable writes rows under head, two spaces apart, numbers
-// right-aligned and the columns in left left-aligned, no trailing space.
-func textTable(b *strings.Builder, head []string, rows [][]string, left map[int]bool) {
-	w := make([]int, len(head))
-	all := append([][]string{head}, rows...)
-	for _, r := range all {
-		for k, c := range r {
-			w[k] = max(w[k], utf8.RuneCountInString(c))
-		}
-	}
-	for _, r := range all {
-		var line strings.Builder
-		for k, c := range r {
-			pad := strings.Repeat(" ", w[k]-utf8.RuneCountInString(c))
-			if k > 0 {
-				line.WriteString("  ")
-			}
-			if left[k] {
-				line.WriteString(c + pad)
-			} else {
-				line.WriteString(pad + c)
-			}
-		}
-		b.WriteString(strings.TrimRight(line.String(), " "))
-		b.WriteByte('\n')
-	}
 }
 
 func sig3(x float64) string { return strconv.FormatFloat(x, 'g', 3, 64) }
