@@ -7,7 +7,6 @@ import (
 	"errors"
 	"fmt"
 	"os"
-	"path/filepath"
 	"slices"
 	"strings"
 
@@ -131,9 +130,9 @@ func LoadSession(path string) (Session, error) {
 	return s, nil
 }
 
-// SaveSession writes s to path atomically: it writes a temporary file in
-// the same directory, syncs it and renames it over path, so a crash never
-// leaves a half-written session.
+// SaveSession writes s to path atomically with envelope.WriteFileAtomic (a
+// synced temporary file in the same folder, renamed over path), so a crash
+// never leaves a half-written session.
 func SaveSession(path string, s Session) error {
 	if path == "" {
 		return errors.New("save session: no session file given")
@@ -145,30 +144,8 @@ func SaveSession(path string, s Session) error {
 		return fmt.Errorf("save session: %w", err)
 	}
 	data = append(data, '\n')
-	dir := filepath.Dir(path)
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp*")
-	if err != nil {
+	if err := envelope.WriteFileAtomic(path, data, true); err != nil {
 		return fmt.Errorf("save session: %w", err)
-	}
-	name := tmp.Name()
-	fail := func(err error) error {
-		tmp.Close()
-		os.Remove(name)
-		return fmt.Errorf("save session %s: %w", path, err)
-	}
-	if _, err := tmp.Write(data); err != nil {
-		return fail(err)
-	}
-	if err := tmp.Sync(); err != nil {
-		return fail(err)
-	}
-	if err := tmp.Close(); err != nil {
-		os.Remove(name)
-		return fmt.Errorf("save session %s: %w", path, err)
-	}
-	if err := os.Rename(name, path); err != nil {
-		os.Remove(name)
-		return fmt.Errorf("save session %s: %w", path, err)
 	}
 	return nil
 }
