@@ -269,7 +269,7 @@ func (t *ussaTable) layerFor(h float64) *ussaLayer {
 // (USSA 1976, Table 8). Above 80 km the kinetic temperature is T = T_M·M/M0,
 // by the definition of the molecular-scale temperature; below it the ratio
 // is 1. Values written from memory of Table 8; they agree digit for digit
-// with an independent public transcription, and the 86 km value with the
+// with an independent public copy of the tables, and the 86 km value with the
 // standard's M7/M0 = 0.99957908 (also from memory).
 var ussaMWRatios = [13]float64{
 	1.000000, 0.999996, 0.999989, 0.999971, 0.999941, 0.999909, 0.999870,

@@ -50,7 +50,7 @@ func ussaCheckPrinted(t *testing.T, what string, got float64, want string, frac 
 	}
 }
 
-// ussaTableRelTol holds entries of the six-figure table transcription below
+// ussaTableRelTol holds entries of the six-figure public copy of the tables below
 // to five significant figures. Its sixth figure is not reliable: at 71 km' it
 // prints p = 3.95639 Pa where the standard's own layer-base pressure (USSA
 // 1976 Table 4, 3.956420 Pa from memory; 3.95642 Pa in the av8n.com table of
@@ -96,9 +96,9 @@ type ussa76Row struct {
 
 // Source for every row below: U.S. Standard Atmosphere 1976 (NOAA/NASA/USAF,
 // NOAA-S/T 76-1562), Tables I (T, p, ρ), II (a, μ, ν) and III (mean free
-// path), metric units, as transcribed entry by entry in the public test data
+// path), metric units, as copied entry by entry in the public test data
 // file tests/table_data.py of the airinnova/ambiance repository. The printed
-// book itself was not at hand; where the transcription disagreed with a
+// book itself was not at hand; where the copy disagreed with a
 // second source the disagreement is noted at the row.
 var ussa76Rows = []ussa76Row{
 	// Layer 1 extension below sea level (lapse -6.5 K/km').
@@ -131,7 +131,7 @@ var ussa76Rows = []ussa76Row{
 	{alt: 75000, geop: true, T: "206.650", p: "2.06790e0", rho: "3.48604e-5", a: "288.179", mu: "1.3661e-5", nu: "3.9188e-1", mfp: "2.3308e-3"},
 	// Above 80 km geometric the standard's kinetic temperature is T_M·M/M0
 	// (USSA 1976, Table 8): 196.648 K on this row. The
-	// transcription lists T = 196.650 K, the molecular-scale value, and a μ
+	// copy lists T = 196.650 K, the molecular-scale value, and a μ
 	// and ν that follow from it, so those three are left unchecked here; p,
 	// ρ and a depend on T_M only.
 	{alt: 80000, geop: true, p: "8.86272e-1", rho: "1.57004e-5", a: "281.120"},
@@ -240,7 +240,7 @@ func TestLayerBasePressures(t *testing.T) {
 }
 
 func TestSeaLevelConstants(t *testing.T) {
-	// USSA 1976 Table I, sea-level row (tests/table_data.py transcription):
+	// USSA 1976 Table I, sea-level row (tests/table_data.py copy of the tables):
 	// ρ0 1.2250 kg/m³, a0 340.294 m/s; R = R*/M0 = 287.0531 J/(kg·K)
 	// (USSA 1976 section 1.2, from memory).
 	ussaCheckPrinted(t, "SeaLevelDensity", SeaLevelDensity, "1.2250", ussaHalfUnit)
@@ -259,7 +259,7 @@ func TestSeaLevelConstants(t *testing.T) {
 
 func TestGeopotentialConversion(t *testing.T) {
 	// Geometric/geopotential pairs as printed (whole metres) in USSA 1976
-	// Table I (tests/table_data.py transcription).
+	// Table I (tests/table_data.py copy of the tables).
 	for _, c := range []struct {
 		z, h string
 	}{
@@ -337,7 +337,7 @@ func TestPressureAltitudeInverse(t *testing.T) {
 	}
 	// Published pressures: ISA base pressures (av8n.com layer table) and the
 	// sea-level value; the geometric heights of the bases from USSA 1976
-	// Table I (transcription), whole metres. The pressure rounding moves
+	// Table I (public copy), whole metres. The pressure rounding moves
 	// the height by well under a metre.
 	const baseHeightTol = 1.0 // m
 	for _, c := range []struct {
