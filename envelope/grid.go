@@ -127,16 +127,6 @@ type Grid struct {
 	inside  int
 	maxMach float64 // highest inside flight Mach number (0 when none)
 
-	// cf is a memo of the flight skin-friction coefficient per point
-	// (float64 bits, 0 until first needed), shared by the Solves on this
-	// grid; see flightCf.
-	cfOnce sync.Once
-	cf     []atomic.Uint64
-	// lnRe, for Mach and true-airspeed grids, splits ln(flight Re) into a
-	// row part (ln ρaL/μ, or ln ρL/μ) and a column part (ln of the grid
-	// speed), so that the skin-friction memo needs no logarithm per point;
-	// nil for other speed kinds.
-	lnReRow, lnReCol []float64
 }
 
 // NewGrid evaluates the flight side of vehicle v on its grid: the
@@ -198,13 +188,6 @@ func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 		rows:      make([]atmos.State, len(alts)),
 		points:    make([]flightRec, len(alts)*len(speeds)),
 	}
-	if g.SpeedKind == atmos.Mach || g.SpeedKind == atmos.TAS {
-		g.lnReRow = make([]float64, len(alts)) // filled row by row
-		g.lnReCol = make([]float64, len(speeds))
-		for j, sp := range speeds {
-			g.lnReCol[j] = math.Log(sp)
-		}
-	}
 	// Rows are independent: they are evaluated side by side in blocks,
 	// each point written to its own slot, so the grid is the same as a
 	// row-by-row evaluation. The first failing row (lowest index) is
@@ -251,13 +234,6 @@ func (g *Grid) evalRows(i0, i1 int, dT float64, spans *[]envSpan, acc *rowsAcc) 
 			return
 		}
 		g.rows[i] = st
-		if g.lnReRow != nil {
-			k := st.Density * v.RefLength / st.Viscosity
-			if g.SpeedKind == atmos.Mach {
-				k *= st.SpeedOfSound
-			}
-			g.lnReRow[i] = math.Log(k)
-		}
 		*spans = boundaryEnvSpans(v.Boundary, h, (*spans)[:0])
 		rl := g.rowLimits(h, &st, *spans)
 		row := g.points[i*cols : (i+1)*cols]
@@ -476,14 +452,6 @@ func (g *Grid) evalInto(r *flightRec, sp float64, st *atmos.State, rl *rowLimits
 	r.rare = uint8(g.Regimes.Rarefaction(kn))
 }
 
-// flightCf returns the grid's memo of SkinFriction(flight Re) per point,
-// in Index order: a slot holds the float64 bits once computed, 0 before.
-// Concurrent Solves may fill the same slot; they store the same value.
-func (g *Grid) flightCf() []atomic.Uint64 {
-	g.cfOnce.Do(func() { g.cf = make([]atomic.Uint64, len(g.points)) })
-	return g.cf
-}
-
 // Rows is the number of altitudes.
 func (g *Grid) Rows() int { return len(g.Alts) }
 
@@ -558,14 +526,11 @@ func (g *Grid) FlightDetail(i, j int) (FlightDetail, error) {
 }
 
 // StoredBytes is the memory the grid holds: the per-point records (32
-// bytes each), the per-row atmosphere, the axes and the split of ln Re,
-// and the flight skin-friction memo (8 bytes per point) that Solve uses.
+// bytes each), the per-row atmosphere and the axes.
 func (g *Grid) StoredBytes() int {
 	rec := int(unsafe.Sizeof(flightRec{}))
 	state := int(unsafe.Sizeof(atmos.State{}))
-	n := len(g.points)*rec + len(g.rows)*state + 8*(len(g.Alts)+len(g.Speeds))
-	n += 8 * (len(g.lnReRow) + len(g.lnReCol))
-	return n + len(g.flightCf())*8
+	return len(g.points)*rec + len(g.rows)*state + 8*(len(g.Alts)+len(g.Speeds))
 }
 
 // envSpan is one interval of boundary speeds inside the envelope at one

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"strings"
-	"sync/atomic"
 )
 
 // Class is how well a facility reproduces one flight condition.
@@ -196,13 +195,12 @@ func (f Flags) String() string {
 // Has reports whether every flag in x is set.
 func (f Flags) Has(x Flags) bool { return f&x == x }
 
-// Result is the compact facility answer for one grid point: 32 bytes.
+// Result is the compact facility answer for one grid point: 28 bytes.
 // For a gas facility P0 and T0 are stagnation pressure (Pa) and temperature
 // (K); for a water facility P0 is the test-section static pressure and T0 the
 // water temperature. V is the test-section speed (m/s), Q the test-section
 // dynamic pressure (Pa), Re the model Reynolds number, ReRatio model over
-// flight, DCf the Prandtl–Schlichting skin-friction difference model minus
-// flight. Points out of reach with no usable settings have zero settings.
+// flight (the skin-friction difference is in Map.Detail). Points out of reach with no usable settings have zero settings.
 type Result struct {
 	Class Class
 	Limit Limit
@@ -213,7 +211,6 @@ type Result struct {
 	Re    float32
 	// ReRatio is Re over the flight Reynolds number.
 	ReRatio float32
-	DCf     float32
 	V       float32
 }
 
@@ -292,91 +289,3 @@ func skinFrictionDelta(reModel, reFlight float64) float64 {
 	}
 	return SkinFriction(reModel) - SkinFriction(reFlight)
 }
-
-// skinFrictionDeltaMemo is skinFrictionDelta with Cf(flight) kept in memo
-// (float64 bits; 0 means not yet computed): the flight value of a grid
-// point is the same for every facility; and Cf(model) kept with the model
-// Reynolds number it belongs to in *lastRe, *lastCf.
-//
-// lnFlight, when not NaN, is ln(reFlight) as the grid keeps it, which
-// spares the logarithm (it differs from math.Log(reFlight) by rounding).
-func skinFrictionDeltaMemo(reModel, reFlight, lnFlight float64, memo *atomic.Uint64, lastRe, lastCf *float64) float64 {
-	if !(reModel > 1) || !(reFlight > 1) || reModel == reFlight {
-		return 0
-	}
-	cff := math.Float64frombits(memo.Load())
-	if cff == 0 {
-		if math.IsNaN(lnFlight) {
-			cff = skinFrictionFast(reFlight)
-		} else {
-			cff = skinFrictionLn(lnFlight)
-		}
-		memo.Store(math.Float64bits(cff))
-	}
-	if *lastRe != reModel {
-		*lastRe, *lastCf = reModel, skinFrictionFast(reModel)
-	}
-	return *lastCf - cff
-}
-
-// skinFrictionFast is SkinFriction for Re > 1, for the compact map
-// results (model and flight): it differs from the math.Pow form only in
-// rounding (within 2e-15 relative over 1e2 ≤ Re ≤ 1e12, checked on 5
-// million random Reynolds numbers against SkinFriction) and costs one
-// logarithm. With y = ln Re and the nearest node y_k of cfNodes,
-//
-//	Cf(y) = Cf(y_k)·(1+δ)^−2.58,  δ = (y − y_k)/y_k,
-//
-// and (1+δ)^−2.58 is summed as its binomial series; |δ| ≤ 3.5e-3, so the
-// terms past δ^8 are below 1e-18. Outside the nodes it is computed as
-// exp(−2.58·ln log10 Re).
-func skinFrictionFast(re float64) float64 { return skinFrictionLn(math.Log(re)) }
-
-// skinFrictionLn is skinFrictionFast for y = ln Re.
-func skinFrictionLn(y float64) float64 {
-	if !(y >= cfY0 && y < cfY0+float64(len(cfNodes)-1)*cfStep) {
-		return 0.455 * math.Exp(-2.58*math.Log(y*(1/math.Ln10)))
-	}
-	k := int((y-cfY0)*(1/cfStep) + 0.5) // 0 ≤ k < len(cfNodes)
-	n := &cfNodes[k]
-	d := (y - (cfY0 + float64(k)*cfStep)) * n.inv
-	c := &cfSeries
-	p := c[8]
-	p = p*d + c[7]
-	p = p*d + c[6]
-	p = p*d + c[5]
-	p = p*d + c[4]
-	p = p*d + c[3]
-	p = p*d + c[2]
-	p = p*d + c[1]
-	p = p*d + c[0]
-	return n.cf * p
-}
-
-// Nodes of skinFrictionFast: y_k = cfY0 + k·cfStep in ln Re (both exact
-// binary fractions, so y_k is exact), from Re ≈ 90 up to Re ≈ 1.5e12.
-const (
-	cfY0   = 4.5
-	cfStep = 1.0 / 32
-)
-
-// cfNodes holds SkinFriction and 1/y at each node; an immutable table
-// computed once.
-var cfNodes = func() []struct{ cf, inv float64 } {
-	t := make([]struct{ cf, inv float64 }, 740)
-	for k := range t {
-		y := cfY0 + float64(k)*cfStep
-		t[k].cf = 0.455 / math.Pow(y/math.Ln10, 2.58)
-		t[k].inv = 1 / y
-	}
-	return t
-}()
-
-// cfSeries are the binomial coefficients of (1+δ)^−2.58 up to δ^8.
-var cfSeries = func() (c [9]float64) {
-	c[0] = 1
-	for n := 1; n < len(c); n++ {
-		c[n] = c[n-1] * (-2.58 - float64(n-1)) / float64(n)
-	}
-	return c
-}()

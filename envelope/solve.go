@@ -5,7 +5,6 @@ import (
 	"fmt"
 	"math"
 	"sync"
-	"sync/atomic"
 	"unsafe"
 
 	"likewind/atmos"
@@ -161,7 +160,6 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	m.sv = solverFor(f, s, g.Regimes, m.Scale*g.Vehicle.RefLength)
 	m.Results = make([]Result, len(g.points))
 	cols := len(g.Speeds)
-	cfFlight := g.flightCf()
 	// Points are independent: blocks of rows are solved side by side, each
 	// result written to its own slot, so the map is the same as a
 	// point-by-point solve.
@@ -175,7 +173,7 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 			col[j].reset()
 		}
 		return func(i0, i1 int) {
-			n := m.solveRows(i0, i1, col, cfFlight)
+			n := m.solveRows(i0, i1, col)
 			mu.Lock()
 			for c := range n {
 				m.shares.Count[c] += n[c]
@@ -191,9 +189,8 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 }
 
 // solveRows solves the inside points of rows i0..i1-1 into m.Results, with
-// the column memos col and the grid's flight skin-friction memo cfFlight,
-// and returns how many of them fell in each class.
-func (m *Map) solveRows(i0, i1 int, col []colMemo, cfFlight []atomic.Uint64) (n [NumClasses]int) {
+// the column memos col, and returns how many of them fell in each class.
+func (m *Map) solveRows(i0, i1 int, col []colMemo) (n [NumClasses]int) {
 	g, sv := m.Grid, m.sv
 	cols := len(g.Speeds)
 	var aux pointAux
@@ -216,11 +213,7 @@ func (m *Map) solveRows(i0, i1 int, col []colMemo, cfFlight []atomic.Uint64) (n 
 				n[NoMatch]++
 				continue
 			}
-			aux.col, aux.cf = c, &cfFlight[base+j]
-			aux.lnRe = math.NaN()
-			if g.lnReRow != nil {
-				aux.lnRe = g.lnReRow[i] + g.lnReCol[j]
-			}
+			aux.col = c
 			ps = pointSol{}
 			sv.solveInto(&ps, r.mach, r.re, tFlight, false, &aux)
 			m.Results[base+j] = ps.result()
@@ -258,9 +251,7 @@ func (sv *solver) machMatched(mm, mf float64) bool {
 // memo, and the logarithm of the flight Reynolds number when the grid
 // keeps it split.
 type pointAux struct {
-	col  *colMemo
-	cf   *atomic.Uint64
-	lnRe float64 // ln of the flight Reynolds number from the grid's split (NaN: none)
+	col *colMemo
 }
 
 // colMemo holds values a Solve worker computed for one grid column, each
@@ -277,8 +268,6 @@ type colMemo struct {
 	best   gasPick
 	bestOK bool
 	fill   fillMemo
-	cfRe   float64 // model Reynolds number of cfM (NaN: none yet)
-	cfM    float64 // SkinFriction at cfRe
 	oorM   float64 // flight Mach number of oor, oorL (NaN: none yet)
 	oorL   Limit
 	oor    bool // outOfRange(oorM)
@@ -286,7 +275,7 @@ type colMemo struct {
 
 func (c *colMemo) reset() {
 	nan := math.NaN()
-	c.b.M, c.bestM, c.fill.M, c.cfRe, c.oorM = nan, nan, nan, nan, nan
+	c.b.M, c.bestM, c.fill.M, c.oorM = nan, nan, nan, nan
 }
 
 // fillMemo is the part of fillGas that depends on the setting alone, for
@@ -300,7 +289,7 @@ type fillMemo struct {
 // At returns the stored result of point (i, j).
 func (m *Map) At(i, j int) Result { return m.Results[m.Grid.Index(i, j)] }
 
-// StoredBytes is the memory the map holds for its results (32 bytes per
+// StoredBytes is the memory the map holds for its results (28 bytes per
 // point).
 func (m *Map) StoredBytes() int { return len(m.Results) * int(unsafe.Sizeof(Result{})) }
 
@@ -474,7 +463,7 @@ func (ps *pointSol) result() Result {
 	return Result{
 		Class: ps.class, Limit: ps.limit, Flags: ps.flags,
 		P0: float32(ps.p0), T0: float32(ps.t0), Q: float32(ps.q),
-		Re: float32(ps.re), ReRatio: float32(ps.ratio), DCf: float32(ps.dcf),
+		Re: float32(ps.re), ReRatio: float32(ps.ratio),
 		V: float32(ps.v),
 	}
 }
@@ -503,12 +492,10 @@ func (sv *solver) solveInto(ps *pointSol, mf, reF, tFlight float64, detail bool,
 	}
 	if ps.has && reF > 0 {
 		ps.ratio = ps.re / reF
-		if math.Abs(ps.ratio-1) > 1e-9 {
-			if aux != nil && aux.cf != nil && aux.col != nil {
-				ps.dcf = skinFrictionDeltaMemo(ps.re, reF, aux.lnRe, aux.cf, &aux.col.cfRe, &aux.col.cfM)
-			} else {
-				ps.dcf = skinFrictionDelta(ps.re, reF)
-			}
+		// The skin-friction difference is for the point details only;
+		// the compact map does not keep it.
+		if detail && math.Abs(ps.ratio-1) > 1e-9 {
+			ps.dcf = skinFrictionDelta(ps.re, reF)
 		}
 		if ps.ratio > 1+sv.reTol {
 			ps.flags |= FlagReOver
