@@ -122,7 +122,8 @@ func TestPropertyClassMonotoneInScale(t *testing.T) {
 }
 
 // TestPropertyClassMonotoneInTolerances: a looser Mach or Reynolds-number
-// tolerance never gives a worse class.
+// tolerance, or a higher compressibility threshold (Mach may be relaxed
+// over a wider range), never gives a worse class.
 func TestPropertyClassMonotoneInTolerances(t *testing.T) {
 	rng := rand.New(rand.NewPCG(17, 2))
 	for n := 0; n < propCases; n++ {
@@ -138,6 +139,9 @@ func TestPropertyClassMonotoneInTolerances(t *testing.T) {
 		}{
 			{"Mach tolerance", func(s *Settings) { s.MachTol += 0.2 * rng.Float64() }},
 			{"Reynolds tolerance", func(s *Settings) { s.ReTol += (0.99 - s.ReTol) * rng.Float64() }},
+			{"compressibility threshold", func(s *Settings) {
+				s.CompressibilityMach += (0.99 - s.CompressibilityMach) * rng.Float64()
+			}},
 		} {
 			loose := tight
 			loosen.f(&loose)

@@ -17,10 +17,14 @@ const PlanningNote = "Planning estimate only: confirm settings with the facility
 
 // Bounded searches of the solver (the rest is closed form).
 const (
-	// relaxSamples is the number of facility Mach numbers sampled when
-	// looking for the Mach number nearest flight that reaches the flight
-	// Reynolds number (Mach relaxed).
-	relaxSamples = 24
+	// relaxStep is the spacing of the facility Mach numbers sampled, from
+	// the facility's lowest Mach number up, when looking for the Mach
+	// number nearest flight that reaches the flight Reynolds number (Mach
+	// relaxed). The samples do not depend on the compressibility
+	// threshold, which only cuts them off, so a higher threshold searches
+	// a superset and never gives a worse answer. Below Mach 1 that is at
+	// most 400 samples; only points that need Mach relaxed search them.
+	relaxStep = 0.0025
 	// relaxIter caps the bisection that then locates that Mach number;
 	// it stops earlier once the bracket is narrower than relaxTol.
 	relaxIter = 48
@@ -793,8 +797,8 @@ func (sv *solver) usePick(ps *pointSol, g *gasPick, mf, tFlight float64, fm *fil
 
 // relax looks for the facility Mach number nearest flight, at or below the
 // compressibility threshold, whose best setting reaches the flight Reynolds
-// number. It samples relaxSamples Mach numbers over the usable range and
-// bisects (at most relaxIter steps, to relaxTol in Mach) between the nearest
+// number. It samples the usable range every relaxStep in Mach from the
+// facility's lowest Mach number and bisects (at most relaxIter steps, to relaxTol in Mach) between the nearest
 // sample that reaches the target and the Mach number nearest flight. If no
 // Mach number reaches the target it returns the sample of highest Reynolds
 // number, reached reporting whether that is within tolerance (need). found
@@ -816,8 +820,8 @@ func (sv *solver) relax(mf, target, need float64) (pick gasPick, found, reached 
 	nearest, nearestD := -1.0, math.Inf(1)
 	var top gasPick
 	top.re = -1
-	for k := 0; k < relaxSamples; k++ {
-		M := lo + (hi-lo)*float64(k)/float64(relaxSamples-1)
+	for k, n := 0, int((hi-lo)/relaxStep); k <= n; k++ {
+		M := lo + float64(k)*relaxStep
 		b, yes := reaches(M)
 		if yes {
 			if d := math.Abs(M - m0); d < nearestD {
