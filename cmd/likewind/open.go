@@ -71,11 +71,12 @@ func runOpen(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	}
 	in, err := loadInputs(o.files)
 	if err != nil {
-		fmt.Fprintln(stderr, err)
 		var ue usageError
 		if errors.As(err, &ue) {
+			fmt.Fprintln(stderr, "likewind:", err)
 			return 2
 		}
+		fmt.Fprintln(stderr, err) // file problems, one per line, each naming its file
 		return 1
 	}
 
