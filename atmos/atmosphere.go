@@ -74,10 +74,11 @@ const (
 	// Geopotential is the altitude scale on which the standard defines its
 	// temperature layers (m', equal potential energy per unit mass /G0).
 	Geopotential
-	// PressureAlt is pressure altitude: the geometric altitude at which the
-	// standard atmosphere has the given pressure. It is on the geometric
-	// scale, like the altitude column of USSA 1976 Table I; convert with
-	// GeopotentialFromGeometric for the geopotential (ICAO altimeter) scale.
+	// PressureAlt is pressure altitude: the geopotential altitude at which
+	// the standard atmosphere has the given pressure (ICAO / ISO 2533, whose
+	// tables and altimeter scale are by geopotential altitude; USSA 1976
+	// defines its layers on the same scale). Its range is the geopotential
+	// range of the model.
 	PressureAlt
 )
 
@@ -113,13 +114,15 @@ func ParseAltitudeKind(s string) (AltitudeKind, error) {
 // day. All values are SI.
 type State struct {
 	// Altitude is the geometric altitude, m. On an off-standard day it is
-	// the level that defines the pressure (see AtDay), equal to
-	// PressureAltitude.
+	// the standard-day height of the level that defines the pressure (see
+	// AtDay).
 	Altitude float64
 	// GeopotentialAltitude is Altitude on the geopotential scale, m'.
 	GeopotentialAltitude float64
-	// PressureAltitude is the geometric altitude whose standard pressure
-	// equals Pressure, m.
+	// PressureAltitude is the pressure altitude: the geopotential altitude
+	// whose standard pressure equals Pressure, m'. It equals
+	// GeopotentialAltitude, since the pressure of every day is the
+	// standard pressure at the given level.
 	PressureAltitude float64
 	// DeltaT is the temperature offset from the standard day, K.
 	DeltaT float64
@@ -337,7 +340,7 @@ func At(z float64) (State, error) {
 	return State{
 		Altitude:             z,
 		GeopotentialAltitude: h,
-		PressureAltitude:     z,
+		PressureAltitude:     h,
 		Temperature:          tm,
 		Pressure:             p,
 		Density:              p * ussaInvR * ts * r,
@@ -356,7 +359,8 @@ func At(z float64) (State, error) {
 // the ideal-gas law. With dT ≠ 0 the given altitude is therefore taken to
 // define the pressure level, as is common practice for hot and cold days
 // (the true geometric height of that pressure level differs). A PressureAlt
-// argument is the same number as a Geometric one on this model.
+// argument is the same number as a Geopotential one: pressure altitude is
+// measured on the geopotential scale.
 //
 // Errors: an altitude outside MinAltitude..MaxAltitude (on its own scale), a
 // non-finite altitude or dT, or a dT that makes the temperature zero or
@@ -364,13 +368,13 @@ func At(z float64) (State, error) {
 func AtDay(alt float64, kind AltitudeKind, dT float64) (State, error) {
 	var z, h float64
 	switch kind {
-	case Geometric, PressureAlt:
+	case Geometric:
 		if !(alt >= MinAltitude && alt <= MaxAltitude) {
 			return State{}, altitudeError(alt, kind)
 		}
 		z = alt
 		h = GeopotentialFromGeometric(z)
-	case Geopotential:
+	case Geopotential, PressureAlt:
 		if !(alt >= ussa.hMin && alt <= ussa.hMax) {
 			return State{}, altitudeError(alt, kind)
 		}
@@ -414,7 +418,7 @@ func ussaState(z, h, tmStd, p, dT float64) State {
 	return State{
 		Altitude:             z,
 		GeopotentialAltitude: h,
-		PressureAltitude:     z,
+		PressureAltitude:     h,
 		DeltaT:               dT,
 		Temperature:          t,
 		Pressure:             p,
@@ -426,17 +430,26 @@ func ussaState(z, h, tmStd, p, dT float64) State {
 	}
 }
 
-func altitudeError(alt float64, kind AltitudeKind) error {
-	lo, hi := MinAltitude, MaxAltitude
-	if kind == Geopotential {
-		lo, hi = ussa.hMin, ussa.hMax
+// AltitudeRange is the model range on the scale of kind, m: MinAltitude to
+// MaxAltitude geometric, about -5004 to 84852 m' geopotential (and pressure
+// altitude, which is on the geopotential scale).
+func AltitudeRange(kind AltitudeKind) (lo, hi float64) {
+	if kind == Geopotential || kind == PressureAlt {
+		return ussa.hMin, ussa.hMax
 	}
+	return MinAltitude, MaxAltitude
+}
+
+func altitudeError(alt float64, kind AltitudeKind) error {
+	lo, hi := AltitudeRange(kind)
 	return fmt.Errorf("atmosphere: %s altitude %g m: want %.0f to %.0f m: %w",
 		kind, alt, lo, hi, ErrAltitudeOutOfRange)
 }
 
-// PressureAltitudeOf returns the geometric altitude (m) at which the standard
-// atmosphere has pressure p (Pa), by the closed-form inverse of each layer.
+// PressureAltitudeOf returns the pressure altitude of pressure p (Pa): the
+// geopotential altitude (m') at which the standard atmosphere has that
+// pressure, by the closed-form inverse of each layer. GeometricFromGeopotential
+// gives its standard-day geometric height.
 // Pressures outside the model range (about 0.373 Pa to 177.7 kPa), NaN and
 // ±Inf give an error wrapping ErrPressureOutOfRange.
 func PressureAltitudeOf(p float64) (float64, error) {
@@ -458,5 +471,5 @@ func PressureAltitudeOf(p float64) (float64, error) {
 		h = l.hBase + (tm-l.tBase)/l.lapse
 	}
 	// Round-off at the range ends must not step outside the model range.
-	return math.Min(math.Max(GeometricFromGeopotential(h), MinAltitude), MaxAltitude), nil
+	return math.Min(math.Max(h, ussa.hMin), ussa.hMax), nil
 }

@@ -313,45 +313,115 @@ func TestLayerContinuity(t *testing.T) {
 }
 
 func TestPressureAltitudeInverse(t *testing.T) {
-	const roundTripTol = 1e-6 // m
-	for z := MinAltitude; z <= MaxAltitude; z += 37 {
-		s, err := At(z)
+	// PressureAltitudeOf inverts the standard pressure on the geopotential
+	// scale over the whole range, the ends included.
+	const roundTripTol = 1e-6 // m'
+	lo, hi := AltitudeRange(PressureAlt)
+	for h := lo; h <= hi; h += 37 {
+		s, err := AtDay(h, Geopotential, 0)
 		if err != nil {
-			t.Fatalf("At(%g): %v", z, err)
+			t.Fatalf("AtDay(%g, geopotential, 0): %v", h, err)
 		}
 		got, err := PressureAltitudeOf(s.Pressure)
 		if err != nil {
 			t.Errorf("PressureAltitudeOf(%g): %v", s.Pressure, err)
 			continue
 		}
-		if math.Abs(got-z) > roundTripTol {
-			t.Errorf("PressureAltitudeOf(%.9g) = %.9g, want %g", s.Pressure, got, z)
+		if math.Abs(got-h) > roundTripTol {
+			t.Errorf("PressureAltitudeOf(%.9g) = %.9g, want %g", s.Pressure, got, h)
 		}
 	}
-	// Ends of the range and exact layer bases.
-	for _, z := range []float64{MinAltitude, 0, MaxAltitude} {
-		s, _ := At(z)
-		if got, err := PressureAltitudeOf(s.Pressure); err != nil || math.Abs(got-z) > roundTripTol {
-			t.Errorf("PressureAltitudeOf(%.9g) = %.9g, %v, want %g", s.Pressure, got, err, z)
+	for _, h := range []float64{lo, 0, hi} {
+		s, _ := AtDay(h, Geopotential, 0)
+		if got, err := PressureAltitudeOf(s.Pressure); err != nil || math.Abs(got-h) > roundTripTol {
+			t.Errorf("PressureAltitudeOf(%.9g) = %.9g, %v, want %g", s.Pressure, got, err, h)
 		}
 	}
-	// Published pressures: ISA base pressures (av8n.com layer table) and the
-	// sea-level value; the geometric heights of the bases from USSA 1976
-	// Table I (public copy), whole metres. The pressure rounding moves
-	// the height by well under a metre.
-	const baseHeightTol = 1.0 // m
+	// Published layer-base pressures (ISA layer table of J. S. Denker, "See
+	// How It Flies", chapter "Altimetry", av8n.com) and the sea-level value
+	// sit at round geopotential altitudes: 0, 11, 20, 32, 47, 51, 71 km'.
+	// The printed pressures carry six figures, which moves the height by
+	// well under a metre.
+	const baseHeightTol = 1.0 // m'
 	for _, c := range []struct {
 		p float64
-		z float64
+		h float64
 	}{
-		{101325, 0}, {22632.1, 11019}, {5474.89, 20063}, {868.019, 32162},
-		{110.906, 47350}, {66.9389, 51412}, {3.95642, 71802},
+		{101325, 0}, {22632.1, 11000}, {5474.89, 20000}, {868.019, 32000},
+		{110.906, 47000}, {66.9389, 51000}, {3.95642, 71000},
 	} {
 		got, err := PressureAltitudeOf(c.p)
-		if err != nil || math.Abs(got-c.z) > baseHeightTol {
-			t.Errorf("PressureAltitudeOf(%g) = %.6g, %v, want %g", c.p, got, err, c.z)
+		if err != nil || math.Abs(got-c.h) > baseHeightTol {
+			t.Errorf("PressureAltitudeOf(%g) = %.6g, %v, want %g m'", c.p, got, err, c.h)
 		}
 	}
+}
+
+// icaoPressureLevels is the pressure-level table of the ICAO standard
+// atmosphere (ICAO 1964, which the ISA and USSA 1976 repeat below 32 km):
+// the pressure altitude of each pressure level in whole metres and whole
+// feet, as printed in "The International Standard Atmosphere, pressure
+// settings and related matters" (meteowvl.be, MetInfo/StandAtmosfeer; the
+// same table is at airlinedispatch.com/dispatch/isa.html, which prints
+// 101'855 ft for 10 hPa where meteowvl.be and the other rows' pattern give
+// 101 885). The heights are pressure altitudes, on the geopotential scale:
+// 11 000 m for the tropopause level 226.32 hPa.
+var icaoPressureLevels = []struct {
+	hPa   float64
+	m, ft string
+}{
+	{10, "31055", "101885"}, {20, "26481", "86881"}, {30, "23849", "78244"},
+	{40, "22000", "72177"}, {50, "20576", "67507"}, {70, "18442", "60504"},
+	{100, "16180", "53083"}, {150, "13608", "44647"}, {200, "11784", "38662"},
+	{250, "10363", "33999"}, {300, "9164", "30065"}, {400, "7185", "23574"},
+	{500, "5574", "18289"}, {600, "4206", "13801"}, {700, "3012", "9882"},
+	{800, "1949", "6394"}, {850, "1457", "4781"}, {900, "988", "3243"},
+	{950, "540", "1773"}, {1000, "111", "364"}, {1050, "-302", "-989"},
+}
+
+// TestPressureAltitudeTable holds pressure altitude to the published
+// pressure-level table, both ways: the altitude of each pressure, and the
+// pressure at each printed altitude. Read as geometric heights, the same
+// altitudes would be 4 m to 150 m too high and the pressures up to 1 %
+// too low.
+func TestPressureAltitudeTable(t *testing.T) {
+	for _, c := range icaoPressureLevels {
+		h, err := PressureAltitudeOf(c.hPa * 100)
+		if err != nil {
+			t.Errorf("PressureAltitudeOf(%g hPa): %v", c.hPa, err)
+			continue
+		}
+		// The printing rounds to whole metres and feet, except that 900 hPa
+		// (988.50 m' here) is printed 988: a whole unit is allowed.
+		what := "PressureAltitudeOf(" + strconv.FormatFloat(c.hPa, 'f', -1, 64) + " hPa)"
+		ussaCheckPrinted(t, what+" [m]", h, c.m, ussaTruncUnit)
+		ussaCheckPrinted(t, what+" [ft]", h/0.3048, c.ft, ussaTruncUnit)
+
+		// The other way: the pressure at the printed altitude, within what
+		// half a printed foot moves it (dp/dH = -p g0/(R T)).
+		ft, _ := strconv.ParseFloat(c.ft, 64)
+		s, err := AtDay(ft*0.3048, PressureAlt, 0)
+		if err != nil {
+			t.Errorf("AtDay(%s ft, pressure, 0): %v", c.ft, err)
+			continue
+		}
+		tol := 0.5 * 0.3048 * s.Pressure * G0 / (RAir * s.Temperature)
+		if got, want := s.Pressure, c.hPa*100; math.Abs(got-want) > tol {
+			t.Errorf("AtDay(%s ft, pressure, 0).Pressure = %.6g Pa, want %g Pa (±%.2g)", c.ft, got, want, tol)
+		}
+		if s.PressureAltitude != ft*0.3048 {
+			t.Errorf("AtDay(%s ft, pressure, 0).PressureAltitude = %.9g, want %.9g", c.ft, s.PressureAltitude, ft*0.3048)
+		}
+	}
+	// The tropopause: 22632.1 Pa at 11 000 m' = 36 089 ft (av8n.com ISA
+	// layer table), T 216.65 K.
+	s, err := AtDay(11000, PressureAlt, 0)
+	if err != nil {
+		t.Fatalf("AtDay(11000, pressure, 0): %v", err)
+	}
+	ussaCheckPrinted(t, "AtDay(11000, pressure, 0).Pressure", s.Pressure, "22632.1", ussaHalfUnit)
+	ussaCheckPrinted(t, "AtDay(11000, pressure, 0).Temperature", s.Temperature, "216.65", ussaHalfUnit)
+	ussaCheckPrinted(t, "AtDay(11000, pressure, 0).GeopotentialAltitude [ft]", s.GeopotentialAltitude/0.3048, "36089", ussaHalfUnit)
 }
 
 func TestOffStandardDay(t *testing.T) {
@@ -376,17 +446,19 @@ func TestOffStandardDay(t *testing.T) {
 	// Sutherland's law at 303.15 K (USSA 1976 eq. 51).
 	check("AtDay(0, geometric, 15).Viscosity", s.Viscosity, 1.458e-6*math.Pow(303.15, 1.5)/(303.15+110.4))
 
-	// ISA-20 at the tropopause given as a pressure altitude: p is the
-	// standard 11 km' pressure, T = 196.65 K.
+	// ISA-20 at the tropopause given as a pressure altitude (11 000 m',
+	// on the geopotential scale): p is the standard 11 km' pressure,
+	// T = 196.65 K.
 	z11 := GeometricFromGeopotential(11000)
-	c, err := AtDay(z11, PressureAlt, -20)
+	c, err := AtDay(11000, PressureAlt, -20)
 	if err != nil {
-		t.Fatalf("AtDay(%g, pressure, -20): %v", z11, err)
+		t.Fatalf("AtDay(11000, pressure, -20): %v", err)
 	}
 	ussaCheckPrinted(t, "AtDay(11 km', pressure, -20).Pressure", c.Pressure, "22632.1", ussaHalfUnit) // av8n.com ISA table
 	check("AtDay(11 km', pressure, -20).Temperature", c.Temperature, 196.65)
 	check("AtDay(11 km', pressure, -20).Density", c.Density, c.Pressure/(RAir*196.65))
-	check("AtDay(11 km', pressure, -20).PressureAltitude", c.PressureAltitude, z11)
+	check("AtDay(11 km', pressure, -20).PressureAltitude", c.PressureAltitude, 11000)
+	check("AtDay(11 km', pressure, -20).Altitude", c.Altitude, z11)
 
 	// Every altitude kind describes the same level.
 	g, _ := AtDay(z11, Geometric, -20)
@@ -402,22 +474,26 @@ func TestErrors(t *testing.T) {
 		if s, err := At(z); !errors.Is(err, ErrAltitudeOutOfRange) {
 			t.Errorf("At(%g) = %+v, %v, want ErrAltitudeOutOfRange", z, s, err)
 		}
-		for _, k := range []AltitudeKind{Geometric, PressureAlt} {
-			if _, err := AtDay(z, k, 0); !errors.Is(err, ErrAltitudeOutOfRange) {
-				t.Errorf("AtDay(%g, %v, 0) error = %v, want ErrAltitudeOutOfRange", z, k, err)
+		if _, err := AtDay(z, Geometric, 0); !errors.Is(err, ErrAltitudeOutOfRange) {
+			t.Errorf("AtDay(%g, geometric, 0) error = %v, want ErrAltitudeOutOfRange", z, err)
+		}
+	}
+	// On the geopotential scale, which pressure altitude shares, the same
+	// range is about -5003.9 to 84852.05 m'.
+	hMin, hMax := GeopotentialFromGeometric(MinAltitude), GeopotentialFromGeometric(MaxAltitude)
+	for _, k := range []AltitudeKind{Geopotential, PressureAlt} {
+		if lo, hi := AltitudeRange(k); lo != hMin || hi != hMax {
+			t.Errorf("AltitudeRange(%v) = %g, %g, want %g, %g", k, lo, hi, hMin, hMax)
+		}
+		for _, h := range []float64{math.NaN(), math.Inf(1), -6000, 90000, hMin - 1e-6, hMax + 1e-6} {
+			if _, err := AtDay(h, k, 0); !errors.Is(err, ErrAltitudeOutOfRange) {
+				t.Errorf("AtDay(%g, %v, 0) error = %v, want ErrAltitudeOutOfRange", h, k, err)
 			}
 		}
-	}
-	// On the geopotential scale the same range is about -5003.9 to 84852.05 m'.
-	hMin, hMax := GeopotentialFromGeometric(MinAltitude), GeopotentialFromGeometric(MaxAltitude)
-	for _, h := range []float64{math.NaN(), math.Inf(1), -6000, 90000, hMin - 1e-6, hMax + 1e-6} {
-		if _, err := AtDay(h, Geopotential, 0); !errors.Is(err, ErrAltitudeOutOfRange) {
-			t.Errorf("AtDay(%g, geopotential, 0) error = %v, want ErrAltitudeOutOfRange", h, err)
-		}
-	}
-	for _, h := range []float64{hMin, -5000, hMax} {
-		if _, err := AtDay(h, Geopotential, 0); err != nil {
-			t.Errorf("AtDay(%g, geopotential, 0) error = %v, want nil", h, err)
+		for _, h := range []float64{hMin, -5000, hMax} {
+			if _, err := AtDay(h, k, 0); err != nil {
+				t.Errorf("AtDay(%g, %v, 0) error = %v, want nil", h, k, err)
+			}
 		}
 	}
 	for _, dT := range []float64{math.NaN(), math.Inf(1), math.Inf(-1), -288.15, -400} {

@@ -42,7 +42,7 @@ func ExampleAtDay() {
 	}
 	fmt.Printf("T = %.2f K, p = %.0f Pa, rho = %.4f kg/m3\n", s.Temperature, s.Pressure, s.Density)
 	// Output:
-	// T = 288.66 K, p = 70121 Pa, rho = 0.8463 kg/m3
+	// T = 288.65 K, p = 70109 Pa, rho = 0.8461 kg/m3
 }
 
 func ExamplePressureAltitudeOf() {
@@ -51,7 +51,7 @@ func ExamplePressureAltitudeOf() {
 		fmt.Println(err)
 		return
 	}
-	fmt.Printf("%.1f m geometric, %.1f m geopotential\n", z, atmos.GeopotentialFromGeometric(z))
+	fmt.Printf("pressure altitude %.1f m (geopotential), %.1f m geometric on a standard day\n", z, atmos.GeometricFromGeopotential(z))
 	// Output:
-	// 5579.3 m geometric, 5574.4 m geopotential
+	// pressure altitude 5574.4 m (geopotential), 5579.3 m geometric on a standard day
 }

@@ -36,12 +36,7 @@ var (
 )
 
 // propRange is the model range on the scale of kind.
-func propRange(kind AltitudeKind) (lo, hi float64) {
-	if kind == Geopotential {
-		return GeopotentialFromGeometric(MinAltitude), GeopotentialFromGeometric(MaxAltitude)
-	}
-	return MinAltitude, MaxAltitude
-}
+func propRange(kind AltitudeKind) (lo, hi float64) { return AltitudeRange(kind) }
 
 // propAltitudes are the points where continuity is most at risk: the layer
 // bases of U.S. Standard Atmosphere 1976, Table 4 (0, 11, 20, 32, 47, 51,
@@ -52,14 +47,14 @@ func propRange(kind AltitudeKind) (lo, hi float64) {
 func propAltitudes(kind AltitudeKind, rng *rand.Rand) []float64 {
 	var out []float64
 	for _, hb := range []float64{0, 11000, 20000, 32000, 47000, 51000, 71000} {
-		if kind == Geopotential {
+		if kind == Geopotential || kind == PressureAlt {
 			out = append(out, hb)
 		} else {
 			out = append(out, GeometricFromGeopotential(hb))
 		}
 	}
 	for z := 80000.0; z <= 86000; z += 500 {
-		if kind == Geopotential {
+		if kind == Geopotential || kind == PressureAlt {
 			out = append(out, GeopotentialFromGeometric(z))
 		} else {
 			out = append(out, z)

@@ -685,10 +685,7 @@ func (d *doc) positive(q *qty, upper float64, what string) float64 {
 // altitudeRange describes the altitudes the standard atmosphere covers on
 // the scale of kind.
 func altitudeRange(kind atmos.AltitudeKind) string {
-	lo, hi := atmos.MinAltitude, atmos.MaxAltitude
-	if kind == atmos.Geopotential {
-		lo, hi = atmos.GeopotentialFromGeometric(lo), atmos.GeopotentialFromGeometric(hi)
-	}
+	lo, hi := atmos.AltitudeRange(kind)
 	return fmt.Sprintf("a %s altitude from %.0f m to %.0f m (the standard atmosphere's range)", kind, lo, hi)
 }
 

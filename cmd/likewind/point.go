@@ -18,6 +18,7 @@ import (
 type pointReport struct {
 	Altitude             float64 `json:"altitude_m"`
 	GeopotentialAltitude float64 `json:"geopotential_altitude_m"`
+	PressureAltitude     float64 `json:"pressure_altitude_m"`
 	Temperature          float64 `json:"temperature_k"`
 	Pressure             float64 `json:"pressure_pa"`
 	Density              float64 `json:"density_kg_m3"`
@@ -65,7 +66,7 @@ func parsePointFlags(args []string, stderr io.Writer) (pointQuery, error) {
 	fs.SetOutput(stderr)
 	alt := fs.String("alt", "", "geometric altitude, e.g. 11km or 35000ft")
 	geo := fs.String("geopotential", "", "geopotential altitude instead of --alt")
-	palt := fs.String("pressure-alt", "", "pressure altitude instead of --alt")
+	palt := fs.String("pressure-alt", "", "pressure altitude (standard-atmosphere pressure level, geopotential scale) instead of --alt")
 	mach := fs.String("mach", "", "flight Mach number, e.g. 0.8")
 	tas := fs.String("tas", "", "true airspeed with unit, e.g. 240m/s")
 	eas := fs.String("eas", "", "equivalent airspeed with unit, e.g. 150kt")
@@ -165,6 +166,7 @@ func evaluatePoint(q pointQuery) (pointReport, error) {
 	return pointReport{
 		Altitude:             s.Altitude,
 		GeopotentialAltitude: s.GeopotentialAltitude,
+		PressureAltitude:     s.PressureAltitude,
 		Temperature:          s.Temperature,
 		Pressure:             s.Pressure,
 		Density:              s.Density,
@@ -224,6 +226,7 @@ func writePointTable(w io.Writer, q pointQuery, r pointReport) {
 	row("quantity", "SI", "customary")
 	row("altitude (geometric)", fmt.Sprintf("%.1f m", r.Altitude), fmt.Sprintf("%.0f ft", r.Altitude/atmos.Foot))
 	row("altitude (geopotential)", fmt.Sprintf("%.1f m", r.GeopotentialAltitude), fmt.Sprintf("%.0f ft", r.GeopotentialAltitude/atmos.Foot))
+	row("pressure altitude", fmt.Sprintf("%.1f m", r.PressureAltitude), fmt.Sprintf("%.0f ft", r.PressureAltitude/atmos.Foot))
 	row("static temperature", fmt.Sprintf("%.2f K", r.Temperature), fmt.Sprintf("%.1f degF", r.Temperature*9/5-459.67))
 	row("static pressure", fmt.Sprintf("%.1f Pa", r.Pressure), fmt.Sprintf("%.2f psf", r.Pressure/atmos.PSF))
 	row("density", fmt.Sprintf("%.5g kg/m3", r.Density), fmt.Sprintf("%.5g slug/ft3", r.Density/515.378818))

@@ -11,7 +11,7 @@ import (
 
 // pointKeys are the keys `point --json` must print, exactly (README).
 var pointKeys = []string{
-	"altitude_m", "geopotential_altitude_m", "temperature_k", "pressure_pa", "density_kg_m3",
+	"altitude_m", "geopotential_altitude_m", "pressure_altitude_m", "temperature_k", "pressure_pa", "density_kg_m3",
 	"speed_of_sound_m_s", "dynamic_viscosity_pa_s", "kinematic_viscosity_m2_s", "mean_free_path_m",
 	"mach", "tas_m_s", "eas_m_s", "cas_m_s", "dynamic_pressure_pa", "reynolds", "reynolds_per_m",
 	"knudsen", "regime", "continuum",
@@ -119,6 +119,35 @@ func TestPointBadInputExits2(t *testing.T) {
 		}
 		if !strings.Contains(errs, c.want) {
 			t.Errorf("%s: stderr = %q, want it to mention %q", c.name, errs, c.want)
+		}
+	}
+}
+
+// TestPointPressureAltitude: --pressure-alt is the geopotential altitude of
+// the standard pressure level, so the pressure at a printed pressure
+// altitude is the level's pressure. Pressure-level table of the ICAO
+// standard atmosphere (ICAO 1964) as printed at meteowvl.be (MetInfo,
+// "The International Standard Atmosphere"): 100 hPa at 53 083 ft and
+// 16 180 m, 200 hPa at 38 662 ft, 50 hPa at 67 507 ft.
+func TestPointPressureAltitude(t *testing.T) {
+	for _, c := range []struct {
+		alt string
+		hPa float64
+	}{{"53083ft", 100}, {"16180m", 100}, {"38662ft", 200}, {"67507ft", 50}} {
+		code, out, errs := runCmd("point", "--pressure-alt", c.alt, "--mach", "0.8", "--json")
+		if code != 0 {
+			t.Fatalf("point --pressure-alt %s: exit %d, stderr %s", c.alt, code, errs)
+		}
+		var m map[string]float64
+		_ = json.Unmarshal([]byte(out), &m) // the non-numeric keys do not decode
+		// Half a printed unit of height (0.5 m) moves p by at most 1e-4
+		// relative at these levels (dp/p = g0 dH/(R T)).
+		if got, want := m["pressure_pa"], 100*c.hPa; math.Abs(got-want) > 1e-4*want {
+			t.Errorf("point --pressure-alt %s: pressure_pa = %.6g, want %g (ICAO pressure level)", c.alt, got, want)
+		}
+		if got := m["pressure_altitude_m"]; math.Abs(got-m["geopotential_altitude_m"]) > 1e-9 {
+			t.Errorf("point --pressure-alt %s: pressure_altitude_m = %.9g, want the geopotential altitude %.9g",
+				c.alt, got, m["geopotential_altitude_m"])
 		}
 	}
 }
