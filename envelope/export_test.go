@@ -323,3 +323,69 @@ func ExampleExportColumns() {
 	fmt.Println(cols[0], cols[4], cols[len(cols)-1])
 	// Output: facility altitude_m cavitation_number
 }
+
+// TestExportGridDecimals: the grid point and the model scale are written
+// as the decimals they stand for (shortest round-trip form of tidy axis
+// values), for both demo vehicles: "0.3", "1828.8", "0.1125".
+func TestExportGridDecimals(t *testing.T) {
+	vs, err := DemoVehicles()
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, facs, err := Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, v := range vs {
+		s := DefaultSettings(v)
+		g, err := NewGrid(v, s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var maps []*Map
+		for k := range facs {
+			m, err := Solve(g, &facs[k], s)
+			if err != nil {
+				t.Fatal(err)
+			}
+			maps = append(maps, m)
+		}
+		var b bytes.Buffer
+		if err := WriteCSV(&b, maps); err != nil {
+			t.Fatal(err)
+		}
+		rows, err := csv.NewReader(&b).ReadAll()
+		if err != nil {
+			t.Fatal(err)
+		}
+		col := map[string]int{}
+		for k, c := range rows[0] {
+			col[c] = k
+		}
+		// Demo altitudes are whole feet (at most 4 decimals in metres),
+		// speeds hundredths of Mach.
+		for _, row := range rows[1:] {
+			for _, c := range []struct {
+				name   string
+				maxLen int
+			}{{"altitude_m", len("-12345.6789")}, {"grid_speed", len("0.12")}} {
+				if x := row[col[c.name]]; len(x) > c.maxLen {
+					t.Errorf("%s: %s = %q, want a short decimal", v.Name, c.name, x)
+				}
+			}
+		}
+		// Halcyra HA-1 (span 24 m) fitted by the span rule: 0.75 × 3.6 m,
+		// 0.6 × 2 m and 0.8 × 2.4 m over 24 m.
+		want := map[string]string{}
+		if strings.HasPrefix(v.Name, "Halcyra") {
+			want = map[string]string{"Bracken Ness": "0.1125", "Harl Cove": "0.05", "Aldmoor": "0.08"}
+		}
+		for _, row := range rows[1:] {
+			for name, w := range want {
+				if strings.HasPrefix(row[col["facility"]], name) && row[col["model_scale"]] != w {
+					t.Fatalf("%s in %s: model_scale %q, want %q", v.Name, row[col["facility"]], row[col["model_scale"]], w)
+				}
+			}
+		}
+	}
+}

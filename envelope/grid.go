@@ -6,6 +6,7 @@ import (
 	"math"
 	"runtime"
 	"sort"
+	"strconv"
 	"sync"
 	"sync/atomic"
 	"unsafe"
@@ -579,8 +580,10 @@ func inWideSpans(spans []envSpan, x float64) bool {
 }
 
 // gridAxis expands an axis into its points. With a step the points are
-// Min, Min+Step, … up to Max (Max itself when the step divides the range);
-// with a count they are spread evenly from Min to Max inclusive. An axis
+// Min + i·Step (never a running sum) up to Max (Max itself when the step
+// divides the range); with a count they are spread evenly from Min to Max
+// inclusive. Each value is then tidied (tidyAxis) to the decimal it stands
+// for. An axis
 // with neither takes gridDefaultPoints, and one with Min = Max = 0 as well
 // takes its range from extent (when extent can give one).
 func gridAxis(a Axis, extent func() (lo, hi float64, ok bool)) ([]float64, error) {
@@ -632,7 +635,47 @@ func gridAxis(a Axis, extent func() (lo, hi float64, ok bool)) ([]float64, error
 	if a.Step > 0 && math.Abs(out[n-1]-a.Max) <= 1e-9*math.Max(1, math.Abs(a.Max)) {
 		out[n-1] = a.Max
 	}
+	tidyAxis(out)
 	return out, nil
+}
+
+// tidyAxis replaces each axis value by its tidyDecimal form, so that
+// 0.2 + 2·0.05 is stored (and exported) as 0.3 rather than
+// 0.30000000000000004, unless that would break the strict order of an
+// axis whose points lie only a few units of float64 rounding apart.
+func tidyAxis(xs []float64) {
+	for k := range xs {
+		y := tidyDecimal(xs[k])
+		if k > 0 && !(y > xs[k-1]) {
+			return // keep the rest exactly as computed
+		}
+		xs[k] = y
+	}
+}
+
+// tidyDecimalUlps is how far (in units in the last place) tidyDecimal may
+// move a value: the rounding of one multiplication and one addition, with
+// a margin, and far below any physical meaning.
+const tidyDecimalUlps = 4
+
+// tidyDecimal is the number of at most 15 significant decimal digits
+// nearest to x when that lies within tidyDecimalUlps of x (the float64
+// rounding of a computation on decimal inputs, such as min + i·step);
+// otherwise x itself. Its shortest round-trip form is then the decimal
+// the user wrote or would write ("0.3", "1828.8").
+func tidyDecimal(x float64) float64 {
+	if x == 0 || !isFiniteNum(x) {
+		return x
+	}
+	y, err := strconv.ParseFloat(strconv.FormatFloat(x, 'g', 15, 64), 64)
+	if err != nil {
+		return x
+	}
+	ax := math.Abs(x)
+	if math.Abs(y-x) <= tidyDecimalUlps*(math.Nextafter(ax, math.Inf(1))-ax) {
+		return y
+	}
+	return x
 }
 
 // checkGridVehicle checks what the engine needs of a vehicle.

@@ -2,6 +2,7 @@ package envelope
 
 import (
 	"math"
+	"strconv"
 	"testing"
 	"unsafe"
 
@@ -351,5 +352,79 @@ func TestStoredSizes(t *testing.T) {
 	}
 	if n := unsafe.Sizeof(Result{}); n != 28 {
 		t.Errorf("Result is %d bytes, want 28", n)
+	}
+}
+
+// TestGridAxisDecimals: axis values are min + i·step (or evenly spread for
+// a count) held to the decimal they stand for, so that exports write
+// "0.3" and "1828.8", not 0.30000000000000004 or 1828.8000000000002.
+func TestGridAxisDecimals(t *testing.T) {
+	vs, err := DemoVehicles()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, v := range vs {
+		g, err := NewGrid(v, DefaultSettings(v))
+		if err != nil {
+			t.Fatalf("%s: %v", v.Name, err)
+		}
+		// Every demo axis is in whole feet and hundredths of Mach: the
+		// altitudes are multiples of 0.3048 m rounded to 0.1 mm, the
+		// speeds multiples of 0.01.
+		for _, ax := range []struct {
+			name   string
+			vals   []float64
+			places int
+		}{{"altitude", g.Alts, 4}, {"speed", g.Speeds, 2}} {
+			for k, x := range ax.vals {
+				want, _ := strconv.ParseFloat(strconv.FormatFloat(x, 'f', ax.places, 64), 64)
+				if x != want {
+					t.Errorf("%s: %s[%d] = %s, want %s", v.Name, ax.name, k,
+						strconv.FormatFloat(x, 'g', -1, 64), strconv.FormatFloat(want, 'g', -1, 64))
+				}
+			}
+		}
+	}
+	// The step form is min + i·step, not a running sum: 0.1 added 30 times
+	// is 3.0000000000000013, 0.1 + 29·0.1 rounds to 3.
+	xs, err := gridAxis(Axis{Min: 0.1, Max: 3, Step: 0.1}, nil)
+	if err != nil || len(xs) != 30 {
+		t.Fatalf("gridAxis 0.1..3 step 0.1 = %v, %v", xs, err)
+	}
+	for k, x := range xs {
+		if want := float64(k+1) / 10; x != want {
+			t.Errorf("gridAxis 0.1..3 step 0.1 [%d] = %v, want %v", k, x, want)
+		}
+	}
+	// Values that are not short decimals are left alone, and points only
+	// a few ulps apart keep their order.
+	if got := tidyDecimal(1.0 / 3); got != 1.0/3 {
+		t.Errorf("tidyDecimal(1/3) = %v, want 1/3 unchanged", got)
+	}
+	if got := tidyDecimal(1.0 / 60); got != 1.0/60 {
+		t.Errorf("tidyDecimal(1/60) = %v, want 1/60 unchanged", got)
+	}
+	near, err := gridAxis(Axis{Min: 1, Max: 1 + 4e-16, Count: 3}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for k := 1; k < len(near); k++ {
+		if !(near[k] > near[k-1]) {
+			t.Errorf("gridAxis 1..1+4e-16 = %v, want strictly increasing", near)
+		}
+	}
+}
+
+// TestFitScaleDecimal: the fitted scale of a section and span given in
+// round numbers is that round number (0.75 × 3.6 m / 24 m = 0.1125).
+func TestFitScaleDecimal(t *testing.T) {
+	v := &Vehicle{Span: 24}
+	for _, c := range []struct {
+		frac, width, want float64
+	}{{0.75, 3.6, 0.1125}, {0.6, 2, 0.05}, {0.8, 2.4, 0.08}} {
+		f := &Facility{Width: c.width, Height: 1, Model: ModelSizing{MaxSpanFraction: c.frac}}
+		if got, _ := FitScale(v, f, 0.2); got != c.want {
+			t.Errorf("FitScale(span 24 m, %g × %g m) = %s, want %g", c.frac, c.width, strconv.FormatFloat(got, 'g', -1, 64), c.want)
+		}
 	}
 }

@@ -55,7 +55,8 @@ func FitScale(v *Vehicle, f *Facility, mach float64) (scale float64, rule string
 	if math.IsInf(scale, 1) {
 		return 0, "no span or frontal area to fit the model by"
 	}
-	return scale, rule
+	// 0.75·3.6 m/24 m is 0.1125, not 0.11250000000000002.
+	return tidyDecimal(scale), rule
 }
 
 // Fits reports whether a model of the given scale fits the map's facility
