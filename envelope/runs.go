@@ -18,13 +18,24 @@ const (
 	RunSpeedStep = 0.05  // m/s, water speed
 )
 
+// RunSameRel is the relative agreement within which two runs have the
+// same set point (every setting): they are one run of the facility,
+// covering several flight points. Settings solved the same way from the
+// same limits agree to rounding; this only absorbs that rounding.
+const RunSameRel = 1e-9
+
 // GridPoint names a grid point by row (altitude) and column (speed).
 type GridPoint struct{ Row, Col int }
 
-// Run is one test point of a run list: the flight condition it stands for
-// and the facility settings that reproduce it, all SI, full precision.
+// Run is one flight point of a run list: the flight condition it stands
+// for and the facility settings that reproduce it, all SI, full precision.
+// Flight points with the same set point form one run of the facility: they
+// are consecutive in the list and share SetPoint.
 type Run struct {
 	GridPoint
+	// SetPoint numbers the run (set point) this flight point belongs to,
+	// from 1 along the list (0 for a point that cannot be run).
+	SetPoint  int
 	Altitude  float64 // m, on the vehicle's altitude scale
 	GridSpeed float64 // grid speed (Mach, or m/s per the grid's kind)
 
@@ -53,9 +64,11 @@ type Run struct {
 // Changes counts set-point changes along a run list: how many times, going
 // from one run to the next, T0 (water temperature), p0 (static pressure)
 // and the Mach number (water speed) must be moved, and how many steps move
-// any of them.
+// any of them. Steps holds the number of steps from one set point to the
+// next (set points − 1).
 type Changes struct {
 	T0, P0, Mach, Any int
+	Steps             int
 }
 
 // RunList is one facility's ordered run list.
@@ -63,10 +76,15 @@ type RunList struct {
 	Facility string
 	Medium   Medium
 	Scale    float64
-	// Runs are in facility order: grouped by T0 (ascending), within that
-	// by p0 (ascending), then by Mach number ascending (water: by
-	// temperature, then speed), so that the slow changes happen least.
+	// Runs are the flight points in facility order: grouped by T0
+	// (ascending), within that by p0 (ascending), then by Mach number
+	// ascending (water: by temperature, then speed), so that the slow
+	// changes happen least. Flight points with the same set point are
+	// consecutive and share Run.SetPoint.
 	Runs []Run
+	// SetPoints is the number of distinct set points (runs of the
+	// facility) in Runs.
+	SetPoints int
 	// Unrunnable are requested points without facility settings (outside
 	// the envelope or out of the facility's Mach range, say), in grid
 	// order.
@@ -90,12 +108,10 @@ func FullMatchPoints(m *Map) []GridPoint {
 }
 
 // DefaultRunPoints lists the points a run list covers when no test points
-// are marked: the full-match points, or for a water tunnel, where Mach
-// number is never matched, its matched points (Mach relaxed).
+// are marked: every matched point (full match or Mach relaxed, gas and
+// water alike; a water tunnel only matches with Mach relaxed), in grid
+// order.
 func DefaultRunPoints(m *Map) []GridPoint {
-	if m.Facility.Medium != MediumWater {
-		return FullMatchPoints(m)
-	}
 	var out []GridPoint
 	g := m.Grid
 	for i := 0; i < g.Rows(); i++ {
@@ -151,7 +167,62 @@ func PlanRuns(m *Map, points []GridPoint) (RunList, error) {
 		return x.Col < y.Col
 	})
 	rl.Changes = OrderRuns(rl.Runs, rl.Medium == MediumWater)
+	if n := len(rl.Runs); n > 0 {
+		rl.SetPoints = rl.Runs[n-1].SetPoint
+	}
 	return rl, nil
+}
+
+// sameSetPoint reports whether runs a and b have the same settings (T0, p0,
+// Mach number and test-section speed) within RunSameRel.
+func sameSetPoint(a, b *Run) bool {
+	same := func(x, y float64) bool {
+		return math.Abs(x-y) <= RunSameRel*math.Max(math.Abs(x), math.Abs(y))
+	}
+	return same(a.T0, b.T0) && same(a.P0, b.P0) && same(a.Mach, b.Mach) && same(a.Speed, b.Speed)
+}
+
+// mergeSetPoints moves every run with the set point of an earlier run (by
+// sameSetPoint) up to just after the last run of that set point, keeping
+// the order otherwise, and numbers the set points from 1 in Run.SetPoint.
+// Runs are bucketed by T0 rounded to the T0 step, so a set point is only
+// compared with runs of a neighbouring bucket.
+func mergeSetPoints(runs []Run) {
+	type group struct {
+		first   int   // index of the run that opened the group
+		members []int // indices of its runs, in list order
+	}
+	var groups []*group
+	buckets := map[int64][]*group{}
+	bucket := func(t0 float64) int64 { return int64(math.Floor(t0 / RunT0Step)) }
+	for k := range runs {
+		b := bucket(runs[k].T0)
+		var home *group
+	search:
+		for _, nb := range [...]int64{b - 1, b, b + 1} {
+			for _, gr := range buckets[nb] {
+				if sameSetPoint(&runs[gr.first], &runs[k]) {
+					home = gr
+					break search
+				}
+			}
+		}
+		if home == nil {
+			home = &group{first: k}
+			groups = append(groups, home)
+			buckets[b] = append(buckets[b], home)
+		}
+		home.members = append(home.members, k)
+	}
+	out := make([]Run, 0, len(runs))
+	for n, gr := range groups {
+		for _, k := range gr.members {
+			r := runs[k]
+			r.SetPoint = n + 1
+			out = append(out, r)
+		}
+	}
+	copy(runs, out)
 }
 
 // runKeys returns the three set points of a run, slowest to change first,
@@ -172,7 +243,8 @@ func runKeys(r *Run, water bool) (k [3]float64, step [3]float64) {
 // runs are grouped the same way by p0 (within RunP0Frac), and within a p0
 // group sorted by Mach number ascending. Water runs use temperature, static
 // pressure and speed (RunSpeedStep) instead. Ties keep grid order (altitude,
-// then speed).
+// then speed). Runs with the same set point (sameSetPoint) are then brought
+// together as one run and numbered (Run.SetPoint).
 func OrderRuns(runs []Run, water bool) Changes {
 	less := func(a, b *Run) bool {
 		if a.Row != b.Row {
@@ -208,15 +280,21 @@ func OrderRuns(runs []Run, water bool) Changes {
 		}
 	}
 	order(runs, 0)
+	mergeSetPoints(runs)
 	return CountChanges(runs, water)
 }
 
 // CountChanges counts the set-point changes between consecutive runs: a
 // setting changes when it moves by at least its resolution (RunT0Step,
-// RunP0Frac of the larger p0, RunMachStep or RunSpeedStep).
+// RunP0Frac of the larger p0, RunMachStep or RunSpeedStep). A flight point
+// with the same set point as the one before (sameSetPoint) is no step.
 func CountChanges(runs []Run, water bool) Changes {
 	var c Changes
 	for k := 1; k < len(runs); k++ {
+		if sameSetPoint(&runs[k-1], &runs[k]) {
+			continue
+		}
+		c.Steps++
 		a, sa := runKeys(&runs[k-1], water)
 		b, sb := runKeys(&runs[k], water)
 		moved := false

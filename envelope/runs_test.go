@@ -53,7 +53,7 @@ func TestOrderRunsGas(t *testing.T) {
 	}
 	// E→C Mach; C→B all three; B→D p0 and Mach (T0 0.4 K apart);
 	// D→A Mach (p0 0.25 % apart); A→F all three.
-	want := Changes{T0: 2, P0: 3, Mach: 5, Any: 5}
+	want := Changes{T0: 2, P0: 3, Mach: 5, Any: 5, Steps: 5}
 	if got != want {
 		t.Errorf("OrderRuns changes = %+v, want %+v", got, want)
 	}
@@ -76,7 +76,7 @@ func TestOrderRunsWater(t *testing.T) {
 	if s := strings.Join(rows, " "); s != "3 1 2 4 0" {
 		t.Errorf("water order rows = %s, want 3 1 2 4 0", s)
 	}
-	want := Changes{T0: 1, P0: 0, Mach: 4, Any: 4}
+	want := Changes{T0: 1, P0: 0, Mach: 4, Any: 4, Steps: 4}
 	if got != want {
 		t.Errorf("water changes = %+v, want %+v", got, want)
 	}
@@ -168,18 +168,143 @@ func sortGridOrder(rs []Run) {
 	}
 }
 
+// outSecondDemoMaps solves every demo facility on the second demo vehicle
+// (Halcyra HA-1, low Mach numbers, many Mach-relaxed matches).
+func outSecondDemoMaps(t testing.TB) (*Grid, []*Map) {
+	t.Helper()
+	vs, err := DemoVehicles()
+	if err != nil || len(vs) < 2 {
+		t.Fatalf("DemoVehicles() = %d vehicles, %v", len(vs), err)
+	}
+	_, facs, err := Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	v := vs[1]
+	s := DefaultSettings(v)
+	g, err := NewGrid(v, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var maps []*Map
+	for k := range facs {
+		m, err := Solve(g, &facs[k], s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		maps = append(maps, m)
+	}
+	return g, maps
+}
+
+// TestDefaultRunPoints: without marks a run list holds every matched
+// point, Mach-relaxed ones included, for gas tunnels as for water.
 func TestDefaultRunPoints(t *testing.T) {
-	_, maps := outDemoMaps(t)
-	for _, m := range maps {
-		for _, p := range DefaultRunPoints(m) {
-			c := m.At(p.Row, p.Col).Class
-			if m.Facility.Medium == MediumWater && c != MachRelaxed {
-				t.Errorf("%s: default run point class %v, want Mach relaxed", m.Facility.Name, c)
+	for _, demo := range []struct {
+		maps        func(testing.TB) (*Grid, []*Map)
+		wantRelaxed bool // the demo has Mach-relaxed gas points
+	}{{outDemoMaps, false}, {outSecondDemoMaps, true}} {
+		g, maps := demo.maps(t)
+		relaxedGas := 0
+		for _, m := range maps {
+			got := map[GridPoint]bool{}
+			for _, p := range DefaultRunPoints(m) {
+				got[p] = true
 			}
-			if m.Facility.Medium != MediumWater && c != FullMatch {
-				t.Errorf("%s: default run point class %v, want full match", m.Facility.Name, c)
+			for i := 0; i < g.Rows(); i++ {
+				for j := 0; j < g.Cols(); j++ {
+					c := m.At(i, j).Class
+					if got[GridPoint{i, j}] != c.Matched() {
+						t.Fatalf("%s: point (%d, %d) of class %v in the default run list: %v, want %v",
+							m.Facility.Name, i, j, c, got[GridPoint{i, j}], c.Matched())
+					}
+					if c == MachRelaxed && m.Facility.Medium.IsGas() {
+						relaxedGas++
+					}
+				}
 			}
 		}
+		if demo.wantRelaxed && relaxedGas == 0 {
+			t.Errorf("%s: no Mach-relaxed gas point to test", g.Vehicle.Name)
+		}
+	}
+}
+
+// TestOrderRunsMergesSetPoints: runs with the same set point are one run
+// of the facility with several flight points, even when a run with the
+// same Mach number but another (nearby) setting sorts between them.
+func TestOrderRunsMergesSetPoints(t *testing.T) {
+	runs := []Run{
+		outRun(0, 300, 2e5, 0.8),
+		outRun(1, 300.5, 2.004e5, 0.8), // within every step of row 0, not the same
+		outRun(2, 300, 2e5, 0.8),       // row 0's set point
+		outRun(3, 300, 2e5*(1+1e-12), 0.8),
+	}
+	c := OrderRuns(runs, false)
+	var got []string
+	for _, r := range runs {
+		got = append(got, fmt.Sprintf("%d:%d", r.Row, r.SetPoint))
+	}
+	if s := strings.Join(got, " "); s != "0:1 2:1 3:1 1:2" {
+		t.Errorf("OrderRuns rows:set points = %s, want 0:1 2:1 3:1 1:2", s)
+	}
+	if want := (Changes{Steps: 1}); c != want {
+		t.Errorf("OrderRuns changes = %+v, want %+v (one step, within every resolution)", c, want)
+	}
+}
+
+// TestPlanRunsMergesDemo: in the second demo vehicle's run lists, flight
+// points that share a set point (e.g. the Bracken Ness tunnel at p0 max
+// and T0 min for two altitudes at the same Mach number) are one run.
+func TestPlanRunsMergesDemo(t *testing.T) {
+	_, maps := outSecondDemoMaps(t)
+	merged := 0
+	for _, m := range maps {
+		rl, err := PlanRuns(m, DefaultRunPoints(m))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(rl.Runs) == 0 {
+			continue
+		}
+		if rl.Runs[0].SetPoint != 1 || rl.SetPoints != rl.Runs[len(rl.Runs)-1].SetPoint {
+			t.Errorf("%s: set points numbered from %d to %d, SetPoints %d", m.Facility.Name,
+				rl.Runs[0].SetPoint, rl.Runs[len(rl.Runs)-1].SetPoint, rl.SetPoints)
+		}
+		for k := 1; k < len(rl.Runs); k++ {
+			a, b := &rl.Runs[k-1], &rl.Runs[k]
+			switch b.SetPoint {
+			case a.SetPoint:
+				merged++
+				if !sameSetPoint(a, b) {
+					t.Errorf("%s: flight points %v and %v share run %d with settings %+v and %+v", m.Facility.Name, a.GridPoint, b.GridPoint, a.SetPoint, *a, *b)
+				}
+			case a.SetPoint + 1:
+			default:
+				t.Errorf("%s: run %d follows run %d", m.Facility.Name, b.SetPoint, a.SetPoint)
+			}
+		}
+		// No two runs of the list have the same set point.
+		first := map[int]*Run{}
+		for k := range rl.Runs {
+			r := &rl.Runs[k]
+			if _, ok := first[r.SetPoint]; !ok {
+				first[r.SetPoint] = r
+			}
+		}
+		for a := 1; a <= rl.SetPoints; a++ {
+			for b := a + 1; b <= rl.SetPoints; b++ {
+				if sameSetPoint(first[a], first[b]) {
+					t.Errorf("%s: runs %d and %d have the same set point", m.Facility.Name, a, b)
+				}
+			}
+		}
+		if c := rl.Changes; c.Steps != rl.SetPoints-1 || c.Any > c.Steps {
+			t.Errorf("%s: changes %+v with %d set points", m.Facility.Name, c, rl.SetPoints)
+		}
+	}
+	if merged == 0 {
+		t.Error("no two flight points share a set point in the second demo vehicle's run lists")
 	}
 }
 

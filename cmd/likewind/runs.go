@@ -15,8 +15,9 @@ import (
 )
 
 // runRuns prints the run list per facility: the session's marked test
-// points, or without marks every full-match point, in the order a
-// facility runs them, with the number of set-point changes.
+// points, or without marks every matched point, in the order a facility
+// runs them (flight points with the same set point as one run), with the
+// number of set-point changes.
 func runRuns(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("runs", stderr)
 	format := fs.String("format", "text", "text, csv or json")
@@ -125,7 +126,24 @@ func (p *runPlan) pointsWords() string {
 	if p.marked {
 		return fmt.Sprintf("%d marked test points of the session", len(p.ev.marks))
 	}
-	return "every full-match point of each facility (water tunnels: every Mach-relaxed match); no marked test points given"
+	return "every matched point of each facility (full match or Mach relaxed); no marked test points given"
+}
+
+// plural is "1 run", "2 runs".
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return strconv.Itoa(n) + " " + many
+}
+
+// runCount says how many runs (set points) cover how many flight points.
+func runCount(rl envelope.RunList) string {
+	s := plural(rl.SetPoints, "run", "runs")
+	if len(rl.Runs) != rl.SetPoints {
+		s += " for " + plural(len(rl.Runs), "flight point", "flight points")
+	}
+	return s
 }
 
 // writeText writes the run lists as aligned tables.
@@ -181,11 +199,11 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 		if len(rl.Runs) == 0 {
 			b.WriteString("no points to run\n")
 		} else if water {
-			fmt.Fprintf(&b, "%d runs; set-point changes: water temperature %d, static pressure %d, speed %d; %d of %d steps change a setting\n",
-				len(rl.Runs), c.T0, c.P0, c.Mach, c.Any, len(rl.Runs)-1)
+			fmt.Fprintf(&b, "%s; set-point changes: water temperature %d, static pressure %d, speed %d; %d of %s change a setting\n",
+				runCount(rl), c.T0, c.P0, c.Mach, c.Any, plural(c.Steps, "step", "steps"))
 		} else {
-			fmt.Fprintf(&b, "%d runs; set-point changes: T0 %d, p0 %d, Mach %d; %d of %d steps change a setting\n",
-				len(rl.Runs), c.T0, c.P0, c.Mach, c.Any, len(rl.Runs)-1)
+			fmt.Fprintf(&b, "%s; set-point changes: T0 %d, p0 %d, Mach %d; %d of %s change a setting\n",
+				runCount(rl), c.T0, c.P0, c.Mach, c.Any, plural(c.Steps, "step", "steps"))
 		}
 		if len(rl.Runs) > 0 {
 			head := []string{"run", "altitude " + altU, speedTitle, "flight Re", "flight q " + qU}
@@ -197,21 +215,31 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 			head = append(head, "model Re", "Re ratio", "q "+qU, "class", "changes")
 			var rows [][]string
 			for k, r := range rl.Runs {
-				row := []string{strconv.Itoa(k + 1), u.AltLabel(r.Altitude), speedLabel(r.GridSpeed),
+				// A further flight point of the same run leaves the run
+				// number and the settings blank.
+				again := k > 0 && rl.Runs[k-1].SetPoint == r.SetPoint
+				row := []string{strconv.Itoa(r.SetPoint), u.AltLabel(r.Altitude), speedLabel(r.GridSpeed),
 					sig3(r.FlightRe), qv(r.FlightQ)}
-				if water {
-					row = append(row, tv(r.T0), pv(r.P0), vv(r.Speed))
-				} else {
-					row = append(row, tv(r.T0), pv(r.P0), strconv.FormatFloat(r.Mach, 'f', 3, 64))
+				switch {
+				case again:
+					row[0] = ""
+					row = append(row, "", "", "", "")
+				case water:
+					row = append(row, tv(r.T0), pv(r.P0), vv(r.Speed), sig3(r.Re))
+				default:
+					row = append(row, tv(r.T0), pv(r.P0), strconv.FormatFloat(r.Mach, 'f', 3, 64), sig3(r.Re))
 				}
-				row = append(row, sig3(r.Re), strconv.FormatFloat(r.ReRatio, 'f', 2, 64), qv(r.Q), r.Class.String(),
-					changeWords(stepChanges(rl.Runs, k, water), water))
+				q, changes := qv(r.Q), changeWords(stepChanges(rl.Runs, k, water), water)
+				if again {
+					q, changes = "", "same run"
+				}
+				row = append(row, strconv.FormatFloat(r.ReRatio, 'f', 2, 64), q, r.Class.String(), changes)
 				rows = append(rows, row)
 			}
 			envelope.WriteTable(&b, head, rows, func(k int) bool { return k == 11 || k == 12 })
 		}
 		if len(rl.Unrunnable) > 0 {
-			fmt.Fprintf(&b, "not runnable (%d):\n", len(rl.Unrunnable))
+			fmt.Fprintf(&b, "not runnable (%s):\n", plural(len(rl.Unrunnable), "point", "points"))
 			for _, r := range rl.Unrunnable {
 				why := r.Class.String()
 				if r.Limit != envelope.LimitNone {
@@ -250,7 +278,7 @@ func sig4(x float64) string { return strconv.FormatFloat(x, 'g', 4, 64) }
 type runRecord struct {
 	Facility         string       `json:"facility"`
 	Medium           string       `json:"medium"`
-	Run              int          `json:"run"` // 1-based; 0 for a point that cannot be run
+	Run              int          `json:"run"` // set point, 1-based (shared by its flight points); 0 for a point that cannot be run
 	Row              int          `json:"row"`
 	Col              int          `json:"col"`
 	Altitude         envelope.Num `json:"altitude_m"`
@@ -321,7 +349,7 @@ func (p *runPlan) records(rl envelope.RunList) (runs, unrunnable []runRecord) {
 		return rec
 	}
 	for k, r := range rl.Runs {
-		rec := mk(r, k+1)
+		rec := mk(r, r.SetPoint)
 		c := stepChanges(rl.Runs, k, water)
 		rec.T0Change, rec.P0Change, rec.MachChange = c.T0 > 0, c.P0 > 0, c.Mach > 0
 		runs = append(runs, rec)
@@ -355,7 +383,7 @@ type runJSON struct {
 	Caution    string            `json:"caution"`
 	Units      string            `json:"units"`
 	Vehicle    string            `json:"vehicle"`
-	Points     string            `json:"points"` // "marked" or "full match"
+	Points     string            `json:"points"` // "marked" or "matched"
 	Facilities []runJSONFacility `json:"facilities"`
 }
 
@@ -363,6 +391,7 @@ type runJSONFacility struct {
 	Facility   string       `json:"facility"`
 	Medium     string       `json:"medium"`
 	Scale      envelope.Num `json:"model_scale"`
+	SetPoints  int          `json:"set_points"` // runs; each record of "runs" is one flight point
 	Changes    runChanges   `json:"changes"`
 	Runs       []runRecord  `json:"runs"`
 	Unrunnable []runRecord  `json:"unrunnable"`
@@ -379,7 +408,7 @@ func (p *runPlan) writeJSON(w io.Writer) error {
 	doc := runJSON{
 		ExportInfo: envelope.ExportInfo{Tool: "likewind", Version: version, Generated: p.date},
 		Caution:    envelope.PlanningNote, Units: "SI", Vehicle: p.ev.e.Grid.Vehicle.Name,
-		Points: "full match", Facilities: []runJSONFacility{},
+		Points: "matched", Facilities: []runJSONFacility{},
 	}
 	if p.marked {
 		doc.Points = "marked"
@@ -394,7 +423,7 @@ func (p *runPlan) writeJSON(w io.Writer) error {
 		}
 		c := rl.Changes
 		doc.Facilities = append(doc.Facilities, runJSONFacility{
-			Facility: rl.Facility, Medium: rl.Medium.String(), Scale: envelope.Num(rl.Scale),
+			Facility: rl.Facility, Medium: rl.Medium.String(), Scale: envelope.Num(rl.Scale), SetPoints: rl.SetPoints,
 			Changes: runChanges{T0: c.T0, P0: c.P0, Mach: c.Mach, Any: c.Any}, Runs: runs, Unrunnable: un,
 		})
 	}

@@ -3,6 +3,7 @@ package main
 import (
 	"encoding/csv"
 	"encoding/json"
+	"fmt"
 	"math"
 	"strconv"
 	"strings"
@@ -19,6 +20,7 @@ type outRunsDoc struct {
 		Facility   string
 		Medium     string
 		Scale      envelope.Num `json:"model_scale"`
+		SetPoints  int          `json:"set_points"`
 		Changes    struct{ T0, P0, Mach, Any int }
 		Runs       []runRecord
 		Unrunnable []runRecord
@@ -51,10 +53,10 @@ func back(recs []runRecord) []envelope.Run {
 	return rs
 }
 
-func TestRunsFullMatch(t *testing.T) {
+func TestRunsMatched(t *testing.T) {
 	e := outDemoEval(t)
 	doc := outRunsJSON(t)
-	if doc.Points != "full match" || doc.Generated != "2025-01-01" || doc.Caution == "" {
+	if doc.Points != "matched" || doc.Generated != "2025-01-01" || doc.Caution == "" {
 		t.Errorf("header points %q date %q caution %q", doc.Points, doc.Generated, doc.Caution)
 	}
 	if len(doc.Facilities) != len(e.Solved()) {
@@ -75,8 +77,23 @@ func TestRunsFullMatch(t *testing.T) {
 			t.Errorf("%s: changes %+v, recounted %+v", f.Facility, f.Changes, c)
 		}
 		for n, r := range f.Runs {
-			if r.Run != n+1 {
-				t.Fatalf("%s: run %d numbered %d", f.Facility, n+1, r.Run)
+			// Runs are numbered from 1; further flight points of the same
+			// set point repeat its number.
+			switch {
+			case n == 0 && r.Run != 1:
+				t.Fatalf("%s: first run numbered %d", f.Facility, r.Run)
+			case n > 0 && r.Run == f.Runs[n-1].Run:
+				p := f.Runs[n-1]
+				same := func(a, b envelope.Num) bool { return a == b || (!a.Valid() && !b.Valid()) }
+				if !same(r.T0, p.T0) || !same(r.P0, p.P0) || !same(r.TestMach, p.TestMach) || !same(r.TestSpeed, p.TestSpeed) ||
+					!same(r.WaterTemperature, p.WaterTemperature) || r.T0Change || r.P0Change || r.MachChange {
+					t.Errorf("%s: flight points %d and %d of run %d differ in settings: %+v, %+v", f.Facility, n, n+1, r.Run, p, r)
+				}
+			case n > 0 && r.Run != f.Runs[n-1].Run+1:
+				t.Fatalf("%s: run %d follows run %d", f.Facility, r.Run, f.Runs[n-1].Run)
+			}
+			if n == len(f.Runs)-1 && r.Run != f.SetPoints {
+				t.Errorf("%s: last run %d, set_points %d", f.Facility, r.Run, f.SetPoints)
 			}
 			d, err := m.Detail(r.Row, r.Col)
 			if err != nil {
@@ -199,5 +216,54 @@ func TestApplyWhatIf(t *testing.T) {
 	w = tui.WhatIf{Facilities: map[string]tui.FacilityWhatIf{"No such tunnel": {QMax: p(1)}}}
 	if _, err := tui.ApplyWhatIf(w, &s, facs); err == nil {
 		t.Error("what-if for an unknown facility accepted")
+	}
+}
+
+// TestRunsMergeAndPlurals: flight points with the same set point are one
+// run (Harl Cove T2 at Mach 1.00, q max and T0 min for 13 411 m and
+// 14 021 m in the demo), counts are pluralised properly, and the text says
+// so.
+func TestRunsMergeAndPlurals(t *testing.T) {
+	doc := outRunsJSON(t, "--facility", "Harl Cove")
+	if len(doc.Facilities) != 1 {
+		t.Fatalf("facilities %d, want 1", len(doc.Facilities))
+	}
+	f := doc.Facilities[0]
+	if !(f.SetPoints > 0 && f.SetPoints < len(f.Runs)) {
+		t.Fatalf("Harl Cove: %d set points for %d flight points, want fewer set points", f.SetPoints, len(f.Runs))
+	}
+	code, out, errs := outCmd("runs", "--facility", "Harl Cove", "--date", "2025-01-01")
+	if code != 0 {
+		t.Fatalf("runs exit %d: %s", code, errs)
+	}
+	want := fmt.Sprintf("%d runs for %d flight points;", f.SetPoints, len(f.Runs))
+	if !strings.Contains(out, want) || !strings.Contains(out, "same run") {
+		t.Errorf("runs text lacks %q or a \"same run\" line:\n%s", want, out)
+	}
+	if want := fmt.Sprintf("of %d steps change a setting", f.SetPoints-1); !strings.Contains(out, want) {
+		t.Errorf("runs text lacks %q", want)
+	}
+
+	// One marked point: "1 run", "0 steps", "1 point" not runnable.
+	e := outDemoEval(t)
+	k := e.Facility("Harl Cove T2 pressurized transonic tunnel")
+	var mark [2]int
+	for _, p := range envelope.DefaultRunPoints(e.Maps[k]) {
+		mark = [2]int{p.Row, p.Col}
+		break
+	}
+	outside := [2]int{0, e.Grid.Cols() - 1}
+	sess := outDemoSession(t, [][2]int{mark, outside}, tui.WhatIf{}, "")
+	code, out, errs = outCmd("runs", "--session", sess, "--facility", "Harl Cove")
+	if code != 0 {
+		t.Fatalf("runs exit %d: %s", code, errs)
+	}
+	for _, want := range []string{"\n1 run; ", "0 of 0 steps change", "not runnable (1 point):"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("runs text lacks %q:\n%s", want, out)
+		}
+	}
+	if strings.Contains(out, "1 runs") || strings.Contains(out, "1 steps") {
+		t.Errorf("runs text has a wrong plural:\n%s", out)
 	}
 }
