@@ -63,9 +63,9 @@ func ExampleSolve() {
 	// Output:
 	// grid 14×18, 144 points inside
 	// model scale 0.050 (fitted: span 80 % of section width)
-	// full match       89 (62 %)
+	// full match       92 (64 %)
 	// Mach relaxed      6 (4 %)
-	// Reynolds short   49 (34 %)
+	// Reynolds short   46 (32 %)
 	// out of reach      0 (0 %)
 	// 11000 m, Mach 0.85: full match, flight Re 3.22e+07
 	//   p0 250 kPa, T0 117.8 K, q 78.8 kPa, Re ratio 1.00, ΔCf 0.00000, limit none

@@ -6,7 +6,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"math"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -144,18 +143,7 @@ func NewCoverageReport(e *Evaluation) CoverageReport {
 			row.FitScale = Num(m.FitScale)
 		}
 		row.setShares(m.Shares())
-		most, n := 0.0, 0
-		for i := 0; i < g.Rows(); i++ {
-			for j := 0; j < g.Cols(); j++ {
-				if !g.Inside(i, j) {
-					continue
-				}
-				if sc, ok := MinScaleFullMatch(g, f, s, i, j); ok {
-					most = math.Max(most, sc)
-					n++
-				}
-			}
-		}
+		most, n := minScaleSurvey(g, f, s)
 		row.MachMatchable = n
 		if n > 0 {
 			row.MinScale = Num(most)

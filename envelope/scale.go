@@ -66,11 +66,15 @@ func (m *Map) Fits(scale float64) bool {
 }
 
 // MinScaleFullMatch is the smallest model scale at which point (i, j)
-// becomes a full match in facility f: at the matched Mach number the best
+// becomes a full match in facility f: at every Mach number the best
 // setting's unit Reynolds number does not depend on scale, so the model
 // Reynolds number is proportional to scale and
 //
-//	scale_min = (1 − ReTol)·Re_flight / (Re_best at scale 1).
+//	scale_min = (1 − ReTol)·Re_flight / (Re_best at scale 1),
+//
+// with Re_best the highest over the Mach numbers within MachTol of flight
+// (the flight Mach number and solver.maxOver of the band), as Solve finds
+// a full match anywhere in that band.
 //
 // ok is false when the point is outside the envelope, the facility cannot
 // run the flight Mach number (within MachTol), no setting exists there, or
@@ -80,27 +84,49 @@ func MinScaleFullMatch(g *Grid, f *Facility, s Settings, i, j int) (float64, boo
 		return 0, false
 	}
 	sv := solverFor(f, s, g.Regimes, g.Vehicle.RefLength)
-	return sv.minScale(&g.points[g.Index(i, j)])
+	return sv.minScale(&g.points[g.Index(i, j)], nil)
 }
 
-func (sv *solver) minScale(r *flightRec) (float64, bool) {
+// minScale is MinScaleFullMatch for flight record r; memo, when not nil,
+// keeps the scale-1 Reynolds number per flight Mach number.
+func (sv *solver) minScale(r *flightRec, memo map[float64]float64) (float64, bool) {
 	if r.excl != InEnvelope {
 		return 0, false
 	}
 	mf := r.mach
 	mm := math.Min(math.Max(mf, sv.f.MachMin), sv.f.MachMax)
-	if math.Abs(mm-mf) > sv.mTol*(1+1e-9)+1e-12 {
+	if !sv.machMatched(mm, mf) {
 		return 0, false
 	}
-	c := sv.bounds(mm)
-	if !c.ok {
-		return 0, false
+	re1, seen := memo[mf]
+	if !seen {
+		re1 = sv.bestNearMach(mf, mm)
+		if memo != nil {
+			memo[mf] = re1
+		}
 	}
-	_, _, re1, _, _, ok := sv.best(&c)
-	if !ok || !(re1 > 0) {
+	if !(re1 > 0) {
 		return 0, false
 	}
 	return (1 - sv.reTol) * r.re / re1, true
+}
+
+// bestNearMach is the highest best-setting Reynolds number at facility
+// Mach numbers within MachTol of flight Mach number mf (mm: mf held within
+// the facility range), 0 when none is usable.
+func (sv *solver) bestNearMach(mf, mm float64) float64 {
+	var re1 float64
+	if c := sv.bounds(mm); c.ok {
+		if _, _, re, _, _, ok := sv.best(&c); ok {
+			re1 = re
+		}
+	}
+	if lo, hi, ok := sv.machBand(mf); ok {
+		if top, ok := sv.maxOver(lo, hi); ok {
+			re1 = math.Max(re1, top.re)
+		}
+	}
+	return re1
 }
 
 // MinScaleEnvelope is the smallest model scale at which every inside point
@@ -109,24 +135,24 @@ func (sv *solver) minScale(r *flightRec) (float64, bool) {
 // cannot be Mach-matched at any scale, or no point can; the scale returned
 // then still covers the points that can (0 when none can).
 func MinScaleEnvelope(g *Grid, f *Facility, s Settings) (float64, bool) {
+	most, n := minScaleSurvey(g, f, s)
+	return most, n > 0 && n == g.InsideCount()
+}
+
+// minScaleSurvey is the largest MinScaleFullMatch over the inside points
+// of g and the number of points that have one, with one solver and the
+// scale-1 Reynolds number computed once per flight Mach number.
+func minScaleSurvey(g *Grid, f *Facility, s Settings) (most float64, n int) {
 	if f.Medium == MediumWater || checkFacility(f) != nil || checkSettings(s) != nil {
-		return 0, false
+		return 0, 0
 	}
 	sv := solverFor(f, s, g.Regimes, g.Vehicle.RefLength)
-	var most float64
-	all, any := true, false
+	memo := map[float64]float64{}
 	for k := range g.points {
-		r := &g.points[k]
-		if r.excl != InEnvelope {
-			continue
+		if sc, ok := sv.minScale(&g.points[k], memo); ok {
+			most = math.Max(most, sc)
+			n++
 		}
-		sc, ok := sv.minScale(r)
-		if !ok {
-			all = false
-			continue
-		}
-		any = true
-		most = math.Max(most, sc)
 	}
-	return most, all && any
+	return most, n
 }

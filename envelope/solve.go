@@ -256,6 +256,10 @@ func (sv *solver) machMatched(mm, mf float64) bool {
 // keeps it split.
 type pointAux struct {
 	col *colMemo
+	// relaxTop is maxOver of the relaxed range (relaxOK: it exists),
+	// computed once per worker (relaxDone).
+	relaxTop           gasPick
+	relaxOK, relaxDone bool
 }
 
 // colMemo holds values a Solve worker computed for one grid column, each
@@ -275,11 +279,13 @@ type colMemo struct {
 	oorM   float64 // flight Mach number of oor, oorL (NaN: none yet)
 	oorL   Limit
 	oor    bool // outOfRange(oorM)
+	// bandRe is bandTopRe of flight Mach number bandM (NaN: none yet).
+	bandM, bandRe float64
 }
 
 func (c *colMemo) reset() {
 	nan := math.NaN()
-	c.b.M, c.bestM, c.fill.M, c.oorM = nan, nan, nan, nan
+	c.b.M, c.bestM, c.fill.M, c.oorM, c.bandM = nan, nan, nan, nan, nan
 }
 
 // fillMemo is the part of fillGas that depends on the setting alone, for
@@ -488,11 +494,7 @@ func (sv *solver) solveInto(ps *pointSol, mf, reF, tFlight float64, detail bool,
 	if sv.water {
 		sv.solveWater(ps, mf)
 	} else {
-		var col *colMemo
-		if aux != nil {
-			col = aux.col
-		}
-		sv.solveGas(ps, mf, tFlight, detail, col)
+		sv.solveGas(ps, mf, tFlight, detail, aux)
 	}
 	if ps.has && reF > 0 {
 		ps.ratio = ps.re / reF
@@ -602,7 +604,10 @@ func (sv *solver) floorT0(c *gasBounds, p0 float64) (float64, Limit) {
 // its floor there (Re rises with p0 and falls with T0, and along the
 // saturation line Re still rises with p0, so this corner is the maximum),
 // then cut back to the unit-Reynolds cap if that binds. It returns the
-// binding limits of each side.
+// binding limits of each side. The cap is met as hit meets any target:
+// T0 is raised at p0hi, so p0 stays bounded by what bounds p0hi (q max,
+// say) and the cap bounds T0 from below; only where T0 reaches T0Max does
+// p0 come down, and then the cap bounds p0 and T0Max the temperature.
 func (sv *solver) best(c *gasBounds) (p0, t0, re float64, pLim, tLim Limit, ok bool) {
 	p0 = c.p0hi
 	t0, tLim = sv.floorT0(c, p0)
@@ -615,7 +620,11 @@ func (sv *solver) best(c *gasBounds) (p0, t0, re float64, pLim, tLim Limit, ok b
 			if over {
 				return 0, 0, 0, LimitRePerM, tLim, false
 			}
-			pLim = LimitRePerM
+			if p0 < c.p0hi*(1-solveSlack) {
+				pLim, tLim = LimitRePerM, LimitT0Max
+			} else {
+				tLim = LimitRePerM
+			}
 		}
 	}
 	return p0, t0, re, pLim, tLim, true
@@ -683,10 +692,12 @@ func bindingLimit(pl, tl Limit) Limit {
 	return pl
 }
 
-// gasPick is one chosen gas setting with the bounds it was found on.
+// gasPick is one chosen gas setting with the bounds it was found on, and
+// reMax, the Reynolds number of the best setting on those bounds.
 type gasPick struct {
 	c          gasBounds
 	p0, t0, re float64
+	reMax      float64
 	pLim, tLim Limit
 	over       bool
 }
@@ -696,10 +707,19 @@ type gasPick struct {
 // below the compressibility threshold, relaxed; otherwise the point is out
 // of reach.
 //
-// col, when not nil, is the memo of the point's grid column: its values
-// are used where their inputs match and refilled otherwise.
-func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *colMemo) {
+// Where the flight Mach number falls short of a full match, the rest of
+// the Mach tolerance band is searched (searchMach) for a full match before
+// Mach is relaxed.
+//
+// aux, when not nil, holds the worker's memos: the point's grid column
+// (aux.col), whose values are used where their inputs match and refilled
+// otherwise, and the relaxed range's best setting.
+func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, aux *pointAux) {
 	f := sv.f
+	var col *colMemo
+	if aux != nil {
+		col = aux.col
+	}
 	target := ps.reFlight
 	need := (1 - sv.reTol) * target
 	mm := lesserOf(greaterOf(mf, f.MachMin), f.MachMax)
@@ -751,20 +771,24 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *
 				return
 			}
 		}
+		// Short at the flight Mach number: a full match may still lie
+		// elsewhere within the Mach tolerance.
+		if lo, hi, ok := sv.machBand(mf); ok && sv.bandTopRe(mf, lo, hi, col) >= need {
+			if top, ok := sv.maxOver(lo, hi); ok {
+				pick, _, _ := sv.searchMach(lo, hi, mm, target, &top)
+				ps.class = FullMatch
+				sv.useSearched(ps, &pick, mf, tFlight)
+				return
+			}
+		}
 	}
 	var rp gasPick
-	var rfound, reached bool
+	var rfound bool
 	if mf < sv.cm {
-		rp, rfound, reached = sv.relax(mf, target, need)
-		if reached {
+		rp, rfound, _ = sv.relaxFor(mf, target, aux)
+		if rfound && rp.re >= need {
 			ps.class = MachRelaxed
-			sv.usePick(ps, &rp, mf, tFlight, nil)
-			if rp.re >= target*(1-solveSlack) {
-				ps.limit = LimitNone
-				if rp.over {
-					ps.limit = LimitP0Min
-				}
-			}
+			sv.useSearched(ps, &rp, mf, tFlight)
 			return
 		}
 	}
@@ -785,11 +809,63 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, col *
 	}
 }
 
+// useSearched fills ps from a setting found by searchMach: no limit when it
+// reaches flight (minimum p0 when even that overshoots), otherwise the
+// binding one.
+func (sv *solver) useSearched(ps *pointSol, g *gasPick, mf, tFlight float64) {
+	sv.usePick(ps, g, mf, tFlight, nil)
+	if g.re >= ps.reFlight*(1-solveSlack) {
+		ps.limit = LimitNone
+		if g.over {
+			ps.limit = LimitP0Min
+		}
+	}
+}
+
+// bandTopRe is the Reynolds number of maxOver(lo, hi) for the Mach band of
+// flight Mach number mf (-1 when no Mach number in it is usable), from the
+// column memo when it holds that band. Only the points it lets through
+// (a full match in the band) search the band.
+func (sv *solver) bandTopRe(mf, lo, hi float64, col *colMemo) float64 {
+	if col != nil && col.bandM == mf {
+		return col.bandRe
+	}
+	re := -1.0
+	if top, ok := sv.maxOver(lo, hi); ok {
+		re = top.re
+	}
+	if col != nil {
+		col.bandM, col.bandRe = mf, re
+	}
+	return re
+}
+
+// relaxFor is relax with the highest setting of the relaxed range taken
+// from the worker's memo (aux, when not nil), so that points that cannot
+// reach it skip the search.
+func (sv *solver) relaxFor(mf, target float64, aux *pointAux) (gasPick, bool, bool) {
+	lo, hi := sv.f.MachMin, math.Min(sv.f.MachMax, sv.cm)
+	if !(hi > lo) {
+		return gasPick{}, false, false
+	}
+	var top *gasPick
+	if aux != nil {
+		if !aux.relaxDone {
+			aux.relaxDone = true
+			aux.relaxTop, aux.relaxOK = sv.maxOver(lo, hi)
+		}
+		if aux.relaxOK {
+			top = &aux.relaxTop
+		}
+	}
+	return sv.searchMach(lo, hi, mf, target, top)
+}
+
 // usePick fills ps from a chosen setting, with the binding limit when the
 // setting falls short of flight.
 func (sv *solver) usePick(ps *pointSol, g *gasPick, mf, tFlight float64, fm *fillMemo) {
 	sv.fillGas(ps, &g.c, g.p0, g.t0, g.re, mf, tFlight, fm)
-	ps.reMax, ps.pLim, ps.tLim = g.re, g.pLim, g.tLim
+	ps.reMax, ps.pLim, ps.tLim = greaterOf(g.reMax, g.re), g.pLim, g.tLim
 	if g.re < ps.reFlight*(1-solveSlack) {
 		ps.limit = bindingLimit(g.pLim, g.tLim)
 	}
@@ -797,18 +873,45 @@ func (sv *solver) usePick(ps *pointSol, g *gasPick, mf, tFlight float64, fm *fil
 
 // relax looks for the facility Mach number nearest flight, at or below the
 // compressibility threshold, whose best setting reaches the flight Reynolds
-// number. It samples the usable range every relaxStep in Mach from the
-// facility's lowest Mach number and bisects (at most relaxIter steps, to relaxTol in Mach) between the nearest
-// sample that reaches the target and the Mach number nearest flight. If no
-// Mach number reaches the target it returns the sample of highest Reynolds
-// number, reached reporting whether that is within tolerance (need). found
-// is false when no Mach number in the range is usable at all.
-func (sv *solver) relax(mf, target, need float64) (pick gasPick, found, reached bool) {
+// number target (Mach relaxed), by searchMach over the facility's usable
+// range. found is false when no Mach number in the range is usable at all;
+// hit reports that pick reaches target, otherwise pick is the setting of
+// highest Reynolds number in the range.
+func (sv *solver) relax(mf, target float64) (pick gasPick, found, hit bool) {
 	lo, hi := sv.f.MachMin, math.Min(sv.f.MachMax, sv.cm)
 	if !(hi > lo) {
 		return pick, false, false
 	}
-	m0 := math.Min(math.Max(mf, lo), hi)
+	return sv.searchMach(lo, hi, mf, target, nil)
+}
+
+// machBand is the range of facility Mach numbers that match flight Mach
+// number mf within the Mach tolerance, [mf − MachTol, mf + MachTol] held
+// within the facility range; ok is false when it is a single point or
+// empty.
+func (sv *solver) machBand(mf float64) (lo, hi float64, ok bool) {
+	lo = greaterOf(mf-sv.mTol, sv.f.MachMin)
+	hi = lesserOf(mf+sv.mTol, sv.f.MachMax)
+	return lo, hi, hi-lo > relaxTol
+}
+
+// searchMach looks in [lo, hi] for the facility Mach number nearest m0
+// (held within the range) whose best setting reaches target, and returns
+// the operator's setting there (relaxAt). The range is sampled at both
+// ends exactly and at every multiple of relaxStep between them (so the
+// samples inside do not depend on where the ends lie); when no sample
+// reaches target, the highest setting of the range (maxOver) decides, and
+// where even that reaches target (a peak narrower than the step) its Mach
+// number stands in for the nearest sample. The Mach number is then located
+// by bisection (at most relaxIter steps, to relaxTol) between m0 and the
+// nearest Mach number that reaches.
+//
+// top, when not nil, is maxOver(lo, hi) already known; the search then
+// skips what it can. If no Mach number reaches target, pick is that
+// highest setting and hit is false; found is false when no Mach number in
+// the range is usable.
+func (sv *solver) searchMach(lo, hi, m0, target float64, top *gasPick) (pick gasPick, found, hit bool) {
+	m0 = lesserOf(greaterOf(m0, lo), hi)
 	reaches := func(M float64) (gasBounds, bool) {
 		b := sv.bounds(M)
 		_, _, _, _, ok := sv.tryHit(&b, target)
@@ -817,51 +920,194 @@ func (sv *solver) relax(mf, target, need float64) (pick gasPick, found, reached 
 	if b, yes := reaches(m0); yes {
 		return sv.relaxAt(&b, target), true, true
 	}
-	nearest, nearestD := -1.0, math.Inf(1)
-	var top gasPick
-	top.re = -1
-	for k, n := 0, int((hi-lo)/relaxStep); k <= n; k++ {
-		M := lo + float64(k)*relaxStep
-		b, yes := reaches(M)
-		if yes {
+	if top != nil && top.re < target*(1-solveSlack) {
+		return *top, true, false
+	}
+	nearest, nearestD := math.NaN(), math.Inf(1)
+	var samples [machSampleCap]float64
+	for _, M := range machSamples(lo, hi, samples[:0]) {
+		if _, yes := reaches(M); yes {
 			if d := math.Abs(M - m0); d < nearestD {
 				nearest, nearestD = M, d
 			}
-			continue
 		}
-		if nearest < 0 && b.ok {
-			var g gasPick
-			var ok bool
-			g.c = b
-			if g.p0, g.t0, g.re, g.pLim, g.tLim, ok = sv.best(&b); ok && g.re > top.re {
-				top = g
+	}
+	if math.IsNaN(nearest) {
+		if top == nil {
+			t, ok := sv.maxOver(lo, hi)
+			if !ok {
+				return pick, false, false
 			}
+			top = &t
+		}
+		if top.re < target*(1-solveSlack) {
+			return *top, true, false
+		}
+		if _, yes := reaches(top.c.M); !yes {
+			return *top, true, false
+		}
+		nearest = top.c.M
+	}
+	fail, pass := m0, nearest
+	for it := 0; it < relaxIter && math.Abs(pass-fail) > relaxTol; it++ {
+		mid := 0.5 * (fail + pass)
+		if _, yes := reaches(mid); yes {
+			pass = mid
+		} else {
+			fail = mid
 		}
 	}
-	if nearest >= 0 {
-		fail, pass := m0, nearest
-		for it := 0; it < relaxIter && math.Abs(pass-fail) > relaxTol; it++ {
-			mid := 0.5 * (fail + pass)
-			if _, yes := reaches(mid); yes {
-				pass = mid
-			} else {
-				fail = mid
-			}
-		}
-		b := sv.bounds(pass)
-		return sv.relaxAt(&b, target), true, true
-	}
-	if top.re < 0 {
-		return pick, false, false
-	}
-	return top, true, top.re >= need
+	b := sv.bounds(pass)
+	return sv.relaxAt(&b, target), true, true
 }
 
-// relaxAt is the operator's setting reaching target on bounds b.
+// machSampleCap bounds the number of Mach samples of one search: the whole
+// range up to Mach 1 (the relaxed range lies below the compressibility
+// threshold) at relaxStep, with both ends. Wider ranges are sampled at a
+// coarser multiple of the step (machSamples).
+const machSampleCap = int(1/relaxStep) + 3
+
+// maxOver is the highest-Reynolds setting over facility Mach numbers
+// lo..hi: the best of the samples of machSamples, refined by golden-section
+// search where a higher value may lie between samples (see needsRefine).
+// ok is false when no Mach number in the range is usable.
+func (sv *solver) maxOver(lo, hi float64) (gasPick, bool) {
+	var samples [machSampleCap]float64
+	var res [machSampleCap]float64
+	var lims [machSampleCap][2]Limit
+	ms := machSamples(lo, hi, samples[:0])
+	var best gasPick
+	best.re = -1
+	bestK := -1
+	for k, M := range ms {
+		b := sv.bounds(M)
+		g, ok := sv.pickAt(&b)
+		res[k], lims[k] = -1, [2]Limit{}
+		if !ok {
+			continue
+		}
+		res[k], lims[k] = g.re, [2]Limit{g.pLim, g.tLim}
+		if g.re > best.re {
+			best, bestK = g, k
+		}
+	}
+	if bestK < 0 {
+		return best, false
+	}
+	if a, b, ok := needsRefine(bestK, res[:len(ms)], lims[:len(ms)]); ok {
+		best = sv.refineTop(ms[a], ms[b], best)
+	}
+	return best, true
+}
+
+// needsRefine says whether a higher value than the best sample (index k)
+// may lie between samples, and between which: when the best is interior
+// (the peak lies between its neighbours), or when a neighbour's best
+// setting is bounded by other limits (the maximum may sit where the limits
+// change over, e.g. where q max starts to bind). Between two samples on
+// the same limits at the end of the range the best-setting Reynolds number
+// is smooth, and the end sample stands for the peak to within the
+// curvature over one step.
+func needsRefine(k int, res []float64, lims [][2]Limit) (a, b int, ok bool) {
+	n := len(res)
+	if n < 2 {
+		return 0, 0, false
+	}
+	if k > 0 && k < n-1 {
+		return k - 1, k + 1, true
+	}
+	nb := 1
+	if k == n-1 {
+		nb = n - 2
+	}
+	if res[nb] < 0 || lims[nb] != lims[k] {
+		return min(k, nb), max(k, nb), true
+	}
+	return 0, 0, false
+}
+
+// machSamples appends to buf the Mach numbers searchMach samples in
+// [lo, hi]: lo, every multiple of the sample step strictly between, and hi,
+// both ends exactly. (An end within a hundredth of a step of a multiple
+// stands for that multiple.) The step is relaxStep, or for a range wider
+// than machSampleCap samples allow, the smallest multiple of it that fits.
+func machSamples(lo, hi float64, buf []float64) []float64 {
+	buf = append(buf, lo)
+	if !(hi > lo) {
+		return buf
+	}
+	step := relaxStep
+	for (hi-lo)/step > float64(machSampleCap-3) {
+		step *= 2
+	}
+	endGap := 0.01 * step
+	for k := math.Ceil(lo / step); ; k++ {
+		M := k * step
+		if M >= hi-endGap {
+			break
+		}
+		if M > lo+endGap {
+			buf = append(buf, M)
+		}
+	}
+	return append(buf, hi)
+}
+
+// pickAt is the best setting on bounds b (see best) as a gasPick.
+func (sv *solver) pickAt(b *gasBounds) (gasPick, bool) {
+	g := gasPick{c: *b}
+	var ok bool
+	g.p0, g.t0, g.re, g.pLim, g.tLim, ok = sv.best(b)
+	if !ok || !b.ok {
+		return g, false
+	}
+	g.reMax = g.re
+	return g, true
+}
+
+// refineTop improves top by a golden-section search for the highest
+// best-setting Reynolds number between Mach numbers a and b, to relaxTol.
+// The refined setting replaces top only where it is higher.
+func (sv *solver) refineTop(a, b float64, top gasPick) gasPick {
+	if !(b-a > relaxTol) {
+		return top
+	}
+	const invPhi = 0.6180339887498949 // (√5 − 1)/2
+	eval := func(M float64) gasPick {
+		c := sv.bounds(M)
+		g, ok := sv.pickAt(&c)
+		if !ok {
+			g.re = -1
+		}
+		return g
+	}
+	x1, x2 := b-invPhi*(b-a), a+invPhi*(b-a)
+	g1, g2 := eval(x1), eval(x2)
+	for it := 0; it < relaxIter && b-a > relaxTol; it++ {
+		if g1.re >= g2.re {
+			b, x2, g2 = x2, x1, g1
+			x1 = b - invPhi*(b-a)
+			g1 = eval(x1)
+		} else {
+			a, x1, g1 = x1, x2, g2
+			x2 = a + invPhi*(b-a)
+			g2 = eval(x2)
+		}
+	}
+	for _, g := range [...]gasPick{g1, g2} {
+		if g.re > top.re {
+			top = g
+		}
+	}
+	return top
+}
+
+// relaxAt is the operator's setting reaching target on bounds b, with the
+// limits and the Reynolds number of the best setting there (reMax).
 func (sv *solver) relaxAt(b *gasBounds, target float64) gasPick {
 	g := gasPick{c: *b}
 	g.p0, g.t0, g.re, g.over, _ = sv.tryHit(b, target)
-	_, _, _, g.pLim, g.tLim, _ = sv.best(b)
+	_, _, g.reMax, g.pLim, g.tLim, _ = sv.best(b)
 	if g.over {
 		g.pLim, g.tLim = LimitP0Min, LimitT0Max
 	}
