@@ -13,17 +13,19 @@ type Class uint8
 const (
 	// Outside: the point is outside the flight envelope.
 	Outside Class = iota
-	// FullMatch: Mach number within Settings.MachTol and Reynolds number
-	// at least (1 − Settings.ReTol) of flight.
+	// FullMatch: test Mach number within Settings.MachTol of flight (the
+	// flight Mach number where it serves, else the nearest in that band)
+	// and Reynolds number at least (1 − Settings.ReTol) of flight.
 	FullMatch
 	// ReShort: Mach number matched, Reynolds number short of flight; the
 	// best reachable Reynolds number is reported with its ratio and the
 	// skin-friction penalty ΔCf.
 	ReShort
 	// MachRelaxed: Reynolds number matched at a facility Mach number other
-	// than flight, allowed only where flight and facility Mach numbers are
-	// both below Settings.CompressibilityMach (water facilities always
-	// match this way).
+	// than flight (usually higher: a low-speed flight Reynolds number needs
+	// more speed in a smaller model), allowed only where flight and
+	// facility Mach numbers are both below Settings.CompressibilityMach
+	// (water facilities always match this way).
 	MachRelaxed
 	// NoMatch: out of reach; Result.Limit says which limit stops it.
 	NoMatch

@@ -424,7 +424,7 @@ func ReachableRe(m *Map, samples int) []ReRange {
 		if sv.rpm > 0 {
 			vcap = math.Min(vcap, sv.rpm*hot.KinematicViscosity)
 		}
-		cold, err := atmos.WaterAt(f.T0Min)
+		cold, err := sv.waterAt(f.T0Min)
 		if err != nil || vcap < f.SpeedMin {
 			return nil
 		}

@@ -314,17 +314,17 @@ func TestPropertyConcurrentSolves(t *testing.T) {
 //
 // Invented water tunnel whose minimum speed sits just under the q limit at
 // its warmest water (40 °C); water at 10 °C is about 0.8 % denser
-// (IAPWS-IF97 region 1, as atmos.WaterAt gives it), so cooling all the way
-// would break the limit.
+// (IAPWS-IF97 region 1 at its 3 bar static pressure, as the solver takes
+// it), so cooling all the way would break the limit.
 func TestWaterCoolingKeepsDynamicPressure(t *testing.T) {
-	const qmax = 50e3
-	hot, err := atmos.WaterAt(313.15)
+	const qmax, pStatic = 50e3, 3e5
+	hot, err := atmos.WaterAtPressure(313.15, pStatic)
 	if err != nil {
 		t.Fatal(err)
 	}
 	vmin := math.Sqrt(2*qmax/hot.Density) * (1 - 1e-6)
 	f := Facility{Name: "q-limited water", Medium: MediumWater, SpeedMin: vmin, SpeedMax: 3 * vmin,
-		P0Min: 1e5, P0Max: 3e5, T0Min: 283.15, T0Max: 313.15, QMax: qmax, Width: 1, Height: 1}
+		P0Min: 1e5, P0Max: pStatic, T0Min: 283.15, T0Max: 313.15, QMax: qmax, Width: 1, Height: 1}
 	s := testSettings()
 	s.Scale = 0.5
 	g, err := NewGrid(onePointVehicle(10000, 0.01, 1), s)
@@ -349,7 +349,7 @@ func TestWaterCoolingKeepsDynamicPressure(t *testing.T) {
 		t.Errorf("setting %.4f K at %.6g m/s, want within %g–%g K at the minimum speed %.6g", d.T0, d.V, f.T0Min, f.T0Max, vmin)
 	}
 	// The water is as cold as the limit allows: 0.01 K colder breaks it.
-	colder, err := atmos.WaterAt(d.T0 - 0.01)
+	colder, err := atmos.WaterAtPressure(d.T0-0.01, pStatic)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -4,6 +4,8 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"likewind/atmos"
 )
 
 // facilityNamed is the map of the facility whose name starts with prefix.
@@ -294,5 +296,65 @@ func TestPressureSideLimitUnderReCap(t *testing.T) {
 			t.Errorf("cap %g of the uncapped best: p0 %.6g T0 %.5g limits %v / %v, want %v / %v",
 				c.cap, p0, t0, pl, tl, c.pLim, c.tLim)
 		}
+	}
+}
+
+// TestWaterAtSectionPressure: water properties are taken at the
+// test-section static pressure, not at one atmosphere. IAPWS R7-97(2012)
+// (IAPWS-IF97), Table 5, region 1 verification values: v = 0.100215168e-2
+// m³/kg at 300 K and 3 MPa, 0.971180894e-3 m³/kg at 300 K and 80 MPa (at
+// 1 atm water at 300 K is lighter by 0.13 % and 3.5 %).
+func TestWaterAtSectionPressure(t *testing.T) {
+	for _, c := range []struct{ p, v float64 }{{3e6, 0.100215168e-2}, {80e6, 0.971180894e-3}} {
+		f := Facility{Name: "pressurised water", Medium: MediumWater, SpeedMin: 0.5, SpeedMax: 20,
+			P0Min: c.p, P0Max: c.p, T0Min: 300, T0Max: 300, Width: 1, Height: 1}
+		s := testSettings()
+		s.Scale = 0.1
+		g, err := NewGrid(onePointVehicle(3000, 0.1, 2), s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		m, err := Solve(g, &f, s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		d, err := m.Detail(0, 0)
+		if err != nil || !d.HasSettings {
+			t.Fatalf("p %g Pa: detail %+v, %v", c.p, d, err)
+		}
+		// Nine printed figures (IF97 Table 5).
+		if got := 1 / d.Density; relErr(got, c.v) > 1e-8 {
+			t.Errorf("p %g Pa: water specific volume %.9e m³/kg, want %.9e (IF97 Table 5)", c.p, got, c.v)
+		}
+		if d.P != c.p {
+			t.Errorf("p %g Pa: test-section static pressure %g", c.p, d.P)
+		}
+	}
+	// The demo water tunnel at its 2.5 bar static pressure: density and
+	// viscosity are those of IF97 at 2.5 bar, which differ from 1 atm.
+	_, maps := outDemoMaps(t)
+	m := facilityNamed(t, maps, "Wenlow")
+	g := m.Grid
+	checked := 0
+	for i := 0; i < g.Rows() && checked < 5; i++ {
+		for j := 0; j < g.Cols() && checked < 5; j++ {
+			d, _ := m.Detail(i, j)
+			if !d.Flight.Inside || !d.HasSettings {
+				continue
+			}
+			checked++
+			at, err := atmos.WaterAtPressure(d.T0, d.P)
+			if err != nil {
+				t.Fatal(err)
+			}
+			atm, _ := atmos.WaterAt(d.T0)
+			if d.P != 2.5e5 || d.Density != at.Density || d.Viscosity != at.Viscosity || !(d.Density/atm.Density-1 > 5e-5) {
+				t.Errorf("Wenlow (%d, %d): p %g, ρ %.8g, μ %.8g; want IF97 at 2.5 bar ρ %.8g, μ %.8g (1 atm: %.8g)",
+					i, j, d.P, d.Density, d.Viscosity, at.Density, at.Viscosity, atm.Density)
+			}
+		}
+	}
+	if checked == 0 {
+		t.Fatal("no Wenlow point with settings")
 	}
 }

@@ -17,13 +17,14 @@ const PlanningNote = "Planning estimate only: confirm settings with the facility
 
 // Bounded searches of the solver (the rest is closed form).
 const (
-	// relaxStep is the spacing of the facility Mach numbers sampled, from
-	// the facility's lowest Mach number up, when looking for the Mach
-	// number nearest flight that reaches the flight Reynolds number (Mach
-	// relaxed). The samples do not depend on the compressibility
-	// threshold, which only cuts them off, so a higher threshold searches
-	// a superset and never gives a worse answer. Below Mach 1 that is at
-	// most 400 samples; only points that need Mach relaxed search them.
+	// relaxStep is the spacing of the facility Mach numbers sampled when
+	// looking for the Mach number nearest flight that reaches the flight
+	// Reynolds number (Mach relaxed, or within the Mach tolerance band):
+	// every multiple of relaxStep inside the range, and both ends exactly
+	// (machSamples). The samples inside do not depend on the range's ends,
+	// which only cut them off, so a higher compressibility threshold or a
+	// lower Mach-range end searches a superset. Below Mach 1 that is at
+	// most 400 samples; only points that need a search make one.
 	relaxStep = 0.0025
 	// relaxIter caps the bisection that then locates that Mach number;
 	// it stops earlier once the bracket is narrower than relaxTol.
@@ -425,14 +426,14 @@ func solverFor(f *Facility, s Settings, reg atmos.Regimes, L float64) *solver {
 		rpm: f.MaxReynoldsPerM,
 	}
 	if sv.water {
-		sv.hot, _ = atmos.WaterAt(f.T0Max) // range checked by checkFacility
-		sv.cold, _ = atmos.WaterAt(f.T0Min)
 		switch {
 		case f.P0Max > 0:
 			sv.pStatic = f.P0Max
 		default:
 			sv.pStatic = math.Max(f.P0Min, atmos.SeaLevelPressure)
 		}
+		sv.hot, _ = sv.waterAt(f.T0Max) // range checked by checkFacility
+		sv.cold, _ = sv.waterAt(f.T0Min)
 		return sv
 	}
 	var gas atmos.IdealGas
@@ -452,6 +453,14 @@ func solverFor(f *Facility, s Settings, reg atmos.Regimes, L float64) *solver {
 	sv.peakTau = 1 / (1 + 0.5*(sv.gamma-1)*sv.peakM*sv.peakM)
 	sv.peakPi = sv.pressureRatio(sv.peakTau)
 	return sv
+}
+
+// waterAt is liquid water at temperature T and the test-section static
+// pressure (IAPWS-IF97 region 1 depends on pressure: 2.5 bar makes water
+// denser than at 1 atm by about 7e-5), or at the vapour pressure where that
+// is higher, so that the state stays liquid.
+func (sv *solver) waterAt(T float64) (atmos.WaterState, error) {
+	return atmos.WaterAtPressure(T, math.Max(sv.pStatic, atmos.WaterVapourPressure(T)))
 }
 
 // pointSol is the full-precision answer for one point.
@@ -1272,7 +1281,7 @@ func (sv *solver) coldestWithinQ(cold atmos.WaterState, V float64) atmos.WaterSt
 	keep := sv.hot
 	lo, hi := cold.Temperature, sv.hot.Temperature
 	for it := 0; it < waterIter && hi-lo > waterTolK; it++ {
-		w, err := atmos.WaterAt(0.5 * (lo + hi))
+		w, err := sv.waterAt(0.5 * (lo + hi))
 		if err != nil {
 			break
 		}
@@ -1307,7 +1316,7 @@ func (sv *solver) coolFor(V, target float64) (atmos.WaterState, bool) {
 		if !(T > lo && T < hi) {
 			T = 0.5 * (lo + hi)
 		}
-		w, err := atmos.WaterAt(T)
+		w, err := sv.waterAt(T)
 		if err != nil {
 			break
 		}
@@ -1337,7 +1346,7 @@ func (sv *solver) coolFor(V, target float64) (atmos.WaterState, bool) {
 // speed range and the unit Reynolds cap).
 func (sv *solver) waterSweep(q float64) (lo, hi float64) {
 	re := func(T float64) float64 {
-		w, err := atmos.WaterAt(T)
+		w, err := sv.waterAt(T)
 		if err != nil {
 			return 0
 		}

@@ -558,17 +558,19 @@ func TestReynoldsSweep(t *testing.T) {
 	}
 }
 
-// TestWaterHandWorked: water at 20 °C, ρ = 998.21 kg/m³, μ = 1.0016e-3 Pa·s
-// (CRC Handbook, from memory), vapour pressure 2339 Pa (IAPWS-IF97), model
+// TestWaterHandWorked: water at 20 °C and a static pressure of one
+// atmosphere, ρ = 998.21 kg/m³, μ = 1.0016e-3 Pa·s (CRC Handbook, from
+// memory, values at 1 atm), vapour pressure 2339 Pa (IAPWS-IF97), model
 // length 0.5 m, flight Re 5e6 at Mach 0.2:
 //
 //	ν = 1.0016e-3/998.21         = 1.00340e-6 m²/s
 //	V = Re·ν/L = 5e6 × 1.00340e-6/0.5 = 10.034 m/s
 //	q = ½ × 998.21 × 10.034²     = 50 250 Pa
-//	σ = (200 000 − 2339)/50 250  = 3.9335
+//	σ = (101 325 − 2339)/50 250  = 1.9699
 func TestWaterHandWorked(t *testing.T) {
 	f := waterTunnel()
 	f.T0Min, f.T0Max = 293.15, 293.15
+	f.P0Min, f.P0Max = 0, atmos.SeaLevelPressure
 	sv := testSolver(t, f, testSettings(), 0.5)
 	ps := sv.solve(0.2, 5e6, 288.15, true)
 	if ps.class != MachRelaxed {
@@ -577,7 +579,7 @@ func TestWaterHandWorked(t *testing.T) {
 	for _, c := range []struct {
 		name      string
 		got, want float64
-	}{{"V", ps.v, 10.034}, {"q", ps.q, 50250}, {"sigma", ps.sigma, 3.9335}, {"Re", ps.re, 5e6}, {"p", ps.p, 2e5}} {
+	}{{"V", ps.v, 10.034}, {"q", ps.q, 50250}, {"sigma", ps.sigma, 1.9699}, {"Re", ps.re, 5e6}, {"p", ps.p, atmos.SeaLevelPressure}} {
 		if e := relErr(c.got, c.want); e > handTol {
 			t.Errorf("water %s = %.6g, want %.5g (rel err %.2g)", c.name, c.got, c.want, e)
 		}

@@ -12,6 +12,11 @@ const SafetyNote = "Results are planning estimates. Pressure vessels, cryogenic 
 	"and model loads need the facility's own procedures, local codes and " +
 	"licensed engineering practice."
 
+// ClassHelp defines the match classes on the help screen.
+const ClassHelp = "full match = Mach within tolerance and Reynolds number at least (1 - tol) of flight; " +
+	"Reynolds short = Mach matched, Reynolds number below; Mach relaxed = Reynolds matched at a Mach " +
+	"other than flight (usually higher), both below the compressibility threshold; out of reach = neither."
+
 // helpTextWidth caps the width of the help paragraphs for reading.
 const helpTextWidth = 96
 
@@ -65,9 +70,7 @@ func (v helpView) Overlay() string {
 	para("Layers:", "match class, flow regime, Reynolds ratio (model/flight), "+
 		"tunnel q as a share of its limit, flight Mach number. Glyphs differ per value; "+
 		"the legend under the matrix lists them.")
-	para("Classes:", "full match = Mach within tolerance and Reynolds number at least (1 - tol) of flight; "+
-		"Reynolds short = Mach matched, Reynolds number below; Mach relaxed = Reynolds matched "+
-		"at a lower Mach, allowed below the compressibility threshold; out of reach = neither.")
+	para("Classes:", ClassHelp)
 	para("What-if:", "values take units, e.g. 3 bar, 45 psi, -150 degC, 10 K; "+
 		"changed values are listed in the header; R restores the files' values.")
 	b.WriteString(wrapText(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w))
