@@ -56,6 +56,13 @@ func TestRelaxReachesTopOfRange(t *testing.T) {
 	if r := d.Re / bestRe(m, 0.2975); !(r > 1) {
 		t.Errorf("(5, 3): model Re %g not above the best at Mach 0.2975 (%g)", d.Re, bestRe(m, 0.2975))
 	}
+	// Rows 8 col 4 and 29 col 21 alike (flight Mach 0.08 and 0.25).
+	for _, p := range [][2]int{{8, 4}, {29, 21}} {
+		d, _ := m.Detail(p[0], p[1])
+		if d.Class != MachRelaxed || d.Mach != m.Settings.CompressibilityMach {
+			t.Errorf("(%d, %d): %v at test Mach %g, want Mach relaxed at %g", p[0], p[1], d.Class, d.Mach, m.Settings.CompressibilityMach)
+		}
+	}
 }
 
 // TestRelaxClassIndependentOfMachMin: where only Mach relaxed can match

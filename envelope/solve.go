@@ -1046,7 +1046,7 @@ func machSamples(lo, hi float64, buf []float64) []float64 {
 		return buf
 	}
 	step := relaxStep
-	for (hi-lo)/step > float64(machSampleCap-3) {
+	for (hi-lo)/step > float64(machSampleCap-4) {
 		step *= 2
 	}
 	endGap := 0.01 * step
