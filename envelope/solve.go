@@ -849,10 +849,15 @@ func (sv *solver) bandTopRe(mf, lo, hi float64, col *colMemo) float64 {
 	return re
 }
 
-// relaxFor is relax with the highest setting of the relaxed range taken
-// from the worker's memo (aux, when not nil), so that points that cannot
-// reach it skip the search.
-func (sv *solver) relaxFor(mf, target float64, aux *pointAux) (gasPick, bool, bool) {
+// relaxFor looks for the facility Mach number nearest flight, at or below
+// the compressibility threshold, whose best setting reaches the flight
+// Reynolds number target (Mach relaxed), by searchMach over the facility's
+// usable range, with the highest setting of that range taken from the
+// worker's memo (aux, when not nil) so that points that cannot reach it
+// skip the search. found is false when no Mach number in the range is
+// usable; hit reports that pick reaches target, otherwise pick is the
+// range's highest setting.
+func (sv *solver) relaxFor(mf, target float64, aux *pointAux) (pick gasPick, found, hit bool) {
 	lo, hi := sv.f.MachMin, math.Min(sv.f.MachMax, sv.cm)
 	if !(hi > lo) {
 		return gasPick{}, false, false
@@ -878,20 +883,6 @@ func (sv *solver) usePick(ps *pointSol, g *gasPick, mf, tFlight float64, fm *fil
 	if g.re < ps.reFlight*(1-solveSlack) {
 		ps.limit = bindingLimit(g.pLim, g.tLim)
 	}
-}
-
-// relax looks for the facility Mach number nearest flight, at or below the
-// compressibility threshold, whose best setting reaches the flight Reynolds
-// number target (Mach relaxed), by searchMach over the facility's usable
-// range. found is false when no Mach number in the range is usable at all;
-// hit reports that pick reaches target, otherwise pick is the setting of
-// highest Reynolds number in the range.
-func (sv *solver) relax(mf, target float64) (pick gasPick, found, hit bool) {
-	lo, hi := sv.f.MachMin, math.Min(sv.f.MachMax, sv.cm)
-	if !(hi > lo) {
-		return pick, false, false
-	}
-	return sv.searchMach(lo, hi, mf, target, nil)
 }
 
 // machBand is the range of facility Mach numbers that match flight Mach
