@@ -887,11 +887,12 @@ func (sv *solver) usePick(ps *pointSol, g *gasPick, mf, tFlight float64, fm *fil
 
 // machBand is the range of facility Mach numbers that match flight Mach
 // number mf within the Mach tolerance, [mf − MachTol, mf + MachTol] held
-// within the facility range; ok is false when it is a single point or
+// within the facility range (each end the decimal it stands for, 2.56 for
+// 2.55 + 0.01; see tidyDecimal); ok is false when it is a single point or
 // empty.
 func (sv *solver) machBand(mf float64) (lo, hi float64, ok bool) {
-	lo = greaterOf(mf-sv.mTol, sv.f.MachMin)
-	hi = lesserOf(mf+sv.mTol, sv.f.MachMax)
+	lo = greaterOf(tidyDecimal(mf-sv.mTol), sv.f.MachMin)
+	hi = lesserOf(tidyDecimal(mf+sv.mTol), sv.f.MachMax)
 	return lo, hi, hi-lo > relaxTol
 }
 
