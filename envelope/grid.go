@@ -6,7 +6,6 @@ import (
 	"math"
 	"runtime"
 	"sort"
-	"strconv"
 	"sync"
 	"sync/atomic"
 	"unsafe"
@@ -658,22 +657,34 @@ func tidyAxis(xs []float64) {
 // a margin, and far below any physical meaning.
 const tidyDecimalUlps = 4
 
-// tidyDecimal is the number of at most 15 significant decimal digits
+// tidyDecimal is the decimal of at most 15 places (N/10^d, |N| < 2^53)
 // nearest to x when that lies within tidyDecimalUlps of x (the float64
 // rounding of a computation on decimal inputs, such as min + i·step);
-// otherwise x itself. Its shortest round-trip form is then the decimal
-// the user wrote or would write ("0.3", "1828.8").
+// otherwise x itself. N/10^d is computed as one correctly rounded division
+// of two exact numbers, so the result is the float64 nearest that decimal,
+// and its shortest round-trip form is the decimal the user wrote or would
+// write ("0.3", "1828.8"). It takes a few multiplications, no formatting.
 func tidyDecimal(x float64) float64 {
 	if x == 0 || !isFiniteNum(x) {
 		return x
 	}
-	y, err := strconv.ParseFloat(strconv.FormatFloat(x, 'g', 15, 64), 64)
-	if err != nil {
-		return x
-	}
 	ax := math.Abs(x)
-	if math.Abs(y-x) <= tidyDecimalUlps*(math.Nextafter(ax, math.Inf(1))-ax) {
-		return y
+	ulp := math.Nextafter(ax, math.Inf(1)) - ax
+	p := 1.0
+	for d := 0; d <= 15; d++ {
+		v := x * p
+		if math.Abs(v) >= 1<<53 {
+			break
+		}
+		n := math.Round(v)
+		// v carries x's own offset (at most tidyDecimalUlps) times 10^d
+		// plus the half-ulp rounding of the product.
+		if math.Abs(v-n) <= (tidyDecimalUlps+1)*ulp*p {
+			if y := n / p; math.Abs(y-x) <= tidyDecimalUlps*ulp {
+				return y
+			}
+		}
+		p *= 10
 	}
 	return x
 }

@@ -782,7 +782,8 @@ func (sv *solver) solveGas(ps *pointSol, mf, tFlight float64, detail bool, aux *
 		}
 		// Short at the flight Mach number: a full match may still lie
 		// elsewhere within the Mach tolerance.
-		if lo, hi, ok := sv.machBand(mf); ok && sv.bandTopRe(mf, lo, hi, col) >= need {
+		if sv.mTol > 0 && sv.bandTopRe(mf, col) >= need {
+			lo, hi, _ := sv.machBand(mf)
 			if top, ok := sv.maxOver(lo, hi); ok {
 				pick, _, _ := sv.searchMach(lo, hi, mm, target, &top)
 				ps.class = FullMatch
@@ -831,17 +832,20 @@ func (sv *solver) useSearched(ps *pointSol, g *gasPick, mf, tFlight float64) {
 	}
 }
 
-// bandTopRe is the Reynolds number of maxOver(lo, hi) for the Mach band of
-// flight Mach number mf (-1 when no Mach number in it is usable), from the
-// column memo when it holds that band. Only the points it lets through
-// (a full match in the band) search the band.
-func (sv *solver) bandTopRe(mf, lo, hi float64, col *colMemo) float64 {
+// bandTopRe is the Reynolds number of maxOver over the Mach band of flight
+// Mach number mf (machBand; -1 when the band is a single point or no Mach
+// number in it is usable), from the column memo when it holds that band.
+// Only the points it lets through (a full match in the band) search the
+// band.
+func (sv *solver) bandTopRe(mf float64, col *colMemo) float64 {
 	if col != nil && col.bandM == mf {
 		return col.bandRe
 	}
 	re := -1.0
-	if top, ok := sv.maxOver(lo, hi); ok {
-		re = top.re
+	if lo, hi, ok := sv.machBand(mf); ok {
+		if top, ok := sv.maxOver(lo, hi); ok {
+			re = top.re
+		}
 	}
 	if col != nil {
 		col.bandM, col.bandRe = mf, re
