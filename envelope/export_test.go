@@ -389,3 +389,33 @@ func TestExportGridDecimals(t *testing.T) {
 		}
 	}
 }
+
+// TestExportPressureAltitude: the demo's altitudes are pressure altitudes,
+// which lie on the geopotential scale. At 36 000 ft (10 972.8 m) the
+// standard temperature is 288.15 K − 6.5 K/km' × 10.9728 km' = 216.8268 K
+// (ISA / USSA 1976 defining sea-level temperature and lapse rate of the
+// first layer); read as a geometric height (10 953.9 m') it would be
+// 216.95 K. pressure_altitude_m is the grid altitude itself.
+func TestExportPressureAltitude(t *testing.T) {
+	_, maps := outDemoMaps(t)
+	found := 0
+	err := EachRecord(maps[:1], func(r ExportRecord) error {
+		if r.AltitudeKind != "pressure" || r.PressureAltitude != r.Altitude {
+			t.Fatalf("record (%d, %d): %s altitude %v, pressure_altitude_m %v", r.Row, r.Col, r.AltitudeKind, float64(r.Altitude), float64(r.PressureAltitude))
+		}
+		if r.Altitude != 10972.8 {
+			return nil
+		}
+		found++
+		if want := 288.15 - 0.0065*10972.8; math.Abs(float64(r.Temperature)-want) > 1e-9 {
+			t.Errorf("(%d, %d) at 36000 ft pressure altitude: temperature_k %.6f, want %.6f", r.Row, r.Col, float64(r.Temperature), want)
+		}
+		return nil
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if found == 0 {
+		t.Fatal("no 36000 ft records in the demo export")
+	}
+}
