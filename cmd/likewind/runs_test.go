@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
@@ -265,5 +266,92 @@ func TestRunsMergeAndPlurals(t *testing.T) {
 	}
 	if strings.Contains(out, "1 runs") || strings.Contains(out, "1 steps") {
 		t.Errorf("runs text has a wrong plural:\n%s", out)
+	}
+}
+
+// TestRunsMachRelaxedGas: a gas tunnel's Mach-relaxed matches are run
+// points, in the default list and when marked (second demo vehicle in the
+// Bracken Ness and Kellen Fold tunnels, where low flight Mach numbers are
+// matched at a higher test Mach number).
+func TestRunsMachRelaxedGas(t *testing.T) {
+	files := []string{"../../testdata/halcyra-ha1.toml", "../../testdata/facilities.toml"}
+	in, err := loadInputs(files)
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, err := envelope.Evaluate(in.vehicle, in.facilities, envelope.DefaultSettings(in.vehicle))
+	if err != nil {
+		t.Fatal(err)
+	}
+	relaxed := map[string][][2]int{}
+	for _, m := range e.Maps {
+		if m == nil || m.Facility.Medium == envelope.MediumWater {
+			continue
+		}
+		for i := 0; i < e.Grid.Rows(); i++ {
+			for j := 0; j < e.Grid.Cols(); j++ {
+				if m.At(i, j).Class == envelope.MachRelaxed {
+					relaxed[m.Facility.Name] = append(relaxed[m.Facility.Name], [2]int{i, j})
+				}
+			}
+		}
+	}
+	if len(relaxed) == 0 {
+		t.Fatal("no Mach-relaxed gas point in the second demo vehicle")
+	}
+	count := func(doc outRunsDoc) map[string]int {
+		n := map[string]int{}
+		for _, f := range doc.Facilities {
+			for _, r := range f.Runs {
+				if r.Class == envelope.MachRelaxed.String() {
+					n[f.Facility]++
+				}
+			}
+		}
+		return n
+	}
+	got := count(outRunsJSON(t, files...))
+	for name, pts := range relaxed {
+		if got[name] != len(pts) {
+			t.Errorf("default run list of %s: %d Mach-relaxed runs, want all %d", name, got[name], len(pts))
+		}
+	}
+	// Marked: two relaxed points of each gas facility that has them.
+	s := tui.Session{Version: tui.SessionVersion, Hash: tui.DataHash(in.vehicle, in.facilities),
+		Layer: tui.LayerClass.String(), Units: tui.SI.String()}
+	want := map[string]map[[2]int]bool{}
+	marked := map[[2]int]bool{}
+	for name, pts := range relaxed {
+		want[name] = map[[2]int]bool{}
+		for _, p := range pts[:min(2, len(pts))] {
+			want[name][p] = true
+			if !marked[p] {
+				marked[p] = true
+				s.Marks = append(s.Marks, tui.Point{Altitude: e.Grid.Alts[p[0]], Speed: e.Grid.Speeds[p[1]]})
+			}
+		}
+	}
+	p := filepath.Join(t.TempDir(), "session.json")
+	if err := tui.SaveSession(p, s); err != nil {
+		t.Fatal(err)
+	}
+	doc := outRunsJSON(t, append([]string{"--session", p}, files...)...)
+	for _, f := range doc.Facilities {
+		for _, r := range f.Runs {
+			delete(want[f.Facility], [2]int{r.Row, r.Col})
+		}
+	}
+	for _, f := range doc.Facilities {
+		k := e.Facility(f.Facility)
+		for _, r := range f.Runs {
+			if c := e.Maps[k].At(r.Row, r.Col).Class; r.Class != c.String() {
+				t.Errorf("%s (%d, %d): run class %q, map %v", f.Facility, r.Row, r.Col, r.Class, c)
+			}
+		}
+	}
+	for name, left := range want {
+		if len(left) > 0 {
+			t.Errorf("%s: marked Mach-relaxed points %v are not runs", name, left)
+		}
 	}
 }
