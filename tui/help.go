@@ -68,8 +68,8 @@ func (v helpView) Overlay() string {
 	para("Classes:", "full match = Mach within tolerance and Reynolds number at least (1 - tol) of flight; "+
 		"Reynolds short = Mach matched, Reynolds number below; Mach relaxed = Reynolds matched "+
 		"at a lower Mach, allowed below the compressibility threshold; out of reach = neither.")
-	para("What-if:", "values take units, e.g. 3 bar, 45 psi, -150 degC, 10 K; "+
-		"changed values are listed in the header; R restores the files' values.")
+	para("What-if:", "values take units (3 bar, 45 psi, -150 degC, 10 K); scale 1/20, 1:20, 5%"+
+		" or fit; q max none; R restores the files' values.")
 	b.WriteString(wrapText(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w))
 	b.WriteString("\n")
 	b.WriteString(v.st.Faint.Render("? or esc closes this screen"))
