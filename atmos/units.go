@@ -608,3 +608,33 @@ func ParseAirspeed(s string) (SpeedKind, float64, error) {
 	}
 	return kind, v, nil
 }
+
+// NoNegativeZero drops the minus sign of a formatted number that rounds
+// to zero ("-0", "-0.00 m/s", "-0.0e+00" become "0", "0.00 m/s",
+// "0.0e+00"), so that no output shows a negative zero; other text is
+// returned as it is.
+func NoNegativeZero(s string) string {
+	rest, ok := strings.CutPrefix(s, "-")
+	if !ok {
+		return s
+	}
+	digits := false
+	for _, c := range rest {
+		switch {
+		case c == '0':
+			digits = true
+		case c == '.':
+		case c >= '1' && c <= '9':
+			return s
+		default:
+			if !digits {
+				return s
+			}
+			return rest
+		}
+	}
+	if !digits {
+		return s
+	}
+	return rest
+}

@@ -337,3 +337,14 @@ func TestDimensionString(t *testing.T) {
 		t.Errorf("Dimension(50).String() = %q", got)
 	}
 }
+
+func TestNoNegativeZero(t *testing.T) {
+	for in, want := range map[string]string{
+		"-0": "0", "-0.00 m/s": "0.00 m/s", "-0.0e+00": "0.0e+00", "-0.001": "-0.001", "-1.2e-05": "-1.2e-05",
+		"-10": "-10", "0": "0", "-": "-", "-.": "-.", "-x": "-x", "-0 ft": "0 ft", "-0.0000": "0.0000",
+	} {
+		if got := NoNegativeZero(in); got != want {
+			t.Errorf("NoNegativeZero(%q) = %q, want %q", in, got, want)
+		}
+	}
+}

@@ -551,37 +551,15 @@ func (d *doc) value(raw any, path, field string, u unit) qty {
 	return q
 }
 
-// parseWithUnit reads text as u says.
+// parseWithUnit reads text as u says: Mach numbers and ratios with the
+// parsers the command line and the interface use too (bounds.go).
 func parseWithUnit(s string, u unit) (float64, error) {
 	t := strings.TrimSpace(s)
 	switch {
 	case u.mach:
-		l := strings.ToLower(t)
-		for _, p := range []string{"mach", "m"} {
-			if r := strings.TrimSpace(t[min(len(p), len(t)):]); strings.HasPrefix(l, p) && r != "" && (r[0] == '.' || r[0] >= '0' && r[0] <= '9') {
-				t = r
-				break
-			}
-		}
+		return ParseMach(t)
 	case u.ratio:
-		if r, ok := strings.CutSuffix(t, "%"); ok {
-			v, err := atmos.ParseQuantity(r, atmos.Dimensionless)
-			return v / 100, err
-		}
-		if a, b, ok := cutAny(t, "/:"); ok {
-			num, err := atmos.ParseQuantity(a, atmos.Dimensionless)
-			if err != nil {
-				return 0, err
-			}
-			den, err := atmos.ParseQuantity(b, atmos.Dimensionless)
-			if err != nil {
-				return 0, err
-			}
-			if den == 0 {
-				return 0, errors.New("division by zero")
-			}
-			return num / den, nil
-		}
+		return ParseRatio(t)
 	case u.perLength:
 		l := strings.ToLower(t)
 		for _, suf := range []struct {
@@ -597,14 +575,6 @@ func parseWithUnit(s string, u unit) (float64, error) {
 		return 0, errors.New("missing the per-length unit /m or /ft")
 	}
 	return atmos.ParseQuantity(t, u.dim)
-}
-
-// cutAny splits s around the first of the separator bytes.
-func cutAny(s, seps string) (string, string, bool) {
-	if i := strings.IndexAny(s, seps); i >= 0 {
-		return s[:i], s[i+1:], true
-	}
-	return s, "", false
 }
 
 // reason shortens a unit-parser error to the part that says what is wrong
@@ -674,6 +644,18 @@ func (d *doc) need(q *qty, cond bool, expected string) bool {
 	return q.ok
 }
 
+// within reports q when it is well formed but outside b (a shared bound,
+// bounds.go), and returns its value, or 0 when it is not usable.
+func (d *doc) within(q *qty, b Bound) float64 {
+	if q.ok {
+		q.v = b.Clamp(q.v)
+	}
+	if !d.need(q, b.Holds(q.v), b.Expected) {
+		return 0
+	}
+	return q.v
+}
+
 func (d *doc) positive(q *qty, upper float64, what string) float64 {
 	d.need(q, q.v > 0 && q.v <= upper, what)
 	if !q.ok {
@@ -691,8 +673,7 @@ func altitudeRange(kind atmos.AltitudeKind) string {
 
 func (d *doc) altitude(q *qty, kind atmos.AltitudeKind) {
 	if q.ok {
-		_, err := atmos.AtDay(q.v, kind, 0)
-		d.need(q, err == nil, altitudeRange(kind))
+		d.need(q, CheckAltitude("", q.v, kind) == nil, altitudeRange(kind))
 	}
 }
 
@@ -704,13 +685,7 @@ func speedUnit(k atmos.SpeedKind) unit {
 	return uSpeed
 }
 
-func (d *doc) speedBounds(q *qty, k atmos.SpeedKind) {
-	if k == atmos.Mach {
-		d.need(q, q.v >= 0 && q.v <= maxMach, fmt.Sprintf("a Mach number from 0 to %g", maxMach))
-	} else {
-		d.need(q, q.v >= 0 && q.v <= maxSpeed, fmt.Sprintf("a %s from 0 to %g m/s", k, maxSpeed))
-	}
-}
+func (d *doc) speedBounds(q *qty, k atmos.SpeedKind) { d.within(q, FlightSpeedBound(k)) }
 
 // vehicle reads and checks a vehicle file.
 func (d *doc) vehicle() *Vehicle {
@@ -722,14 +697,14 @@ func (d *doc) vehicle() *Vehicle {
 	if vt := root.sub("vehicle", vehicleKeys, true); vt != nil {
 		v.Name, _ = vt.text("name", true, `the vehicle's name in quotes`)
 		q := vt.quantity("reference_length", uLength, true)
-		v.RefLength = d.positive(&q, MaxLength, "a length above 0 m and at most 1000 m")
+		v.RefLength = d.within(&q, VehicleLengthBound())
 		if s, ok := vt.text("reference_length_is", false, `what the reference length is, in quotes, e.g. "mean aerodynamic chord"`); ok {
 			v.RefLengthName = s
 		}
 		q = vt.quantity("reference_area", uArea, true)
 		v.RefArea = d.positive(&q, maxArea, "an area above 0 m2")
 		q = vt.quantity("span", uLength, true)
-		v.Span = d.positive(&q, MaxLength, "a length above 0 m and at most 1000 m")
+		v.Span = d.within(&q, VehicleLengthBound())
 		q = vt.quantity("frontal_area", uArea, true)
 		v.FrontalArea = d.positive(&q, maxArea, "an area above 0 m2")
 		vt.finish()
@@ -759,9 +734,7 @@ func (d *doc) vehicle() *Vehicle {
 			v.AltitudeKind = k
 		}
 		dT := et.quantity("temperature_offset", uDeltaT, false)
-		if d.need(&dT, math.Abs(dT.v) <= MaxDeltaT, fmt.Sprintf("a temperature offset from the standard day within ±%g K", MaxDeltaT)) {
-			v.DeltaT = dT.v
-		}
+		v.DeltaT = d.within(&dT, DeltaTBound())
 		dTOK := dT.ok || !et.has("temperature_offset")
 		boundaryOK = d.boundary(et, v, kindsOK && dTOK)
 		et.finish()
@@ -829,7 +802,7 @@ func (d *doc) boundary(et *table, v *Vehicle, kindsOK bool) bool {
 		}
 		// The speed must mean something at this altitude (a CAS beyond
 		// what the standard atmosphere allows does not).
-		if m, err := convertSpeed(v, alt.v, v.BoundaryKind, sp.v, atmos.Mach); err != nil || m > maxMach {
+		if m, err := convertSpeed(v, alt.v, v.BoundaryKind, sp.v, atmos.Mach); err != nil || !FlightMachBound().Holds(m) {
 			why := fmt.Sprintf("Mach %.3g", m)
 			if err != nil {
 				why = err.Error()
@@ -1233,13 +1206,10 @@ func (d *doc) facility(t *table) Facility {
 		d.need(&hi, hi.v <= maxMach, fmt.Sprintf("a Mach number up to %g", maxMach))
 		f.MachMin, f.MachMax = lo.v, hi.v
 		lo, hi = t.span("stagnation_pressure_range", uPressure, true)
-		d.need(&lo, lo.v > 0, "a pressure above 0")
-		d.need(&hi, hi.v <= maxPressure, "a pressure up to 1000 bar")
-		f.P0Min, f.P0Max = lo.v, hi.v
+		f.P0Min, f.P0Max = d.within(&lo, FacilityPressureBound()), d.within(&hi, FacilityPressureBound())
 		lo, hi = t.span("stagnation_temperature_range", uTemp, true)
-		d.need(&lo, lo.v > 0, "a temperature above 0 K")
-		d.need(&hi, hi.v <= maxGasT0, fmt.Sprintf("a temperature up to %g K", maxGasT0))
-		f.T0Min, f.T0Max = lo.v, hi.v
+		tb := FacilityTemperatureBound(f.Medium)
+		f.T0Min, f.T0Max = d.within(&lo, tb), d.within(&hi, tb)
 		q := t.quantity("min_static_temperature", uTemp, false)
 		f.MinStaticT = d.positive(&q, maxGasT0, "a temperature above 0 K")
 		f.Condensation = t.boolean("condensation_check", true)
@@ -1255,18 +1225,14 @@ func (d *doc) facility(t *table) Facility {
 		d.need(&hi, hi.v <= maxWaterSpeed, fmt.Sprintf("a water speed up to %g m/s", maxWaterSpeed))
 		f.SpeedMin, f.SpeedMax = lo.v, hi.v
 		lo, hi = t.span("static_pressure_range", uPressure, true)
-		d.need(&lo, lo.v > 0, "a pressure above 0")
-		d.need(&hi, hi.v <= maxPressure, "a pressure up to 1000 bar")
-		f.P0Min, f.P0Max = lo.v, hi.v
+		f.P0Min, f.P0Max = d.within(&lo, FacilityPressureBound()), d.within(&hi, FacilityPressureBound())
 		lo, hi = t.span("water_temperature_range", uTemp, true)
-		const wt = "a water temperature from 0 degC to 100 degC"
-		d.need(&lo, lo.v >= waterFreezingK-1e-9 && lo.v <= waterBoilingK+1e-9, wt)
-		d.need(&hi, hi.v >= waterFreezingK-1e-9 && hi.v <= waterBoilingK+1e-9, wt)
-		f.T0Min, f.T0Max = math.Max(lo.v, waterFreezingK), math.Min(hi.v, waterBoilingK)
+		wb := FacilityTemperatureBound(f.Medium)
+		f.T0Min, f.T0Max = d.within(&lo, wb), d.within(&hi, wb)
 	}
 
 	q := t.quantity("max_dynamic_pressure", uPressure, false)
-	f.QMax = d.positive(&q, maxPressure, "a pressure above 0")
+	f.QMax = d.within(&q, QMaxBound())
 	q = t.quantity("max_reynolds_per_metre", uPerLength, false)
 	f.MaxReynoldsPerM = d.positive(&q, 1e12, "a unit Reynolds number above 0")
 	q = t.quantity("section_width", uLength, true)
@@ -1277,7 +1243,7 @@ func (d *doc) facility(t *table) Facility {
 	f.Model.MaxSpanFraction = DefaultMaxSpanFraction
 	if mt := t.sub("model", modelKeys, false); mt != nil {
 		q = mt.quantity("scale", uRatio, false)
-		f.Model.Scale = d.positive(&q, maxModelScale, fmt.Sprintf("a model scale above 0 and at most %g", maxModelScale))
+		f.Model.Scale = d.within(&q, ModelScaleBound())
 		q = mt.quantity("max_span_fraction", uFraction, false)
 		if d.need(&q, q.v > 0 && q.v <= 1, "a share of the section width above 0 and at most 1 (100 %)") {
 			f.Model.MaxSpanFraction = q.v

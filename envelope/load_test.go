@@ -307,7 +307,7 @@ func TestBadFiles(t *testing.T) {
 		{"nan.toml", []string{
 			`nan.toml:17: limits.max_mach: found NaN, expected a finite number`}},
 		{"negative_length.toml", []string{
-			`negative_length.toml:4: vehicle.reference_length: found "-1.1 m", expected a length above 0 m and at most 1000 m`}},
+			`negative_length.toml:4: vehicle.reference_length: found "-1.1 m", expected a length from 1 µm to 1000 m`}},
 		{"altitude_out_of_range.toml", []string{
 			`altitude_out_of_range.toml:14: envelope.boundary point 4 altitude: found "95 km", expected a geometric altitude from -5000 m to 86000 m (the standard atmosphere's range)`}},
 		{"self_intersecting.toml", []string{

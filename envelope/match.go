@@ -147,6 +147,10 @@ const (
 	// FlagLowCavitation: water cavitation number below
 	// LowCavitationNumber.
 	FlagLowCavitation
+	// FlagModelTooLarge: the model scale in force (a file's, a what-if's
+	// or a session's) is above the largest the test section takes by the
+	// span and blockage rules at the point's test Mach number (FitScale).
+	FlagModelTooLarge
 )
 
 // Caution thresholds (common practice; planning values, not facility
@@ -181,6 +185,7 @@ const (
 var flagNames = [...]string{
 	"condensation warning", "enthalpy short", "real-gas caution", "cryogenic",
 	"high p0", "q near limit", "Reynolds over", "low cavitation number",
+	"model too large for the section",
 }
 
 // String lists the set flags, comma separated ("" when none).

@@ -93,6 +93,13 @@ type CoverageRow struct {
 	MachMatchable     int  `json:"mach_matchable_points"`
 	MinScaleCoversAll bool `json:"min_scale_covers_envelope"`
 	MinScaleFits      bool `json:"min_scale_fits_section"`
+
+	// ScaleFits says the model scale in force fits the section by the span
+	// and blockage rules at every inside point (null when no fit scale is
+	// known: no span or frontal area); TooLargePoints counts the inside
+	// points flagged FlagModelTooLarge.
+	ScaleFits      *bool `json:"scale_fits_section"`
+	TooLargePoints int   `json:"model_too_large_points"`
 }
 
 // CoverageReport is the facilities × match classes table of a vehicle's
@@ -143,6 +150,7 @@ func NewCoverageReport(e *Evaluation) CoverageReport {
 			row.FitScale = Num(m.FitScale)
 		}
 		row.setShares(m.Shares())
+		row.setFit(m)
 		most, n := minScaleSurvey(g, f, s)
 		row.MachMatchable = n
 		if n > 0 {
@@ -158,6 +166,21 @@ func NewCoverageReport(e *Evaluation) CoverageReport {
 		r.Union = UnionCoverage(solved)
 	}
 	return r
+}
+
+// setFit records whether the map's model fits the section: the inside
+// points flagged too large, and whether there are none.
+func (row *CoverageRow) setFit(m *Map) {
+	if m.fit.low <= 0 && m.fit.high <= 0 {
+		return
+	}
+	for k := range m.Results {
+		if c := m.Results[k].Class; c != Outside && m.Results[k].Flags.Has(FlagModelTooLarge) {
+			row.TooLargePoints++
+		}
+	}
+	fits := row.TooLargePoints == 0
+	row.ScaleFits = &fits
 }
 
 func (row *CoverageRow) setShares(sh Shares) {
@@ -211,7 +234,11 @@ func (r CoverageReport) WriteText(w io.Writer) error {
 				fits = "yes"
 			}
 		}
-		rows = append(rows, []string{row.Facility, row.Medium, g3(row.Scale), pct(row.FullMatch), pct(row.ReShort),
+		scale := g3(row.Scale)
+		if row.TooLargePoints > 0 {
+			scale += "!"
+		}
+		rows = append(rows, []string{row.Facility, row.Medium, scale, pct(row.FullMatch), pct(row.ReShort),
 			pct(row.MachRelaxed), pct(row.NoMatch), pct(row.Matched), minScale, fits})
 	}
 	bo := r.Best
@@ -223,12 +250,23 @@ func (r CoverageReport) WriteText(w io.Writer) error {
 		"point the facility can run at flight Mach number; * marks a facility that cannot Mach-match every\n" +
 		"point, so the scale covers only those it can; - where none (water tunnels never match Mach).\n" +
 		"fits: that scale is within the largest the test section takes by the span and blockage rules.\n")
+	tooLarge := false
 	for _, row := range r.Facilities {
 		if row.Error != "" {
 			fmt.Fprintf(&b, "%s: not evaluated: %s\n", row.Facility, row.Error)
-		} else if row.MinScale.Valid() && !row.MinScaleCoversAll {
+			continue
+		}
+		if row.MinScale.Valid() && !row.MinScaleCoversAll {
 			fmt.Fprintf(&b, "%s: %d of %d inside points can be run at flight Mach number.\n", row.Facility, row.MachMatchable, r.Inside)
 		}
+		if row.TooLargePoints > 0 {
+			tooLarge = true
+			fmt.Fprintf(&b, "%s: model too large for the section: scale %s (%s) is above the largest the test section takes (%s) at %d of %d inside points.\n",
+				row.Facility, g3(row.Scale), row.ScaleRule, g3(row.FitScale), row.TooLargePoints, r.Inside)
+		}
+	}
+	if tooLarge {
+		b.WriteString("! after a scale: the model in force is too large for the section; its points are flagged.\n")
 	}
 	b.WriteString(wrapWords("Caution: "+r.Caution, 100))
 	_, err := io.WriteString(w, b.String())
@@ -291,6 +329,7 @@ var coverageCSVHeader = []string{
 	"facility", "medium", "error", "model_scale", "scale_rule", "fit_scale", "inside_points",
 	"full_match", "reynolds_short", "mach_relaxed", "out_of_reach", "matched",
 	"min_scale_full_match", "mach_matchable_points", "min_scale_covers_envelope", "min_scale_fits_section",
+	"scale_fits_section", "model_too_large_points",
 }
 
 // WriteCSV writes one row per facility and a last row "best of all" whose
@@ -303,7 +342,7 @@ func (r CoverageReport) WriteCSV(w io.Writer) error {
 		return []string{row.Facility, row.Medium, row.Error, row.Scale.String(), row.ScaleRule, row.FitScale.String(),
 			strconv.Itoa(r.Inside), f(row.FullMatch), f(row.ReShort), f(row.MachRelaxed), f(row.NoMatch), f(row.Matched),
 			row.MinScale.String(), strconv.Itoa(row.MachMatchable), strconv.FormatBool(row.MinScaleCoversAll),
-			strconv.FormatBool(row.MinScaleFits)}
+			strconv.FormatBool(row.MinScaleFits), optBool(row.ScaleFits), strconv.Itoa(row.TooLargePoints)}
 	}
 	if err := cw.Write(coverageCSVHeader); err != nil {
 		return err
@@ -315,12 +354,20 @@ func (r CoverageReport) WriteCSV(w io.Writer) error {
 	}
 	best := rec(r.Best)
 	best[11] = f(r.Union)
-	best[13], best[14], best[15] = "", "", ""
+	best[13], best[14], best[15], best[17] = "", "", "", ""
 	if err := cw.Write(best); err != nil {
 		return err
 	}
 	cw.Flush()
 	return cw.Error()
+}
+
+// optBool is a CSV cell for a yes/no that may be unknown (empty).
+func optBool(b *bool) string {
+	if b == nil {
+		return ""
+	}
+	return strconv.FormatBool(*b)
 }
 
 // WriteJSON writes the report as one indented JSON object.

@@ -60,9 +60,66 @@ func FitScale(v *Vehicle, f *Facility, mach float64) (scale float64, rule string
 }
 
 // Fits reports whether a model of the given scale fits the map's facility
-// by the span and blockage rules (false when the fit scale is unknown).
-func (m *Map) Fits(scale float64) bool {
-	return m.FitScale > 0 && scale <= m.FitScale*(1+1e-9)
+// by the span and blockage rules at the Mach number the model is sized for
+// (false when the fit scale is unknown).
+func (m *Map) Fits(scale float64) bool { return fitsWithin(scale, m.FitScale) }
+
+// fitsWithin reports whether scale is at most fit, allowing for rounding
+// (false when fit is unknown, 0).
+func fitsWithin(scale, fit float64) bool { return fit > 0 && scale <= fit*(1+1e-9) }
+
+// sectionFit holds the largest scales the section takes below and from
+// BlockageMach (they differ only where the blockage share is by speed),
+// for the model-size caution of each point.
+type sectionFit struct {
+	low, high         float64
+	lowRule, highRule string
+}
+
+func newSectionFit(v *Vehicle, f *Facility) sectionFit {
+	var s sectionFit
+	s.low, s.lowRule = FitScale(v, f, 0)
+	s.high, s.highRule = FitScale(v, f, BlockageMach)
+	return s
+}
+
+// at is the largest scale and its rule at test Mach number mach.
+func (s *sectionFit) at(mach float64) (float64, string) {
+	if mach < BlockageMach {
+		return s.low, s.lowRule
+	}
+	return s.high, s.highRule
+}
+
+// sizeMach is the test Mach number a point's model size is judged at: the
+// setting's, or where there is none the flight Mach number held within
+// the facility's Mach range (water: 0, low speed).
+func (m *Map) sizeMach(flightMach float64, has bool, testMach float64) float64 {
+	switch {
+	case m.Facility.Medium == MediumWater:
+		return 0
+	case has:
+		return testMach
+	}
+	return greaterOf(lesserOf(flightMach, m.Facility.MachMax), m.Facility.MachMin)
+}
+
+// sizeFlag is FlagModelTooLarge when the map's model does not fit the
+// section at test Mach number mach; 0 when it fits or no fit scale is
+// known (no span or frontal area).
+func (m *Map) sizeFlag(mach float64) Flags {
+	fit, _ := m.fit.at(mach)
+	if fit > 0 && !fitsWithin(m.Scale, fit) {
+		return FlagModelTooLarge
+	}
+	return 0
+}
+
+// sizeNote is the caution for a model too large at test Mach number mach.
+func (m *Map) sizeNote(mach float64) string {
+	fit, rule := m.fit.at(mach)
+	return fmt.Sprintf("Model too large for the section: scale %.3g is above %.3g, the largest it takes (%s); "+
+		"wall interference and blockage make these results unreliable.", m.Scale, fit, rule)
 }
 
 // MinScaleFullMatch is the smallest model scale at which point (i, j)

@@ -57,6 +57,7 @@ type Map struct {
 	// area), with the rule that decides it.
 	FitScale float64
 	FitRule  string
+	fit      sectionFit // fit scales by test Mach number, for FlagModelTooLarge
 
 	Results []Result
 
@@ -162,6 +163,7 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	default:
 		return nil, fmt.Errorf("solve %q: no model scale: set a scale, or give the vehicle span or frontal area and the section width and height", f.Name)
 	}
+	m.fit = newSectionFit(g.Vehicle, f)
 	m.sv = solverFor(f, s, g.Regimes, m.Scale*g.Vehicle.RefLength)
 	m.Results = make([]Result, len(g.points))
 	cols := len(g.Speeds)
@@ -214,7 +216,7 @@ func (m *Map) solveRows(i0, i1 int, col []colMemo) (n [NumClasses]int) {
 				c.oorL, c.oor = sv.outOfRange(r.mach)
 			}
 			if c.oor {
-				m.Results[base+j] = Result{Class: NoMatch, Limit: c.oorL}
+				m.Results[base+j] = Result{Class: NoMatch, Limit: c.oorL, Flags: m.sizeFlag(m.sizeMach(r.mach, false, 0))}
 				n[NoMatch]++
 				continue
 			}
@@ -222,6 +224,7 @@ func (m *Map) solveRows(i0, i1 int, col []colMemo) (n [NumClasses]int) {
 			ps = pointSol{}
 			sv.solveInto(&ps, r.mach, r.re, tFlight, false, &aux)
 			m.Results[base+j] = ps.result()
+			m.Results[base+j].Flags |= m.sizeFlag(m.sizeMach(r.mach, ps.has, ps.mach))
 			n[ps.class]++
 		}
 	}
@@ -348,7 +351,12 @@ func (m *Map) Detail(i, j int) (Detail, error) {
 		d.ReSweepMin, d.ReSweepMax = sv.gasSweep(&c, ps.p0)
 		d.MinT0Condensation = sv.gas.SaturationTemperature(ps.p) / c.tau
 	}
+	sm := m.sizeMach(r.mach, ps.has, ps.mach)
+	d.Flags |= m.sizeFlag(sm)
 	d.Cautions = cautions(&d, m.Facility)
+	if d.Flags.Has(FlagModelTooLarge) {
+		d.Cautions = append(d.Cautions, m.sizeNote(sm))
+	}
 	return d, nil
 }
 

@@ -1,12 +1,14 @@
 package tui
 
 import (
+	"errors"
 	"fmt"
-	"math"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"likewind/atmos"
+	"likewind/envelope"
 )
 
 // field is one what-if value.
@@ -99,83 +101,130 @@ func (f field) bareUnit(u Units) string {
 	return ""
 }
 
-// parseField reads the text typed for field f. A bare number takes the
-// field's unit in the current unit system. For the scale, "fit" (or 0)
-// means the facilities' own sizing; for q max, "none" (or 0) means no
-// limit. Both return 0 then.
-func parseField(f field, text string, u Units) (float64, error) {
+// maxEntry is the longest text the input line takes for a value, in
+// characters: far beyond any value written out in full, yet a paste of a
+// whole file is refused with a message rather than parsed.
+const maxEntry = 1024
+
+// parseField reads the text typed for field f, with the parsers and bounds
+// the files and the command line use (envelope/bounds.go). A bare number
+// takes the field's unit in the current unit system. The model scale
+// takes the forms a file takes ("0.05", "1/20", "1:20", "5 %") or the word
+// "fit" for each facility's own sizing; q max takes a pressure or the word
+// "none". Both words return 0, as the settings store them; a typed 0 is
+// refused, not read as either. The facility limits (p0 max, T0 min, q max)
+// are checked against fac, the facility they are for, as its file's ranges
+// are.
+func parseField(f field, text string, u Units, fac *envelope.Facility) (float64, error) {
+	water := fac != nil && fac.Medium == envelope.MediumWater
+	fail := func(err error) (float64, error) { return 0, fmt.Errorf("%s: %w", f.label(water), err) }
 	t := strings.TrimSpace(text)
 	if t == "" {
-		return 0, fmt.Errorf("%s: empty value", f.label(false))
+		return fail(errors.New("empty value"))
+	}
+	if n := utf8.RuneCountInString(t); n > maxEntry {
+		return fail(fmt.Errorf("the entry is %d characters long, expected at most %d", n, maxEntry))
 	}
 	lower := strings.ToLower(t)
-	switch {
-	case f == fieldScale && (lower == "fit" || lower == "file" || lower == "files"):
-		return 0, nil
-	case f == fieldQMax && (lower == "none" || lower == "off"):
-		return 0, nil
-	}
-	if f == fieldReTol && strings.HasSuffix(t, "%") {
-		v, err := strconv.ParseFloat(strings.TrimSpace(strings.TrimSuffix(t, "%")), 64)
-		if err != nil {
-			return 0, fmt.Errorf("%s: %q is not a percentage", f.label(false), t)
-		}
-		return checkField(f, v/100)
-	}
-	d := f.dimension()
-	if d != atmos.Dimensionless {
-		if _, err := strconv.ParseFloat(t, 64); err == nil {
-			t += " " + f.bareUnit(u)
-		}
-	}
-	v, err := atmos.ParseQuantity(t, d)
-	if err != nil {
-		return 0, fmt.Errorf("%s: %w", f.label(false), err)
-	}
-	return checkField(f, v)
-}
-
-// checkField refuses values no facility or tolerance can take.
-func checkField(f field, v float64) (float64, error) {
-	bad := func(want string) (float64, error) {
-		return 0, fmt.Errorf("%s: %s is out of range, expected %s", f.label(false), strconv.FormatFloat(v, 'g', 6, 64), want)
-	}
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return bad("a finite number")
-	}
 	switch f {
 	case fieldScale:
-		if v < 0 || v > 10 {
-			return bad("0 (fit) or a scale up to 10")
+		if lower == "fit" {
+			return 0, nil
+		}
+		v, err := envelope.ParseModelScale(t)
+		if errors.Is(err, envelope.ErrOutOfBounds) {
+			err = fmt.Errorf(`%w, or the word "fit" for each facility's own sizing`, err)
+		}
+		if err != nil {
+			return fail(err)
+		}
+		return v, nil
+	case fieldMachTol, fieldReTol, fieldCompMach:
+		parse := map[field]func(string) (float64, error){
+			fieldMachTol: envelope.ParseMachTol, fieldReTol: envelope.ParseReTol, fieldCompMach: envelope.ParseCompressibilityMach,
+		}[f]
+		v, err := parse(t)
+		if err != nil {
+			return fail(err)
+		}
+		return v, nil
+	case fieldQMax:
+		if lower == "none" {
+			return 0, nil
+		}
+	}
+	if f.facilityField() && fac == nil {
+		return fail(errors.New("choose a facility first"))
+	}
+	if _, err := strconv.ParseFloat(t, 64); err == nil {
+		t += " " + f.bareUnit(u)
+	}
+	if f == fieldDeltaT {
+		v, err := envelope.ParseDeltaT(t)
+		if err != nil {
+			return fail(err)
+		}
+		return v, nil
+	}
+	v, err := atmos.ParseQuantity(t, f.dimension())
+	if err != nil {
+		return fail(err)
+	}
+	found := strconv.Quote(t)
+	switch f {
+	case fieldP0Max:
+		v, err = envelope.CheckP0Max(fac, found, v)
+	case fieldT0Min:
+		v, err = envelope.CheckT0Min(fac, found, v)
+	case fieldQMax:
+		v, err = envelope.CheckQMax(found, v)
+		if errors.Is(err, envelope.ErrOutOfBounds) {
+			err = fmt.Errorf(`%w, or the word "none" for no limit`, err)
+		}
+	}
+	if err != nil {
+		return fail(err)
+	}
+	return v, nil
+}
+
+// checkField refuses a stored value (a session's, in SI) that the editor
+// would refuse typed: the same bounds, with 0 meaning each facility's own
+// sizing for the scale and no limit for q max, as the settings store them.
+// fac is the facility a limit is for (nil for the other fields).
+func checkField(f field, v float64, fac *envelope.Facility) (float64, error) {
+	water := fac != nil && fac.Medium == envelope.MediumWater
+	var err error
+	found := strconv.FormatFloat(v, 'g', 6, 64)
+	switch f {
+	case fieldScale:
+		if v != 0 {
+			err = envelope.ModelScaleBound().Check(found, v)
 		}
 	case fieldDeltaT:
-		if math.Abs(v) > 100 {
-			return bad("an offset within ±100 K")
-		}
+		err = envelope.DeltaTBound().Check(found+" K", v)
 	case fieldMachTol:
-		if v <= 0 || v >= 1 {
-			return bad("0 < tolerance < 1")
-		}
+		err = envelope.MachTolBound().Check(found, v)
 	case fieldReTol:
-		if v < 0 || v >= 1 {
-			return bad("0 ≤ tolerance < 1 (or a percentage)")
-		}
+		err = envelope.ReTolBound().Check(found, v)
 	case fieldCompMach:
-		if v <= 0 || v >= 1 {
-			return bad("a Mach number between 0 and 1")
+		err = envelope.CompressibilityMachBound().Check(found, v)
+	default:
+		if fac == nil {
+			err = errors.New("no facility")
+			break
 		}
-	case fieldP0Max:
-		if v <= 0 {
-			return bad("a positive pressure")
+		switch f {
+		case fieldP0Max:
+			v, err = envelope.CheckP0Max(fac, "", v)
+		case fieldT0Min:
+			v, err = envelope.CheckT0Min(fac, "", v)
+		case fieldQMax:
+			v, err = envelope.CheckQMax("", v)
 		}
-	case fieldT0Min:
-		if v <= 0 {
-			return bad("a temperature above absolute zero")
-		}
-	case fieldQMax:
-		if v < 0 {
-			return bad("0 (no limit) or a positive pressure")
-		}
+	}
+	if err != nil {
+		return 0, fmt.Errorf("%s: %w", f.label(water), err)
 	}
 	return v, nil
 }
@@ -201,7 +250,7 @@ type editor struct {
 }
 
 func newEditor(f frame) editor {
-	return editor{frame: f, input: lineInput{limit: 40}}
+	return editor{frame: f}
 }
 
 // SetLineWidth sets the width of the input line (the whole screen).

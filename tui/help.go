@@ -71,8 +71,8 @@ func (v helpView) Overlay() string {
 		"tunnel q as a share of its limit, flight Mach number. Glyphs differ per value; "+
 		"the legend under the matrix lists them.")
 	para("Classes:", ClassHelp)
-	para("What-if:", "values take units, e.g. 3 bar, 45 psi, -150 degC, 10 K; "+
-		"changed values are listed in the header; R restores the files' values.")
+	para("What-if:", "values take units (3 bar, 45 psi, -150 degC, 10 K); scale 1/20, 1:20, 5%"+
+		" or fit; q max none; R restores the files' values.")
 	b.WriteString(wrapText(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w))
 	b.WriteString("\n")
 	b.WriteString(v.st.Faint.Render("? or esc closes this screen"))

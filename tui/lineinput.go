@@ -8,19 +8,17 @@ import (
 )
 
 // lineInput is a one-line text field: typed characters are inserted at
-// the cursor; editing keys come from the KeyMap.
+// the cursor; editing keys come from the KeyMap. It keeps everything
+// typed or pasted, however long: the view scrolls, and the caller decides
+// what is too long to use (and says so), so no text is dropped unseen.
 type lineInput struct {
 	prompt string
 	value  []rune
 	pos    int
-	limit  int
 }
 
 func (l *lineInput) set(s string) {
 	l.value = []rune(s)
-	if l.limit > 0 && len(l.value) > l.limit {
-		l.value = l.value[:l.limit]
-	}
 	l.pos = len(l.value)
 }
 
@@ -55,11 +53,8 @@ func (l *lineInput) update(k *KeyMap, msg tea.KeyMsg) bool {
 			r = []rune{' '}
 		}
 		for _, c := range r {
-			if c < ' ' || c == 0x7f {
+			if c < ' ' || c >= 0x7f && c < 0xa0 { // C0, DEL and C1 controls
 				continue
-			}
-			if l.limit > 0 && len(l.value) >= l.limit {
-				break
 			}
 			l.value = append(l.value, 0)
 			copy(l.value[l.pos+1:], l.value[l.pos:])

@@ -759,7 +759,15 @@ func (m *Model) editValue(f field) string {
 // applyEdit parses the input line and applies it.
 func (m *Model) applyEdit() tea.Cmd {
 	f := field(m.editor.sel)
-	v, err := parseField(f, m.editor.input.Value(), m.units)
+	var fac *envelope.Facility
+	if f.facilityField() {
+		if m.fac < 0 || m.fac >= len(m.facs) {
+			m.editor.err = "choose a facility first"
+			return nil
+		}
+		fac = &m.facs[m.fac]
+	}
+	v, err := parseField(f, m.editor.input.Value(), m.units, fac)
 	if err != nil {
 		m.editor.err = err.Error()
 		return nil
@@ -786,24 +794,12 @@ func (m *Model) applyEdit() tea.Cmd {
 		m.set.Regimes.Incompressible = v
 		kind = recomputeGrid
 	default:
-		if m.fac < 0 || m.fac >= len(m.facs) {
-			m.editor.err = "choose a facility first"
-			return nil
-		}
 		facs := append([]envelope.Facility(nil), m.facs...)
 		fc := &facs[m.fac]
 		switch f {
 		case fieldP0Max:
-			if v <= fc.P0Min {
-				m.editor.err = "maximum must be above the minimum " + m.units.Stagnation(fc.P0Min)
-				return nil
-			}
 			fc.P0Max = v
 		case fieldT0Min:
-			if fc.T0Max > 0 && v >= fc.T0Max {
-				m.editor.err = "minimum must be below the maximum " + m.units.Temp(fc.T0Max)
-				return nil
-			}
 			fc.T0Min = v
 		case fieldQMax:
 			fc.QMax = v

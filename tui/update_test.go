@@ -1,10 +1,12 @@
 package tui
 
 import (
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+	"unicode/utf8"
 
 	tea "github.com/charmbracelet/bubbletea"
 
@@ -331,6 +333,63 @@ func TestWhatIfT0MinTakesUnits(t *testing.T) {
 	// -150 °C = 123.15 K (definition of the Celsius scale).
 	if got := m.facs[k].T0Min; got < 123.149 || got > 123.151 {
 		t.Errorf("T0 min = %g K, want 123.15", got)
+	}
+}
+
+// A long entry is taken whole: the unit at its end is not cut off (it
+// once was at 40 characters, so 1000 psi became 1000 kPa).
+func TestWhatIfLongEntryTakenWhole(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	k := facilityNamed(t, m, "Harl Cove")
+	m.fac = k
+	long := "1000." + strings.Repeat("0", 60) + " psi"
+	m = edit(t, m, fieldP0Max, long)
+	if m.editor.err != "" {
+		t.Fatalf("edit error %q", m.editor.err)
+	}
+	// 1 psi = 6894.757 Pa (NIST SP 811, Appendix B.8).
+	if got, want := m.facs[k].P0Max, 1000*6894.757293168361; math.Abs(got-want) > 1e-6*want {
+		t.Errorf("p0 max = %.6g Pa after %d characters, want %.6g (1000 psi)", got, len(long), want)
+	}
+	// Beyond any value's length the entry is refused with a message, and
+	// nothing is applied.
+	before := m.facs[k].P0Max
+	m = edit(t, m, fieldP0Max, "3"+strings.Repeat("0", maxEntry)+" Pa")
+	if !strings.Contains(m.editor.err, "characters long") || !m.editor.editing {
+		t.Errorf("over-long entry: err %q editing %v, want a refusal naming the length with the line open", m.editor.err, m.editor.editing)
+	}
+	if got := m.editor.input.Value(); utf8.RuneCountInString(got) != maxEntry+4 {
+		t.Errorf("input line holds %d characters, want all %d typed", utf8.RuneCountInString(got), maxEntry+4)
+	}
+	if m.facs[k].P0Max != before {
+		t.Errorf("over-long entry applied: p0 max %g", m.facs[k].P0Max)
+	}
+}
+
+// The editor takes a scale as the files write it and the word "fit", and
+// refuses 0 and a ΔT the files refuse.
+func TestWhatIfScaleFormsAndBounds(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	for _, text := range []string{"1/20", "1:20", "5 %", "0.05"} {
+		m = edit(t, m, fieldScale, text)
+		if m.editor.err != "" || m.set.Scale != 0.05 {
+			t.Errorf("scale %q: err %q, scale %g; want 0.05", text, m.editor.err, m.set.Scale)
+		}
+		m, _ = press(m, "esc")
+	}
+	m = edit(t, m, fieldScale, "0")
+	if !strings.Contains(m.editor.err, `"fit"`) || m.set.Scale != 0.05 {
+		t.Errorf("scale 0: err %q, scale %g; want a refusal naming the word fit, scale kept", m.editor.err, m.set.Scale)
+	}
+	m, _ = press(m, "esc")
+	m = edit(t, m, fieldScale, "fit")
+	if m.editor.err != "" || m.set.Scale != 0 {
+		t.Errorf("scale fit: err %q, scale %g; want each facility's own sizing (0)", m.editor.err, m.set.Scale)
+	}
+	m, _ = press(m, "esc")
+	m = edit(t, m, fieldDeltaT, "70 K")
+	if !strings.Contains(m.editor.err, "±60 K") || m.set.DeltaT != 0 {
+		t.Errorf("ΔT 70 K: err %q, ΔT %g; want the files' ±60 K bound", m.editor.err, m.set.DeltaT)
 	}
 }
 

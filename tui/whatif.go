@@ -22,23 +22,24 @@ func ApplyWhatIf(w WhatIf, s *envelope.Settings, facs []envelope.Facility) (chan
 	var problems []error
 	// Every value goes through the same range check as the editor, so a
 	// hand-edited session cannot bring in what the keyboard would refuse.
-	set := func(f field, name string, dst *float64, v *float64) bool {
+	set := func(f field, fac *envelope.Facility, name string, dst *float64, v *float64) bool {
 		if v == nil {
 			return false
 		}
-		if _, err := checkField(f, *v); err != nil {
+		x, err := checkField(f, *v, fac)
+		if err != nil {
 			problems = append(problems, fmt.Errorf("what-if %s: %w", name, err))
 			return false
 		}
-		*dst = *v
+		*dst = x
 		changed = append(changed, name)
 		return true
 	}
-	set(fieldScale, "model scale", &s.Scale, w.Scale)
-	set(fieldDeltaT, "ΔT", &s.DeltaT, w.DeltaT)
-	set(fieldMachTol, "Mach tolerance", &s.MachTol, w.MachTol)
-	set(fieldReTol, "Reynolds tolerance", &s.ReTol, w.ReTol)
-	if set(fieldCompMach, "compressibility Mach", &s.CompressibilityMach, w.CompressibilityMach) {
+	set(fieldScale, nil, "model scale", &s.Scale, w.Scale)
+	set(fieldDeltaT, nil, "ΔT", &s.DeltaT, w.DeltaT)
+	set(fieldMachTol, nil, "Mach tolerance", &s.MachTol, w.MachTol)
+	set(fieldReTol, nil, "Reynolds tolerance", &s.ReTol, w.ReTol)
+	if set(fieldCompMach, nil, "compressibility Mach", &s.CompressibilityMach, w.CompressibilityMach) {
 		s.Regimes.Incompressible = s.CompressibilityMach
 	}
 	names := make([]string, 0, len(w.Facilities))
@@ -53,9 +54,10 @@ func ApplyWhatIf(w WhatIf, s *envelope.Settings, facs []envelope.Facility) (chan
 			continue
 		}
 		fw := w.Facilities[name]
-		set(fieldP0Max, name+" p0 max", &facs[k].P0Max, fw.P0Max)
-		set(fieldT0Min, name+" T0 min", &facs[k].T0Min, fw.T0Min)
-		set(fieldQMax, name+" q max", &facs[k].QMax, fw.QMax)
+		fac := &facs[k]
+		set(fieldP0Max, fac, name+" p0 max", &fac.P0Max, fw.P0Max)
+		set(fieldT0Min, fac, name+" T0 min", &fac.T0Min, fw.T0Min)
+		set(fieldQMax, fac, name+" q max", &fac.QMax, fw.QMax)
 	}
 	return changed, errors.Join(problems...)
 }

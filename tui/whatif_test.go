@@ -115,6 +115,14 @@ func TestApplyWhatIfOutOfRange(t *testing.T) {
 		{"compressibility above 1", WhatIf{CompressibilityMach: p(1.5)}, "compressibility"},
 		{"negative p0 max", WhatIf{Facilities: map[string]FacilityWhatIf{facs[0].Name: {P0Max: p(-1)}}}, "p0 max"},
 		{"T0 min at absolute zero", WhatIf{Facilities: map[string]FacilityWhatIf{facs[0].Name: {T0Min: p(0)}}}, "T0 min"},
+		// The bounds of the files (±60 K; 0–100 degC water; 1000 bar).
+		{"ΔT of 70 K", WhatIf{DeltaT: p(70)}, "within ±60 K"},
+		{"scale above 10", WhatIf{Scale: p(11)}, "a model scale above 0 and at most 10"},
+		{"water at 5 K", WhatIf{Facilities: map[string]FacilityWhatIf{facs[5].Name: {T0Min: p(5)}}}, "a water temperature from 0 degC to 100 degC"},
+		{"p0 max below p0 min", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {P0Max: p(1e5)}}}, "not below the facility's minimum"},
+		{"T0 min above T0 max", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {T0Min: p(400)}}}, "not above the facility's maximum"},
+		{"q max of 2000 bar", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {QMax: p(2e8)}}}, "at most 1000 bar"},
+		{"negative q max", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {QMax: p(-1)}}}, "q max"},
 	}
 	for _, c := range cases {
 		s := envelope.DefaultSettings(v)

@@ -6,7 +6,8 @@ import (
 	"flag"
 	"fmt"
 	"io"
-	"math"
+	"strconv"
+	"strings"
 	"text/tabwriter"
 
 	"likewind/atmos"
@@ -46,16 +47,14 @@ func (e usageError) Unwrap() error { return e.err }
 
 func usagef(format string, a ...any) error { return usageError{fmt.Errorf(format, a...)} }
 
-// minPointLength is the shortest reference length `point` takes (1 µm),
-// far below any model yet far from underflow.
-const minPointLength = 1e-6
-
 // pointQuery is a parsed `point` command line.
 type pointQuery struct {
 	alt       float64
 	altKind   atmos.AltitudeKind
 	speed     float64
 	speedKind atmos.SpeedKind
+	speedFlag string // the flag that gave the speed, and its text
+	speedText string
 	length    float64
 	dT        float64
 	json      bool
@@ -93,6 +92,9 @@ func parsePointFlags(args []string, stderr io.Writer) (pointQuery, error) {
 		name, val string
 		kind      atmos.AltitudeKind
 	}{{"alt", *alt, atmos.Geometric}, {"geopotential", *geo, atmos.Geopotential}, {"pressure-alt", *palt, atmos.PressureAlt}}
+	// Every value is read and bounded as the vehicle files read and bound
+	// it (envelope/bounds.go): the bounds catch a wrong unit or a missing
+	// exponent, and keep every result finite.
 	n := 0
 	for _, f := range altFlags {
 		if f.val == "" {
@@ -103,7 +105,10 @@ func parsePointFlags(args []string, stderr io.Writer) (pointQuery, error) {
 		if err != nil {
 			return q, usagef("point: --%s: %w", f.name, err)
 		}
-		q.alt, q.altKind = v, f.kind
+		if err := envelope.CheckAltitude(strconv.Quote(f.val), v, f.kind); err != nil {
+			return q, usagef("point: --%s: %w", f.name, err)
+		}
+		q.alt, q.altKind = envelope.PositiveZero(v), f.kind
 	}
 	if n != 1 {
 		return q, usagef("point: give exactly one of --alt, --geopotential or --pressure-alt")
@@ -112,41 +117,30 @@ func parsePointFlags(args []string, stderr io.Writer) (pointQuery, error) {
 	speedFlags := []struct {
 		name, val string
 		kind      atmos.SpeedKind
-		dim       atmos.Dimension
-	}{{"mach", *mach, atmos.Mach, atmos.Dimensionless}, {"tas", *tas, atmos.TAS, atmos.Speed}, {"eas", *eas, atmos.EAS, atmos.Speed}, {"cas", *cas, atmos.CAS, atmos.Speed}}
+	}{{"mach", *mach, atmos.Mach}, {"tas", *tas, atmos.TAS}, {"eas", *eas, atmos.EAS}, {"cas", *cas, atmos.CAS}}
 	n = 0
 	for _, f := range speedFlags {
 		if f.val == "" {
 			continue
 		}
 		n++
-		v, err := atmos.ParseQuantity(f.val, f.dim)
+		v, err := envelope.ParseFlightSpeed(f.val, f.kind)
 		if err != nil {
 			return q, usagef("point: --%s: %w", f.name, err)
 		}
-		if v < 0 {
-			return q, usagef("point: --%s: %q is negative; expected a speed of zero or more", f.name, f.val)
-		}
-		q.speed, q.speedKind = v, f.kind
+		q.speed, q.speedKind, q.speedFlag = v, f.kind, f.name
+		q.speedText = f.val
 	}
 	if n != 1 {
 		return q, usagef("point: give exactly one of --mach, --tas, --eas or --cas")
 	}
 
 	var err error
-	if q.length, err = atmos.ParseQuantity(*length, atmos.Length); err != nil {
+	if q.length, err = envelope.ParseVehicleLength(*length); err != nil {
 		return q, usagef("point: --length: %w", err)
 	}
-	// The same plausibility bounds as the vehicle files: they catch a
-	// wrong unit or a missing exponent, and keep every result finite.
-	if !(q.length >= minPointLength && q.length <= envelope.MaxLength) {
-		return q, usagef("point: --length: %q is out of range, expected a length from %g m to %g m", *length, minPointLength, envelope.MaxLength)
-	}
-	if q.dT, err = atmos.ParseQuantity(*dt, atmos.TemperatureDelta); err != nil {
+	if q.dT, err = envelope.ParseDeltaT(*dt); err != nil {
 		return q, usagef("point: --dt: %w", err)
-	}
-	if math.Abs(q.dT) > envelope.MaxDeltaT {
-		return q, usagef("point: --dt: %q is out of range, expected an offset within ±%g K", *dt, envelope.MaxDeltaT)
 	}
 	return q, nil
 }
@@ -161,9 +155,14 @@ func evaluatePoint(q pointQuery) (pointReport, error) {
 	if err != nil {
 		return pointReport{}, usagef("point: %w", err)
 	}
+	// As for an envelope point: the speed must come to a Mach number the
+	// files take at this altitude on this day.
+	if err := envelope.FlightMachBound().Check(fmt.Sprintf("%q (Mach %.4g here)", q.speedText, sp.Mach), sp.Mach); err != nil {
+		return pointReport{}, usagef("point: --%s: %w", q.speedFlag, err)
+	}
 	reg := atmos.DefaultRegimes()
 	kn := atmos.Knudsen(s.MeanFreePath, q.length)
-	return pointReport{
+	r := pointReport{
 		Altitude:             s.Altitude,
 		GeopotentialAltitude: s.GeopotentialAltitude,
 		PressureAltitude:     s.PressureAltitude,
@@ -184,7 +183,19 @@ func evaluatePoint(q pointQuery) (pointReport, error) {
 		Knudsen:              kn,
 		Regime:               reg.Speed(sp.Mach).String(),
 		Continuum:            reg.Rarefaction(kn) == atmos.Continuum,
-	}, nil
+	}
+	r.positiveZeros()
+	return r, nil
+}
+
+// positiveZeros makes every negative zero of r positive, so that the JSON
+// never shows -0.
+func (r *pointReport) positiveZeros() {
+	for _, x := range []*float64{&r.Altitude, &r.GeopotentialAltitude, &r.Temperature, &r.Pressure, &r.Density,
+		&r.SpeedOfSound, &r.Viscosity, &r.KinematicViscosity, &r.MeanFreePath, &r.Mach, &r.TAS, &r.EAS, &r.CAS,
+		&r.DynamicPressure, &r.Reynolds, &r.ReynoldsPerM, &r.Knudsen} {
+		*x = envelope.PositiveZero(*x)
+	}
 }
 
 func runPoint(args []string, stdout, stderr io.Writer) int {
@@ -220,29 +231,40 @@ func writePointTable(w io.Writer, q pointQuery, r pointReport) {
 	reg := atmos.DefaultRegimes()
 	day := "standard day"
 	if q.dT != 0 {
-		day = fmt.Sprintf("standard %+.1f K", q.dT)
+		day = "standard " + signed(num("%.1f K", q.dT))
 	}
-	fmt.Fprintf(w, "Flight condition (U.S. Standard Atmosphere 1976, %s, reference length %.4g m)\n\n", day, q.length)
+	fmt.Fprintf(w, "Flight condition (U.S. Standard Atmosphere 1976, %s, reference length %s m)\n\n", day, num("%.4g", q.length))
 	row("quantity", "SI", "customary")
-	row("altitude (geometric)", fmt.Sprintf("%.1f m", r.Altitude), fmt.Sprintf("%.0f ft", r.Altitude/atmos.Foot))
-	row("altitude (geopotential)", fmt.Sprintf("%.1f m", r.GeopotentialAltitude), fmt.Sprintf("%.0f ft", r.GeopotentialAltitude/atmos.Foot))
-	row("pressure altitude", fmt.Sprintf("%.1f m", r.PressureAltitude), fmt.Sprintf("%.0f ft", r.PressureAltitude/atmos.Foot))
-	row("static temperature", fmt.Sprintf("%.2f K", r.Temperature), fmt.Sprintf("%.1f degF", r.Temperature*9/5-459.67))
-	row("static pressure", fmt.Sprintf("%.1f Pa", r.Pressure), fmt.Sprintf("%.2f psf", r.Pressure/atmos.PSF))
-	row("density", fmt.Sprintf("%.5g kg/m3", r.Density), fmt.Sprintf("%.5g slug/ft3", r.Density/515.378818))
-	row("speed of sound", fmt.Sprintf("%.2f m/s", r.SpeedOfSound), fmt.Sprintf("%.1f kt", r.SpeedOfSound/atmos.Knot))
-	row("dynamic viscosity", fmt.Sprintf("%.5g Pa s", r.Viscosity), "")
-	row("kinematic viscosity", fmt.Sprintf("%.5g m2/s", r.KinematicViscosity), fmt.Sprintf("%.5g ft2/s", r.KinematicViscosity/(atmos.Foot*atmos.Foot)))
-	row("mean free path", fmt.Sprintf("%.4g m", r.MeanFreePath), "")
-	row("Mach number", fmt.Sprintf("%.4f", r.Mach), "")
-	row("TAS", fmt.Sprintf("%.2f m/s", r.TAS), fmt.Sprintf("%.1f kt", r.TAS/atmos.Knot))
-	row("EAS", fmt.Sprintf("%.2f m/s", r.EAS), fmt.Sprintf("%.1f kt", r.EAS/atmos.Knot))
-	row("CAS", fmt.Sprintf("%.2f m/s", r.CAS), fmt.Sprintf("%.1f kt", r.CAS/atmos.Knot))
-	row("dynamic pressure", fmt.Sprintf("%.1f Pa", r.DynamicPressure), fmt.Sprintf("%.1f psf", r.DynamicPressure/atmos.PSF))
-	row("Reynolds number", fmt.Sprintf("%.4g", r.Reynolds), "")
-	row("Reynolds number per metre", fmt.Sprintf("%.4g 1/m", r.ReynoldsPerM), fmt.Sprintf("%.4g 1/ft", r.ReynoldsPerM*atmos.Foot))
-	row("Knudsen number", fmt.Sprintf("%.3g", r.Knudsen), "")
+	row("altitude (geometric)", num("%.1f m", r.Altitude), num("%.0f ft", r.Altitude/atmos.Foot))
+	row("altitude (geopotential)", num("%.1f m", r.GeopotentialAltitude), num("%.0f ft", r.GeopotentialAltitude/atmos.Foot))
+	row("pressure altitude", num("%.1f m", r.PressureAltitude), num("%.0f ft", r.PressureAltitude/atmos.Foot))
+	row("static temperature", num("%.2f K", r.Temperature), num("%.1f degF", r.Temperature*9/5-459.67))
+	row("static pressure", num("%.1f Pa", r.Pressure), num("%.2f psf", r.Pressure/atmos.PSF))
+	row("density", num("%.5g kg/m3", r.Density), num("%.5g slug/ft3", r.Density/515.378818))
+	row("speed of sound", num("%.2f m/s", r.SpeedOfSound), num("%.1f kt", r.SpeedOfSound/atmos.Knot))
+	row("dynamic viscosity", num("%.5g Pa s", r.Viscosity), "")
+	row("kinematic viscosity", num("%.5g m2/s", r.KinematicViscosity), num("%.5g ft2/s", r.KinematicViscosity/(atmos.Foot*atmos.Foot)))
+	row("mean free path", num("%.4g m", r.MeanFreePath), "")
+	row("Mach number", num("%.4f", r.Mach), "")
+	row("TAS", num("%.2f m/s", r.TAS), num("%.1f kt", r.TAS/atmos.Knot))
+	row("EAS", num("%.2f m/s", r.EAS), num("%.1f kt", r.EAS/atmos.Knot))
+	row("CAS", num("%.2f m/s", r.CAS), num("%.1f kt", r.CAS/atmos.Knot))
+	row("dynamic pressure", num("%.1f Pa", r.DynamicPressure), num("%.1f psf", r.DynamicPressure/atmos.PSF))
+	row("Reynolds number", num("%.4g", r.Reynolds), "")
+	row("Reynolds number per metre", num("%.4g 1/m", r.ReynoldsPerM), num("%.4g 1/ft", r.ReynoldsPerM*atmos.Foot))
+	row("Knudsen number", num("%.3g", r.Knudsen), "")
 	row("speed regime", r.Regime, "")
 	row("rarefaction regime", reg.Rarefaction(r.Knudsen).String(), "")
 	tw.Flush()
+}
+
+// num formats one number as format says, never as a negative zero.
+func num(format string, x float64) string { return atmos.NoNegativeZero(fmt.Sprintf(format, x)) }
+
+// signed puts a plus sign before a formatted number that has no minus.
+func signed(s string) string {
+	if strings.HasPrefix(s, "-") {
+		return s
+	}
+	return "+" + s
 }

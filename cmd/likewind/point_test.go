@@ -94,6 +94,45 @@ func TestPointTable(t *testing.T) {
 	}
 }
 
+// The ends of the bounds are taken, as in the files.
+func TestPointBoundsInclusive(t *testing.T) {
+	for _, args := range [][]string{
+		{"point", "--alt", "30km", "--mach", "30"},
+		{"point", "--alt", "0m", "--mach", "0.5", "--dt", "-60K"},
+		{"point", "--alt", "0m", "--mach", "0.5", "--dt", "108degF"},
+		{"point", "--alt", "0m", "--mach", "0.5", "--length", "1000m"},
+		{"point", "--alt", "0m", "--mach", "0.5", "--length", "0.001mm"},
+	} {
+		if code, _, errs := runCmd(args...); code != 0 {
+			t.Errorf("%v: exit %d, stderr %q; want 0", args[1:], code, errs)
+		}
+	}
+}
+
+// No output of point shows a negative zero, in the table or the JSON.
+func TestPointNoNegativeZero(t *testing.T) {
+	for _, args := range [][]string{
+		{"point", "--alt", "0m", "--mach", "-0"},
+		{"point", "--alt", "-0m", "--tas", "-0m/s", "--dt", "-0K"},
+		{"point", "--alt", "-0.01m", "--mach", "0.001", "--dt", "-0.01K"},
+	} {
+		for _, extra := range [][]string{nil, {"--json"}} {
+			a := append(append([]string(nil), args...), extra...)
+			code, out, errs := runCmd(a...)
+			if code != 0 {
+				t.Fatalf("%v: exit %d, stderr %q", a[1:], code, errs)
+			}
+			for _, line := range strings.Split(out, "\n") {
+				for _, f := range strings.Fields(strings.NewReplacer(",", " ", ":", " ").Replace(line)) {
+					if strings.HasPrefix(f, "-") && strings.Trim(f, "-0.") == "" {
+						t.Errorf("%v: negative zero %q in line %q", a[1:], f, line)
+					}
+				}
+			}
+		}
+	}
+}
+
 func TestPointBadInputExits2(t *testing.T) {
 	cases := []struct {
 		name string
@@ -111,6 +150,18 @@ func TestPointBadInputExits2(t *testing.T) {
 		{"tiny length", []string{"point", "--alt", "1km", "--mach", "0.5", "--length", "1e-320m"}, "--length"},
 		{"absurd day", []string{"point", "--alt", "1km", "--mach", "0.5", "--dt", "1000K"}, "--dt"},
 		{"negative speed", []string{"point", "--alt", "1km", "--tas", "-5m/s"}, "negative"},
+		// The bounds of the vehicle files (envelope/bounds.go).
+		{"Mach 71000", []string{"point", "--alt", "11km", "--mach", "71000"}, `--mach: found "71000", expected a Mach number from 0 to 30`},
+		{"Mach above 30", []string{"point", "--alt", "11km", "--mach", "M30.5"}, "a Mach number from 0 to 30"},
+		{"negative Mach", []string{"point", "--alt", "11km", "--mach", "-0.5"}, "a Mach number from 0 to 30"},
+		{"speed of light", []string{"point", "--alt", "0m", "--tas", "299792458m/s"}, "--tas: found \"299792458m/s\", expected a TAS from 0 to 10000 m/s"},
+		{"EAS above the bound", []string{"point", "--alt", "0m", "--eas", "20000kt"}, "an EAS from 0 to 10000 m/s"},
+		{"CAS beyond Mach 30", []string{"point", "--alt", "80km", "--cas", "400kt"}, "--cas: found \"400kt\" (Mach 144.8 here), expected a Mach number from 0 to 30"},
+		{"ΔT of 70 K", []string{"point", "--alt", "1km", "--mach", "0.5", "--dt", "70K"}, "--dt: found \"70K\", expected a temperature offset from the standard day within ±60 K"},
+		{"ΔT of -110 degF", []string{"point", "--alt", "1km", "--mach", "0.5", "--dt", "-110degF"}, "within ±60 K"},
+		{"length of 2 km", []string{"point", "--alt", "1km", "--mach", "0.5", "--length", "2km"}, "--length: found \"2km\", expected a length from 1 µm to 1000 m"},
+		{"altitude of 95 km", []string{"point", "--alt", "95km", "--mach", "0.5"}, "--alt: found \"95km\", expected a geometric altitude from -5000 m to 86000 m"},
+		{"geopotential of 85 km", []string{"point", "--geopotential", "85km", "--mach", "0.5"}, "expected a geopotential altitude from"},
 	}
 	for _, c := range cases {
 		code, _, errs := runCmd(c.args...)
