@@ -69,7 +69,7 @@ func (v helpView) Overlay() string {
 		"Reynolds short = Mach matched, Reynolds number below; Mach relaxed = Reynolds matched "+
 		"at a lower Mach, allowed below the compressibility threshold; out of reach = neither.")
 	para("What-if:", "values take units, e.g. 3 bar, 45 psi, -150 degC, 10 K; "+
-		"changed values are listed in the header; R restores the files' values.")
+		"changed values are listed in the header; R restores the files' values, U undoes.")
 	b.WriteString(wrapText(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w))
 	b.WriteString("\n")
 	b.WriteString(v.st.Faint.Render("? or esc closes this screen"))
