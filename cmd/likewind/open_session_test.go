@@ -134,3 +134,47 @@ func demoHash(t *testing.T) string {
 	}
 	return tui.DataHash(in.vehicle, in.facilities)
 }
+
+// Item 1, default path: a file at the default session path that is not a
+// session of these inputs is kept, and the session goes to the first
+// numbered name beside it (which the next start finds again); the note
+// says where. The state folder is created 0700.
+func TestDefaultSessionUnusableKeptBeside(t *testing.T) {
+	state := t.TempDir()
+	t.Setenv("XDG_STATE_HOME", state)
+	hash := demoHash(t)
+	def, err := defaultSessionPath(hash)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fi, err := os.Stat(filepath.Dir(def))
+	if err != nil || fi.Mode().Perm() != 0o700 {
+		t.Errorf("state folder mode %v (%v), want 0700", fi.Mode().Perm(), err)
+	}
+	junk := []byte("not a session\n")
+	if err := os.WriteFile(def, junk, 0o600); err != nil {
+		t.Fatal(err)
+	}
+	sf, note, err := openDefaultSession(def, nil, hash)
+	if err != nil {
+		t.Fatal(err)
+	}
+	beside := strings.TrimSuffix(def, ".json") + ".1.json"
+	if sf.Path() != beside || !strings.Contains(note, def) || !strings.Contains(note, beside) {
+		t.Errorf("path %s note %q; want %s and a note naming both files", sf.Path(), note, beside)
+	}
+	if _, err := sf.Save(tui.Session{Hash: hash, Layer: "match class", Units: "SI"}, false); err != nil {
+		t.Fatal(err)
+	}
+	sf.Close()
+	sameFile(t, def, junk)
+	// The next start finds the session beside.
+	sf, _, err = openDefaultSession(def, nil, hash)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer sf.Close()
+	if _, ok := sf.Found(); !ok || sf.Path() != beside {
+		t.Errorf("next start: path %s found %v, want the session at %s", sf.Path(), ok, beside)
+	}
+}
