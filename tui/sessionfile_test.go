@@ -266,8 +266,8 @@ func TestReadOnlyInterfaceSavesElsewhere(t *testing.T) {
 	defer first.Close()
 	second, _ := OpenSessionFile(path, nil, hash)
 	defer second.Close()
-	m := newDemo(t, 120, 40, func(o *Options) { o.SessionFile = second })
-	if !strings.Contains(m.View(), "read-only") || !strings.Contains(m.status, "open in another likewind") {
+	m := newDemo(t, 80, 24, func(o *Options) { o.SessionFile = second })
+	if !strings.Contains(strings.SplitN(m.View(), "\n", 2)[0], "read-only session") || !strings.Contains(m.status, "open in another likewind") {
 		t.Errorf("read-only not said: status %q\n%s", m.status, m.View())
 	}
 	m, _ = press(m, "space", "q")

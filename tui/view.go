@@ -269,12 +269,13 @@ func (m Model) headerText() string {
 		veh = m.vehicle.Name
 	}
 	sep := st.Faint.Render(" | ")
-	title := st.Title.Render("likewind") + sep + fac + sep + m.layer.String() + sep + m.units.String()
+	title := st.Title.Render("likewind")
+	if m.readOnly { // first, so that a narrow screen still shows it
+		title += sep + st.Error.Render("read-only session")
+	}
+	title += sep + fac + sep + m.layer.String() + sep + m.units.String()
 	if m.busy {
 		title += sep + st.Changed.Render("computing")
-	}
-	if m.readOnly {
-		title += sep + st.Error.Render("read-only session")
 	}
 	title += sep + st.Faint.Render(veh)
 	lines := []string{clip(title, W, 1)}
