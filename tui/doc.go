@@ -12,13 +12,21 @@
 //	    facility once, synchronously, so the first frame shows results.
 //	Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Model, error)
 //	    Runs the program in the alternate screen until the user quits or
-//	    ctx is cancelled (the caller cancels it on SIGHUP/SIGTERM). On
-//	    every exit, including cancellation, it writes the session to
-//	    opts.SessionPath unless the user chose to quit without saving.
-//	(Model) Session() Session, (Model) WantsSave() bool
-//	    The state to keep, and whether to keep it, for callers that run the
-//	    model themselves.
-//	SaveSession(path string, s Session) error   // atomic: temp file + rename
+//	    ctx is cancelled (the caller cancels it on SIGHUP/SIGTERM). A quit
+//	    saves inside the program (a failed save keeps it open and asks for
+//	    another file); on cancellation Run saves what was not saved yet.
+//	    Nothing is written when nothing changed or the program never
+//	    started.
+//	OpenSessionFile(path, inputs, hash) (*SessionFile, error)
+//	    The session file with its lock (flock on PATH.lock): Refused says
+//	    why a file there is not a session of these inputs, ReadOnly that
+//	    another likewind holds it, Found the session to offer. Save
+//	    re-reads the file first and never writes over what it did not
+//	    read; SaveAs and SaveBeside write new files only.
+//	(Model) Session() Session, (Model) WantsSave() bool, (Model) SaveReport() []string
+//	    The state to keep, whether it still needs writing, and what the
+//	    saves did, for callers that run the model themselves.
+//	SaveSession(path string, s Session) error   // atomic: temp file + rename, 0600; replaces path
 //	LoadSession(path string) (Session, error)
 //	CheckSession(s Session, inputs []string, hash string) error
 //	HashFiles(paths ...string) (string, error), DataHash(v, facs) string
@@ -60,10 +68,13 @@
 //	↑/k ↓/j ←/h →/l  move        pgup/pgdn  page       home/g end/G  first/last column
 //	tab  next layer               u  SI/customary units
 //	f    facility list            [ ]  previous/next facility    b  best of all
-//	e    what-if editor           R  restore the files' values
+//	e    what-if editor           R  restore the files' values    U  undo
 //	space  mark/unmark point      M  mark every full match       X  clear marks
 //	s    save session             w  write view to a text file   ?  help
 //	q    quit (asks when unsaved)
+//
+// U undoes the latest change of what-if values or marks (R and X
+// included), one step per press.
 //
 // The write key saves the text dump of the current view (facility or best
 // of all, layer, units, what-if values, marks) to a new file in

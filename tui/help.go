@@ -72,7 +72,7 @@ func (v helpView) Overlay() string {
 		"the legend under the matrix lists them.")
 	para("Classes:", ClassHelp)
 	para("What-if:", "values take units (3 bar, 45 psi, -150 degC, 10 K); scale 1/20, 1:20, 5%"+
-		" or fit; q max none; R restores the files' values.")
+		" or fit; q max none; R restores the files' values, U undoes.")
 	b.WriteString(wrapText(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w))
 	b.WriteString("\n")
 	b.WriteString(v.st.Faint.Render("? or esc closes this screen"))

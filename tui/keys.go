@@ -18,6 +18,9 @@ type KeyMap struct {
 
 	Edit    key.Binding
 	Restore key.Binding
+	// Undo puts back the state before the latest change of what-if values
+	// or marks (R and X included).
+	Undo key.Binding
 
 	Mark      key.Binding
 	MarkMatch key.Binding
@@ -36,6 +39,8 @@ type KeyMap struct {
 	Yes     key.Binding
 	No      key.Binding
 	SaveYes key.Binding
+	// SaveElsewhere is SaveYes on a read-only session: it asks for a file.
+	SaveElsewhere key.Binding
 	// Interrupt quits (asking first) even from the input line.
 	Interrupt key.Binding
 
@@ -50,37 +55,39 @@ func DefaultKeyMap() KeyMap {
 		return key.NewBinding(key.WithKeys(keys...), key.WithHelp(k, desc))
 	}
 	return KeyMap{
-		Up:        b([]string{"up", "k"}, "↑/k", "altitude up"),
-		Down:      b([]string{"down", "j"}, "↓/j", "altitude down"),
-		Left:      b([]string{"left", "h"}, "←/h", "speed down"),
-		Right:     b([]string{"right", "l"}, "→/l", "speed up"),
-		PageUp:    b([]string{"pgup", "ctrl+u"}, "pgup", "page up"),
-		PageDown:  b([]string{"pgdown", "ctrl+d"}, "pgdn", "page down"),
-		Home:      b([]string{"home", "g"}, "home/g", "first column"),
-		End:       b([]string{"end", "G"}, "end/G", "last column"),
-		Layer:     b([]string{"tab"}, "tab", "layer"),
-		Units:     b([]string{"u"}, "u", "SI/customary"),
-		Facility:  b([]string{"f"}, "f", "facility list"),
-		PrevFac:   b([]string{"["}, "[", "prev facility"),
-		NextFac:   b([]string{"]"}, "]", "next facility"),
-		BestOfAll: b([]string{"b"}, "b", "best of all"),
-		Edit:      b([]string{"e"}, "e", "what-if"),
-		Restore:   b([]string{"R"}, "R", "file values"),
-		Mark:      b([]string{" ", "space"}, "space", "mark point"),
-		MarkMatch: b([]string{"M"}, "M", "mark matches"),
-		ClearMark: b([]string{"X"}, "X", "clear marks"),
-		Save:      b([]string{"s", "ctrl+s"}, "s", "save session"),
-		WriteView: b([]string{"w"}, "w", "write view"),
-		Help:      b([]string{"?"}, "?", "help"),
-		Quit:      b([]string{"q", "ctrl+c"}, "q", "quit"),
-		Prev:      b([]string{"up", "k"}, "↑/k", "previous"),
-		Next:      b([]string{"down", "j"}, "↓/j", "next"),
-		Select:    b([]string{"enter"}, "enter", "choose"),
-		Back:      b([]string{"esc"}, "esc", "back"),
-		Yes:       b([]string{"y"}, "y", "quit without saving"),
-		No:        b([]string{"n", "esc"}, "n/esc", "stay"),
-		SaveYes:   b([]string{"s"}, "s", "save and quit"),
-		Interrupt: b([]string{"ctrl+c"}, "ctrl+c", "quit"),
+		Up:            b([]string{"up", "k"}, "↑/k", "altitude up"),
+		Down:          b([]string{"down", "j"}, "↓/j", "altitude down"),
+		Left:          b([]string{"left", "h"}, "←/h", "speed down"),
+		Right:         b([]string{"right", "l"}, "→/l", "speed up"),
+		PageUp:        b([]string{"pgup", "ctrl+u"}, "pgup", "page up"),
+		PageDown:      b([]string{"pgdown", "ctrl+d"}, "pgdn", "page down"),
+		Home:          b([]string{"home", "g"}, "home/g", "first column"),
+		End:           b([]string{"end", "G"}, "end/G", "last column"),
+		Layer:         b([]string{"tab"}, "tab", "layer"),
+		Units:         b([]string{"u"}, "u", "SI/customary"),
+		Facility:      b([]string{"f"}, "f", "facility list"),
+		PrevFac:       b([]string{"["}, "[", "prev facility"),
+		NextFac:       b([]string{"]"}, "]", "next facility"),
+		BestOfAll:     b([]string{"b"}, "b", "best of all"),
+		Edit:          b([]string{"e"}, "e", "what-if"),
+		Restore:       b([]string{"R"}, "R", "file values"),
+		Undo:          b([]string{"U"}, "U", "undo"),
+		Mark:          b([]string{" ", "space"}, "space", "mark point"),
+		MarkMatch:     b([]string{"M"}, "M", "mark matches"),
+		ClearMark:     b([]string{"X"}, "X", "clear marks"),
+		Save:          b([]string{"s", "ctrl+s"}, "s", "save session"),
+		WriteView:     b([]string{"w"}, "w", "write view"),
+		Help:          b([]string{"?"}, "?", "help"),
+		Quit:          b([]string{"q", "ctrl+c"}, "q", "quit"),
+		Prev:          b([]string{"up", "k"}, "↑/k", "previous"),
+		Next:          b([]string{"down", "j"}, "↓/j", "next"),
+		Select:        b([]string{"enter"}, "enter", "choose"),
+		Back:          b([]string{"esc"}, "esc", "back"),
+		Yes:           b([]string{"y"}, "y", "quit without saving"),
+		No:            b([]string{"n", "esc"}, "n/esc", "stay"),
+		SaveYes:       b([]string{"s"}, "s", "save and quit"),
+		SaveElsewhere: b([]string{"s"}, "s", "save to another file"),
+		Interrupt:     b([]string{"ctrl+c"}, "ctrl+c", "quit"),
 
 		InputLeft:      b([]string{"left", "ctrl+b"}, "←", "cursor left"),
 		InputRight:     b([]string{"right", "ctrl+f"}, "→", "cursor right"),
@@ -102,7 +109,7 @@ func (k KeyMap) FullHelp() [][]key.Binding {
 	return [][]key.Binding{
 		{k.Up, k.Down, k.Left, k.Right, k.PageUp, k.PageDown, k.Home, k.End},
 		{k.Layer, k.Units, k.Facility, k.PrevFac, k.NextFac, k.BestOfAll},
-		{k.Edit, k.Restore, k.Mark, k.MarkMatch, k.ClearMark},
+		{k.Edit, k.Restore, k.Undo, k.Mark, k.MarkMatch, k.ClearMark},
 		{k.Save, k.WriteView, k.Help, k.Quit, k.Select, k.Back},
 	}
 }
@@ -112,17 +119,21 @@ func (k KeyMap) FullHelp() [][]key.Binding {
 type listKeys struct{ k *KeyMap }
 
 func (l listKeys) ShortHelp() []key.Binding {
-	return []key.Binding{l.k.Prev, l.k.Next, l.k.Select, l.k.Restore, l.k.Back}
+	return []key.Binding{l.k.Prev, l.k.Next, l.k.Select, l.k.Restore, l.k.Undo, l.k.Back}
 }
 func (l listKeys) FullHelp() [][]key.Binding { return [][]key.Binding{l.ShortHelp()} }
 
 // confirmKeys is the key map of the quit question.
 type confirmKeys struct {
-	k       *KeyMap
-	canSave bool
+	k        *KeyMap
+	canSave  bool
+	readOnly bool // saving asks for another file
 }
 
 func (c confirmKeys) ShortHelp() []key.Binding {
+	if c.canSave && c.readOnly {
+		return []key.Binding{c.k.SaveElsewhere, c.k.Yes, c.k.No}
+	}
 	if c.canSave {
 		return []key.Binding{c.k.SaveYes, c.k.Yes, c.k.No}
 	}

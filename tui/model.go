@@ -2,6 +2,7 @@ package tui
 
 import (
 	"context"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -43,12 +44,21 @@ type Options struct {
 	Inputs    []string
 	InputHash string
 
-	// SessionPath is the session file the save key and Run write; empty
-	// means no session file.
+	// SessionFile is the session file the save key and Run write, with
+	// its lock (OpenSessionFile); nil means SessionPath.
+	SessionFile *SessionFile
+	// SessionPath is used when SessionFile is nil: New reads it without a
+	// lock, Run opens it with one. Empty (and no SessionFile) means no
+	// session file.
 	SessionPath string
 	// Session is a restored session to apply, or nil. A session saved for
 	// other input files is refused with a message on the status line.
+	// When the session file holds a session and none is restored, that
+	// session is kept beside under a numbered name before the first save.
 	Session *Session
+	// SessionNote is shown on the status line at start (e.g. where the
+	// session goes when the usual file could not be used).
+	SessionNote string
 
 	// DumpDir is the folder the write-view key puts text dumps of the
 	// current view in; empty means the key only says it is unavailable.
@@ -77,6 +87,7 @@ const (
 	modePicker
 	modeEdit
 	modeConfirm
+	modeSaveAs // the session could not be saved (or not there): ask for another file
 )
 
 // Model is the root Bubble Tea model. It composes the matrix, details,
@@ -129,12 +140,24 @@ type Model struct {
 	sideW    int
 	lowerH   int
 
-	dirty       bool // state changed since the last save
-	discard     bool // user chose to quit without saving
-	quitting    bool
+	// The session: the file it is saved to (nil = none), the state last
+	// in step with it (restored, or the files' values, or last saved), and
+	// whether a session on disk that was not restored must be kept beside
+	// before the first save.
+	store       *SessionFile
 	sessionPath string
+	saved       Session
+	keepOld     bool
+	readOnly    bool   // another likewind holds the session file
+	holder      string // which one
+	saveAs      saveAsPrompt
+	report      []string // what the saves did, for the terminal after exit
+	discard     bool     // user chose to quit without saving
+	quitting    bool
 	inputs      []string
 	hash        string
+
+	undo []undoStep // what-if and mark changes, newest last
 
 	dumpDir string
 	version string
@@ -156,23 +179,22 @@ func New(opts Options) Model {
 	}
 	fr := frame{st: st, keys: keys}
 	m := Model{
-		fr:          fr,
-		matrix:      matrixView{frame: fr},
-		details:     detailsView{frame: fr},
-		legend:      legendView{frame: fr},
-		picker:      picker{frame: fr},
-		editor:      newEditor(fr),
-		help:        newHelpView(fr),
-		vehicle:     opts.Vehicle,
-		fileFacs:    opts.Facilities,
-		facs:        append([]envelope.Facility(nil), opts.Facilities...),
-		marks:       map[int]bool{},
-		sessionPath: opts.SessionPath,
-		inputs:      append([]string(nil), opts.Inputs...),
-		hash:        opts.InputHash,
-		dumpDir:     opts.DumpDir,
-		version:     opts.Version,
-		clock:       opts.Clock,
+		fr:       fr,
+		matrix:   matrixView{frame: fr},
+		details:  detailsView{frame: fr},
+		legend:   legendView{frame: fr},
+		picker:   picker{frame: fr},
+		editor:   newEditor(fr),
+		help:     newHelpView(fr),
+		vehicle:  opts.Vehicle,
+		fileFacs: opts.Facilities,
+		facs:     append([]envelope.Facility(nil), opts.Facilities...),
+		marks:    map[int]bool{},
+		inputs:   append([]string(nil), opts.Inputs...),
+		hash:     opts.InputHash,
+		dumpDir:  opts.DumpDir,
+		version:  opts.Version,
+		clock:    opts.Clock,
 	}
 	if m.version == "" {
 		m.version = "dev"
@@ -192,13 +214,24 @@ func New(opts Options) Model {
 	if len(m.facs) == 0 {
 		m.fac = -1
 	}
-	var sessionMsg string
+	var notes []string
+	notesErr := false
+	m.store = opts.SessionFile
+	if m.store == nil && opts.SessionPath != "" {
+		// Opening without a lock only reads: it cannot fail but on an
+		// empty path.
+		m.store, _ = openSessionFile(opts.SessionPath, m.inputs, m.hash, false)
+	}
+	if m.store != nil {
+		m.sessionPath = m.store.Path()
+		m.readOnly, m.holder = m.store.ReadOnly()
+	}
 	restored := false
 	if opts.Session != nil {
 		if err := CheckSession(*opts.Session, m.inputs, m.hash); err != nil {
-			sessionMsg = "session not restored: " + err.Error()
+			notes, notesErr = append(notes, "session not restored: "+err.Error()), true
 		} else {
-			sessionMsg = m.applySession(*opts.Session)
+			notes = append(notes, m.applySession(*opts.Session))
 			restored = true
 		}
 	}
@@ -222,9 +255,29 @@ func New(opts Options) Model {
 	} else {
 		m.curI, m.curJ = m.startPoint()
 	}
-	if sessionMsg != "" {
-		m.status, m.statusErr = sessionMsg, strings.HasPrefix(sessionMsg, "session not")
+	if m.status != "" { // an evaluation error, or marks dropped
+		notes, notesErr = append(notes, m.status), m.statusErr
 	}
+	if opts.SessionNote != "" {
+		notes, notesErr = append(notes, opts.SessionNote), true
+	}
+	if m.store != nil {
+		if _, ok := m.store.Found(); ok && !restored {
+			m.keepOld = true
+		}
+		if m.readOnly {
+			notes, notesErr = append(notes, fmt.Sprintf("read-only: %s is open in another likewind (%s); s saves this session to another file", m.sessionPath, m.holder)), true
+		} else if err := m.store.LockError(); err != nil && opts.SessionFile != nil {
+			notes, notesErr = append(notes, fmt.Sprintf("no lock on %s: %v", m.sessionPath, err)), true
+		}
+		if err := m.store.Refused(); err != nil {
+			notes, notesErr = append(notes, fmt.Sprintf("%s %v; it is kept, and the session will be saved beside it", m.sessionPath, err)), true
+		}
+	}
+	if len(notes) > 0 {
+		m.status, m.statusErr = strings.Join(notes, "; "), notesErr
+	}
+	m.saved = m.Session()
 	w, h := opts.Width, opts.Height
 	if w <= 0 || h <= 0 {
 		w, h = 80, 24
@@ -268,10 +321,15 @@ type (
 		res results
 		err error
 	}
-	// savedMsg reports a session save.
+	// savedMsg reports a session save: the state saved, whether the
+	// save was to end the program, and the file name the user typed
+	// (save-as).
 	savedMsg struct {
-		path string
-		err  error
+		res   SaveResult
+		err   error
+		state Session
+		quit  bool
+		typed string
 	}
 	// viewWrittenMsg reports a text dump of the view written to a file.
 	viewWrittenMsg struct {
@@ -343,12 +401,7 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	case computedMsg:
 		m.onComputed(msg)
 	case savedMsg:
-		if msg.err != nil {
-			m.setError(msg.err.Error())
-		} else {
-			m.dirty = false
-			m.setStatus("session saved to " + msg.path)
-		}
+		cmd = m.onSaved(msg)
 	case viewWrittenMsg:
 		if msg.err != nil {
 			m.setError("view not written: " + msg.err.Error())
@@ -389,6 +442,8 @@ func (m *Model) onKey(msg tea.KeyMsg) tea.Cmd {
 		return m.keyEdit(msg)
 	case modeConfirm:
 		return m.keyConfirm(msg)
+	case modeSaveAs:
+		return m.keySaveAs(msg)
 	}
 	return m.keyMain(msg)
 }
@@ -419,10 +474,8 @@ func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
 		m.moveCursor(0, m.cols())
 	case matches(msg, k.Layer):
 		m.layer = m.layer.Next()
-		m.dirty = true
 	case matches(msg, k.Units):
 		m.units = m.units.Toggle()
-		m.dirty = true
 	case matches(msg, k.Facility):
 		m.mode = modePicker
 		m.picker.sel = m.fac + 1
@@ -447,10 +500,12 @@ func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
 		m.markFullMatches()
 	case matches(msg, k.ClearMark):
 		if n := len(m.marks); n > 0 {
+			m.pushUndo(fmt.Sprintf("clear %d marks", n), false)
 			m.marks = map[int]bool{}
-			m.dirty = true
-			m.setStatus(fmt.Sprintf("%d marks cleared", n))
+			m.setStatus(fmt.Sprintf("%d marks cleared (%s undoes)", n, k.Undo.Help().Key))
 		}
+	case matches(msg, k.Undo):
+		return m.undoLast()
 	case matches(msg, k.Save):
 		return m.save()
 	case matches(msg, k.WriteView):
@@ -531,6 +586,8 @@ func (m *Model) keyEdit(msg tea.KeyMsg) tea.Cmd {
 		m.editor.begin(row.label, m.editValue(f))
 	case matches(msg, k.Restore):
 		return m.restoreFiles()
+	case matches(msg, k.Undo):
+		return m.undoLast()
 	case matches(msg, k.Quit):
 		m.mode = modeMain
 		return m.askQuit()
@@ -541,9 +598,12 @@ func (m *Model) keyEdit(msg tea.KeyMsg) tea.Cmd {
 func (m *Model) keyConfirm(msg tea.KeyMsg) tea.Cmd {
 	k := m.fr.keys
 	switch {
-	case m.sessionPath != "" && matches(msg, k.SaveYes):
-		m.quitting = true
-		return tea.Quit
+	case m.store != nil && matches(msg, k.SaveYes):
+		if m.readOnly {
+			m.openSaveAs(true, nil, "")
+			return nil
+		}
+		return m.saveCmd(true)
 	case matches(msg, k.Yes), matches(msg, k.Interrupt):
 		m.quitting = true
 		m.discard = true
@@ -557,34 +617,118 @@ func (m *Model) keyConfirm(msg tea.KeyMsg) tea.Cmd {
 // matches is key.Matches for one binding.
 func matches(msg tea.KeyMsg, b key.Binding) bool { return key.Matches(msg, b) }
 
-// askQuit quits, or asks first when there are unsaved changes.
+// askQuit quits, asks first, or saves first. With nothing changed since
+// the session was restored, started afresh or last saved, it quits at
+// once and writes nothing. With changed what-if values or marks, or on a
+// read-only session, it asks. When only the view changed (facility,
+// layer, units), it saves and quits; a failed save keeps the program
+// open and asks for another file.
 func (m *Model) askQuit() tea.Cmd {
-	if m.hasUnsaved() {
+	switch {
+	case !m.unsaved(), m.store == nil && !m.hasUnsaved():
+		m.quitting = true
+		return tea.Quit
+	case m.store == nil, m.readOnly, m.hasUnsaved():
 		m.mode = modeConfirm
 		return nil
 	}
-	m.quitting = true
-	return tea.Quit
+	return m.saveCmd(true)
 }
+
+// sessionState is the part of a session whose change is worth a write:
+// all of it but the cursor (moving alone never rewrites a session).
+func sessionState(s Session) string {
+	s.Cursor, s.Version = nil, SessionVersion
+	b, _ := json.Marshal(s) // numbers and strings: cannot fail
+	return string(b)
+}
+
+// workState is the work in a session: what-if values and marks.
+func workState(s Session) string {
+	b, _ := json.Marshal(struct {
+		W WhatIf
+		M []Point
+	}{s.WhatIf, s.Marks})
+	return string(b)
+}
+
+// unsaved reports whether the state differs from the one last in step
+// with the session file (restored, started afresh, or saved).
+func (m *Model) unsaved() bool { return sessionState(m.Session()) != sessionState(m.saved) }
 
 // hasUnsaved reports whether quitting now would lose what-if values or
 // marks.
-func (m *Model) hasUnsaved() bool {
-	if !m.dirty {
-		return false
-	}
-	return m.whatIfChanged() || len(m.marks) > 0
-}
+func (m *Model) hasUnsaved() bool { return workState(m.Session()) != workState(m.saved) }
 
-// save writes the session in a command.
+// save is the save key: write the session in a command, or, on a
+// read-only session, ask for another file.
 func (m *Model) save() tea.Cmd {
-	if m.sessionPath == "" {
+	if m.store == nil {
 		m.setError("no session file was given; nothing saved")
 		return nil
 	}
-	path, s := m.sessionPath, m.Session()
-	return func() tea.Msg { return savedMsg{path: path, err: SaveSession(path, s)} }
+	if m.readOnly {
+		m.openSaveAs(false, nil, "")
+		return nil
+	}
+	return m.saveCmd(false)
 }
+
+// saveCmd saves the current state to the session file in a command; with
+// quit the program ends once the save succeeded.
+func (m *Model) saveCmd(quit bool) tea.Cmd {
+	store, s, keep := m.store, m.Session(), m.keepOld
+	return func() tea.Msg {
+		res, err := store.Save(s, keep)
+		return savedMsg{res: res, err: err, state: s, quit: quit}
+	}
+}
+
+// onSaved takes a save's outcome. A failure never quits: it shows the whole
+// error and asks for another file.
+func (m *Model) onSaved(msg savedMsg) tea.Cmd {
+	if msg.err != nil {
+		m.openSaveAs(msg.quit, msg.err, msg.typed)
+		return nil
+	}
+	m.noteSaved(msg.res, msg.state)
+	if m.mode == modeSaveAs || m.mode == modeConfirm {
+		m.mode = modeMain
+	}
+	if msg.quit {
+		if m.unsaved() { // changed again while the save ran
+			m.mode = modeConfirm
+			return nil
+		}
+		m.quitting = true
+		return tea.Quit
+	}
+	return nil
+}
+
+// noteSaved records a successful save.
+func (m *Model) noteSaved(res SaveResult, state Session) {
+	m.saved, m.keepOld = state, false
+	m.sessionPath, m.readOnly, m.holder = res.Path, false, ""
+	line := "session saved to " + res.Path
+	if !res.Written {
+		line = "session unchanged in " + res.Path
+	}
+	m.report = append(m.report, line)
+	if res.Note != "" {
+		m.report = append(m.report, res.Note)
+		line += "; " + res.Note
+	}
+	m.setStatus(line)
+}
+
+// SaveReport is what the saves of this run did, one line each, for the
+// terminal after the program ends: where the session went, and any file
+// kept beside it.
+func (m Model) SaveReport() []string { return append([]string(nil), m.report...) }
+
+// SessionPath is the file the session is saved to now ("" without one).
+func (m Model) SessionPath() string { return m.sessionPath }
 
 // chooseFacility selects facility k (-1 = best of all), wrapping around.
 func (m *Model) chooseFacility(k int) {
@@ -602,7 +746,6 @@ func (m *Model) chooseFacility(k int) {
 	if k >= 0 {
 		m.lastFac = k
 	}
-	m.dirty = true
 }
 
 func (m *Model) rows() int {
@@ -648,14 +791,15 @@ func (m *Model) toggleMark() {
 	idx := g.Index(m.curI, m.curJ)
 	marks := cloneMarks(m.marks)
 	if marks[idx] {
+		m.pushUndo("unmark a point", false)
 		delete(marks, idx)
 		m.setStatus(fmt.Sprintf("mark removed (%d marked)", len(marks)))
 	} else {
+		m.pushUndo("mark a point", false)
 		marks[idx] = true
 		m.setStatus(fmt.Sprintf("point marked (%d marked)", len(marks)))
 	}
 	m.marks = marks
-	m.dirty = true
 }
 
 // markFullMatches marks every full-match point of the current facility
@@ -680,10 +824,10 @@ func (m *Model) markFullMatches() {
 			added++
 		}
 	}
-	m.marks = marks
 	if added > 0 {
-		m.dirty = true
+		m.pushUndo(fmt.Sprintf("mark %d full matches", added), false)
 	}
+	m.marks = marks
 	m.setStatus(fmt.Sprintf("%d full-match points marked (%d marked)", added, len(marks)))
 }
 
@@ -701,15 +845,68 @@ func (m *Model) restoreFiles() tea.Cmd {
 		m.setStatus("what-if values already match the files")
 		return nil
 	}
+	n := len(m.changes())
+	m.pushUndo(fmt.Sprintf("restore the files' values (%d what-if values back)", n), true)
 	gridChanged := m.set.DeltaT != m.fileSet.DeltaT || m.set.Regimes != m.fileSet.Regimes
 	m.set = m.fileSet
 	m.facs = append([]envelope.Facility(nil), m.fileFacs...)
-	m.dirty = true
-	m.setStatus("files' values restored")
+	m.setStatus(fmt.Sprintf("files' values restored (%s undoes)", m.fr.keys.Undo.Help().Key))
 	if gridChanged {
 		return m.recompute(recomputeGrid)
 	}
 	return m.recompute(recomputeSolve)
+}
+
+// maxUndo is how many what-if and mark changes can be undone.
+const maxUndo = 200
+
+// undoStep is the state before one change of what-if values or marks.
+type undoStep struct {
+	what   string
+	whatIf bool // what-if values changed (a recompute on undo)
+	set    envelope.Settings
+	facs   []envelope.Facility
+	marks  map[int]bool
+}
+
+// pushUndo records the state before a change. The maps and slices are
+// never changed in place (every change builds new ones), so holding them
+// is enough.
+func (m *Model) pushUndo(what string, whatIf bool) {
+	m.pushStep(undoStep{what: what, whatIf: whatIf, set: m.set, facs: m.facs, marks: m.marks})
+}
+
+func (m *Model) pushStep(st undoStep) {
+	n := len(m.undo)
+	if n >= maxUndo {
+		m.undo = m.undo[n-maxUndo+1:]
+		n = len(m.undo)
+	}
+	// A full slice expression: a copy of the model never shares the
+	// appended element.
+	m.undo = append(m.undo[:n:n], st)
+}
+
+// undoLast puts back the state before the latest change of what-if values
+// or marks (R and X included) and recomputes when values changed.
+func (m *Model) undoLast() tea.Cmd {
+	n := len(m.undo)
+	if n == 0 {
+		m.setStatus("nothing to undo")
+		return nil
+	}
+	st := m.undo[n-1]
+	m.undo = m.undo[: n-1 : n-1]
+	gridChanged := m.set.DeltaT != st.set.DeltaT || m.set.Regimes != st.set.Regimes
+	m.set, m.facs, m.marks = st.set, st.facs, st.marks
+	m.setStatus(fmt.Sprintf("undone: %s (%d marked)", st.what, len(m.marks)))
+	switch {
+	case gridChanged:
+		return m.recompute(recomputeGrid)
+	case st.whatIf:
+		return m.recompute(recomputeSolve)
+	}
+	return nil
 }
 
 // whatIfChanged reports whether any what-if value differs from the files.
@@ -772,6 +969,8 @@ func (m *Model) applyEdit() tea.Cmd {
 		m.editor.err = err.Error()
 		return nil
 	}
+	// The state before the edit, for undo.
+	before := undoStep{what: "what-if " + m.editorRows()[f].label, whatIf: true, set: m.set, facs: m.facs, marks: m.marks}
 	kind := recomputeSolve
 	switch f {
 	case fieldScale:
@@ -807,9 +1006,9 @@ func (m *Model) applyEdit() tea.Cmd {
 		m.facs = facs
 		kind = recomputeOneFac
 	}
+	m.pushStep(before)
 	m.editor.end()
 	m.editor.err = ""
-	m.dirty = true
 	return m.recompute(kind)
 }
 
@@ -818,10 +1017,16 @@ func (m *Model) applyEdit() tea.Cmd {
 var ErrSessionNotSaved = errors.New("session not saved")
 
 // Run starts the interactive program on the terminal and blocks until it
-// ends. On exit, and also when ctx is cancelled, the session is written to
-// opts.SessionPath unless the user chose to quit without saving; a failed
-// write is reported as an error wrapping ErrSessionNotSaved. It returns the
-// final model.
+// ends. The user's quit saves inside the program (a failed save keeps it
+// open). When the program ends otherwise (ctx cancelled: a hang-up or a
+// kill) with state not yet saved, Run saves it: to the session file, or,
+// on a read-only session, to a new numbered file beside it. Nothing is
+// written when nothing changed, when the user chose to quit without
+// saving, or when the program could not start. A failed write is reported
+// as an error wrapping ErrSessionNotSaved. It returns the final model.
+//
+// Without opts.SessionFile, Run opens opts.SessionPath with its lock and
+// releases it on return.
 //
 // Run leaves signals to the caller: the caller cancels ctx on SIGHUP,
 // SIGTERM and SIGINT. (Bubble Tea's own handler is turned off because, with
@@ -829,6 +1034,18 @@ var ErrSessionNotSaved = errors.New("session not saved")
 // the handler still waits to deliver its quit message, and shutdown would
 // hang.)
 func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Model, error) {
+	if opts.SessionFile == nil && opts.SessionPath != "" {
+		hash := opts.InputHash
+		if hash == "" {
+			hash = DataHash(opts.Vehicle, opts.Facilities)
+		}
+		sf, err := OpenSessionFile(opts.SessionPath, opts.Inputs, hash)
+		if err != nil {
+			return New(opts), err
+		}
+		defer sf.Close()
+		opts.SessionFile = sf
+	}
 	m := New(opts)
 	all := append([]tea.ProgramOption{tea.WithAltScreen(), tea.WithContext(ctx), tea.WithoutSignalHandler()}, progOpts...)
 	final, err := tea.NewProgram(m, all...).Run()
@@ -836,16 +1053,27 @@ func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Mode
 		m = fm
 	}
 	if m.WantsSave() {
-		if serr := SaveSession(opts.SessionPath, m.Session()); serr != nil {
+		s := m.Session()
+		var res SaveResult
+		var serr error
+		if m.readOnly {
+			res, serr = m.store.SaveBeside(s)
+		} else {
+			res, serr = m.store.Save(s, m.keepOld)
+		}
+		if serr != nil {
 			err = errors.Join(err, fmt.Errorf("%w: %w", ErrSessionNotSaved, serr))
+		} else {
+			m.noteSaved(res, s)
 		}
 	}
 	return m, err
 }
 
-// WantsSave reports whether the session should be written on exit: a
-// session file was given and the user did not choose to discard changes.
-func (m Model) WantsSave() bool { return m.sessionPath != "" && !m.discard }
+// WantsSave reports whether the state must still be written on exit: there
+// is a session file, the state differs from the one last in step with it,
+// and the user did not choose to quit without saving.
+func (m Model) WantsSave() bool { return m.store != nil && !m.discard && m.unsaved() }
 
 // Quitting reports whether the model asked to quit.
 func (m Model) Quitting() bool { return m.quitting }

@@ -1,11 +1,13 @@
 package tui
 
 import (
+	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
 	"encoding/json"
 	"errors"
 	"fmt"
+	"io/fs"
 	"os"
 	"slices"
 	"strings"
@@ -112,39 +114,65 @@ func nameList(names []string) string {
 	return strings.Join(names, ", ")
 }
 
-// LoadSession reads a session file.
+// LoadSession reads a session file. A folder, link or special file, or a
+// file that is not a session, is refused with an error naming the file.
 func LoadSession(path string) (Session, error) {
-	data, err := os.ReadFile(path)
-	if err != nil {
-		return Session{}, fmt.Errorf("load session: %w", err)
+	data, exists, err := readSessionPath(path)
+	if err == nil && !exists {
+		err = fs.ErrNotExist
 	}
-	var s Session
-	dec := json.NewDecoder(strings.NewReader(string(data)))
-	dec.DisallowUnknownFields()
-	if err := dec.Decode(&s); err != nil {
+	if err != nil {
 		return Session{}, fmt.Errorf("load session %s: %w", path, err)
 	}
-	if s.Version != SessionVersion {
-		return Session{}, fmt.Errorf("load session %s: version %d not supported (expected %d)", path, s.Version, SessionVersion)
+	s, err := parseSession(data)
+	if err != nil {
+		return Session{}, fmt.Errorf("load session %s: %w", path, err)
 	}
 	return s, nil
 }
 
-// SaveSession writes s to path atomically with envelope.WriteFileAtomic (a
-// synced temporary file in the same folder, renamed over path), so a crash
-// never leaves a half-written session.
-func SaveSession(path string, s Session) error {
-	if path == "" {
-		return errors.New("save session: no session file given")
+// parseSession decodes a session file's content.
+func parseSession(data []byte) (Session, error) {
+	var s Session
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(&s); err != nil {
+		return Session{}, err
 	}
+	if dec.More() {
+		return Session{}, errors.New("text after the session object")
+	}
+	if s.Version != SessionVersion {
+		return Session{}, fmt.Errorf("version %d not supported (expected %d)", s.Version, SessionVersion)
+	}
+	return s, nil
+}
+
+// encodeSession is the content of a session file for s.
+func encodeSession(s Session) ([]byte, error) {
 	s.Version = SessionVersion
 	s.Marks = slices.Clone(s.Marks)
 	data, err := json.MarshalIndent(s, "", "  ")
 	if err != nil {
-		return fmt.Errorf("save session: %w", err)
+		return nil, fmt.Errorf("save session: %w", err)
 	}
-	data = append(data, '\n')
-	if err := envelope.WriteFileAtomic(path, data, true); err != nil {
+	return append(data, '\n'), nil
+}
+
+// SaveSession writes s to path atomically with envelope.WriteFileAtomic (a
+// synced temporary file in the same folder, renamed over path), so a crash
+// never leaves a half-written session; the file is made 0600. It replaces
+// whatever is at path: the interface saves through a SessionFile instead,
+// which never writes over what it did not read.
+func SaveSession(path string, s Session) error {
+	if path == "" {
+		return errors.New("save session: no session file given")
+	}
+	data, err := encodeSession(s)
+	if err != nil {
+		return err
+	}
+	if err := writeSession(path, data, true); err != nil {
 		return fmt.Errorf("save session: %w", err)
 	}
 	return nil

@@ -181,32 +181,114 @@ func TestNewRefusesForeignSession(t *testing.T) {
 	}
 }
 
-// TestRunWritesSessionWhenCancelled runs the real program loop on pipes
-// and cancels it the way the caller does on SIGHUP/SIGTERM: the session
-// must be written.
-func TestRunWritesSessionWhenCancelled(t *testing.T) {
-	v, facs := demoData(t)
-	path := filepath.Join(t.TempDir(), "s.json")
+// runOnPipe runs the real program loop on a pipe, types keys into it,
+// then cancels it the way the caller does on SIGHUP/SIGTERM, and returns
+// Run's results.
+func runOnPipe(t *testing.T, opts Options, keys string) (Model, error) {
+	t.Helper()
 	ctx, cancel := context.WithCancel(context.Background())
 	inR, inW := io.Pipe()
 	defer inW.Close()
-	done := make(chan error, 1)
+	type result struct {
+		m   Model
+		err error
+	}
+	done := make(chan result, 1)
 	go func() {
-		_, err := Run(ctx, Options{Vehicle: v, Facilities: facs, SessionPath: path},
-			tea.WithInput(inR), tea.WithOutput(io.Discard))
-		done <- err
+		m, err := Run(ctx, opts, tea.WithInput(inR), tea.WithOutput(io.Discard))
+		done <- result{m, err}
 	}()
 	time.Sleep(200 * time.Millisecond)
+	if keys != "" {
+		if _, err := inW.Write([]byte(keys)); err != nil {
+			t.Fatal(err)
+		}
+		time.Sleep(200 * time.Millisecond)
+	}
 	cancel()
 	select {
-	case err := <-done:
-		if err == nil || !errors.Is(err, tea.ErrProgramKilled) {
-			t.Errorf("Run error = %v, want ErrProgramKilled", err)
-		}
+	case r := <-done:
+		return r.m, r.err
 	case <-time.After(10 * time.Second):
 		t.Fatal("Run did not return after the context was cancelled")
 	}
-	if _, err := LoadSession(path); err != nil {
-		t.Errorf("session not written on cancel: %v", err)
+	return Model{}, nil
+}
+
+// TestRunWritesSessionWhenCancelled: a change not yet saved is written
+// when the program is cancelled (a hang-up), and the lock file is gone
+// afterwards.
+func TestRunWritesSessionWhenCancelled(t *testing.T) {
+	v, facs := demoData(t)
+	dir := t.TempDir()
+	path := filepath.Join(dir, "s.json")
+	m, err := runOnPipe(t, Options{Vehicle: v, Facilities: facs, SessionPath: path}, "u")
+	if err == nil || !errors.Is(err, tea.ErrProgramKilled) {
+		t.Errorf("Run error = %v, want ErrProgramKilled", err)
 	}
+	s, err := LoadSession(path)
+	if err != nil {
+		t.Fatalf("session not written on cancel: %v", err)
+	}
+	if s.Units != Customary.String() {
+		t.Errorf("saved units %q, want the change %q", s.Units, Customary)
+	}
+	if r := m.SaveReport(); len(r) != 1 || r[0] != "session saved to "+path {
+		t.Errorf("report = %q, want the one save", r)
+	}
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 1 {
+		t.Errorf("folder holds %d entries after Run, want the session alone", len(entries))
+	}
+}
+
+// Item 2: a run that changes nothing writes nothing, whether the session
+// was restored or declined; in particular a declined session with marks is
+// not replaced by an empty one.
+func TestRunWithoutChangesWritesNothing(t *testing.T) {
+	v, facs := demoData(t)
+	dir := t.TempDir()
+	path := filepath.Join(dir, "s.json")
+	saved := savedDemoSession(t, path, 2)
+	before, _ := os.ReadFile(path)
+
+	for _, c := range []struct {
+		name    string
+		session *Session
+	}{{"declined (--fresh, or n at the prompt)", nil}, {"restored", &saved}} {
+		opts := Options{Vehicle: v, Facilities: facs, SessionPath: path, Session: c.session}
+		// Quit with q, and also cancel without a key.
+		for _, keys := range []string{"q", ""} {
+			m, _ := runOnPipe(t, opts, keys)
+			after, _ := os.ReadFile(path)
+			if string(after) != string(before) {
+				t.Errorf("%s, keys %q: the session file was rewritten:\n%s", c.name, keys, after)
+			}
+			if r := m.SaveReport(); len(r) != 0 {
+				t.Errorf("%s, keys %q: report %q, want nothing saved", c.name, keys, r)
+			}
+		}
+	}
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 1 {
+		t.Errorf("folder holds %d entries, want the session alone", len(entries))
+	}
+}
+
+// savedDemoSession saves a session of the demo with n marks at path and
+// returns it.
+func savedDemoSession(t *testing.T, path string, n int) Session {
+	t.Helper()
+	m := newDemo(t, 80, 24)
+	for k := 0; k < n; k++ {
+		m, _ = press(m, "space", "right", "right")
+	}
+	s := m.Session()
+	if len(s.Marks) != n {
+		t.Fatalf("demo session has %d marks, want %d", len(s.Marks), n)
+	}
+	if err := SaveSession(path, s); err != nil {
+		t.Fatal(err)
+	}
+	return s
 }

@@ -187,6 +187,8 @@ func (m *Model) lowerPreferred(w int) int {
 			n += 1 + visibleWidth(m.editor.err)/max(w, 1)
 		}
 		return n
+	case modeSaveAs:
+		return lineCount(m.saveAsPanel(w))
 	}
 	d := m.detailBlocks(w)
 	return max(len(d.flight), len(d.facility)) + len(d.cautions)
@@ -229,6 +231,12 @@ func (m Model) bodyView() string {
 		panel = m.picker.View(m.pickerRows(), m.fac+1)
 	case modeEdit:
 		panel = m.editor.View(m.editorRows(), m.editorTitle())
+	case modeSaveAs:
+		if m.wide {
+			panel = m.saveAsPanel(m.sideW)
+		} else {
+			panel = m.saveAsPanel(m.fr.width)
+		}
 	default:
 		if m.wide {
 			panel = m.details.View(m.detailBlocks(m.sideW), true)
@@ -261,7 +269,11 @@ func (m Model) headerText() string {
 		veh = m.vehicle.Name
 	}
 	sep := st.Faint.Render(" | ")
-	title := st.Title.Render("likewind") + sep + fac + sep + m.layer.String() + sep + m.units.String()
+	title := st.Title.Render("likewind")
+	if m.readOnly { // first, so that a narrow screen still shows it
+		title += sep + st.Error.Render("read-only session")
+	}
+	title += sep + fac + sep + m.layer.String() + sep + m.units.String()
 	if m.busy {
 		title += sep + st.Changed.Render("computing")
 	}
@@ -299,16 +311,21 @@ func (m Model) statusLine() string {
 // message, or the key help.
 func (m Model) footer() string {
 	k := m.fr.keys
-	if m.status != "" && m.mode != modeConfirm && !(m.mode == modeEdit && m.editor.editing) {
+	if m.status != "" && m.mode != modeConfirm && m.mode != modeSaveAs && !(m.mode == modeEdit && m.editor.editing) {
 		return m.statusLine()
 	}
 	switch m.mode {
 	case modeConfirm:
 		q := "Unsaved what-if changes or marks. "
-		if m.sessionPath == "" {
+		switch {
+		case m.store == nil:
 			q = "Unsaved changes; no session file. "
+		case m.readOnly:
+			q = "Unsaved changes; the session file is read-only here. "
 		}
-		return clip(m.fr.st.Changed.Render(q)+m.help.Short(confirmKeys{k: k, canSave: m.sessionPath != ""}.ShortHelp()), m.fr.width, 1)
+		return clip(m.fr.st.Changed.Render(q)+m.help.Short(confirmKeys{k: k, canSave: m.store != nil, readOnly: m.readOnly}.ShortHelp()), m.fr.width, 1)
+	case modeSaveAs:
+		return m.saveAs.input.view(m.fr.st, m.fr.width)
 	case modeHelp:
 		return m.help.Short([]key.Binding{k.Help, k.Back, k.Quit})
 	case modePicker:

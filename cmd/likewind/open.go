@@ -87,12 +87,39 @@ func runOpen(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			return 1
 		}
 	}
-	sessionPath := o.sessionPath
-	if sessionPath == "" {
-		sessionPath, err = defaultSessionPath(hash)
+
+	// The session file: the one given, which must be a session of these
+	// inputs (or not exist yet), or the default one per set of inputs.
+	// Either is locked while the interface runs.
+	var sf *tui.SessionFile
+	var note string
+	if o.sessionPath != "" {
+		sf, err = tui.OpenSessionFile(o.sessionPath, in.files, hash)
 		if err != nil {
-			fmt.Fprintln(stderr, "likewind: no session file will be kept:", err)
+			fmt.Fprintln(stderr, "likewind:", err)
+			return 1
 		}
+		if why := sf.Refused(); why != nil {
+			sf.Close()
+			fmt.Fprintf(stderr, "likewind: session file %s %v.\nIt is left as it is; give another --session file (a new name starts a new session), or none for the default one.\n", o.sessionPath, why)
+			return 1
+		}
+	} else if def, derr := defaultSessionPath(hash); derr != nil {
+		fmt.Fprintln(stderr, "likewind: no session file will be kept:", derr)
+	} else if sf, note, err = openDefaultSession(def, in.files, hash); err != nil {
+		fmt.Fprintln(stderr, "likewind: no session file will be kept:", err)
+	}
+	if sf != nil {
+		defer sf.Close()
+	}
+
+	// The interface draws on standard output and reads keys from standard
+	// input: without a terminal on both it cannot start, and nothing is
+	// written.
+	if !isTerminal(stdin) || !isTerminal(stdout) {
+		fmt.Fprintln(stderr, "likewind: the interface needs a terminal on standard input and output; "+
+			"for files use dump, export, plot, coverage or runs (likewind help)")
+		return 1
 	}
 
 	// The write key puts text dumps of the view in the folder the tool was
@@ -107,14 +134,15 @@ func runOpen(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		Facilities:  in.facilities,
 		Inputs:      in.files,
 		InputHash:   hash,
-		SessionPath: sessionPath,
+		SessionFile: sf,
+		SessionNote: note,
 		DumpDir:     dumpDir,
 		Version:     version,
 		Width:       80,
 		Height:      24,
 	}
-	if sessionPath != "" && !o.fresh {
-		if s, ok := offerSession(sessionPath, in.files, hash, o.restore, stdin, stderr); ok {
+	if sf != nil && !o.fresh {
+		if s, ok := offerSession(sf, o.restore, stdin, stderr); ok {
 			opts.Session = &s
 		}
 	}
@@ -122,17 +150,17 @@ func runOpen(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	opts.Styles = &styles
 
 	// A dropped SSH connection (SIGHUP), a polite kill (SIGTERM) or an
-	// interrupt when input is not a terminal (SIGINT) ends the program
-	// through its context; tui.Run then writes the session.
+	// interrupt (SIGINT) ends the program through its context; tui.Run
+	// then writes what was not saved yet.
 	ctx, stop := signal.NotifyContext(context.Background(), syscall.SIGHUP, syscall.SIGTERM, syscall.SIGINT)
 	defer stop()
 	m, err := tui.Run(ctx, opts)
+	for _, line := range m.SaveReport() {
+		fmt.Fprintln(stdout, line)
+	}
 	if errors.Is(err, tui.ErrSessionNotSaved) {
 		fmt.Fprintln(stderr, "likewind:", err)
 		return 1
-	}
-	if m.WantsSave() {
-		fmt.Fprintf(stdout, "session saved to %s\n", sessionPath)
 	}
 	if err != nil && !errors.Is(err, tea.ErrProgramKilled) {
 		fmt.Fprintln(stderr, "likewind:", err)
@@ -141,9 +169,15 @@ func runOpen(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	return 0
 }
 
+// isTerminal reports whether f is a terminal.
+func isTerminal(f any) bool {
+	file, ok := f.(*os.File)
+	return ok && (isatty.IsTerminal(file.Fd()) || isatty.IsCygwinTerminal(file.Fd()))
+}
+
 // defaultSessionPath is the session file kept for one set of input data:
-// $XDG_STATE_HOME/likewind (or ~/.local/state/likewind) named by the data's
-// hash, so the next start on the same files finds it.
+// $XDG_STATE_HOME/likewind (or ~/.local/state/likewind, created 0700)
+// named by the data's hash, so the next start on the same files finds it.
 func defaultSessionPath(hash string) (string, error) {
 	dir := os.Getenv("XDG_STATE_HOME")
 	if dir == "" {
@@ -154,36 +188,60 @@ func defaultSessionPath(hash string) (string, error) {
 		dir = filepath.Join(home, ".local", "state")
 	}
 	dir = filepath.Join(dir, "likewind")
-	if err := os.MkdirAll(dir, 0o755); err != nil {
+	if err := os.MkdirAll(dir, 0o700); err != nil {
 		return "", fmt.Errorf("session folder: %w", err)
 	}
 	sum := sha256.Sum256([]byte(hash))
 	return filepath.Join(dir, "session-"+hex.EncodeToString(sum[:6])+".json"), nil
 }
 
-// offerSession looks for a saved session at path; when it belongs to the
-// same input data it asks whether to restore it (or restores it at once
-// with --restore). A corrupt or foreign session is reported and ignored.
-func offerSession(path string, files []string, hash string, restore bool, stdin io.Reader, stderr io.Writer) (tui.Session, bool) {
-	if _, err := os.Stat(path); err != nil {
-		return tui.Session{}, false
+// openDefaultSession opens the default session file, or, when the file
+// there cannot be used (not a session of these inputs), keeps it and uses
+// the first numbered name beside it that is free or holds a session of
+// these inputs. note says so, for the screen.
+func openDefaultSession(path string, files []string, hash string) (*tui.SessionFile, string, error) {
+	var refused []string
+	for n := 0; n < 100; n++ {
+		p := path
+		if n > 0 {
+			ext := filepath.Ext(path)
+			p = fmt.Sprintf("%s.%d%s", strings.TrimSuffix(path, ext), n, ext)
+		}
+		sf, err := tui.OpenSessionFile(p, files, hash)
+		if err != nil {
+			return nil, "", err
+		}
+		why := sf.Refused()
+		if why == nil {
+			note := ""
+			if len(refused) > 0 {
+				note = fmt.Sprintf("%s; kept as it is: this session is saved to %s", strings.Join(refused, "; "), p)
+			}
+			return sf, note, nil
+		}
+		sf.Close()
+		refused = append(refused, fmt.Sprintf("%s %v", p, why))
 	}
-	s, err := tui.LoadSession(path)
-	if err != nil {
-		fmt.Fprintf(stderr, "likewind: ignoring the saved session: %v\n", err)
-		return tui.Session{}, false
-	}
-	if err := tui.CheckSession(s, files, hash); err != nil {
-		fmt.Fprintf(stderr, "likewind: ignoring the saved session %s: %v\n", path, err)
+	return nil, "", fmt.Errorf("%s and 99 numbered files beside it are not sessions of these files", path)
+}
+
+// offerSession offers the session found in the session file: it asks
+// whether to restore it (or restores it at once with --restore). Not
+// restoring keeps it: it is moved beside under a numbered name before this
+// session is first saved.
+func offerSession(sf *tui.SessionFile, restore bool, stdin io.Reader, stderr io.Writer) (tui.Session, bool) {
+	s, ok := sf.Found()
+	if !ok {
 		return tui.Session{}, false
 	}
 	if restore {
 		return s, true
 	}
-	if f, ok := stdin.(*os.File); !ok || !isatty.IsTerminal(f.Fd()) {
+	if !isTerminal(stdin) {
 		return tui.Session{}, false
 	}
-	fmt.Fprintf(stderr, "A saved session for these files exists (%s): %d marked point(s).\nRestore it? [Y/n] ", path, len(s.Marks))
+	fmt.Fprintf(stderr, "A saved session for these files exists (%s): %d marked point(s).\n"+
+		"Restore it? [Y/n] (n starts from the files' values and keeps the saved session) ", sf.Path(), len(s.Marks))
 	answer, _ := bufio.NewReader(stdin).ReadString('\n')
 	answer = strings.ToLower(strings.TrimSpace(answer))
 	return s, answer == "" || answer == "y" || answer == "yes"

@@ -98,6 +98,16 @@ func (s *sigTmux) waitScreen(want string) {
 	}
 }
 
+// change presses u (units), a change worth saving, and waits for it to be
+// drawn: with nothing changed, nothing is written.
+func (s *sigTmux) change() {
+	s.t.Helper()
+	if out, err := s.tmux("send-keys", "-t", s.name, "u").CombinedOutput(); err != nil {
+		s.t.Fatalf("tmux send-keys: %v\n%s", err, out)
+	}
+	s.waitScreen("altitude ft")
+}
+
 // likewindPID is the wrapper shell's child, the likewind process. A
 // process still running when the test ends is killed, so that a failure
 // leaves nothing behind.
@@ -162,7 +172,7 @@ func buildSignalBinary(t *testing.T) string {
 }
 
 // TestSignalSavesSession starts the interface in a real terminal, waits for
-// the first screen, then ends it with SIGTERM (a polite kill) or SIGHUP (a
+// the first screen, changes the units, then ends it with SIGTERM (a polite kill) or SIGHUP (a
 // dropped SSH connection): the program must exit with status 0, say where
 // the session went, and leave a session file that loads, with no temporary
 // file beside it.
@@ -182,6 +192,7 @@ func TestSignalSavesSession(t *testing.T) {
 				session := filepath.Join(t.TempDir(), "signal-session.json")
 				s := startSigTmux(t, state, bin, session)
 				s.waitScreen("likewind |")
+				s.change()
 				time.Sleep(signalIdle)
 				pid := s.likewindPID()
 				if err := syscall.Kill(pid, sig); err != nil {
@@ -197,7 +208,7 @@ func TestSignalSavesSession(t *testing.T) {
 				if err != nil {
 					t.Fatalf("after %v: %v", sig, err)
 				}
-				if got.Version != tui.SessionVersion || got.Hash == "" || got.Layer == "" {
+				if got.Version != tui.SessionVersion || got.Hash == "" || got.Layer == "" || got.Units != "customary" {
 					t.Errorf("after %v the session is %+v, want version %d with the data hash and layer", sig, got, tui.SessionVersion)
 				}
 				entries, err := os.ReadDir(filepath.Dir(session))
@@ -225,6 +236,7 @@ func TestSignalSaveFailureReported(t *testing.T) {
 	session := filepath.Join(t.TempDir(), "no-such-folder", "signal-session.json")
 	s := startSigTmux(t, t.TempDir(), bin, session)
 	s.waitScreen("likewind |")
+	s.change()
 	time.Sleep(signalIdle)
 	if err := syscall.Kill(s.likewindPID(), syscall.SIGHUP); err != nil {
 		t.Fatal(err)

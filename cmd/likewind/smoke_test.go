@@ -8,6 +8,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"likewind/tui"
 )
 
 // smokeTmux drives the built binary in a real terminal (tmux) the way a
@@ -162,5 +164,65 @@ func TestTerminalSmoke(t *testing.T) {
 	}
 	if !strings.Contains(string(data), `"scale": 0.05`) {
 		t.Errorf("session file lacks the edited scale:\n%s", data)
+	}
+}
+
+// TestTerminalTwoInstances: two interfaces on one session file. The
+// second opens read-only, says so, and saves only to another file; the
+// first keeps its lock and saves its own marks to the file.
+func TestTerminalTwoInstances(t *testing.T) {
+	bin := buildLikewind(t)
+	dir := t.TempDir()
+	session := filepath.Join(dir, "shared.json")
+	a := newSmokeTmux(t, 120, 40, "env", "XDG_STATE_HOME="+dir, bin, "--session", session)
+	a.waitFor("likewind |")
+	b := newSmokeTmux(t, 120, 40, "env", "XDG_STATE_HOME="+dir, bin, "--fresh", "--session", session)
+	b.waitFor("read-only session")
+
+	// The second: mark, quit; saving asks for another file.
+	b.keys("Space", "q")
+	b.waitFor("read-only here")
+	b.keys("s")
+	b.waitFor("READ-ONLY SESSION")
+	b.keys("Enter")
+	waitGone(t, b)
+	beside := filepath.Join(dir, "shared.1.json")
+	if _, err := os.Stat(beside); err != nil {
+		t.Errorf("the second interface's session is not beside: %v", err)
+	}
+	if _, err := os.Stat(session); err == nil {
+		t.Errorf("the read-only interface wrote the shared session file")
+	}
+
+	// The first: two marks, save and quit, into the shared file.
+	a.keys("Space", "Right", "Space", "q")
+	a.waitFor("Unsaved")
+	a.keys("s")
+	waitGone(t, a)
+	got, err := tui.LoadSession(session)
+	if err != nil {
+		t.Fatalf("the first interface did not save: %v", err)
+	}
+	if len(got.Marks) != 2 {
+		t.Errorf("shared session holds %d marks, want the first interface's 2", len(got.Marks))
+	}
+	other, err := tui.LoadSession(beside)
+	if err != nil || len(other.Marks) != 1 {
+		t.Errorf("the second interface's session: %d marks, %v; want its 1", len(other.Marks), err)
+	}
+	if _, err := os.Stat(session + ".lock"); err == nil {
+		t.Errorf("lock file left after both ended")
+	}
+}
+
+// waitGone waits for the program in s to end.
+func waitGone(t *testing.T, s *smokeTmux) {
+	t.Helper()
+	deadline := time.Now().Add(10 * time.Second)
+	for s.alive() && time.Now().Before(deadline) {
+		time.Sleep(100 * time.Millisecond)
+	}
+	if s.alive() {
+		t.Fatalf("likewind still running; screen:\n%s", s.screen())
 	}
 }
