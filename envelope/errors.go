@@ -20,28 +20,30 @@ type FileError struct {
 
 // Error formats the problem as "file:line: field: found X, expected Y".
 // Parts that do not apply are left out: a missing field reads
-// "field: missing, expected Y".
+// "field: missing, expected Y". Every part passes through CleanText: the
+// file name, a key name and a value found come from outside and may hold
+// control characters.
 func (e FileError) Error() string {
 	var b strings.Builder
-	b.WriteString(e.File)
+	b.WriteString(CleanText(e.File))
 	if e.Line > 0 {
 		b.WriteByte(':')
 		b.WriteString(strconv.Itoa(e.Line))
 	}
 	b.WriteString(": ")
 	if e.Field != "" {
-		b.WriteString(e.Field)
+		b.WriteString(CleanText(e.Field))
 		b.WriteString(": ")
 	}
 	if e.Found == "" {
 		b.WriteString("missing")
 	} else {
 		b.WriteString("found ")
-		b.WriteString(e.Found)
+		b.WriteString(CleanText(e.Found))
 	}
 	if e.Expected != "" {
 		b.WriteString(", expected ")
-		b.WriteString(e.Expected)
+		b.WriteString(CleanText(e.Expected))
 	}
 	return b.String()
 }
@@ -267,6 +269,11 @@ func (s *lineScanner) key() []string {
 		switch s.peek(0) {
 		case '"':
 			k = s.basicString()
+			// Escapes in a quoted key are read as Go reads them, which
+			// covers TOML's \uXXXX forms.
+			if u, err := strconv.Unquote(`"` + k + `"`); err == nil {
+				k = u
+			}
 		case '\'':
 			k = s.literalString()
 		default:
@@ -366,8 +373,8 @@ func (s *lineScanner) value(path string) {
 }
 
 // basicString reads a "..." or """...""" string and returns its raw
-// contents (escapes are not decoded; they only matter for quoted keys,
-// which this format does not use).
+// contents (escapes are not decoded here; key decodes those of a quoted
+// key, so that an unknown key's error names its line).
 func (s *lineScanner) basicString() string {
 	if strings.HasPrefix(s.src[s.i:], `"""`) {
 		s.i += 3
