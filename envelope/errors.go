@@ -203,7 +203,7 @@ func (s *lineScanner) run() {
 		if s.src[s.i] == '[' {
 			s.header()
 		} else {
-			s.keyValue(s.table)
+			s.keyValue(s.table, true)
 		}
 		if s.i == start { // not TOML this scan understands; move on
 			s.skipLine()
@@ -297,15 +297,18 @@ func isBareKeyChar(c byte) bool {
 	return c >= 'A' && c <= 'Z' || c >= 'a' && c <= 'z' || c >= '0' && c <= '9' || c == '_' || c == '-'
 }
 
-// keyValue reads "key = value" inside the table at path parent.
-func (s *lineScanner) keyValue(parent string) {
+// keyValue reads "key = value" inside the table at path parent; record
+// false reads it without recording lines (see value).
+func (s *lineScanner) keyValue(parent string, record bool) {
 	line := s.line
 	keys := s.key()
 	path := parent
-	for _, k := range keys {
-		path = joinPath(path, k)
-		if _, ok := s.idx[path]; !ok {
-			s.idx[path] = line
+	if record {
+		for _, k := range keys {
+			path = joinPath(path, k)
+			if _, ok := s.idx[path]; !ok {
+				s.idx[path] = line
+			}
 		}
 	}
 	s.skipSpace()
@@ -314,11 +317,18 @@ func (s *lineScanner) keyValue(parent string) {
 	}
 	s.i++
 	s.skipSpace()
-	s.value(path)
+	s.value(path, record)
 }
 
-// value reads one value and records the lines of its elements.
-func (s *lineScanner) value(path string) {
+// maxIndexedElements is how many elements of one array get a line in the
+// index: errors name at most MaxBoundaryPoints + 1 elements (a longer
+// boundary is refused at its own line), and a hostile array of millions
+// then costs no memory here.
+const maxIndexedElements = MaxBoundaryPoints + 1
+
+// value reads one value and records the lines of its elements (with
+// record).
+func (s *lineScanner) value(path string, record bool) {
 	switch s.peek(0) {
 	case '"':
 		s.basicString()
@@ -332,10 +342,13 @@ func (s *lineScanner) value(path string) {
 				s.advance()
 				return
 			}
-			el := path + "[" + strconv.Itoa(n) + "]"
-			s.idx[el] = s.line
+			el, rec := "", record && n < maxIndexedElements
+			if rec {
+				el = path + "[" + strconv.Itoa(n) + "]"
+				s.idx[el] = s.line
+			}
 			start := s.i
-			s.value(el)
+			s.value(el, rec)
 			s.skipBlank()
 			if s.peek(0) == ',' {
 				s.i++
@@ -352,7 +365,7 @@ func (s *lineScanner) value(path string) {
 				return
 			}
 			start := s.i
-			s.keyValue(path)
+			s.keyValue(path, record)
 			s.skipBlank()
 			if s.peek(0) == ',' {
 				s.i++

@@ -299,10 +299,18 @@ type doc struct {
 	root map[string]any
 	idx  lineIndex
 	errs FileErrors
+	// unlisted counts problems found beyond maxListedProblems.
+	unlisted int
 }
 
-// newDoc decodes file text. A file larger than MaxFileSize or nested
-// deeper than MaxNesting is refused before the decoder sees it.
+// maxListedProblems is how many problems of one file are listed; a file
+// of thousands of faults (a wrong file, a hostile one) gets a count of
+// the rest instead of a list that costs memory and helps nobody.
+const maxListedProblems = 200
+
+// newDoc decodes file text. A file larger than MaxFileSize, nested
+// deeper than MaxNesting or holding more than MaxItems items is refused
+// before the decoder sees it.
 func newDoc(name string, data []byte) (*doc, bool) {
 	d := &doc{file: name}
 	if len(data) > MaxFileSize {
@@ -311,10 +319,16 @@ func newDoc(name string, data []byte) (*doc, bool) {
 		return d, false
 	}
 	src := string(data)
-	if line, depth := checkNesting(src, MaxNesting); line > 0 {
-		d.errs = FileErrors{{File: name, Line: line, Field: "nesting",
-			Found:    fmt.Sprintf("keys, tables and arrays nested %d levels deep", depth),
+	switch f := scanShape(src, MaxNesting, MaxItems); {
+	case f.Depth > 0:
+		d.errs = FileErrors{{File: name, Line: f.Line, Field: "nesting",
+			Found:    fmt.Sprintf("keys, tables and arrays nested %d levels deep", f.Depth),
 			Expected: fmt.Sprintf("at most %d levels, the deepest the formats use (envelope.boundary = [[altitude, speed], ...] is 4)", MaxNesting)}}
+		return d, false
+	case f.Items > 0:
+		d.errs = FileErrors{{File: name, Line: f.Line, Field: "file size",
+			Found:    fmt.Sprintf("more than %d keys, values, arrays and tables", MaxItems),
+			Expected: fmt.Sprintf("at most %d (a vehicle file of 1000 boundary points holds about 3000)", MaxItems)}}
 		return d, false
 	}
 	if _, err := toml.Decode(src, &d.root); err != nil {
@@ -331,12 +345,20 @@ func (d *doc) result() error {
 	}
 	sortErrors(d.errs)
 	errs := d.errs
+	if d.unlisted > 0 {
+		errs = append(errs, FileError{File: d.file, Found: fmt.Sprintf("%d more problems, not listed", d.unlisted),
+			Expected: fmt.Sprintf("at most %d problems listed per file; correct the ones above and check again", maxListedProblems)})
+	}
 	return &errs
 }
 
 // fail records a problem at the line of path (an internal path, see
 // lineIndex) under the displayed field name.
 func (d *doc) fail(path, field, found, expected string) {
+	if len(d.errs) >= maxListedProblems {
+		d.unlisted++
+		return
+	}
 	d.errs = append(d.errs, FileError{File: d.file, Line: d.idx.line(path), Field: field, Found: found, Expected: expected})
 }
 

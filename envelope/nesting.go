@@ -1,9 +1,12 @@
 package envelope
 
+import "math"
+
 // The TOML decoder spends memory and time that grow with the square of
-// nesting depth (100 000 levels of [[[[… or {a={a=… take gigabytes), so
-// a file is measured before the decoder sees it: its size (MaxFileSize)
-// and how deeply its keys, tables and arrays nest (MaxNesting).
+// nesting depth (100 000 levels of [[[[… or {a={a=… take gigabytes) and
+// some hundreds of bytes per item, so a file is measured before the
+// decoder sees it: its size (MaxFileSize), how deeply its keys, tables and
+// arrays nest (MaxNesting) and how many of them it holds (MaxItems).
 
 // MaxFileSize is the largest vehicle or facility file read, 4 MiB: real
 // files are a few kilobytes, and the limit bounds the memory a hostile
@@ -18,6 +21,20 @@ const MaxFileSize = 4 << 20
 // counts by its keys.
 const MaxNesting = 4
 
+// MaxItems is the most keys, values, arrays and tables a file may hold.
+// The largest vehicle file, 1000 boundary points, holds about 3000; the
+// limit keeps a file of millions of tiny items (an array of 700 000 inline
+// tables fits in 4 MiB and costs the decoder a gigabyte) to tens of
+// megabytes.
+const MaxItems = 50000
+
+// shapeFault is what the scan found beyond the limits: the line where
+// nesting first went Depth levels deep, or where the file's items passed
+// MaxItems (Items > 0). Line 0 means nothing.
+type shapeFault struct {
+	Line, Depth, Items int
+}
+
 // nestingScan finds the first place where src nests deeper than limit.
 // It reads TOML's strings and comments as the decoder does, so brackets
 // inside them do not count; on text that is not TOML it still ends, moving
@@ -30,8 +47,9 @@ type nestingScan struct {
 	// stack holds the open arrays and inline tables of the value being
 	// read.
 	stack []nestFrame
-	// badLine and badDepth say where the limit was passed (0 if not).
-	badLine, badDepth int
+	// items counts keys, values, arrays and tables, up to maxItems.
+	items, maxItems int
+	fault           shapeFault
 }
 
 // nestFrame is an open array or inline table: the level of an array's
@@ -41,12 +59,19 @@ type nestFrame struct {
 	level int
 }
 
-// checkNesting returns the line and depth where src first nests deeper
-// than limit, or 0, 0.
-func checkNesting(src string, limit int) (line, depth int) {
-	s := &nestingScan{src: src, line: 1, limit: limit}
+// scanShape reports where src first nests deeper than maxDepth or holds
+// more than maxItems items.
+func scanShape(src string, maxDepth, maxItems int) shapeFault {
+	s := &nestingScan{src: src, line: 1, limit: maxDepth, maxItems: maxItems}
 	s.run()
-	return s.badLine, s.badDepth
+	return s.fault
+}
+
+// checkNesting returns the line and depth where src first nests deeper
+// than limit, or 0, 0 (items are not limited).
+func checkNesting(src string, limit int) (line, depth int) {
+	f := scanShape(src, limit, math.MaxInt)
+	return f.Line, f.Depth
 }
 
 func (s *nestingScan) eof() bool { return s.i >= len(s.src) }
@@ -67,10 +92,15 @@ func (s *nestingScan) advance() {
 	}
 }
 
-// over records a level deeper than the limit and reports whether it was.
+// over counts one more item at level and reports whether that passes a
+// limit, recording where.
 func (s *nestingScan) over(level int) bool {
 	if level > s.limit {
-		s.badLine, s.badDepth = s.line, level
+		s.fault = shapeFault{Line: s.line, Depth: level}
+		return true
+	}
+	if s.items++; s.items > s.maxItems {
+		s.fault = shapeFault{Line: s.line, Items: s.items}
 		return true
 	}
 	return false
@@ -192,10 +222,19 @@ func (s *nestingScan) value(level int) bool {
 			s.stack = append(s.stack, nestFrame{level: cur + 1})
 		case '{':
 			s.i++
+			if s.over(cur) {
+				return false
+			}
 			s.stack = append(s.stack, nestFrame{table: true, level: cur})
 		case '"', '\'':
+			if s.over(cur) {
+				return false
+			}
 			s.str()
 		default:
+			if s.over(cur) {
+				return false
+			}
 			s.scalar()
 		}
 		// The next value, closing arrays and tables on the way.

@@ -158,3 +158,35 @@ func FuzzCheckNesting(f *testing.F) {
 		}
 	})
 }
+
+// TestItemLimit: a file of more than MaxItems keys, values, arrays and
+// tables is refused before decoding, at the line where the count passes.
+func TestItemLimit(t *testing.T) {
+	src := "x = [\n" + strings.Repeat("1,\n", MaxItems) + "]\n"
+	_, err := ParseVehicle("many.toml", []byte(src))
+	// Items: the key x, the array, then numbers; the 50001st item is
+	// number 49999, on line 50000.
+	const want = "many.toml:50000: file size: found more than 50000 keys, values, arrays and tables, expected at most 50000 (a vehicle file of 1000 boundary points holds about 3000)"
+	if err == nil || err.Error() != want {
+		t.Errorf("ParseVehicle = %v, want %q", err, want)
+	}
+	if f := scanShape(baseVehicle, MaxNesting, MaxItems); f.Line != 0 {
+		t.Errorf("scanShape(baseVehicle) = %+v, want within the limits", f)
+	}
+}
+
+// TestProblemListCapped: a file of thousands of faults lists the first
+// maxListedProblems and counts the rest.
+func TestProblemListCapped(t *testing.T) {
+	_, err := ParseFacilities("empty.toml", []byte(strings.Repeat("[[facility]]\n", 1000)))
+	var fe *FileErrors
+	if !errors.As(err, &fe) || len(*fe) != maxListedProblems+1 {
+		t.Fatalf("ParseFacilities(1000 empty facilities) = %d problems, want %d listed and a count", len(*fe), maxListedProblems)
+	}
+	last := (*fe)[maxListedProblems].Error()
+	// Each empty facility lacks name, medium, section width and height.
+	const want = "empty.toml: found 3800 more problems, not listed, expected at most 200 problems listed per file; correct the ones above and check again"
+	if last != want {
+		t.Errorf("last problem %q, want %q", last, want)
+	}
+}
