@@ -133,3 +133,50 @@ func cleanPathError(err error) error {
 	}
 	return err
 }
+
+// CleanVehicle returns v with its name, reference-length words and source
+// passed through CleanText: v itself when they are already clean (as
+// every loaded vehicle's are), otherwise a copy.
+func CleanVehicle(v *Vehicle) *Vehicle {
+	if v == nil {
+		return nil
+	}
+	name, ref, src := CleanText(v.Name), CleanText(v.RefLengthName), CleanText(v.Source)
+	if name == v.Name && ref == v.RefLengthName && src == v.Source {
+		return v
+	}
+	c := *v
+	c.Name, c.RefLengthName, c.Source = name, ref, src
+	return &c
+}
+
+// CleanFacilities returns fs with every name, class and source passed
+// through CleanText: fs itself when they are already clean, otherwise a
+// copy.
+func CleanFacilities(fs []Facility) []Facility {
+	var out []Facility
+	for k, f := range fs {
+		name, class, src := CleanText(f.Name), CleanText(f.Class), CleanText(f.Source)
+		if name == f.Name && class == f.Class && src == f.Source {
+			continue
+		}
+		if out == nil {
+			out = append([]Facility(nil), fs...)
+		}
+		out[k].Name, out[k].Class, out[k].Source = name, class, src
+	}
+	if out == nil {
+		return fs
+	}
+	return out
+}
+
+// CleanAll returns names with each passed through CleanText (a new
+// slice).
+func CleanAll(names []string) []string {
+	out := make([]string, len(names))
+	for k, s := range names {
+		out[k] = CleanText(s)
+	}
+	return out
+}

@@ -109,7 +109,7 @@ func nameList(names []string) string {
 	if len(names) == 0 {
 		return "built-in demo data"
 	}
-	return strings.Join(names, ", ")
+	return envelope.CleanText(strings.Join(names, ", "))
 }
 
 // LoadSession reads a session file.

@@ -14,6 +14,7 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "likewind: check: give one or more vehicle or facility files")
 		return 2
 	}
+	stdout = envelope.CleanWriter{W: stdout} // the report quotes file names and keys
 	errs := envelope.Check(args...)
 	for _, err := range errs {
 		fmt.Fprintln(stdout, err)

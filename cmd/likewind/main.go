@@ -16,6 +16,8 @@ import (
 	"fmt"
 	"io"
 	"os"
+
+	"likewind/envelope"
 )
 
 const version = "0.1.0"
@@ -27,6 +29,9 @@ func main() {
 // run dispatches a command line and returns the exit status: 0 success,
 // 1 a failure of the work itself (e.g. invalid files), 2 bad usage.
 func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	// Messages quote file names, names and keys from files: none of them
+	// may drive the terminal (the last of the walls against hostile text).
+	stderr = envelope.CleanWriter{W: stderr}
 	if len(args) > 0 {
 		switch args[0] {
 		case "point":

@@ -96,7 +96,7 @@ func runPlot(args []string, stdout, stderr io.Writer) int {
 		if err := envelope.WriteFileAtomic(t.path, outs[k], o.force); err != nil {
 			return fail(stderr, fmt.Errorf("plot: %w", err))
 		}
-		fmt.Fprintln(stdout, "wrote", t.path)
+		fmt.Fprintln(stdout, "wrote", envelope.CleanText(t.path))
 	}
 	return 0
 }
