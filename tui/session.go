@@ -130,9 +130,9 @@ func LoadSession(path string) (Session, error) {
 	return s, nil
 }
 
-// SaveSession writes s to path atomically with envelope.WriteFileAtomic (a
-// synced temporary file in the same folder, renamed over path), so a crash
-// never leaves a half-written session.
+// SaveSession writes s to path atomically with envelope.WriteFilePrivate (a
+// synced temporary file in the same folder, renamed over path, mode 0600),
+// so a crash never leaves a half-written session.
 func SaveSession(path string, s Session) error {
 	if path == "" {
 		return errors.New("save session: no session file given")
@@ -144,7 +144,7 @@ func SaveSession(path string, s Session) error {
 		return fmt.Errorf("save session: %w", err)
 	}
 	data = append(data, '\n')
-	if err := envelope.WriteFileAtomic(path, data, true); err != nil {
+	if err := envelope.WriteFilePrivate(path, data); err != nil {
 		return fmt.Errorf("save session: %w", err)
 	}
 	return nil

@@ -154,7 +154,7 @@ func defaultSessionPath(hash string) (string, error) {
 		dir = filepath.Join(home, ".local", "state")
 	}
 	dir = filepath.Join(dir, "likewind")
-	if err := os.MkdirAll(dir, 0o755); err != nil {
+	if err := os.MkdirAll(dir, 0o700); err != nil {
 		return "", fmt.Errorf("session folder: %w", err)
 	}
 	sum := sha256.Sum256([]byte(hash))
