@@ -35,10 +35,6 @@ func TestWriteFileAtomicNew(t *testing.T) {
 	if err != nil || string(got) != "hello\n" {
 		t.Fatalf("content = %q, %v, want %q", got, err, "hello\n")
 	}
-	fi, _ := os.Stat(p)
-	if fi.Mode().Perm() != 0o644 {
-		t.Errorf("mode = %v, want 0644", fi.Mode().Perm())
-	}
 	if es := dirEntries(t, dir); len(es) != 1 {
 		t.Errorf("folder holds %v, want only out.txt", es)
 	}
@@ -157,4 +153,67 @@ func ExampleWriteFileAtomic() {
 	err := WriteFileAtomic(p, []byte("c,d\n"), false)
 	fmt.Println(errors.Is(err, fs.ErrExist))
 	// Output: true
+}
+
+// TestWriteFilesAtomicBothOrNeither: when the second file of a set
+// cannot be put in place, the first is taken back: removed when it was
+// new, restored when it replaced a file.
+func TestWriteFilesAtomicBothOrNeither(t *testing.T) {
+	for _, overwrite := range []bool{false, true} {
+		dir := t.TempDir()
+		a, b := filepath.Join(dir, "a-map.svg"), filepath.Join(dir, "a-remach.svg")
+		if overwrite {
+			for _, p := range []string{a, b} {
+				if err := os.WriteFile(p, []byte("old "+filepath.Base(p)), 0o644); err != nil {
+					t.Fatal(err)
+				}
+			}
+		}
+		set := []AtomicFile{{a, []byte("new map")}, {b, []byte("new remach")}}
+		// A folder appears at the second name after both are staged.
+		err := writeFiles(set, overwrite, func(k int) {
+			if k == 1 {
+				os.Remove(b)
+				if err := os.Mkdir(b, 0o755); err != nil {
+					t.Fatal(err)
+				}
+			}
+		})
+		if err == nil || !strings.Contains(err.Error(), "no file of the set was written") {
+			t.Fatalf("overwrite %v: writeFiles = %v, want a failure saying no file was written", overwrite, err)
+		}
+		got, rerr := os.ReadFile(a)
+		switch {
+		case overwrite && string(got) != "old a-map.svg":
+			t.Errorf("overwrite: first file %q, %v; want the old content restored", got, rerr)
+		case !overwrite && !errors.Is(rerr, fs.ErrNotExist):
+			t.Errorf("no overwrite: first file left behind (%q)", got)
+		}
+		want := 1 // the folder
+		if overwrite {
+			want = 2
+		}
+		if es := dirEntries(t, dir); len(es) != want {
+			t.Errorf("overwrite %v: folder holds %v, want %d entries (no temporary or kept files)", overwrite, es, want)
+		}
+	}
+	// Success: both written, nothing else left.
+	dir := t.TempDir()
+	set := []AtomicFile{{filepath.Join(dir, "x"), []byte("1")}, {filepath.Join(dir, "y"), []byte("2")}}
+	if err := WriteFilesAtomic(set, false); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteFilesAtomic(set, false); !errors.Is(err, fs.ErrExist) {
+		t.Errorf("second WriteFilesAtomic without overwrite = %v, want fs.ErrExist", err)
+	}
+	set[1].Data = []byte("3")
+	if err := WriteFilesAtomic(set, true); err != nil {
+		t.Fatal(err)
+	}
+	if got, _ := os.ReadFile(set[1].Path); string(got) != "3" {
+		t.Errorf("overwritten content %q", got)
+	}
+	if es := dirEntries(t, dir); len(es) != 2 {
+		t.Errorf("folder holds %v, want x and y", es)
+	}
 }

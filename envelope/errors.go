@@ -20,28 +20,30 @@ type FileError struct {
 
 // Error formats the problem as "file:line: field: found X, expected Y".
 // Parts that do not apply are left out: a missing field reads
-// "field: missing, expected Y".
+// "field: missing, expected Y". Every part passes through CleanText: the
+// file name, a key name and a value found come from outside and may hold
+// control characters.
 func (e FileError) Error() string {
 	var b strings.Builder
-	b.WriteString(e.File)
+	b.WriteString(CleanText(e.File))
 	if e.Line > 0 {
 		b.WriteByte(':')
 		b.WriteString(strconv.Itoa(e.Line))
 	}
 	b.WriteString(": ")
 	if e.Field != "" {
-		b.WriteString(e.Field)
+		b.WriteString(CleanText(e.Field))
 		b.WriteString(": ")
 	}
 	if e.Found == "" {
 		b.WriteString("missing")
 	} else {
 		b.WriteString("found ")
-		b.WriteString(e.Found)
+		b.WriteString(CleanText(e.Found))
 	}
 	if e.Expected != "" {
 		b.WriteString(", expected ")
-		b.WriteString(e.Expected)
+		b.WriteString(CleanText(e.Expected))
 	}
 	return b.String()
 }
@@ -201,7 +203,7 @@ func (s *lineScanner) run() {
 		if s.src[s.i] == '[' {
 			s.header()
 		} else {
-			s.keyValue(s.table)
+			s.keyValue(s.table, true)
 		}
 		if s.i == start { // not TOML this scan understands; move on
 			s.skipLine()
@@ -267,6 +269,11 @@ func (s *lineScanner) key() []string {
 		switch s.peek(0) {
 		case '"':
 			k = s.basicString()
+			// Escapes in a quoted key are read as Go reads them, which
+			// covers TOML's \uXXXX forms.
+			if u, err := strconv.Unquote(`"` + k + `"`); err == nil {
+				k = u
+			}
 		case '\'':
 			k = s.literalString()
 		default:
@@ -290,15 +297,18 @@ func isBareKeyChar(c byte) bool {
 	return c >= 'A' && c <= 'Z' || c >= 'a' && c <= 'z' || c >= '0' && c <= '9' || c == '_' || c == '-'
 }
 
-// keyValue reads "key = value" inside the table at path parent.
-func (s *lineScanner) keyValue(parent string) {
+// keyValue reads "key = value" inside the table at path parent; record
+// false reads it without recording lines (see value).
+func (s *lineScanner) keyValue(parent string, record bool) {
 	line := s.line
 	keys := s.key()
 	path := parent
-	for _, k := range keys {
-		path = joinPath(path, k)
-		if _, ok := s.idx[path]; !ok {
-			s.idx[path] = line
+	if record {
+		for _, k := range keys {
+			path = joinPath(path, k)
+			if _, ok := s.idx[path]; !ok {
+				s.idx[path] = line
+			}
 		}
 	}
 	s.skipSpace()
@@ -307,11 +317,18 @@ func (s *lineScanner) keyValue(parent string) {
 	}
 	s.i++
 	s.skipSpace()
-	s.value(path)
+	s.value(path, record)
 }
 
-// value reads one value and records the lines of its elements.
-func (s *lineScanner) value(path string) {
+// maxIndexedElements is how many elements of one array get a line in the
+// index: errors name at most MaxBoundaryPoints + 1 elements (a longer
+// boundary is refused at its own line), and a hostile array of millions
+// then costs no memory here.
+const maxIndexedElements = MaxBoundaryPoints + 1
+
+// value reads one value and records the lines of its elements (with
+// record).
+func (s *lineScanner) value(path string, record bool) {
 	switch s.peek(0) {
 	case '"':
 		s.basicString()
@@ -325,10 +342,13 @@ func (s *lineScanner) value(path string) {
 				s.advance()
 				return
 			}
-			el := path + "[" + strconv.Itoa(n) + "]"
-			s.idx[el] = s.line
+			el, rec := "", record && n < maxIndexedElements
+			if rec {
+				el = path + "[" + strconv.Itoa(n) + "]"
+				s.idx[el] = s.line
+			}
 			start := s.i
-			s.value(el)
+			s.value(el, rec)
 			s.skipBlank()
 			if s.peek(0) == ',' {
 				s.i++
@@ -345,7 +365,7 @@ func (s *lineScanner) value(path string) {
 				return
 			}
 			start := s.i
-			s.keyValue(path)
+			s.keyValue(path, record)
 			s.skipBlank()
 			if s.peek(0) == ',' {
 				s.i++
@@ -366,8 +386,8 @@ func (s *lineScanner) value(path string) {
 }
 
 // basicString reads a "..." or """...""" string and returns its raw
-// contents (escapes are not decoded; they only matter for quoted keys,
-// which this format does not use).
+// contents (escapes are not decoded here; key decodes those of a quoted
+// key, so that an unknown key's error names its line).
 func (s *lineScanner) basicString() string {
 	if strings.HasPrefix(s.src[s.i:], `"""`) {
 		s.i += 3

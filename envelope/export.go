@@ -200,7 +200,7 @@ func NewExportRecord(m *Map, i, j int) (ExportRecord, error) {
 	st := fl.State
 	s := m.Settings
 	r := ExportRecord{
-		Facility: m.Facility.Name,
+		Facility: CleanText(m.Facility.Name),
 		Medium:   m.Facility.Medium.String(),
 		Row:      i,
 		Col:      j,
@@ -395,7 +395,7 @@ type ExportDoc struct {
 }
 
 // NewExportHeader describes the maps (solved on one grid) for the JSON
-// export.
+// export. Names and file names pass through CleanText.
 func NewExportHeader(info ExportInfo, maps []*Map) ExportHeader {
 	h := ExportHeader{ExportInfo: info, Caution: PlanningNote, Units: "SI", Facilities: []ExportFacility{}}
 	if len(maps) == 0 {
@@ -404,7 +404,7 @@ func NewExportHeader(info ExportInfo, maps []*Map) ExportHeader {
 	g := maps[0].Grid
 	v := g.Vehicle
 	h.Vehicle = ExportVehicle{
-		Name: v.Name, Source: v.Source, RefLength: Num(v.RefLength), RefLengthName: v.RefLengthName,
+		Name: CleanText(v.Name), Source: CleanText(v.Source), RefLength: Num(v.RefLength), RefLengthName: CleanText(v.RefLengthName),
 		AltitudeKind: v.AltitudeKind.String(), GridSpeedKind: g.SpeedKind.String(),
 		Rows: g.Rows(), Cols: g.Cols(), InsidePoints: g.InsideCount(),
 	}
@@ -419,7 +419,7 @@ func NewExportHeader(info ExportInfo, maps []*Map) ExportHeader {
 	for _, m := range maps {
 		f := m.Facility
 		ef := ExportFacility{
-			Name: f.Name, Class: f.Class, Medium: f.Medium.String(), Source: f.Source,
+			Name: CleanText(f.Name), Class: CleanText(f.Class), Medium: f.Medium.String(), Source: CleanText(f.Source),
 			Scale: Num(m.Scale), ScaleRule: m.ScaleRule, FitScale: na, FitRule: m.FitRule,
 			Records: m.Grid.InsideCount(),
 		}

@@ -3,6 +3,7 @@ package envelope
 import (
 	"errors"
 	"fmt"
+	"io"
 	"math"
 	"os"
 	"sort"
@@ -64,7 +65,7 @@ const (
 // LoadVehicle reads and validates a vehicle file. When the file has
 // problems the error is a *FileErrors listing all of them.
 func LoadVehicle(path string) (*Vehicle, error) {
-	data, err := os.ReadFile(path)
+	data, err := readInput(path)
 	if err != nil {
 		return nil, fmt.Errorf("load vehicle: %w", err)
 	}
@@ -75,11 +76,27 @@ func LoadVehicle(path string) (*Vehicle, error) {
 // [[facility]] tables. When the file has problems the error is a
 // *FileErrors listing all of them.
 func LoadFacilities(path string) ([]Facility, error) {
-	data, err := os.ReadFile(path)
+	data, err := readInput(path)
 	if err != nil {
 		return nil, fmt.Errorf("load facilities: %w", err)
 	}
 	return ParseFacilities(path, data)
+}
+
+// readInput reads a file of at most MaxFileSize bytes, and one byte more
+// when it is larger (so the size check can say so without reading, say,
+// /dev/zero to the end). Errors name the path made safe to print.
+func readInput(path string) ([]byte, error) {
+	f, err := os.Open(path)
+	if err != nil {
+		return nil, cleanPathError(err)
+	}
+	defer f.Close()
+	data, err := io.ReadAll(io.LimitReader(f, MaxFileSize+1))
+	if err != nil {
+		return nil, cleanPathError(err)
+	}
+	return data, nil
 }
 
 // ParseVehicle reads a vehicle from file text; name labels the errors and
@@ -89,6 +106,11 @@ func ParseVehicle(name string, data []byte) (*Vehicle, error) {
 	if !ok {
 		return nil, d.result()
 	}
+	return d.parseVehicle()
+}
+
+// parseVehicle reads and checks the vehicle of a decoded file.
+func (d *doc) parseVehicle() (*Vehicle, error) {
 	v := d.vehicle()
 	if len(d.errs) == 0 {
 		d.checkInside(v)
@@ -136,6 +158,11 @@ func ParseFacilities(name string, data []byte) ([]Facility, error) {
 	if !ok {
 		return nil, d.result()
 	}
+	return d.parseFacilities()
+}
+
+// parseFacilities reads and checks the facilities of a decoded file.
+func (d *doc) parseFacilities() ([]Facility, error) {
 	fs := d.facilities()
 	if err := d.result(); err != nil {
 		return nil, err
@@ -180,25 +207,31 @@ func sourceName(s string) string {
 // Check validates vehicle and facility files for the check command. It
 // tells the two kinds apart by their top-level tables and returns every
 // problem found, one error per problem, including facility names repeated
-// across files. An empty result means all files are good.
+// across files. An empty result means all files are good. Each file is
+// read and decoded once.
 func Check(paths ...string) []error {
 	var out []error
 	var facs []Facility
 	for _, p := range paths {
-		data, err := os.ReadFile(p)
+		data, err := readInput(p)
 		if err != nil {
 			out = append(out, fmt.Errorf("check: %w", err))
 			continue
 		}
+		d, ok := newDoc(p, data)
+		if !ok {
+			out = appendFlat(out, d.result())
+			continue
+		}
 		var perr error
-		switch kind, kerr := fileKind(p, data); {
+		switch kind, kerr := d.kind(); {
 		case kerr != nil:
 			perr = kerr
 		case kind == "vehicle":
-			_, perr = ParseVehicle(p, data)
+			_, perr = d.parseVehicle()
 		default:
 			var fs []Facility
-			fs, perr = ParseFacilities(p, data)
+			fs, perr = d.parseFacilities()
 			facs = append(facs, fs...)
 		}
 		out = appendFlat(out, perr)
@@ -221,13 +254,10 @@ func appendFlat(list []error, err error) []error {
 	return append(list, err)
 }
 
-// fileKind tells a vehicle file from a facility file by its top-level
+// kind tells a vehicle file from a facility file by its top-level
 // tables: "vehicle" or "facility".
-func fileKind(name string, data []byte) (string, error) {
-	var top map[string]any
-	if _, err := toml.Decode(string(data), &top); err != nil {
-		return "", syntaxErrors(name, err)
-	}
+func (d *doc) kind() (string, error) {
+	top := d.root
 	_, hasFac := top["facility"]
 	hasVeh := false
 	for _, k := range vehicleTables {
@@ -237,15 +267,14 @@ func fileKind(name string, data []byte) (string, error) {
 	}
 	switch {
 	case hasFac && hasVeh:
-		idx := indexLines(string(data))
-		return "", &FileErrors{{File: name, Line: idx.line("facility"), Field: "facility",
+		return "", &FileErrors{{File: d.file, Line: d.idx.line("facility"), Field: "facility",
 			Found: "[[facility]] tables in a vehicle file", Expected: "vehicles and facilities in separate files"}}
 	case hasFac:
 		return "facility", nil
 	case hasVeh:
 		return "vehicle", nil
 	}
-	return "", &FileErrors{{File: name, Line: 1, Found: "neither [vehicle] nor [[facility]] tables",
+	return "", &FileErrors{{File: d.file, Line: 1, Found: "neither [vehicle] nor [[facility]] tables",
 		Expected: "a vehicle file ([vehicle], [envelope], optional [limits], [grid]) or a facility file ([[facility]] tables)"}}
 }
 
@@ -270,15 +299,43 @@ type doc struct {
 	root map[string]any
 	idx  lineIndex
 	errs FileErrors
+	// unlisted counts problems found beyond maxListedProblems.
+	unlisted int
 }
 
+// maxListedProblems is how many problems of one file are listed; a file
+// of thousands of faults (a wrong file, a hostile one) gets a count of
+// the rest instead of a list that costs memory and helps nobody.
+const maxListedProblems = 200
+
+// newDoc decodes file text. A file larger than MaxFileSize, nested
+// deeper than MaxNesting or holding more than MaxItems items is refused
+// before the decoder sees it.
 func newDoc(name string, data []byte) (*doc, bool) {
 	d := &doc{file: name}
-	if _, err := toml.Decode(string(data), &d.root); err != nil {
+	if len(data) > MaxFileSize {
+		d.errs = FileErrors{{File: name, Field: "file size", Found: "more than 4 MiB",
+			Expected: fmt.Sprintf("a file of at most 4 MiB (%d bytes); vehicle and facility files are a few kilobytes", MaxFileSize)}}
+		return d, false
+	}
+	src := string(data)
+	switch f := scanShape(src, MaxNesting, MaxItems); {
+	case f.Depth > 0:
+		d.errs = FileErrors{{File: name, Line: f.Line, Field: "nesting",
+			Found:    fmt.Sprintf("keys, tables and arrays nested %d levels deep", f.Depth),
+			Expected: fmt.Sprintf("at most %d levels, the deepest the formats use (envelope.boundary = [[altitude, speed], ...] is 4)", MaxNesting)}}
+		return d, false
+	case f.Items > 0:
+		d.errs = FileErrors{{File: name, Line: f.Line, Field: "file size",
+			Found:    fmt.Sprintf("more than %d keys, values, arrays and tables", MaxItems),
+			Expected: fmt.Sprintf("at most %d (a vehicle file of 1000 boundary points holds about 3000)", MaxItems)}}
+		return d, false
+	}
+	if _, err := toml.Decode(src, &d.root); err != nil {
 		d.errs = *syntaxErrors(name, err)
 		return d, false
 	}
-	d.idx = indexLines(string(data))
+	d.idx = indexLines(src)
 	return d, true
 }
 
@@ -288,12 +345,20 @@ func (d *doc) result() error {
 	}
 	sortErrors(d.errs)
 	errs := d.errs
+	if d.unlisted > 0 {
+		errs = append(errs, FileError{File: d.file, Found: fmt.Sprintf("%d more problems, not listed", d.unlisted),
+			Expected: fmt.Sprintf("at most %d problems listed per file; correct the ones above and check again", maxListedProblems)})
+	}
 	return &errs
 }
 
 // fail records a problem at the line of path (an internal path, see
 // lineIndex) under the displayed field name.
 func (d *doc) fail(path, field, found, expected string) {
+	if len(d.errs) >= maxListedProblems {
+		d.unlisted++
+		return
+	}
 	d.errs = append(d.errs, FileError{File: d.file, Line: d.idx.line(path), Field: field, Found: found, Expected: expected})
 }
 
@@ -453,6 +518,23 @@ func (t *table) text(key string, required bool, expected string) (string, bool) 
 		return "", false
 	}
 	return strings.TrimSpace(s), true
+}
+
+// freeText reads a free-text value (a name or a description) and refuses
+// characters that could drive a terminal or spoof a screen (see
+// UnsafeRune): names are one line of printable text.
+func (t *table) freeText(key string, required bool, expected string) (string, bool) {
+	s, ok := t.text(key, required, expected)
+	if !ok {
+		return s, false
+	}
+	if r, bad := firstUnsafe(s); bad {
+		p := t.keyPath(key)
+		t.d.fail(p, display(p), fmt.Sprintf("%s (%s U+%04X)", strconv.Quote(s), unsafeKind(r), r),
+			expected+", printable text only (no control, line-break or bidirectional-text characters)")
+		return "", false
+	}
+	return s, true
 }
 
 // boolean reads true or false.
@@ -695,10 +777,10 @@ func (d *doc) vehicle() *Vehicle {
 	defer root.finish()
 
 	if vt := root.sub("vehicle", vehicleKeys, true); vt != nil {
-		v.Name, _ = vt.text("name", true, `the vehicle's name in quotes`)
+		v.Name, _ = vt.freeText("name", true, `the vehicle's name in quotes`)
 		q := vt.quantity("reference_length", uLength, true)
 		v.RefLength = d.within(&q, VehicleLengthBound())
-		if s, ok := vt.text("reference_length_is", false, `what the reference length is, in quotes, e.g. "mean aerodynamic chord"`); ok {
+		if s, ok := vt.freeText("reference_length_is", false, `what the reference length is, in quotes, e.g. "mean aerodynamic chord"`); ok {
 			v.RefLengthName = s
 		}
 		q = vt.quantity("reference_area", uArea, true)
@@ -1164,8 +1246,8 @@ func (d *doc) facilities() []Facility {
 func (d *doc) facility(t *table) Facility {
 	defer t.finish()
 	f := Facility{Source: d.file}
-	f.Name, _ = t.text("name", true, "the facility's name in quotes")
-	f.Class, _ = t.text("class", false, `a short description in quotes, e.g. "pressurized transonic"`)
+	f.Name, _ = t.freeText("name", true, "the facility's name in quotes")
+	f.Class, _ = t.freeText("class", false, `a short description in quotes, e.g. "pressurized transonic"`)
 
 	mediumOK := false
 	if s, ok := t.text("medium", true, `"air", "nitrogen" or "water"`); ok {

@@ -281,6 +281,7 @@ func TestNitrogenWarm(t *testing.T) {
 // one fault per file except many_faults.toml.
 func TestBadFiles(t *testing.T) {
 	const lengthUnits = `(units: m, km, mm, cm, in, ft, kft, mi, nmi)`
+	const printableOnly = `printable text only (no control, line-break or bidirectional-text characters)`
 	tests := []struct {
 		file string
 		want []string
@@ -393,6 +394,14 @@ func TestBadFiles(t *testing.T) {
 			`limits_exclude_all.toml:16: limits: found limit lines that exclude every grid point of the envelope, expected limits that leave part of the envelope inside`}},
 		{"grid_misses_envelope.toml", []string{
 			`grid_misses_envelope.toml:17: grid: found no grid point inside the envelope boundary (40 × 60 points), expected grid axes that overlap the envelope, with steps fine enough to put points inside it`}},
+		{"escape_in_name.toml", []string{
+			`escape_in_name.toml:3: vehicle.name: found "Test glider\x1b[2J" (control character U+001B), expected the vehicle's name in quotes, ` + printableOnly}},
+		{"c1_in_reference_length_is.toml", []string{
+			`c1_in_reference_length_is.toml:5: vehicle.reference_length_is: found "chord\u009b31m" (control character U+009B), expected what the reference length is, in quotes, e.g. "mean aerodynamic chord", ` + printableOnly}},
+		{"newline_in_facility_name.toml", []string{
+			`newline_in_facility_name.toml:3: facility[1].name: found "Test tunnel\r\nfull match" (control character U+000D), expected the facility's name in quotes, ` + printableOnly}},
+		{"bidi_in_class.toml", []string{
+			`bidi_in_class.toml:4: facility[1].class: found "atmospheric \u202ehctam lluf" (bidirectional-text control U+202E), expected a short description in quotes, e.g. "pressurized transonic", ` + printableOnly}},
 		{"many_faults.toml", []string{
 			`many_faults.toml:6: facility[1].stagnation_pressure_range high: found "4.5 psx" (unknown pressure unit "psx"), expected a pressure with its unit, e.g. "2.5 bar" (units: Pa, hPa, kPa, MPa, mbar, bar, psi, psf, atm, inHg, mmHg, torr)`,
 			`many_faults.toml:9: facility[1].section_height: found "-2 m", expected a length above 0 m`,

@@ -102,9 +102,12 @@ func (ch *Chart) Render(format string) ([]byte, error) {
 // stacked at the top left of its strip.
 func newChart(title, x, y string) *Chart {
 	p := plot.New()
-	p.Title.Text = title
-	p.X.Label.Text = x
-	p.Y.Label.Text = y
+	// Names in titles and labels come from files: the SVG writer escapes
+	// only XML's markup characters, and a control character makes the
+	// picture malformed XML.
+	p.Title.Text = CleanText(title)
+	p.X.Label.Text = CleanText(x)
+	p.Y.Label.Text = CleanText(y)
 	p.Title.TextStyle.Font.Size = vg.Points(13)
 	p.X.Label.TextStyle.Font.Size = vg.Points(11)
 	p.Y.Label.TextStyle.Font.Size = vg.Points(11)
@@ -510,7 +513,7 @@ func ReMachChart(e *Evaluation, facs []int) (*Chart, error) {
 		m := e.Maps[k]
 		rr := ReachableRe(m, reMachSamples)
 		col := facilityColor(k)
-		label := fmt.Sprintf("%s (scale %.3g)", m.Facility.Name, m.Scale)
+		label := fmt.Sprintf("%s (scale %.3g)", CleanText(m.Facility.Name), m.Scale)
 		if m.Facility.Medium == MediumWater {
 			label += fmt.Sprintf(", Mach relaxed below %.2g", m.Settings.CompressibilityMach)
 		}

@@ -118,12 +118,13 @@ type CoverageReport struct {
 	SolvedCount int `json:"solved_facilities"`
 }
 
-// NewCoverageReport summarises an evaluation.
+// NewCoverageReport summarises an evaluation. Names pass through
+// CleanText.
 func NewCoverageReport(e *Evaluation) CoverageReport {
 	g := e.Grid
 	s := e.Settings
 	r := CoverageReport{
-		Vehicle: g.Vehicle.Name, GridRows: g.Rows(), GridCols: g.Cols(), Inside: g.InsideCount(),
+		Vehicle: CleanText(g.Vehicle.Name), GridRows: g.Rows(), GridCols: g.Cols(), Inside: g.InsideCount(),
 		Settings: ExportSettings{ScaleOverride: na, DeltaT: Num(s.DeltaT), MachTol: Num(s.MachTol),
 			ReTol: Num(s.ReTol), CompressibilityMach: Num(s.CompressibilityMach)},
 		Caution:    PlanningNote,
@@ -134,12 +135,12 @@ func NewCoverageReport(e *Evaluation) CoverageReport {
 	}
 	for k := range e.Facilities {
 		f := &e.Facilities[k]
-		row := CoverageRow{Facility: f.Name, Medium: f.Medium.String(), Scale: na, FitScale: na, MinScale: na}
+		row := CoverageRow{Facility: CleanText(f.Name), Medium: f.Medium.String(), Scale: na, FitScale: na, MinScale: na}
 		m := e.Maps[k]
 		if m == nil {
 			row.Error = "not evaluated"
 			if e.Errs[k] != nil {
-				row.Error = e.Errs[k].Error()
+				row.Error = CleanText(e.Errs[k].Error())
 			}
 			r.Facilities = append(r.Facilities, row)
 			continue

@@ -127,7 +127,7 @@ func DefaultRunPoints(m *Map) []GridPoint {
 // PlanRuns builds the run list of facility map m for the given points
 // (duplicates are dropped) and orders it with OrderRuns.
 func PlanRuns(m *Map, points []GridPoint) (RunList, error) {
-	rl := RunList{Facility: m.Facility.Name, Medium: m.Facility.Medium, Scale: m.Scale}
+	rl := RunList{Facility: CleanText(m.Facility.Name), Medium: m.Facility.Medium, Scale: m.Scale}
 	g := m.Grid
 	seen := map[GridPoint]bool{}
 	for _, p := range points {

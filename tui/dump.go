@@ -47,6 +47,7 @@ type DumpInput struct {
 // the interface's write key both call it, so they write the same bytes
 // for the same view.
 func Dump(in DumpInput, st Styles) (string, error) {
+	in.Facilities = envelope.CleanFacilities(in.Facilities)
 	g := in.Grid
 	if g == nil || g.Rows() == 0 || g.Cols() == 0 {
 		return "", errors.New("dump: no evaluated grid")
@@ -97,7 +98,7 @@ func dumpHeader(in DumpInput) string {
 		fmt.Fprintf(&b, "%-9s %s\n", k, fmt.Sprintf(format, a...))
 	}
 	fmt.Fprintf(&b, "likewind %s matrix dump, %s\n", in.Version, in.Date)
-	line("vehicle", "%s (%s)", veh.Name, nameList(in.Sources))
+	line("vehicle", "%s (%s)", envelope.CleanText(veh.Name), nameList(in.Sources))
 	if in.Facility < 0 {
 		line("facility", "best of all: per point the facility with the best class, by the letter beside each cell (none where out of reach)")
 		for k, f := range in.Facilities {

@@ -178,6 +178,8 @@ func New(opts Options) Model {
 		keys = &k
 	}
 	fr := frame{st: st, keys: keys}
+	// Names reach the screen: the second wall after the loaders'.
+	veh, facs := envelope.CleanVehicle(opts.Vehicle), envelope.CleanFacilities(opts.Facilities)
 	m := Model{
 		fr:       fr,
 		matrix:   matrixView{frame: fr},
@@ -186,9 +188,9 @@ func New(opts Options) Model {
 		picker:   picker{frame: fr},
 		editor:   newEditor(fr),
 		help:     newHelpView(fr),
-		vehicle:  opts.Vehicle,
-		fileFacs: opts.Facilities,
-		facs:     append([]envelope.Facility(nil), opts.Facilities...),
+		vehicle:  veh,
+		fileFacs: facs,
+		facs:     append([]envelope.Facility(nil), facs...),
 		marks:    map[int]bool{},
 		inputs:   append([]string(nil), opts.Inputs...),
 		hash:     opts.InputHash,
@@ -428,8 +430,8 @@ func (m *Model) onComputed(msg computedMsg) {
 	m.clampCursor()
 }
 
-func (m *Model) setStatus(s string) { m.status, m.statusErr = s, false }
-func (m *Model) setError(s string)  { m.status, m.statusErr = s, true }
+func (m *Model) setStatus(s string) { m.status, m.statusErr = envelope.CleanLines(s), false }
+func (m *Model) setError(s string)  { m.status, m.statusErr = envelope.CleanLines(s), true }
 
 // onKey dispatches a key to the mode that has the keyboard.
 func (m *Model) onKey(msg tea.KeyMsg) tea.Cmd {

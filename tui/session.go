@@ -111,7 +111,7 @@ func nameList(names []string) string {
 	if len(names) == 0 {
 		return "built-in demo data"
 	}
-	return strings.Join(names, ", ")
+	return envelope.CleanText(strings.Join(names, ", "))
 }
 
 // LoadSession reads a session file. A folder, link or special file, or a
@@ -159,9 +159,9 @@ func encodeSession(s Session) ([]byte, error) {
 	return append(data, '\n'), nil
 }
 
-// SaveSession writes s to path atomically with envelope.WriteFileAtomic (a
-// synced temporary file in the same folder, renamed over path), so a crash
-// never leaves a half-written session; the file is made 0600. It replaces
+// SaveSession writes s to path atomically with envelope.WriteFilePrivate
+// (a synced temporary file in the same folder, mode 0600, renamed over path),
+// so a crash never leaves a half-written session. It replaces
 // whatever is at path: the interface saves through a SessionFile instead,
 // which never writes over what it did not read.
 func SaveSession(path string, s Session) error {

@@ -477,11 +477,5 @@ func expandHome(p string) string {
 // writeSession writes a session file atomically and makes it 0600 (it may
 // hold the marks of unreleased test plans).
 func writeSession(path string, data []byte, overwrite bool) error {
-	if err := envelope.WriteFileAtomic(path, data, overwrite); err != nil {
-		return err
-	}
-	if err := os.Chmod(path, 0o600); err != nil {
-		return fmt.Errorf("%s: %w", path, err)
-	}
-	return nil
+	return envelope.WriteFilePrivate(path, data, overwrite)
 }

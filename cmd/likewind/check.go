@@ -14,14 +14,22 @@ func runCheck(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "likewind: check: give one or more vehicle or facility files")
 		return 2
 	}
+	// The report quotes file names and keys; a failed write is reported.
+	w := &errWriter{w: envelope.CleanWriter{W: stdout}}
 	errs := envelope.Check(args...)
 	for _, err := range errs {
-		fmt.Fprintln(stdout, err)
+		fmt.Fprintln(w, err)
 	}
+	code := 0
 	if len(errs) > 0 {
-		fmt.Fprintf(stdout, "%d problem(s) in %d file(s) checked\n", len(errs), len(args))
+		fmt.Fprintf(w, "%d problem(s) in %d file(s) checked\n", len(errs), len(args))
+		code = 1
+	} else {
+		fmt.Fprintf(w, "%d file(s) checked, no problems\n", len(args))
+	}
+	if w.err != nil {
+		fmt.Fprintln(stderr, "likewind: check: standard output:", w.err)
 		return 1
 	}
-	fmt.Fprintf(stdout, "%d file(s) checked, no problems\n", len(args))
-	return 0
+	return code
 }

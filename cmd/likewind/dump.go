@@ -102,7 +102,7 @@ func runDump(args []string, stdout, stderr io.Writer) int {
 		r := lipgloss.NewRenderer(io.Discard)
 		r.SetColorProfile(termenv.TrueColor)
 		st = tui.NewStyles(r)
-	case o.path != "":
+	case !o.stdout():
 		st = tui.PlainStyles()
 	default:
 		st = tui.NewStyles(lipgloss.NewRenderer(stdout))

@@ -134,14 +134,19 @@ type outFlags struct {
 }
 
 func (o *outFlags) register(fs *flag.FlagSet) {
-	fs.StringVar(&o.path, "o", "", "write to this file (atomically) instead of standard output")
-	fs.BoolVar(&o.force, "force", false, "replace an existing output file")
+	fs.StringVar(&o.path, "o", "", "write to this file (atomically) instead of standard output; - is standard output")
+	fs.BoolVar(&o.force, "force", false, "replace an existing output file (only ever a regular file)")
 }
 
-// precheck refuses an existing output file before any work is done. It
-// returns -1 to go on, or an exit status.
+// stdout reports whether the output goes to standard output (no -o, or
+// -o -).
+func (o *outFlags) stdout() bool { return o.path == "" || o.path == "-" }
+
+// precheck refuses an output file that exists without --force, or that
+// is not a regular file, before any work is done. It returns -1 to go on,
+// or an exit status.
 func (o *outFlags) precheck(stderr io.Writer) int {
-	if o.path == "" {
+	if o.stdout() {
 		return -1
 	}
 	return checkTarget(o.path, o.force, stderr)
@@ -149,20 +154,21 @@ func (o *outFlags) precheck(stderr io.Writer) int {
 
 // write sends the output to -o FILE atomically, or to stdout.
 func (o *outFlags) write(stdout io.Writer, write func(io.Writer) error) error {
-	if o.path == "" {
-		return write(stdout)
+	if o.stdout() {
+		if err := write(stdout); err != nil {
+			return fmt.Errorf("standard output: %w", err)
+		}
+		return nil
 	}
 	return envelope.WriteAtomic(o.path, o.force, write)
 }
 
-// checkTarget reports (exit 1) an output file that exists without --force.
-// The atomic write checks again when it puts the file in place.
+// checkTarget reports (exit 1) an output file that exists without --force,
+// or that is a link, device, pipe or folder. The atomic write checks again
+// when it puts the file in place.
 func checkTarget(path string, force bool, stderr io.Writer) int {
-	if force {
-		return -1
-	}
-	if exists(path) {
-		return fail(stderr, fmt.Errorf("%s exists; use --force to replace it", path))
+	if err := envelope.CheckOutputTarget(path, force); err != nil {
+		return fail(stderr, err)
 	}
 	return -1
 }

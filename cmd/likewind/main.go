@@ -16,6 +16,8 @@ import (
 	"fmt"
 	"io"
 	"os"
+
+	"likewind/envelope"
 )
 
 const version = "0.1.0"
@@ -27,6 +29,9 @@ func main() {
 // run dispatches a command line and returns the exit status: 0 success,
 // 1 a failure of the work itself (e.g. invalid files), 2 bad usage.
 func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	// Messages quote file names, names and keys from files: none of them
+	// may drive the terminal (the last of the walls against hostile text).
+	stderr = envelope.CleanWriter{W: stderr}
 	if len(args) > 0 {
 		switch args[0] {
 		case "point":
@@ -44,18 +49,27 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		case "runs":
 			return runRuns(args[1:], stdout, stderr)
 		case "help", "-h", "--help", "-help":
-			printUsage(stdout)
-			return 0
+			return reportWrite(printUsage(stdout), stderr)
 		case "version", "--version":
-			fmt.Fprintln(stdout, "likewind", version)
-			return 0
+			_, err := fmt.Fprintln(stdout, "likewind", version)
+			return reportWrite(err, stderr)
 		}
 	}
 	return runOpen(args, stdin, stdout, stderr)
 }
 
-func printUsage(w io.Writer) {
-	fmt.Fprint(w, `likewind — which flight conditions can a ground facility reproduce?
+// reportWrite turns a failed write to standard output into a message and
+// exit status 1.
+func reportWrite(err error, stderr io.Writer) int {
+	if err != nil {
+		fmt.Fprintln(stderr, "likewind: standard output:", err)
+		return 1
+	}
+	return 0
+}
+
+func printUsage(w io.Writer) error {
+	_, err := fmt.Fprint(w, `likewind — which flight conditions can a ground facility reproduce?
 
 usage:
   likewind                                   open the interface on the embedded demo
@@ -76,4 +90,5 @@ Results are planning estimates. Pressure vessels, cryogenic nitrogen and loaded
 models need the facility's own procedures, local codes and licensed engineering
 practice.
 `)
+	return err
 }

@@ -16,11 +16,12 @@ func runPlot(args []string, stdout, stderr io.Writer) int {
 	var o outFlags
 	o.register(fs)
 	chart := fs.String("chart", "both", "map, re-mach, or both (both writes FILE-map.EXT and FILE-remach.EXT)")
+	pictureFormat := fs.String("format", "", "png or svg (default: from the -o extension; needed with -o -)")
 	facility := fs.String("facility", "", `facility: name, unique part of a name, or number (default: map of the best of all, Reynolds–Mach chart of every facility)`)
 	customary := fs.Bool("customary", false, "map axes in ft and kt")
 	session := fs.String("session", "", "apply the what-if values of this session file")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: likewind plot [VEHICLE.toml FACILITIES.toml...] -o FILE.png|FILE.svg [--chart map|re-mach|both] [--facility NAME] [--customary] [--force] [--session FILE]")
+		fmt.Fprintln(stderr, "usage: likewind plot [VEHICLE.toml FACILITIES.toml...] -o FILE.png|FILE.svg|- [--format png|svg] [--chart map|re-mach|both] [--facility NAME] [--customary] [--force] [--session FILE]")
 		fs.PrintDefaults()
 	}
 	files, code := parseArgs(fs, args, stderr)
@@ -28,12 +29,22 @@ func runPlot(args []string, stdout, stderr io.Writer) int {
 		return code
 	}
 	if o.path == "" {
-		return usageFail(stderr, fmt.Errorf("plot: give the picture file with -o FILE.png or -o FILE.svg"))
+		return usageFail(stderr, fmt.Errorf("plot: give the picture file with -o FILE.png or -o FILE.svg (or -o - --format png|svg for standard output)"))
 	}
+	toStdout := o.path == "-"
 	ext := strings.ToLower(filepath.Ext(o.path))
-	format := strings.TrimPrefix(ext, ".")
-	if format != "png" && format != "svg" {
+	format := strings.ToLower(*pictureFormat)
+	switch {
+	case format != "" && format != "png" && format != "svg":
+		return usageFail(stderr, fmt.Errorf("plot: --format %q: want png or svg", *pictureFormat))
+	case toStdout && format == "":
+		return usageFail(stderr, fmt.Errorf("plot: -o - (standard output) needs --format png or --format svg"))
+	case !toStdout && ext != ".png" && ext != ".svg":
 		return usageFail(stderr, fmt.Errorf("plot: -o %s: the name must end in .png or .svg", o.path))
+	case !toStdout && format != "" && "."+format != ext:
+		return usageFail(stderr, fmt.Errorf("plot: --format %s does not match the name -o %s", format, o.path))
+	case format == "":
+		format = strings.TrimPrefix(ext, ".")
 	}
 	var targets []plotTarget
 	base := strings.TrimSuffix(o.path, filepath.Ext(o.path))
@@ -43,12 +54,18 @@ func runPlot(args []string, stdout, stderr io.Writer) int {
 	case "re-mach", "remach":
 		targets = []plotTarget{{"re-mach", o.path}}
 	case "both":
+		if toStdout {
+			return usageFail(stderr, fmt.Errorf("plot: -o - takes one picture: give --chart map or --chart re-mach"))
+		}
 		targets = []plotTarget{{"map", base + "-map" + ext}, {"re-mach", base + "-remach" + ext}}
 	default:
 		return usageFail(stderr, fmt.Errorf("plot: --chart %q: want map, re-mach or both", *chart))
 	}
 	// Refuse before any work, so nothing is half done.
 	for _, t := range targets {
+		if t.path == "-" {
+			continue
+		}
 		if code := checkTarget(t.path, o.force, stderr); code >= 0 {
 			return code
 		}
@@ -92,11 +109,24 @@ func runPlot(args []string, stdout, stderr io.Writer) int {
 			return fail(stderr, fmt.Errorf("plot: %w", err))
 		}
 	}
-	for k, t := range targets {
-		if err := envelope.WriteFileAtomic(t.path, outs[k], o.force); err != nil {
-			return fail(stderr, fmt.Errorf("plot: %w", err))
+	if toStdout {
+		if _, err := stdout.Write(outs[0]); err != nil {
+			return fail(stderr, fmt.Errorf("plot: standard output: %w", err))
 		}
-		fmt.Fprintln(stdout, "wrote", t.path)
+		return 0
+	}
+	// Both pictures or neither.
+	set := make([]envelope.AtomicFile, len(targets))
+	for k, t := range targets {
+		set[k] = envelope.AtomicFile{Path: t.path, Data: outs[k]}
+	}
+	if err := envelope.WriteFilesAtomic(set, o.force); err != nil {
+		return fail(stderr, fmt.Errorf("plot: %w", err))
+	}
+	for _, t := range targets {
+		if _, err := fmt.Fprintln(stdout, "wrote", envelope.CleanText(t.path)); err != nil {
+			return fail(stderr, fmt.Errorf("plot: the pictures are written, but standard output failed: %w", err))
+		}
 	}
 	return 0
 }

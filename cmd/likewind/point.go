@@ -216,16 +216,23 @@ func runPoint(args []string, stdout, stderr io.Writer) int {
 		enc := json.NewEncoder(stdout)
 		enc.SetIndent("", "  ")
 		if err := enc.Encode(r); err != nil {
-			fmt.Fprintln(stderr, "likewind:", err)
+			fmt.Fprintln(stderr, "likewind: point: standard output:", err)
 			return 1
 		}
 		return 0
 	}
-	writePointTable(stdout, q, r)
+	if err := writePointTable(stdout, q, r); err != nil {
+		fmt.Fprintln(stderr, "likewind: point: standard output:", err)
+		return 1
+	}
 	return 0
 }
 
-func writePointTable(w io.Writer, q pointQuery, r pointReport) {
+// writePointTable prints the report as a table; the error is the first
+// failed write.
+func writePointTable(w io.Writer, q pointQuery, r pointReport) error {
+	ew := &errWriter{w: w}
+	w = ew
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	row := func(name, si, cust string) { fmt.Fprintf(tw, "%s\t%s\t%s\n", name, si, cust) }
 	reg := atmos.DefaultRegimes()
@@ -255,7 +262,26 @@ func writePointTable(w io.Writer, q pointQuery, r pointReport) {
 	row("Knudsen number", num("%.3g", r.Knudsen), "")
 	row("speed regime", r.Regime, "")
 	row("rarefaction regime", reg.Rarefaction(r.Knudsen).String(), "")
-	tw.Flush()
+	if err := tw.Flush(); err != nil {
+		return err
+	}
+	return ew.err
+}
+
+// errWriter keeps the first write error and writes nothing after it, so
+// a run of prints can be checked once.
+type errWriter struct {
+	w   io.Writer
+	err error
+}
+
+func (e *errWriter) Write(p []byte) (int, error) {
+	if e.err != nil {
+		return 0, e.err
+	}
+	n, err := e.w.Write(p)
+	e.err = err
+	return n, err
 }
 
 // num formats one number as format says, never as a negative zero.

@@ -154,9 +154,9 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 	fmt.Fprintf(&b, "likewind %s run list, %s\n", version, p.date)
 	src := "built-in demo data"
 	if len(p.ev.in.files) > 0 {
-		src = strings.Join(p.ev.in.files, ", ")
+		src = strings.Join(envelope.CleanAll(p.ev.in.files), ", ")
 	}
-	fmt.Fprintf(&b, "%-9s %s (%s)\n", "vehicle", g.Vehicle.Name, src)
+	fmt.Fprintf(&b, "%-9s %s (%s)\n", "vehicle", envelope.CleanText(g.Vehicle.Name), src)
 	fmt.Fprintf(&b, "%-9s %s\n", "points", p.pointsWords())
 	fmt.Fprintf(&b, "%-9s grouped by T0, then p0, then Mach number ascending (water: temperature, static pressure, speed);\n"+
 		"%-9s a setting counts as changed when it moves by %g K, %g %% of p0, %g in Mach or %g m/s\n",
@@ -407,7 +407,7 @@ type runChanges struct {
 func (p *runPlan) writeJSON(w io.Writer) error {
 	doc := runJSON{
 		ExportInfo: envelope.ExportInfo{Tool: "likewind", Version: version, Generated: p.date},
-		Caution:    envelope.PlanningNote, Units: "SI", Vehicle: p.ev.e.Grid.Vehicle.Name,
+		Caution:    envelope.PlanningNote, Units: "SI", Vehicle: envelope.CleanText(p.ev.e.Grid.Vehicle.Name),
 		Points: "matched", Facilities: []runJSONFacility{},
 	}
 	if p.marked {
