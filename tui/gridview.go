@@ -72,6 +72,22 @@ func ClassLevel(c envelope.Class) int {
 	return lvClassNoMatch
 }
 
+// levelClass is the inverse of ClassLevel: the match class drawn at level
+// k of the class layer (false for the "no facility" level).
+func levelClass(k int) (envelope.Class, bool) {
+	switch k {
+	case lvClassFull:
+		return envelope.FullMatch, true
+	case lvClassReShort:
+		return envelope.ReShort, true
+	case lvClassMachRelaxed:
+		return envelope.MachRelaxed, true
+	case lvClassNoMatch:
+		return envelope.NoMatch, true
+	}
+	return envelope.Outside, false
+}
+
 // NoFacilityLevel is the class layer's level where no facility answers.
 const NoFacilityLevel = lvClassNoFacility
 
