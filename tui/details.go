@@ -144,7 +144,8 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		}
 		return d
 	}
-	for _, c := range det.Cautions {
+	// Cautions are written in the panel's units, like every other value.
+	for _, c := range envelope.Cautions(&det, &fac, u) {
 		if c == envelope.PlanningNote {
 			continue
 		}

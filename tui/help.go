@@ -75,31 +75,3 @@ func (v helpView) Overlay() string {
 	b.WriteString(v.st.Faint.Render("? or esc closes this screen"))
 	return v.fit(b.String())
 }
-
-// wrapText wraps plain words to width w (styled words keep their escape
-// sequences; width is measured without them).
-func wrapText(s string, w int) string {
-	if w <= 0 {
-		return ""
-	}
-	words := strings.Fields(s)
-	var lines []string
-	cur, curW := "", 0
-	for _, word := range words {
-		ww := visibleWidth(word)
-		if curW > 0 && curW+1+ww > w {
-			lines = append(lines, cur)
-			cur, curW = "", 0
-		}
-		if curW > 0 {
-			cur += " "
-			curW++
-		}
-		cur += word
-		curW += ww
-	}
-	if cur != "" {
-		lines = append(lines, cur)
-	}
-	return clip(strings.Join(lines, "\n"), w, len(lines))
-}
