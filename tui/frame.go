@@ -82,6 +82,9 @@ func wrapLines(s string, w int, indent string) []string {
 	if w <= 0 {
 		return nil
 	}
+	if !strings.Contains(s, "\n") && visibleWidth(s) <= w {
+		return []string{s} // fits: keep its spacing
+	}
 	if visibleWidth(indent) >= w {
 		indent = ""
 	}

@@ -50,28 +50,39 @@ func (v helpView) Short(b []key.Binding) string {
 	return clip(v.h.ShortHelpView(b), v.width, 1)
 }
 
-// Overlay renders the full help screen.
+// Overlay renders the full help screen. Where the screen is short, the
+// closing hint, the blank line, the heading and then the paragraphs other
+// than the caution are left out, in that order, so that the keys and the
+// caution are always shown whole.
 func (v helpView) Overlay() string {
 	w := min(v.width, helpTextWidth)
-	var b strings.Builder
-	b.WriteString(v.st.Section.Render("Keys"))
-	b.WriteString("\n")
-	b.WriteString(v.h.FullHelpView(v.keys.FullHelp()))
-	b.WriteString("\n\n")
-	para := func(title, text string) {
-		b.WriteString(wrapText(v.st.HelpKey.Render(title)+" "+text, w))
-		b.WriteString("\n")
+	para := func(title, text string) []string {
+		return wrapLines(v.st.HelpKey.Render(title)+" "+text, w, "")
 	}
-	para("Layers:", "match class, flow regime, Reynolds ratio (model/flight), "+
+	keys := strings.Split(v.h.FullHelpView(v.keys.FullHelp()), "\n")
+	layers := para("Layers:", "match class, flow regime, Reynolds ratio (model/flight), "+
 		"tunnel q as a share of its limit, flight Mach number. Glyphs differ per value; "+
 		"the legend under the matrix lists them.")
-	para("Classes:", "full match = Mach within tolerance and Reynolds number at least (1 - tol) of flight; "+
+	classes := para("Classes:", "full match = Mach within tolerance and Reynolds number at least (1 - tol) of flight; "+
 		"Reynolds short = Mach matched, Reynolds number below; Mach relaxed = Reynolds matched "+
 		"at a lower Mach, allowed below the compressibility threshold; out of reach = neither.")
-	para("What-if:", "values take units, e.g. 3 bar, 45 psi, -150 degC, 10 K; "+
+	whatIf := para("What-if:", "values take units, e.g. 3 bar, 45 psi, -150 degC, 10 K; "+
 		"changed values are listed in the header; R restores the files' values.")
-	b.WriteString(wrapText(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w))
-	b.WriteString("\n")
-	b.WriteString(v.st.Faint.Render("? or esc closes this screen"))
-	return v.fit(b.String())
+	caution := wrapLines(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w, "")
+	heading := []string{v.st.Section.Render("Keys")}
+	blank := []string{""}
+	hint := []string{v.st.Faint.Render("? or esc closes this screen")}
+	for _, drop := range []*[]string{nil, &hint, &blank, &heading, &whatIf, &layers, &classes} {
+		if drop != nil {
+			*drop = nil
+		}
+		var all []string
+		for _, part := range [][]string{heading, keys, blank, layers, classes, whatIf, caution, hint} {
+			all = append(all, part...)
+		}
+		if len(all) <= v.height || drop == &classes {
+			return v.fit(strings.Join(all, "\n"))
+		}
+	}
+	return ""
 }

@@ -355,26 +355,36 @@ func RenderLegend(in LegendInput, st Styles, width int) string {
 	return wrapItems(l.String()+":", items, "  ", width)
 }
 
-// wrapItems joins items after a lead word, wrapping at width.
+// wrapItems joins items after a lead word, wrapping at width between
+// items; an item wider than a line is wrapped at its own spaces, so no item
+// is ever cut.
 func wrapItems(lead string, items []string, sep string, width int) string {
-	var b strings.Builder
+	if width <= 0 {
+		return ""
+	}
+	var lines []string
 	cur := lead
 	curW := ansi.StringWidth(lead)
+	sepW := ansi.StringWidth(sep)
 	for _, it := range items {
 		w := ansi.StringWidth(it)
-		if curW > 0 && curW+len(sep)+w > width {
-			b.WriteString(ansi.Truncate(cur, width, ""))
-			b.WriteByte('\n')
-			cur, curW = it, w
-			continue
+		if curW > 0 && curW+sepW+w > width {
+			lines = append(lines, cur)
+			cur, curW = "", 0
+		}
+		if w > width {
+			parts := wrapLines(it, width, "  ")
+			lines = append(lines, parts[:len(parts)-1]...)
+			it = parts[len(parts)-1]
+			w = ansi.StringWidth(it)
 		}
 		if curW > 0 {
 			cur += sep
-			curW += len(sep)
+			curW += sepW
 		}
 		cur += it
 		curW += w
 	}
-	b.WriteString(ansi.Truncate(cur, width, ""))
-	return b.String()
+	lines = append(lines, cur)
+	return strings.Join(lines, "\n")
 }

@@ -97,6 +97,7 @@ type Model struct {
 	facs     []envelope.Facility // with what-if limits
 	fileSet  envelope.Settings
 	set      envelope.Settings
+	setGiven bool // fileSet came from Options.Settings, not the built-in defaults
 	res      results
 	gen      int  // generation of the latest recompute request
 	busy     bool // a recompute is running
@@ -126,6 +127,7 @@ type Model struct {
 	headerH  int
 	bodyH    int
 	legendH  int
+	footerH  int
 	sideW    int
 	lowerH   int
 
@@ -182,6 +184,7 @@ func New(opts Options) Model {
 	}
 	if opts.Settings != nil {
 		m.fileSet = *opts.Settings
+		m.setGiven = true
 	} else {
 		m.fileSet = envelope.DefaultSettings(opts.Vehicle)
 	}
