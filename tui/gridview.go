@@ -202,6 +202,7 @@ func (v GridView) Matrix() MatrixInput {
 		ScrollRow: v.ScrollRow,
 		ScrollCol: v.ScrollCol,
 		Tags:      v.Facility < 0 && v.Layer.NeedsFacility() && len(v.Facilities) > 0,
+		Marks:     anyMarked(v.Marks),
 	}
 	g := v.Grid
 	if g == nil {
@@ -220,6 +221,16 @@ func (v GridView) Matrix() MatrixInput {
 	}
 	in.Cell = v.Cell
 	return in
+}
+
+// anyMarked reports whether any point is marked.
+func anyMarked(marks map[int]bool) bool {
+	for _, on := range marks {
+		if on {
+			return true
+		}
+	}
+	return false
 }
 
 // Legend builds the legend input: the layer's glyphs and, in best-of-all

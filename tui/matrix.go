@@ -32,6 +32,11 @@ type MatrixInput struct {
 	Cell func(i, j int) Cell
 	// Tags makes every cell one character wider to hold Cell.Tag.
 	Tags bool
+	// Marks makes every cell one character wider to hold the test-point
+	// mark right after the glyph (and tag), so a mark is drawn inside its
+	// cell and a gap still separates it from the next cell. Cells with
+	// Marked set show MarkGlyph there; without Marks no mark is drawn.
+	Marks bool
 	// CursorRow and CursorCol are the grid indices of the cursor, or -1.
 	CursorRow, CursorCol int
 	// ScrollRow is the number of display rows hidden above the view
@@ -63,9 +68,12 @@ func geometry(in MatrixInput, width, height int) matrixGeom {
 		}
 	}
 	g.gutter++ // cursor marker
-	g.cw = 2
+	g.cw = 2 // glyph and gap
 	if in.Tags {
-		g.cw = 3
+		g.cw++
+	}
+	if in.Marks {
+		g.cw++
 	}
 	for _, s := range in.SpeedLabel {
 		if n := ansi.StringWidth(s); n > g.labelW {
@@ -223,21 +231,22 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 				line = append(line, t)
 				ids = append(ids, p)
 			}
-			slot := byte(' ')
-			if cell.Marked {
-				slot = MarkGlyph
-			}
-			if cur {
-				line[len(line)-g.cw] = '[' // previous cell's slot, or the axis
-				ids[len(ids)-g.cw] = plain
-				slot = ']'
-			}
-			line = append(line, slot)
-			if cell.Marked && !cur {
+			if in.Marks {
+				mark := byte(' ')
+				if cell.Marked {
+					mark = MarkGlyph
+				}
+				line = append(line, mark)
 				ids = append(ids, p)
-			} else {
-				ids = append(ids, plain)
 			}
+			gap := byte(' ')
+			if cur {
+				line[len(line)-g.cw] = '[' // previous cell's gap, or the axis
+				ids[len(ids)-g.cw] = plain
+				gap = ']'
+			}
+			line = append(line, gap)
+			ids = append(ids, plain)
 		}
 		if len(line) > avail {
 			line = line[:max(avail, 0)]
