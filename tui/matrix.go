@@ -68,7 +68,7 @@ func geometry(in MatrixInput, width, height int) matrixGeom {
 		}
 	}
 	g.gutter++ // cursor marker
-	g.cw = 2 // glyph and gap
+	g.cw = 2   // glyph and gap
 	if in.Tags {
 		g.cw++
 	}
