@@ -28,6 +28,9 @@ type GridView struct {
 
 	Layer Layer
 	Units Units
+	// FullNames puts each facility's whole name beside its letter in the
+	// legend, instead of the first word of it.
+	FullNames bool
 	ReTol float64      // Reynolds tolerance, for the Reynolds-ratio layer
 	Marks map[int]bool // marked test points by grid index
 
@@ -235,7 +238,7 @@ func anyMarked(marks map[int]bool) bool {
 
 // Legend builds the legend input: the layer's glyphs and, in best-of-all
 // mode on a facility layer, each facility letter with the first word of
-// its name.
+// its name (its whole name with FullNames).
 func (v GridView) Legend() LegendInput {
 	in := LegendInput{Layer: v.Layer, ReTol: v.ReTol, NoFacility: true}
 	for _, m := range v.Maps {
@@ -249,7 +252,7 @@ func (v GridView) Legend() LegendInput {
 	}
 	for k, f := range v.Facilities {
 		word := f.Name
-		if w := strings.Fields(f.Name); len(w) > 0 {
+		if w := strings.Fields(f.Name); len(w) > 0 && !v.FullNames {
 			word = w[0]
 		}
 		in.Tags = append(in.Tags, fmt.Sprintf("%c %s", facilityTag(k), word))

@@ -173,3 +173,26 @@ func TestKeyLineKeepsQuit(t *testing.T) {
 		}
 	}
 }
+
+// TestLegendNamesWholeWhereRoom: in best of all on a 200×60 screen the
+// legend explains each facility letter with the facility's whole name; on
+// 80×24 it keeps the first word.
+func TestLegendNamesWholeWhereRoom(t *testing.T) {
+	for _, size := range []struct {
+		w, h int
+		full bool
+	}{{200, 60, true}, {80, 24, false}} {
+		m := newDemo(t, size.w, size.h)
+		m, _ = press(m, "b")
+		legend := strings.Join(strings.Fields(ansi.Strip(m.legend.View(m.legendInput()))), " ")
+		for k, f := range m.facs {
+			want := string(facilityTag(k)) + " " + f.Name
+			if !size.full {
+				want = string(facilityTag(k)) + " " + strings.Fields(f.Name)[0]
+			}
+			if !strings.Contains(legend, want) {
+				t.Errorf("%dx%d: legend lacks %q: %s", size.w, size.h, want, legend)
+			}
+		}
+	}
+}

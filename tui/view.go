@@ -460,7 +460,14 @@ func (m Model) gridView() GridView {
 }
 
 // legendInput describes the legend of the current view.
-func (m Model) legendInput() LegendInput { return m.gridView().Legend() }
+//
+// Where the screen has room (the wide layout, 40 lines or more), facility
+// letters are explained with whole names.
+func (m Model) legendInput() LegendInput {
+	v := m.gridView()
+	v.FullNames = m.fr.width >= WideWidth && m.fr.height >= 40
+	return v.Legend()
+}
 
 // shortName shortens a long facility name to its first words, for places
 // where it stands beside the facility's letter, which names it uniquely.
