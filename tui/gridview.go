@@ -31,8 +31,8 @@ type GridView struct {
 	// FullNames puts each facility's whole name beside its letter in the
 	// legend, instead of the first word of it.
 	FullNames bool
-	ReTol float64      // Reynolds tolerance, for the Reynolds-ratio layer
-	Marks map[int]bool // marked test points by grid index
+	ReTol     float64      // Reynolds tolerance, for the Reynolds-ratio layer
+	Marks     map[int]bool // marked test points by grid index
 
 	// Cursor and scroll, as in MatrixInput; use -1 for no cursor.
 	CursorRow, CursorCol int
