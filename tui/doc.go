@@ -41,7 +41,8 @@
 //
 // A header names the facility (or "best of all"), the layer, the unit
 // system and the vehicle, followed by every what-if value that differs
-// from the files. The matrix has altitude rows, highest on top, and speed
+// from its start, with where the start came from (a vehicle or facility
+// file, the demo, or a built-in default). The matrix has altitude rows, highest on top, and speed
 // columns; each cell is a glyph (with the facility letter in best-of-all
 // mode) and a gap; once any point is marked, every cell also has a place
 // right after its glyph that shows '*' for a marked test point, so a mark
