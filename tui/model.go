@@ -24,7 +24,7 @@ const (
 	// rather than below it.
 	WideWidth = 110
 
-	minMatrixHeight = matrixOverhead + 6
+	minMatrixHeight = matrixOverhead + minMatrixRows
 )
 
 // Options configures New.

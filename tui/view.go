@@ -209,7 +209,7 @@ func (m *Model) relayout() {
 		m.lowerH = 0
 	} else {
 		pref := m.lowerPreferred(W)
-		avail := m.bodyH - matrixOverhead - minMatrixRows
+		avail := m.bodyH - minMatrixHeight
 		m.lowerH = min(pref, max(avail, 1))
 		m.matrix.SetSize(W, m.bodyH-m.lowerH)
 		m.details.SetSize(W, m.lowerH)
