@@ -3,6 +3,7 @@ package envelope
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 )
 
@@ -40,6 +41,34 @@ var classNames = [...]string{
 	ReShort:     "Reynolds short",
 	MachRelaxed: "Mach relaxed",
 	NoMatch:     "out of reach",
+}
+
+// classColours is the one palette of the match classes, as hex RGB: the
+// interface, the text dumps (likewind dump --color) and the pictures all
+// read it, so a slide and the screen agree. Outside is the colour of grid
+// points outside the envelope on a terminal; pictures draw a light tint of
+// it so the outside stays background.
+var classColours = [...]string{
+	Outside:     "#5C5C5C",
+	FullMatch:   "#3E9E5A", // green
+	ReShort:     "#D19A1E", // amber
+	MachRelaxed: "#4F86C9", // blue
+	NoMatch:     "#C24A3A", // red
+}
+
+// Colour returns the colour of the class as hex RGB, e.g. "#3E9E5A".
+// An unknown class has the colour of Outside.
+func (c Class) Colour() string {
+	if int(c) < len(classColours) {
+		return classColours[c]
+	}
+	return classColours[Outside]
+}
+
+// RGB returns the colour of the class as red, green and blue bytes.
+func (c Class) RGB() (r, g, b uint8) {
+	x, _ := strconv.ParseUint(strings.TrimPrefix(c.Colour(), "#"), 16, 32)
+	return uint8(x >> 16), uint8(x >> 8), uint8(x)
 }
 
 // String returns the class in plain words, e.g. "Reynolds short".

@@ -31,20 +31,18 @@ const (
 // facility's reachable Reynolds range is evaluated for the chart.
 const reMachSamples = 240
 
-// Colours of the match classes: the same hues the terminal interface uses,
-// so a slide and the screen agree.
+// classColor is the colour of a match class in the pictures, from the one
+// class palette (Class.Colour) the interface and the dumps use. Points
+// outside the envelope are a light tint of the outside colour, so the grid
+// extent shows without competing with the classes.
 func classColor(c Class) color.Color {
-	switch c {
-	case FullMatch:
-		return rgb(0x3E9E5A)
-	case ReShort:
-		return rgb(0xD19A1E)
-	case MachRelaxed:
-		return rgb(0x4F86C9)
-	case NoMatch:
-		return rgb(0xC24A3A)
+	r, g, b := c.RGB()
+	if c == Outside || int(c) >= NumClasses {
+		const keep = 0.12 // share of the outside colour left in the tint
+		tint := func(v uint8) uint8 { return uint8(math.Round(255 - keep*(255-float64(v)))) }
+		r, g, b = tint(r), tint(g), tint(b)
 	}
-	return rgb(0xEEEEEE) // outside the envelope: faint grid extent
+	return color.RGBA{R: r, G: g, B: b, A: 0xFF}
 }
 
 // facilityColor is the colour of the k-th facility region on the

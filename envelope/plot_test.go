@@ -3,6 +3,7 @@ package envelope
 import (
 	"bytes"
 	"encoding/xml"
+	"image/color"
 	"image/png"
 	"io"
 	"math"
@@ -160,5 +161,30 @@ func BenchmarkMapChartPNGDemo(b *testing.B) {
 		if _, err := ch.Render("png"); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// TestPictureClassColours: the pictures paint each class in the colour the
+// interface and the dumps use (full match green, Reynolds short amber, Mach
+// relaxed blue, out of reach red); outside points are a light tint, lighter
+// than every class.
+func TestPictureClassColours(t *testing.T) {
+	want := map[Class]color.RGBA{
+		FullMatch:   {0x3E, 0x9E, 0x5A, 0xFF},
+		ReShort:     {0xD1, 0x9A, 0x1E, 0xFF},
+		MachRelaxed: {0x4F, 0x86, 0xC9, 0xFF},
+		NoMatch:     {0xC2, 0x4A, 0x3A, 0xFF},
+	}
+	for c, w := range want {
+		if got := classColor(c); got != w {
+			t.Errorf("classColor(%s) = %v, want %v", c, got, w)
+		}
+		if r, g, b := c.RGB(); (color.RGBA{r, g, b, 0xFF}) != w {
+			t.Errorf("%s.RGB() = %d,%d,%d, want %v", c, r, g, b, w)
+		}
+	}
+	out, ok := classColor(Outside).(color.RGBA)
+	if !ok || out.R < 0xE0 || out.G < 0xE0 || out.B < 0xE0 || out.R != out.G || out.G != out.B {
+		t.Errorf("classColor(Outside) = %v, want a light grey", classColor(Outside))
 	}
 }

@@ -115,13 +115,6 @@ func (m *Map) sizeFlag(mach float64) Flags {
 	return 0
 }
 
-// sizeNote is the caution for a model too large at test Mach number mach.
-func (m *Map) sizeNote(mach float64) string {
-	fit, rule := m.fit.at(mach)
-	return fmt.Sprintf("Model too large for the section: scale %.3g is above %.3g, the largest it takes (%s); "+
-		"wall interference and blockage make these results unreliable.", m.Scale, fit, rule)
-}
-
 // MinScaleFullMatch is the smallest model scale at which point (i, j)
 // becomes a full match in facility f: at every Mach number the best
 // setting's unit Reynolds number does not depend on scale, so the model

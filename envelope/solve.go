@@ -122,6 +122,11 @@ type Detail struct {
 	Cavitation     float64 // water cavitation number (p − pv)/(½ρV²)
 
 	Cautions []string
+	// SectionFit is the largest model scale the section takes at the test
+	// Mach number, and SectionFitRule the rule that sets it; both are set
+	// only where FlagModelTooLarge is.
+	SectionFit     float64
+	SectionFitRule string
 }
 
 // Solve finds, for every inside point of g, the settings of facility f that
@@ -353,10 +358,10 @@ func (m *Map) Detail(i, j int) (Detail, error) {
 	}
 	sm := m.sizeMach(r.mach, ps.has, ps.mach)
 	d.Flags |= m.sizeFlag(sm)
-	d.Cautions = cautions(&d, m.Facility)
 	if d.Flags.Has(FlagModelTooLarge) {
-		d.Cautions = append(d.Cautions, m.sizeNote(sm))
+		d.SectionFit, d.SectionFitRule = m.fit.at(sm)
 	}
+	d.Cautions = cautions(&d, m.Facility)
 	return d, nil
 }
 
@@ -1363,42 +1368,6 @@ func (sv *solver) waterSweep(q float64) (lo, hi float64) {
 	}
 	a, b := re(sv.f.T0Min), re(sv.f.T0Max)
 	return math.Min(a, b), math.Max(a, b)
-}
-
-// cautions lists the safety and validity notes for a detail, the planning
-// note first.
-func cautions(d *Detail, f *Facility) []string {
-	out := []string{PlanningNote}
-	add := func(format string, args ...any) { out = append(out, fmt.Sprintf(format, args...)) }
-	if d.Flags.Has(FlagCryogenic) {
-		add("Cold gas: T0 %.0f K. Cryogenic nitrogen brings cold-burn, embrittlement and oxygen-deficiency hazards; follow the facility's cryogenic procedures.", d.T0)
-	}
-	if d.Flags.Has(FlagHighP0) {
-		add("p0 %.0f kPa is within %.0f %% of the facility maximum %.0f kPa: pressure-vessel limits govern.",
-			d.P0/1e3, 100*(1-NearLimitFraction), f.P0Max/1e3)
-	}
-	if d.Flags.Has(FlagQNearLimit) {
-		add("Dynamic pressure %.1f kPa is within %.0f %% of the facility limit: check model, sting and balance loads.",
-			d.Q/1e3, 100*(1-NearLimitFraction))
-	}
-	if d.Flags.Has(FlagCondensationWarn) {
-		add("At local Mach %.2f on the model the static state reaches the saturation line: condensation likely in the local supersonic region.", peakMach(f))
-	}
-	if d.Flags.Has(FlagRealGas) {
-		add("Ideal-gas result is approximate here (cold gas near saturation, T0 below %.0f K, p0 above %.0f MPa, or hypersonic): real-gas corrections are not applied.",
-			RealGasT0, RealGasP0/1e6)
-	}
-	if d.Flags.Has(FlagEnthalpyShort) {
-		add("Facility T0 %.0f K is below %.0f %% of the flight stagnation temperature %.0f K: heating and high-temperature gas effects are not reproduced.",
-			d.T0, 100*EnthalpyShortRatio, d.FlightT0)
-	}
-	if d.Flags.Has(FlagReOver) {
-		add("The lowest setting still exceeds the flight Reynolds number (ratio %.2f).", d.ReRatio)
-	}
-	if d.Flags.Has(FlagLowCavitation) {
-		add("Cavitation number %.2f: cavitation on the model is likely.", d.Cavitation)
-	}
-	return out
 }
 
 func peakMach(f *Facility) float64 {

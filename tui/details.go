@@ -20,7 +20,9 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		d.summary = "no grid"
 		return d
 	}
-	colW := w / 2
+	// Pairs of values line up in columns: a quarter of the narrow panel
+	// (two blocks side by side), up to half of the wide one.
+	colW := min(w/2, 22)
 	if !m.wide {
 		colW = (w - 1) / 4
 	}
@@ -90,7 +92,14 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		}
 		title += st.Label.Render("best:") + " "
 	}
-	title += fmt.Sprintf("%c %s", facilityTag(k), shortName(fac.Name))
+	// The facility by letter and name; in the narrow layout's column the
+	// name is cut to its first words (the letter, in the header and legend
+	// too, still names it).
+	if m.wide {
+		title += fmt.Sprintf("%c %s", facilityTag(k), fac.Name) // wraps in the side panel
+	} else {
+		title += m.facilityLabel(k, w-(w-1)/2-1-visibleWidth(title))
+	}
 	d.facility = append(d.facility, title)
 	det, err := mp.Detail(m.curI, m.curJ)
 	if err != nil {
@@ -135,16 +144,17 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		}
 	}
 	d.facility = append(d.facility, pair("scale", sig(det.Scale, 3), "model", u.Length(det.ModelLength)))
-
-	if !m.wide {
-		// Narrow screens list the cautions by name on one line; the wide
-		// layout has room for the full text.
-		if det.Flags != 0 {
-			d.cautions = append(d.cautions, st.Caution.Render("! "+det.Flags.String()))
-		}
-		return d
+	if det.HasSettings && det.Class.Matched() {
+		// Which of the settings that reach the target was taken.
+		d.facility = append(d.facility, st.Label.Render("rule")+" "+envelope.OperatingRule(fac.Medium))
 	}
-	for _, c := range det.Cautions {
+
+	// The cautions by name, for panels without room for the full texts,
+	// and the full texts in the panel's units, like every other value.
+	if det.Flags != 0 {
+		d.flags = st.Caution.Render("! " + det.Flags.String())
+	}
+	for _, c := range envelope.Cautions(&det, &fac, u) {
 		if c == envelope.PlanningNote {
 			continue
 		}

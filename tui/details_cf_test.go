@@ -1,6 +1,8 @@
 package tui
 
 import (
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -38,5 +40,59 @@ func TestSkinFrictionNote(t *testing.T) {
 	}
 	if got := skinFrictionNote(envelope.Detail{Re: 0.5, ReFlight: 0.5}); got != "n/a" {
 		t.Errorf("skinFrictionNote(Re 0.5) = %q, want n/a", got)
+	}
+}
+
+// TestDetailsStateOperatingRule: where a facility has a setting, the
+// details panel says which of the settings that reach the target was
+// taken, and the README states the same operating rule.
+func TestDetailsStateOperatingRule(t *testing.T) {
+	want := map[string]string{
+		"Kellen Fold": "rule warmest T0, then lowest p0",
+		"Wenlow":      "rule warmest water, then lowest speed",
+	}
+	readme, err := os.ReadFile(filepath.Join("..", "README.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := strings.Join(strings.Fields(string(readme)), " ")
+	if !strings.Contains(text, "Operating rule.") ||
+		!strings.Contains(text, "for a gas facility the warmest T0, then the lowest p0") ||
+		!strings.Contains(text, "for a water tunnel the warmest water (lowest viscosity), then the lowest speed") {
+		t.Errorf("README does not state the operating rule")
+	}
+	vs, err := envelope.DemoVehicles()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for name, line := range want {
+		found := false
+		for _, v := range vs {
+			m := newDemo(t, 120, 40, func(o *Options) { o.Vehicle = v })
+			m.fac = facilityNamed(t, m, name)
+			// A larger model than the facilities' own, so that the water
+			// tunnel matches somewhere too.
+			m = edit(t, m, fieldScale, "0.2")
+			m, _ = press(m, "esc")
+			mp := m.res.maps[m.fac]
+			for p, r := range mp.Results {
+				i, j := p/m.res.grid.Cols(), p%m.res.grid.Cols()
+				m.curI, m.curJ = i, j
+				m.relayout()
+				panel := strings.Join(m.detailBlocks(m.sideW).facility, "\n")
+				if r.Class.Matched() {
+					found = true
+					if !strings.Contains(panel, line) {
+						t.Errorf("%s (%d,%d) %s: details lack %q:\n%s", name, i, j, r.Class, line, panel)
+					}
+				} else if strings.Contains(panel, "rule ") {
+					// Short of the target there is one best setting, no choice.
+					t.Errorf("%s (%d,%d) %s: details state the rule though no setting reaches the target", name, i, j, r.Class)
+				}
+			}
+		}
+		if !found {
+			t.Errorf("%s: no matched point in the demo", name)
+		}
 	}
 }

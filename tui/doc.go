@@ -49,16 +49,22 @@
 //
 // A header names the facility (or "best of all"), the layer, the unit
 // system and the vehicle, followed by every what-if value that differs
-// from the files. The matrix has altitude rows, highest on top, and speed
-// columns; each cell is a glyph and a slot that shows '*' for a marked test
-// point. The cursor cell is bracketed, drawn in reverse video, and its row
+// from its start, with where the start came from (a vehicle or facility
+// file, the demo, or a built-in default). The matrix has altitude rows, highest on top, and speed
+// columns; each cell is a glyph (with the facility letter in best-of-all
+// mode) and a gap; once any point is marked, every cell also has a place
+// right after its glyph that shows '*' for a marked test point, so a mark
+// reads as part of its own cell. The cursor cell is bracketed, drawn in reverse video, and its row
 // and column are marked on the axes ('>' and '^'). Points outside the
 // envelope are a faint '.'. When the grid is larger than the screen the
 // matrix scrolls under fixed axis labels. Point details sit beside the
 // matrix on wide screens (WideWidth columns and more) and below it on
 // narrow ones; the legend of the current layer follows, then one line of
-// key help (or a status message, the input line or the quit question).
-// Below MinWidth×MinHeight the screen says it is too small.
+// key help (or a status message, the input line or the quit question,
+// wrapped over as many lines as they need). Text is wrapped, never cut;
+// where a facility name must be shortened it keeps its first words beside
+// the facility's letter. Below MinWidth×MinHeight the screen says it is
+// too small.
 //
 // # Keys
 //

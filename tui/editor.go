@@ -233,7 +233,7 @@ func checkField(f field, v float64, fac *envelope.Facility) (float64, error) {
 type editorRow struct {
 	label   string
 	value   string // current value, display units
-	file    string // value from the files
+	origin  string // where the starting value comes from, and that value ("facility file 450.0 kPa", "built-in 0.0100")
 	changed bool
 	enabled bool
 	note    string // why disabled
@@ -298,7 +298,7 @@ func (e editor) View(rows []editorRow, title string) string {
 		}
 		b.WriteString(text)
 		if r.changed && r.enabled {
-			b.WriteString(e.st.Faint.Render("  (files " + r.file + ")"))
+			b.WriteString(e.st.Faint.Render("  (" + r.origin + ")"))
 		}
 	}
 	if e.err != "" {

@@ -68,3 +68,86 @@ func lineCount(s string) int {
 
 // visibleWidth is the display width of s without escape sequences.
 func visibleWidth(s string) int { return ansi.StringWidth(s) }
+
+// wrapText wraps s to lines of at most w cells (see wrapLines).
+func wrapText(s string, w int) string { return strings.Join(wrapLines(s, w, ""), "\n") }
+
+// wrapLines breaks s into lines of at most w cells at spaces, never inside
+// a word and never between a number and its unit ("105.0 K" stays whole);
+// continuation lines start with indent. A word wider than the line (a long
+// file path) is broken into pieces that fill the line, so no text is ever
+// lost. Styled words keep their escape sequences; widths are measured
+// without them.
+func wrapLines(s string, w int, indent string) []string {
+	if w <= 0 {
+		return nil
+	}
+	if !strings.Contains(s, "\n") && visibleWidth(s) <= w {
+		return []string{s} // fits: keep its spacing
+	}
+	if visibleWidth(indent) >= w {
+		indent = ""
+	}
+	var lines []string
+	cur, curW := "", 0
+	flush := func() {
+		lines = append(lines, cur)
+		cur, curW = indent, visibleWidth(indent)
+	}
+	for _, word := range glueUnits(strings.Fields(s)) {
+		ww := visibleWidth(word)
+		start := curW == 0 || cur == indent
+		if !start && curW+1+ww > w {
+			flush()
+			start = true
+		}
+		if !start {
+			cur += " "
+			curW++
+		}
+		for curW+ww > w {
+			// Too wide for a line of its own: fill this line and go on.
+			n := w - curW
+			cur += ansi.Cut(word, 0, n)
+			word = ansi.Cut(word, n, ww)
+			ww -= n
+			flush()
+		}
+		cur += word
+		curW += ww
+	}
+	if curW > 0 && cur != indent {
+		lines = append(lines, cur)
+	}
+	return lines
+}
+
+// unitWords are the unit names the screen writes after a number.
+var unitWords = map[string]bool{
+	"K": true, "°F": true, "Pa": true, "kPa": true, "MPa": true, "bar": true, "psi": true, "psf": true,
+	"m": true, "km": true, "ft": true, "m/s": true, "kt": true, "%": true, "kg/m³": true,
+	"slug/ft³": true, "/m": true, "/ft": true,
+}
+
+// glueUnits joins each unit word to the number before it, so that a line
+// break never separates them.
+func glueUnits(words []string) []string {
+	out := words[:0:0]
+	for _, w := range words {
+		if n := len(out); n > 0 && isUnitWord(w) && endsInDigit(out[n-1]) {
+			out[n-1] += " " + w
+			continue
+		}
+		out = append(out, w)
+	}
+	return out
+}
+
+func isUnitWord(w string) bool {
+	return unitWords[strings.TrimRight(ansi.Strip(w), ".,;:)")]
+}
+
+func endsInDigit(w string) bool {
+	p := ansi.Strip(w)
+	return p != "" && p[len(p)-1] >= '0' && p[len(p)-1] <= '9'
+}

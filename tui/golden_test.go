@@ -60,7 +60,7 @@ func goldenStates(t *testing.T) []struct {
 }
 
 func TestViewGolden(t *testing.T) {
-	for _, size := range []struct{ w, h int }{{80, 24}, {160, 48}} {
+	for _, size := range []struct{ w, h int }{{80, 24}, {120, 40}, {200, 60}} {
 		for _, s := range goldenStates(t) {
 			name := s.name
 			t.Run(sizeName(size.w, size.h)+"/"+name, func(t *testing.T) {

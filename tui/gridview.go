@@ -28,8 +28,11 @@ type GridView struct {
 
 	Layer Layer
 	Units Units
-	ReTol float64      // Reynolds tolerance, for the Reynolds-ratio layer
-	Marks map[int]bool // marked test points by grid index
+	// FullNames puts each facility's whole name beside its letter in the
+	// legend, instead of the first word of it.
+	FullNames bool
+	ReTol     float64      // Reynolds tolerance, for the Reynolds-ratio layer
+	Marks     map[int]bool // marked test points by grid index
 
 	// Cursor and scroll, as in MatrixInput; use -1 for no cursor.
 	CursorRow, CursorCol int
@@ -70,6 +73,22 @@ func ClassLevel(c envelope.Class) int {
 		return lvClassMachRelaxed
 	}
 	return lvClassNoMatch
+}
+
+// levelClass is the inverse of ClassLevel: the match class drawn at level
+// k of the class layer (false for the "no facility" level).
+func levelClass(k int) (envelope.Class, bool) {
+	switch k {
+	case lvClassFull:
+		return envelope.FullMatch, true
+	case lvClassReShort:
+		return envelope.ReShort, true
+	case lvClassMachRelaxed:
+		return envelope.MachRelaxed, true
+	case lvClassNoMatch:
+		return envelope.NoMatch, true
+	}
+	return envelope.Outside, false
 }
 
 // NoFacilityLevel is the class layer's level where no facility answers.
@@ -186,6 +205,7 @@ func (v GridView) Matrix() MatrixInput {
 		ScrollRow: v.ScrollRow,
 		ScrollCol: v.ScrollCol,
 		Tags:      v.Facility < 0 && v.Layer.NeedsFacility() && len(v.Facilities) > 0,
+		Marks:     anyMarked(v.Marks),
 	}
 	g := v.Grid
 	if g == nil {
@@ -206,9 +226,19 @@ func (v GridView) Matrix() MatrixInput {
 	return in
 }
 
+// anyMarked reports whether any point is marked.
+func anyMarked(marks map[int]bool) bool {
+	for _, on := range marks {
+		if on {
+			return true
+		}
+	}
+	return false
+}
+
 // Legend builds the legend input: the layer's glyphs and, in best-of-all
 // mode on a facility layer, each facility letter with the first word of
-// its name.
+// its name (its whole name with FullNames).
 func (v GridView) Legend() LegendInput {
 	in := LegendInput{Layer: v.Layer, ReTol: v.ReTol, NoFacility: true}
 	for _, m := range v.Maps {
@@ -222,7 +252,7 @@ func (v GridView) Legend() LegendInput {
 	}
 	for k, f := range v.Facilities {
 		word := f.Name
-		if w := strings.Fields(f.Name); len(w) > 0 {
+		if w := strings.Fields(f.Name); len(w) > 0 && !v.FullNames {
 			word = w[0]
 		}
 		in.Tags = append(in.Tags, fmt.Sprintf("%c %s", facilityTag(k), word))

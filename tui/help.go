@@ -55,54 +55,37 @@ func (v helpView) Short(b []key.Binding) string {
 	return clip(v.h.ShortHelpView(b), v.width, 1)
 }
 
-// Overlay renders the full help screen.
+// Overlay renders the full help screen. Where the screen is short, the
+// closing hint, the blank line, the heading and then the paragraphs other
+// than the caution are left out, in that order, so that the keys and the
+// caution are always shown whole.
 func (v helpView) Overlay() string {
 	w := min(v.width, helpTextWidth)
-	var b strings.Builder
-	b.WriteString(v.st.Section.Render("Keys"))
-	b.WriteString("\n")
-	b.WriteString(v.h.FullHelpView(v.keys.FullHelp()))
-	b.WriteString("\n\n")
-	para := func(title, text string) {
-		b.WriteString(wrapText(v.st.HelpKey.Render(title)+" "+text, w))
-		b.WriteString("\n")
+	para := func(title, text string) []string {
+		return wrapLines(v.st.HelpKey.Render(title)+" "+text, w, "")
 	}
-	para("Layers:", "match class, flow regime, Reynolds ratio (model/flight), "+
+	keys := strings.Split(v.h.FullHelpView(v.keys.FullHelp()), "\n")
+	layers := para("Layers:", "match class, flow regime, Reynolds ratio (model/flight), "+
 		"tunnel q as a share of its limit, flight Mach number. Glyphs differ per value; "+
 		"the legend under the matrix lists them.")
-	para("Classes:", ClassHelp)
-	para("What-if:", "values take units (3 bar, 45 psi, -150 degC, 10 K); scale 1/20, 1:20, 5%"+
+	classes := para("Classes:", ClassHelp)
+	whatIf := para("What-if:", "values take units (3 bar, 45 psi, -150 degC, 10 K); scale 1/20, 1:20, 5%"+
 		" or fit; q max none; R restores the files' values, U undoes.")
-	b.WriteString(wrapText(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w))
-	b.WriteString("\n")
-	b.WriteString(v.st.Faint.Render("? or esc closes this screen"))
-	return v.fit(b.String())
-}
-
-// wrapText wraps plain words to width w (styled words keep their escape
-// sequences; width is measured without them).
-func wrapText(s string, w int) string {
-	if w <= 0 {
-		return ""
-	}
-	words := strings.Fields(s)
-	var lines []string
-	cur, curW := "", 0
-	for _, word := range words {
-		ww := visibleWidth(word)
-		if curW > 0 && curW+1+ww > w {
-			lines = append(lines, cur)
-			cur, curW = "", 0
+	caution := wrapLines(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w, "")
+	heading := []string{v.st.Section.Render("Keys")}
+	blank := []string{""}
+	hint := []string{v.st.Faint.Render("? or esc closes this screen")}
+	for _, drop := range []*[]string{nil, &hint, &blank, &heading, &whatIf, &layers, &classes} {
+		if drop != nil {
+			*drop = nil
 		}
-		if curW > 0 {
-			cur += " "
-			curW++
+		var all []string
+		for _, part := range [][]string{heading, keys, blank, layers, classes, whatIf, caution, hint} {
+			all = append(all, part...)
 		}
-		cur += word
-		curW += ww
+		if len(all) <= v.height || drop == &classes {
+			return v.fit(strings.Join(all, "\n"))
+		}
 	}
-	if cur != "" {
-		lines = append(lines, cur)
-	}
-	return clip(strings.Join(lines, "\n"), w, len(lines))
+	return ""
 }

@@ -32,6 +32,11 @@ type MatrixInput struct {
 	Cell func(i, j int) Cell
 	// Tags makes every cell one character wider to hold Cell.Tag.
 	Tags bool
+	// Marks makes every cell one character wider to hold the test-point
+	// mark right after the glyph (and tag), so a mark is drawn inside its
+	// cell and a gap still separates it from the next cell. Cells with
+	// Marked set show MarkGlyph there; without Marks no mark is drawn.
+	Marks bool
 	// CursorRow and CursorCol are the grid indices of the cursor, or -1.
 	CursorRow, CursorCol int
 	// ScrollRow is the number of display rows hidden above the view
@@ -63,9 +68,12 @@ func geometry(in MatrixInput, width, height int) matrixGeom {
 		}
 	}
 	g.gutter++ // cursor marker
-	g.cw = 2
+	g.cw = 2   // glyph and gap
 	if in.Tags {
-		g.cw = 3
+		g.cw++
+	}
+	if in.Marks {
+		g.cw++
 	}
 	for _, s := range in.SpeedLabel {
 		if n := ansi.StringWidth(s); n > g.labelW {
@@ -223,21 +231,22 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 				line = append(line, t)
 				ids = append(ids, p)
 			}
-			slot := byte(' ')
-			if cell.Marked {
-				slot = MarkGlyph
-			}
-			if cur {
-				line[len(line)-g.cw] = '[' // previous cell's slot, or the axis
-				ids[len(ids)-g.cw] = plain
-				slot = ']'
-			}
-			line = append(line, slot)
-			if cell.Marked && !cur {
+			if in.Marks {
+				mark := byte(' ')
+				if cell.Marked {
+					mark = MarkGlyph
+				}
+				line = append(line, mark)
 				ids = append(ids, p)
-			} else {
-				ids = append(ids, plain)
 			}
+			gap := byte(' ')
+			if cur {
+				line[len(line)-g.cw] = '[' // previous cell's gap, or the axis
+				ids[len(ids)-g.cw] = plain
+				gap = ']'
+			}
+			line = append(line, gap)
+			ids = append(ids, plain)
 		}
 		if len(line) > avail {
 			line = line[:max(avail, 0)]
@@ -355,26 +364,36 @@ func RenderLegend(in LegendInput, st Styles, width int) string {
 	return wrapItems(l.String()+":", items, "  ", width)
 }
 
-// wrapItems joins items after a lead word, wrapping at width.
+// wrapItems joins items after a lead word, wrapping at width between
+// items; an item wider than a line is wrapped at its own spaces, so no item
+// is ever cut.
 func wrapItems(lead string, items []string, sep string, width int) string {
-	var b strings.Builder
+	if width <= 0 {
+		return ""
+	}
+	var lines []string
 	cur := lead
 	curW := ansi.StringWidth(lead)
+	sepW := ansi.StringWidth(sep)
 	for _, it := range items {
 		w := ansi.StringWidth(it)
-		if curW > 0 && curW+len(sep)+w > width {
-			b.WriteString(ansi.Truncate(cur, width, ""))
-			b.WriteByte('\n')
-			cur, curW = it, w
-			continue
+		if curW > 0 && curW+sepW+w > width {
+			lines = append(lines, cur)
+			cur, curW = "", 0
+		}
+		if w > width {
+			parts := wrapLines(it, width, "  ")
+			lines = append(lines, parts[:len(parts)-1]...)
+			it = parts[len(parts)-1]
+			w = ansi.StringWidth(it)
 		}
 		if curW > 0 {
 			cur += sep
-			curW += len(sep)
+			curW += sepW
 		}
 		cur += it
 		curW += w
 	}
-	b.WriteString(ansi.Truncate(cur, width, ""))
-	return b.String()
+	lines = append(lines, cur)
+	return strings.Join(lines, "\n")
 }

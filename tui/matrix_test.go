@@ -12,7 +12,7 @@ import (
 // columns Mach 0.1 steps; inside where j >= i.
 func testMatrix(rows, cols int) MatrixInput {
 	in := MatrixInput{Layer: LayerClass, Rows: rows, Cols: cols, AltTitle: "altitude m", SpeedTitle: "Mach",
-		CursorRow: -1, CursorCol: -1}
+		CursorRow: -1, CursorCol: -1, Marks: true}
 	for i := 0; i < rows; i++ {
 		in.AltLabels = append(in.AltLabels, fmt.Sprint(i*1000))
 	}
@@ -31,15 +31,16 @@ func TestRenderMatrixLayout(t *testing.T) {
 	got := trimLines(RenderMatrix(in, PlainStyles(), 40, 10))
 	want := strings.Join([]string{
 		"altitude m",
-		"3000 |. . . ~ x #",
-		"2000>|. . # =[~]x",
-		"1000 |. ~ x #*= ~",
-		"   0 |# = ~ x # =",
-		"     +--------^---",
-		"Mach  0.10  0.40",
+		"3000 |.  .  .  ~  x  #",
+		"2000>|.  .  #  = [~ ]x",
+		"1000 |.  ~  x  #* =  ~",
+		"   0 |#  =  ~  x  #  =",
+		"     +------------^-----",
+		"Mach  0.10  0.30  0.50",
 	}, "\n")
-	// The highest altitude is on top; '.' outside; '*' marks; the cursor
-	// is bracketed with its row and column marked on the axes.
+	// The highest altitude is on top; '.' outside; '*' marks a test point
+	// right after its glyph, inside its cell; the cursor is bracketed with
+	// its row and column marked on the axes.
 	if got != want {
 		t.Errorf("RenderMatrix =\n%s\nwant\n%s", got, want)
 	}
@@ -259,4 +260,78 @@ func trimLines(s string) string {
 		lines[k] = strings.TrimRight(l, " ")
 	}
 	return strings.Join(lines, "\n")
+}
+
+// TestMarkDrawnInItsCell: a test-point mark sits right after its own
+// cell's glyph and is followed by the gap before the next cell, so it can
+// be read as belonging to one cell only; unmarked cells leave the place
+// blank. Checked with and without facility letters and with the cursor on
+// a marked cell.
+func TestMarkDrawnInItsCell(t *testing.T) {
+	for _, tags := range []bool{false, true} {
+		in := testMatrix(4, 6)
+		in.Tags = tags
+		marked := map[[2]int]bool{{1, 3}: true, {1, 4}: true, {3, 5}: true, {0, 0}: true}
+		in.Cell = func(i, j int) Cell {
+			return Cell{Inside: j >= i, Level: (i + j) % 4, Marked: marked[[2]int{i, j}], Tag: 'c'}
+		}
+		in.CursorRow, in.CursorCol = 1, 4
+		w, h := MatrixSize(in)
+		lines := strings.Split(RenderMatrix(in, PlainStyles(), w, h), "\n")
+		cw := 3
+		if tags {
+			cw = 4
+		}
+		for i := 0; i < in.Rows; i++ {
+			line := lines[1+in.Rows-1-i]
+			bar := strings.IndexByte(line, '|')
+			for j := 0; j < in.Cols; j++ {
+				cell := line[bar+1+j*cw : bar+1+(j+1)*cw]
+				mark := cell[cw-2]
+				gap := cell[cw-1]
+				if want := byte(' '); marked[[2]int{i, j}] {
+					want = MarkGlyph
+					if mark != want {
+						t.Errorf("tags %v: marked cell (%d,%d) drawn %q, want %q after its glyph", tags, i, j, cell, want)
+					}
+				} else if mark != want {
+					t.Errorf("tags %v: unmarked cell (%d,%d) drawn %q", tags, i, j, cell)
+				}
+				if gap != ' ' && gap != ']' && gap != '[' {
+					t.Errorf("tags %v: cell (%d,%d) %q has no gap after it", tags, i, j, cell)
+				}
+			}
+		}
+		if !strings.Contains(lines[1+in.Rows-2], "*]") {
+			t.Errorf("tags %v: marked cursor cell does not read [glyph*]:\n%s", tags, strings.Join(lines, "\n"))
+		}
+	}
+}
+
+// TestShownMarkIsNoLayerGlyph: the facility list marks the facility on
+// show with a sign that no layer uses for a cell, so it cannot be read as a
+// match class (it used to be '=', the Reynolds-short glyph).
+func TestShownMarkIsNoLayerGlyph(t *testing.T) {
+	for _, l := range Layers() {
+		for _, e := range Legend(l, 0.1, true) {
+			if string(e.Glyph) == ShownMark {
+				t.Errorf("shown mark %q is the %s glyph for %q", ShownMark, l, e.Label)
+			}
+		}
+	}
+	m := newDemo(t, 80, 24)
+	m.fac = facilityNamed(t, m, "Kellen Fold")
+	m, _ = press(m, "f")
+	var row string
+	for _, l := range strings.Split(m.View(), "\n") {
+		if strings.Contains(l, "Kellen Fold") && strings.Contains(l, "%") {
+			row = l
+		}
+	}
+	if !strings.HasPrefix(row, ">"+ShownMark+" d Kellen Fold") {
+		t.Errorf("facility list row of the shown facility %q, want it to start with %q", row, ">"+ShownMark+" d")
+	}
+	if strings.Contains(m.View(), "(= shown)") {
+		t.Errorf("facility list still explains '=' as the shown mark")
+	}
 }

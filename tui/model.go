@@ -25,7 +25,7 @@ const (
 	// rather than below it.
 	WideWidth = 110
 
-	minMatrixHeight = matrixOverhead + 6
+	minMatrixHeight = matrixOverhead + minMatrixRows
 )
 
 // Options configures New.
@@ -108,6 +108,7 @@ type Model struct {
 	facs     []envelope.Facility // with what-if limits
 	fileSet  envelope.Settings
 	set      envelope.Settings
+	setGiven bool // fileSet came from Options.Settings, not the built-in defaults
 	res      results
 	gen      int  // generation of the latest recompute request
 	busy     bool // a recompute is running
@@ -137,6 +138,7 @@ type Model struct {
 	headerH  int
 	bodyH    int
 	legendH  int
+	footerH  int
 	sideW    int
 	lowerH   int
 
@@ -206,6 +208,7 @@ func New(opts Options) Model {
 	}
 	if opts.Settings != nil {
 		m.fileSet = *opts.Settings
+		m.setGiven = true
 	} else {
 		m.fileSet = envelope.DefaultSettings(opts.Vehicle)
 	}

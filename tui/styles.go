@@ -6,6 +6,8 @@ import (
 
 	"github.com/charmbracelet/lipgloss"
 	"github.com/muesli/termenv"
+
+	"likewind/envelope"
 )
 
 // Styles holds every lipgloss style the interface uses. It is built once,
@@ -66,19 +68,14 @@ func paintOf(st lipgloss.Style) paint {
 	return paint{pre: out[:i], post: out[i+len(probe):]}
 }
 
-// Palette. These colours are chosen for this program: a categorical set
-// for match classes and regimes, and one sequential ramp (cool to warm) for
-// graded layers. They read on dark and light backgrounds alike, so no
-// background detection is needed.
+// Palette. These colours are chosen for this program: the match classes
+// take the one class palette of envelope (Class.Colour), shared with the
+// dumps and the pictures; the regimes a categorical set, and the graded
+// layers one sequential ramp (cool to warm). They read on dark and light
+// backgrounds alike, so no background detection is needed.
 var (
-	colClass = []string{
-		"#6E6E6E", // outside (not used for cells; outside has its own style)
-		"#3E9E5A", // full match
-		"#D19A1E", // Reynolds short
-		"#4F86C9", // Mach relaxed
-		"#C24A3A", // out of reach
-	}
-	colRegime = []string{
+	colNoFacility = "#8C8C8C" // class layer where no facility answers
+	colRegime     = []string{
 		"#8AB0CF", // incompressible
 		"#4F86C9", // subsonic
 		"#C9A23A", // transonic
@@ -92,7 +89,7 @@ var (
 		"#4A3E8C", "#3B69AE", "#2E93A3", "#44A86B", "#98BD3E",
 		"#DDBF3D", "#E3873A", "#CF4838", "#A93060",
 	}
-	colOutside = "#5C5C5C"
+	colOutside = envelope.Outside.Colour()
 	colAccent  = "#4F86C9"
 	colWarn    = "#D19A1E"
 	colDanger  = "#C24A3A"
@@ -166,8 +163,11 @@ func buildStyles(r *lipgloss.Renderer, color bool) Styles {
 func levelColour(l Layer, k int) string {
 	switch l {
 	case LayerClass:
-		if k < len(colClass) {
-			return colClass[k]
+		if c, ok := levelClass(k); ok {
+			return c.Colour()
+		}
+		if k == lvClassNoFacility {
+			return colNoFacility
 		}
 	case LayerRegime:
 		if k < len(colRegime) {

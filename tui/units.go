@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"likewind/atmos"
+	"likewind/envelope"
 )
 
 // Units is the display unit system. Values are SI inside; conversion
@@ -232,3 +233,7 @@ func machLabel(m float64) string {
 	}
 	return fixed(m, 2)
 }
+
+// Units writes the quantities of the facility cautions too, so cautions
+// read in the units the rest of the panel shows.
+var _ envelope.QuantityFormat = Units(0)

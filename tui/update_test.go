@@ -569,3 +569,46 @@ func TestStartsOnBestCoveredFacility(t *testing.T) {
 		t.Errorf("StartFacility(nil) = %d, want -1", StartFacility(nil))
 	}
 }
+
+// TestWhatIfOriginNamed: the editor and the header say where each starting
+// value comes from: the built-in defaults for the tolerances and the scale
+// override, the vehicle for ΔT, the facility for its limits; never "files"
+// for a built-in default.
+func TestWhatIfOriginNamed(t *testing.T) {
+	m := newDemo(t, 120, 40)
+	m.fac = facilityNamed(t, m, "Kellen Fold")
+	m = edit(t, m, fieldMachTol, "0.02")
+	m = edit(t, m, fieldDeltaT, "5 K")
+	m = edit(t, m, fieldP0Max, "3 bar")
+	rows := m.editorRows()
+	want := map[field]string{
+		fieldMachTol: "built-in 0.0100",
+		fieldDeltaT:  "demo vehicle +0.0 K",
+		fieldP0Max:   "demo facility 450.0 kPa",
+	}
+	for f, w := range want {
+		if rows[f].origin != w {
+			t.Errorf("%s: origin %q, want %q", f.label(false), rows[f].origin, w)
+		}
+	}
+	screen := m.View()
+	head := m.headerText()
+	for _, w := range want {
+		if !strings.Contains(head, "("+w+")") {
+			t.Errorf("header lacks %q:\n%s", "("+w+")", head)
+		}
+	}
+	if strings.Contains(screen, "(files") {
+		t.Errorf("screen still says \"(files …)\":\n%s", screen)
+	}
+	// Loaded from files, the vehicle and the facility are named as files.
+	v := *m.vehicle
+	v.Source = "corvane.toml"
+	m.vehicle = &v
+	m.fileFacs = append([]envelope.Facility(nil), m.fileFacs...)
+	m.fileFacs[m.fac].Source = "facilities.toml"
+	rows = m.editorRows()
+	if rows[fieldDeltaT].origin != "vehicle file +0.0 K" || rows[fieldP0Max].origin != "facility file 450.0 kPa" {
+		t.Errorf("origins from files: %q, %q", rows[fieldDeltaT].origin, rows[fieldP0Max].origin)
+	}
+}

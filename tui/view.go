@@ -5,6 +5,7 @@ import (
 	"strings"
 
 	"github.com/charmbracelet/bubbles/key"
+	"github.com/charmbracelet/x/ansi"
 
 	"likewind/envelope"
 )
@@ -37,33 +38,48 @@ type picker struct {
 	sel int
 }
 
+// ShownMark marks, in the facility list, the facility the matrix shows.
+// It is no glyph of any layer, so it cannot be read as a match class.
+const ShownMark = "✓"
+
 func (p picker) View(rows []pickerRow, current int) string {
 	var b strings.Builder
-	b.WriteString(p.st.Section.Render("FACILITIES") + " " + p.st.Faint.Render("(= shown)  full match, matched share of envelope"))
+	b.WriteString(wrapText(p.st.Section.Render("FACILITIES")+" "+
+		p.st.Faint.Render("("+ShownMark+" shown)  full match, matched share of envelope"), p.width))
 	for k, r := range rows {
-		b.WriteString("\n")
 		pointer, cur := " ", " "
 		if k == p.sel {
 			pointer = ">"
 		}
 		if k == current {
-			cur = "="
+			cur = ShownMark
 		}
 		share := fmt.Sprintf("%3.0f%% %3.0f%%", 100*r.full, 100*r.matched)
 		if r.err != "" {
 			share = "  not solved"
 		}
+		// The name wraps under itself where it is too long for the row.
 		nameW := max(p.width-visibleWidth(share)-5, 8)
-		text := pointer + cur + " " + padRight(r.name, nameW) + " " + share
-		if k == p.sel {
-			text = p.st.Selected.Render(text)
+		name := wrapLines(r.name, nameW, "  ")
+		for n, l := range name {
+			text := "    " + l
+			if n == 0 {
+				text = pointer + cur + " " + padRight(l, nameW) + " " + share
+			}
+			if k == p.sel {
+				text = p.st.Selected.Render(text)
+			}
+			b.WriteString("\n" + text)
 		}
-		b.WriteString(text)
 		if r.info != "" && k == p.sel {
-			b.WriteString("\n    " + p.st.Faint.Render(r.info))
+			for _, l := range wrapLines(r.info, p.width-4, "") {
+				b.WriteString("\n    " + p.st.Faint.Render(l))
+			}
 		}
 		if r.err != "" && k == p.sel {
-			b.WriteString("\n    " + p.st.Error.Render(r.err))
+			for _, l := range wrapLines(r.err, p.width-4, "") {
+				b.WriteString("\n    " + p.st.Error.Render(l))
+			}
 		}
 	}
 	return p.fit(b.String())
@@ -77,40 +93,59 @@ type detailsView struct{ frame }
 type detailBlocks struct {
 	flight   []string
 	facility []string
+	// cautions are the full caution texts; flags names the same cautions
+	// in a few words, for panels without room for the full texts.
 	cautions []string
+	flags    string
 	summary  string // one line for cramped screens
 }
 
-// View lays the blocks out: side by side when the frame is wide enough
-// for two columns and short, stacked otherwise.
+// View lays the blocks out: one above the other (stacked, the wide
+// layout) or side by side (below the matrix).
 func (v detailsView) View(d detailBlocks, stacked bool) string {
 	if v.width <= 0 || v.height <= 0 {
 		return ""
 	}
 	if v.height < 4 {
-		return v.fit(d.summary)
+		return v.fit(wrapText(d.summary, v.width))
 	}
-	var b strings.Builder
-	if stacked {
-		b.WriteString(strings.Join(d.flight, "\n"))
-		b.WriteString("\n\n")
-		b.WriteString(strings.Join(d.facility, "\n"))
-		for _, c := range d.cautions {
-			b.WriteString("\n")
-			b.WriteString(wrapText(c, v.width))
+	return v.fit(strings.Join(detailLines(d, v.width, v.height, stacked), "\n"))
+}
+
+// detailLines is the details panel as lines of at most w cells. Lines too
+// long for their column are wrapped, never cut. When the full caution texts
+// would not fit in h lines (h ≤ 0: no limit), the cautions are named by
+// their short flags instead.
+func detailLines(d detailBlocks, w, h int, stacked bool) []string {
+	wrapAll := func(ls []string, w int) []string {
+		var out []string
+		for _, l := range ls {
+			out = append(out, wrapLines(l, w, "  ")...)
 		}
-		return v.fit(b.String())
+		return out
 	}
-	half := (v.width - 1) / 2
-	rows := max(len(d.flight), len(d.facility))
-	left := box(strings.Join(d.flight, "\n"), half, rows)
-	right := box(strings.Join(d.facility, "\n"), v.width-half-1, rows)
-	b.WriteString(joinColumns(left, right, " "))
-	for _, c := range d.cautions {
-		b.WriteString("\n")
-		b.WriteString(wrapText(c, v.width))
+	var body []string
+	if stacked {
+		body = wrapAll(d.flight, w)
+		if len(d.facility) > 0 {
+			body = append(body, "")
+			body = append(body, wrapAll(d.facility, w)...)
+		}
+	} else {
+		half := (w - 1) / 2
+		left, right := wrapAll(d.flight, half), wrapAll(d.facility, w-half-1)
+		rows := max(len(left), len(right))
+		body = strings.Split(joinColumns(box(strings.Join(left, "\n"), half, rows),
+			box(strings.Join(right, "\n"), w-half-1, rows), " "), "\n")
 	}
-	return v.fit(b.String())
+	full := wrapAll(d.cautions, w)
+	if !stacked || h > 0 && len(body)+len(full) > h {
+		full = nil
+		if d.flags != "" {
+			full = wrapLines(d.flags, w, "  ")
+		}
+	}
+	return append(body, full...)
 }
 
 // joinColumns joins two boxed blocks of equal height line by line.
@@ -133,6 +168,16 @@ func joinColumns(a, b, gap string) string {
 	return out.String()
 }
 
+// Layout limits.
+const (
+	// minMatrixRows is the fewest altitude rows the matrix keeps below
+	// the details panel when space is short.
+	minMatrixRows = 3
+	// maxSideWidth caps the side panel of the wide layout for reading.
+	maxSideWidth = 100
+	minSideWidth = 42
+)
+
 // relayout sizes every component for the current terminal and state. It
 // runs at the end of every Update, so View only draws.
 func (m *Model) relayout() {
@@ -144,18 +189,19 @@ func (m *Model) relayout() {
 		return
 	}
 	m.headerH = lineCount(m.headerText())
+	m.footerH = max(lineCount(m.footer()), 1)
 	m.legend.SetSize(W, H)
 	m.legendH = lineCount(m.legend.View(m.legendInput()))
-	m.bodyH = max(H-m.headerH-m.legendH-1, 1)
+	m.bodyH = max(H-m.headerH-m.legendH-m.footerH, 1)
 	m.wide = W >= WideWidth
 	if m.mode == modeHelp {
-		m.help.SetSize(W, H-m.headerH-1)
+		m.help.SetSize(W, H-m.headerH-m.footerH)
 		return
 	}
 	if m.wide {
 		need, _ := MatrixSize(m.matrixInput())
-		m.sideW = min(max(W-need-1, 42), 60)
-		matW := W - m.sideW - 1
+		m.sideW = min(max(W-need-len(sideGap), minSideWidth), maxSideWidth)
+		matW := W - m.sideW - len(sideGap)
 		m.matrix.SetSize(matW, m.bodyH)
 		m.details.SetSize(m.sideW, m.bodyH)
 		m.picker.SetSize(m.sideW, m.bodyH)
@@ -175,23 +221,27 @@ func (m *Model) relayout() {
 	m.scrollR, m.scrollC = FitScroll(in, m.matrix.width, m.matrix.height)
 }
 
+// sideGap separates the matrix from the side panel in the wide layout.
+const sideGap = "  "
+
 // lowerPreferred is the height the panel below the matrix wants in the
 // narrow layout.
 func (m *Model) lowerPreferred(w int) int {
 	switch m.mode {
 	case modePicker:
-		return len(m.facs) + 4
+		p := m.picker
+		p.SetSize(w, 1<<20)
+		return lineCount(p.View(m.pickerRows(), m.fac+1)) + 1
 	case modeEdit:
 		n := int(fieldCount) + 1
 		if m.editor.err != "" {
-			n += 1 + visibleWidth(m.editor.err)/max(w, 1)
+			n += len(wrapLines(m.editor.err, w, ""))
 		}
 		return n
 	case modeSaveAs:
 		return lineCount(m.saveAsPanel(w))
 	}
-	d := m.detailBlocks(w)
-	return max(len(d.flight), len(d.facility)) + len(d.cautions)
+	return len(detailLines(m.detailBlocks(w), w, 0, false))
 }
 
 // View implements tea.Model. It draws from the state only.
@@ -206,7 +256,7 @@ func (m Model) View() string {
 	parts := make([]string, 0, 6)
 	parts = append(parts, m.headerText())
 	if m.mode == modeHelp {
-		parts = append(parts, box(m.help.Overlay(), W, H-m.headerH-1))
+		parts = append(parts, box(m.help.Overlay(), W, H-m.headerH-m.footerH))
 		parts = append(parts, m.footer())
 		return clip(strings.Join(parts, "\n"), W, H)
 	}
@@ -245,7 +295,7 @@ func (m Model) bodyView() string {
 		}
 	}
 	if m.wide {
-		return joinColumns(mat, box(panel, m.sideW, m.bodyH), " ")
+		return joinColumns(mat, box(panel, m.sideW, m.bodyH), sideGap)
 	}
 	if m.lowerH <= 0 {
 		return mat
@@ -253,14 +303,15 @@ func (m Model) bodyView() string {
 	return mat + "\n" + box(panel, m.fr.width, m.lowerH)
 }
 
-// headerText is the title line and, when what-if values differ from the
-// files, up to three lines listing them.
+// headerText is the title, wrapped between its parts where the screen is
+// narrow, and, when what-if values differ from the files, up to three lines
+// listing them.
 func (m Model) headerText() string {
 	W := m.fr.width
 	st := m.fr.st
 	fac := "best of all"
 	if m.fac >= 0 && m.fac < len(m.facs) {
-		fac = fmt.Sprintf("%s (%d/%d)", m.facs[m.fac].Name, m.fac+1, len(m.facs))
+		fac = fmt.Sprintf("%c %s (%d/%d)", facilityTag(m.fac), m.facs[m.fac].Name, m.fac+1, len(m.facs))
 	} else if len(m.facs) == 0 {
 		fac = "no facilities"
 	}
@@ -268,75 +319,141 @@ func (m Model) headerText() string {
 	if m.vehicle != nil {
 		veh = m.vehicle.Name
 	}
-	sep := st.Faint.Render(" | ")
-	title := st.Title.Render("likewind")
+	parts := []string{st.Title.Render("likewind")}
 	if m.readOnly { // first, so that a narrow screen still shows it
-		title += sep + st.Error.Render("read-only session")
+		parts = append(parts, st.Error.Render("read-only session"))
 	}
-	title += sep + fac + sep + m.layer.String() + sep + m.units.String()
+	parts = append(parts, fac, m.layer.String(), m.units.String())
 	if m.busy {
-		title += sep + st.Changed.Render("computing")
+		parts = append(parts, st.Changed.Render("computing"))
 	}
-	title += sep + st.Faint.Render(veh)
-	lines := []string{clip(title, W, 1)}
-	ch := m.changes()
-	if len(ch) > 0 {
-		var items []string
-		for _, c := range ch {
-			items = append(items, st.Changed.Render(c.label+" "+c.now)+st.Faint.Render(" (files "+c.file+")"))
-		}
-		w := wrapItems(st.Changed.Render("what-if:"), items, "  ", W)
-		wl := strings.Split(w, "\n")
-		if len(wl) > 3 {
-			wl = append(wl[:2], st.Faint.Render(fmt.Sprintf("… %d values changed in all (e lists them)", len(ch))))
-		}
-		lines = append(lines, wl...)
+	parts = append(parts, st.Faint.Render(veh))
+	lines := []string{wrapItems(parts[0], parts[1:], st.Faint.Render(" | "), W)}
+	if ch := m.changes(); len(ch) > 0 {
+		lines = append(lines, m.changeLines(ch, W)...)
 	}
 	return strings.Join(lines, "\n")
 }
 
-// statusLine is the message line above the key help.
-func (m Model) statusLine() string {
+// maxChangeLines is how many header lines the what-if list may take.
+const maxChangeLines = 3
+
+// changeLines lists the what-if changes in at most maxChangeLines lines:
+// with full facility names where they fit, else with each facility's
+// letter and the first words of its name, else a count that points to the
+// editor.
+func (m Model) changeLines(ch []change, W int) []string {
 	st := m.fr.st
-	if m.status == "" {
-		return ""
+	var best []string
+	for _, short := range []bool{true, false} {
+		var items []string
+		for _, c := range ch {
+			label := c.label
+			if c.fac >= 0 {
+				name := m.facs[c.fac].Name
+				if short {
+					name = shortName(name)
+				}
+				label = fmt.Sprintf("%c %s %s", facilityTag(c.fac), name, c.label)
+			}
+			items = append(items, st.Changed.Render(label+" "+c.now)+st.Faint.Render(" ("+c.origin+")"))
+		}
+		// Full names where they take no more lines than short ones.
+		wl := strings.Split(wrapItems(st.Changed.Render("what-if:"), items, "  ", W), "\n")
+		if best == nil || len(wl) <= len(best) {
+			best = wl
+		}
 	}
-	if m.statusErr {
-		return clip(st.Error.Render(m.status), m.fr.width, 1)
+	if len(best) <= maxChangeLines {
+		return best
 	}
-	return clip(st.Status.Render(m.status), m.fr.width, 1)
+	return strings.Split(wrapText(st.Changed.Render("what-if:")+" "+
+		st.Faint.Render(fmt.Sprintf("%d values differ from the files and defaults (e lists them)", len(ch))), W), "\n")
 }
 
-// footer is the last line: the quit question, the input line, a status
-// message, or the key help.
+// footer is the bottom of the screen: a status message, the quit
+// question or the input line, wrapped whole at word boundaries, or one
+// line of key help.
 func (m Model) footer() string {
 	k := m.fr.keys
+	st := m.fr.st
+	W := m.fr.width
 	if m.status != "" && m.mode != modeConfirm && m.mode != modeSaveAs && !(m.mode == modeEdit && m.editor.editing) {
-		return m.statusLine()
+		style := st.Status
+		if m.statusErr {
+			style = st.Error
+		}
+		var out []string
+		for _, l := range wrapLines(m.status, W, "  ") {
+			out = append(out, style.Render(l))
+		}
+		return strings.Join(out, "\n")
 	}
 	switch m.mode {
 	case modeConfirm:
-		q := "Unsaved what-if changes or marks. "
+		q := "Unsaved what-if changes or marks."
 		switch {
 		case m.store == nil:
-			q = "Unsaved changes; no session file. "
+			q = "Unsaved changes; no session file."
 		case m.readOnly:
-			q = "Unsaved changes; the session file is read-only here. "
+			q = "Unsaved changes; the session file is read-only here."
 		}
-		return clip(m.fr.st.Changed.Render(q)+m.help.Short(confirmKeys{k: k, canSave: m.store != nil, readOnly: m.readOnly}.ShortHelp()), m.fr.width, 1)
+		return wrapItems(st.Changed.Render(q), keyItems(st, confirmKeys{k: k, canSave: m.store != nil, readOnly: m.readOnly}.ShortHelp()), "  ", W)
 	case modeSaveAs:
-		return m.saveAs.input.view(m.fr.st, m.fr.width)
+		return m.saveAs.input.view(st, W)
 	case modeHelp:
-		return m.help.Short([]key.Binding{k.Help, k.Back, k.Quit})
+		return keyLine(st, []key.Binding{k.Help, k.Back, k.Quit}, W)
 	case modePicker:
-		return m.help.Short([]key.Binding{k.Prev, k.Next, k.Select, k.Back})
+		return keyLine(st, []key.Binding{k.Prev, k.Next, k.Select, k.Back}, W)
 	case modeEdit:
 		if m.editor.editing {
 			return m.editor.Line()
 		}
-		return m.help.Short(listKeys{k: k}.ShortHelp())
+		return keyLine(st, listKeys{k: k}.ShortHelp(), W)
 	}
-	return m.help.Short(k.ShortHelp())
+	return keyLine(st, k.ShortHelp(), W)
+}
+
+// keyItems renders bindings as "key description" items.
+func keyItems(st *Styles, bs []key.Binding) []string {
+	var out []string
+	for _, b := range bs {
+		if !b.Enabled() {
+			continue
+		}
+		h := b.Help()
+		out = append(out, st.HelpKey.Render(h.Key)+" "+st.HelpDesc.Render(h.Desc))
+	}
+	return out
+}
+
+// keyLine is one line of key help within w cells. Keys are shown whole:
+// when not all fit, the last binding (quit or back) is kept, the ones
+// before it are dropped from the end, and "…" says so (the help screen
+// lists every key).
+func keyLine(st *Styles, bs []key.Binding, w int) string {
+	items := keyItems(st, bs)
+	const sep = "  "
+	width := func(it []string) int {
+		n := 0
+		for k, s := range it {
+			if k > 0 {
+				n += len(sep)
+			}
+			n += visibleWidth(s)
+		}
+		return n
+	}
+	if width(items) <= w || len(items) < 2 {
+		return clip(strings.Join(items, sep), w, 1)
+	}
+	last := items[len(items)-1]
+	more := st.HelpSep.Render("…")
+	keep := items[:len(items)-1]
+	for len(keep) > 0 && width(append(append([]string(nil), keep...), more, last)) > w {
+		keep = keep[:len(keep)-1]
+	}
+	return clip(strings.Join(append(append(keep[:len(keep):len(keep)], more), last), sep), w, 1)
 }
 
 // gridView is the model's current way of looking at the results.
@@ -360,29 +477,47 @@ func (m Model) gridView() GridView {
 }
 
 // legendInput describes the legend of the current view.
-func (m Model) legendInput() LegendInput { return m.gridView().Legend() }
+//
+// Where the screen has room (the wide layout, 40 lines or more), facility
+// letters are explained with whole names.
+func (m Model) legendInput() LegendInput {
+	v := m.gridView()
+	v.FullNames = m.fr.width >= WideWidth && m.fr.height >= 40
+	return v.Legend()
+}
 
-// shortName cuts a long facility name to its first words.
-func shortName(s string) string {
-	const maxLen = 22
-	if visibleWidth(s) <= maxLen {
+// shortName shortens a long facility name to its first words, for places
+// where it stands beside the facility's letter, which names it uniquely.
+func shortName(s string) string { return fitWords(s, 22) }
+
+// fitWords shortens s to at most n cells by keeping its first whole words
+// and adding "…"; s is returned as it is when it fits.
+func fitWords(s string, n int) string {
+	if visibleWidth(s) <= n {
 		return s
 	}
-	words := strings.Fields(s)
 	out := ""
-	for _, w := range words {
-		if visibleWidth(out)+len(w)+1 > maxLen-1 {
+	for _, w := range strings.Fields(s) {
+		next := w
+		if out != "" {
+			next = out + " " + w
+		}
+		if visibleWidth(next) > n-1 {
 			break
 		}
-		if out != "" {
-			out += " "
-		}
-		out += w
+		out = next
 	}
 	if out == "" {
-		out = string([]rune(s)[:maxLen-1])
+		return ansi.Truncate(s, max(n, 1), "…")
 	}
 	return out + "…"
+}
+
+// facilityLabel is facility k's letter and name within n cells: the whole
+// name where it fits, else its first words (the letter still names it).
+func (m Model) facilityLabel(k, n int) string {
+	tag := string(facilityTag(k)) + " "
+	return tag + fitWords(m.facs[k].Name, max(n-len(tag), 8))
 }
 
 // matrixInput describes the matrix for the renderer.
@@ -435,51 +570,88 @@ func bestShare(r results, c envelope.Class) float64 {
 	return float64(n) / float64(inside)
 }
 
-// change is one what-if value that differs from the files.
-type change struct{ label, now, file string }
+// change is one what-if value that differs from the files: its label, the
+// value now, and where the starting value came from with that value
+// ("vehicle file +0.0 K", "built-in 0.0100"). fac is the facility of a
+// facility limit, -1 for the others.
+type change struct {
+	label, now, origin string
+	fac                int
+}
 
-// changes lists every what-if value that differs from the files.
+// changes lists every what-if value that differs from the files, each
+// with where its starting value came from.
 func (m Model) changes() []change {
 	u := m.units
 	var out []change
 	s, f := m.set, m.fileSet
+	add := func(label, now, origin string, fac int) {
+		out = append(out, change{label: label, now: now, origin: origin, fac: fac})
+	}
+	tol := m.settingsOrigin()
 	if s.Scale != f.Scale {
-		out = append(out, change{"model scale", scaleText(s.Scale), scaleText(f.Scale)})
+		add("model scale", scaleText(s.Scale), tol+" "+scaleText(f.Scale), -1)
 	}
 	if s.DeltaT != f.DeltaT {
-		out = append(out, change{"ΔT", u.DeltaT(s.DeltaT), u.DeltaT(f.DeltaT)})
+		add("ΔT", u.DeltaT(s.DeltaT), m.vehicleOrigin()+" "+u.DeltaT(f.DeltaT), -1)
 	}
 	if s.MachTol != f.MachTol {
-		out = append(out, change{"Mach tol", sig(s.MachTol, 3), sig(f.MachTol, 3)})
+		add("Mach tol", sig(s.MachTol, 3), tol+" "+sig(f.MachTol, 3), -1)
 	}
 	if s.ReTol != f.ReTol {
-		out = append(out, change{"Re tol", sig(s.ReTol*100, 3) + " %", sig(f.ReTol*100, 3) + " %"})
+		add("Re tol", sig(s.ReTol*100, 3)+" %", tol+" "+sig(f.ReTol*100, 3)+" %", -1)
 	}
 	if s.CompressibilityMach != f.CompressibilityMach || s.Regimes != f.Regimes {
-		out = append(out, change{"compressibility M", sig(s.CompressibilityMach, 3), sig(f.CompressibilityMach, 3)})
+		add("compressibility M", sig(s.CompressibilityMach, 3), tol+" "+sig(f.CompressibilityMach, 3), -1)
 	}
 	for k := range m.facs {
 		if k >= len(m.fileFacs) {
 			break
 		}
 		now, file := m.facs[k], m.fileFacs[k]
-		name := shortName(now.Name) + " "
 		water := !now.Medium.IsGas()
 		pfmt := u.Stagnation
 		if water {
 			pfmt = u.Pressure
 		}
+		src := facilityOrigin(file) + " "
 		if now.P0Max != file.P0Max {
-			out = append(out, change{name + fieldP0Max.label(water), pfmt(now.P0Max), pfmt(file.P0Max)})
+			add(fieldP0Max.label(water), pfmt(now.P0Max), src+pfmt(file.P0Max), k)
 		}
 		if now.T0Min != file.T0Min {
-			out = append(out, change{name + fieldT0Min.label(water), u.Temp(now.T0Min), u.Temp(file.T0Min)})
+			add(fieldT0Min.label(water), u.Temp(now.T0Min), src+u.Temp(file.T0Min), k)
 		}
 		if now.QMax != file.QMax {
-			out = append(out, change{name + fieldQMax.label(water), qText(u, now.QMax), qText(u, file.QMax)})
+			add(fieldQMax.label(water), qText(u, now.QMax), src+qText(u, file.QMax), k)
 		}
 	}
 	return out
+}
+
+// settingsOrigin says where the starting scale override and tolerances
+// come from: the built-in defaults, unless the caller gave them.
+func (m Model) settingsOrigin() string {
+	if m.setGiven {
+		return "given"
+	}
+	return "built-in"
+}
+
+// vehicleOrigin says where the vehicle's values (its design-day ΔT) come
+// from.
+func (m Model) vehicleOrigin() string {
+	if m.vehicle != nil && m.vehicle.Source == "" {
+		return "demo vehicle"
+	}
+	return "vehicle file"
+}
+
+// facilityOrigin says where a facility's limits come from.
+func facilityOrigin(f envelope.Facility) string {
+	if f.Source == "" {
+		return "demo facility"
+	}
+	return "facility file"
 }
 
 func scaleText(s float64) string {
@@ -496,10 +668,12 @@ func qText(u Units, q float64) string {
 	return "none"
 }
 
-// editorTitle names what the facility fields apply to.
+// editorTitle names what the facility fields apply to: the facility's
+// letter and name, the name shortened to its first words where the panel
+// is narrow (the letter still names it uniquely).
 func (m Model) editorTitle() string {
 	if m.fac >= 0 && m.fac < len(m.facs) {
-		return "facility: " + shortName(m.facs[m.fac].Name)
+		return "facility " + m.facilityLabel(m.fac, m.editor.width-len("WHAT-IF facility "))
 	}
 	return "facility limits: choose a facility"
 }
@@ -509,11 +683,12 @@ func (m Model) editorRows() []editorRow {
 	u := m.units
 	s, f := m.set, m.fileSet
 	rows := make([]editorRow, fieldCount)
-	rows[fieldScale] = editorRow{value: scaleText(s.Scale), file: scaleText(f.Scale), changed: s.Scale != f.Scale}
-	rows[fieldDeltaT] = editorRow{value: u.DeltaT(s.DeltaT), file: u.DeltaT(f.DeltaT), changed: s.DeltaT != f.DeltaT}
-	rows[fieldMachTol] = editorRow{value: sig(s.MachTol, 3), file: sig(f.MachTol, 3), changed: s.MachTol != f.MachTol}
-	rows[fieldReTol] = editorRow{value: sig(s.ReTol*100, 3) + " %", file: sig(f.ReTol*100, 3) + " %", changed: s.ReTol != f.ReTol}
-	rows[fieldCompMach] = editorRow{value: sig(s.CompressibilityMach, 3), file: sig(f.CompressibilityMach, 3),
+	tol, veh := m.settingsOrigin()+" ", m.vehicleOrigin()+" "
+	rows[fieldScale] = editorRow{value: scaleText(s.Scale), origin: tol + scaleText(f.Scale), changed: s.Scale != f.Scale}
+	rows[fieldDeltaT] = editorRow{value: u.DeltaT(s.DeltaT), origin: veh + u.DeltaT(f.DeltaT), changed: s.DeltaT != f.DeltaT}
+	rows[fieldMachTol] = editorRow{value: sig(s.MachTol, 3), origin: tol + sig(f.MachTol, 3), changed: s.MachTol != f.MachTol}
+	rows[fieldReTol] = editorRow{value: sig(s.ReTol*100, 3) + " %", origin: tol + sig(f.ReTol*100, 3) + " %", changed: s.ReTol != f.ReTol}
+	rows[fieldCompMach] = editorRow{value: sig(s.CompressibilityMach, 3), origin: tol + sig(f.CompressibilityMach, 3),
 		changed: s.CompressibilityMach != f.CompressibilityMach}
 	water := false
 	if m.fac >= 0 && m.fac < len(m.facs) {
@@ -523,9 +698,10 @@ func (m Model) editorRows() []editorRow {
 		if water {
 			pfmt = u.Pressure
 		}
-		rows[fieldP0Max] = editorRow{value: pfmt(now.P0Max), file: pfmt(file.P0Max), changed: now.P0Max != file.P0Max}
-		rows[fieldT0Min] = editorRow{value: u.Temp(now.T0Min), file: u.Temp(file.T0Min), changed: now.T0Min != file.T0Min}
-		rows[fieldQMax] = editorRow{value: qText(u, now.QMax), file: qText(u, file.QMax), changed: now.QMax != file.QMax}
+		src := facilityOrigin(file) + " "
+		rows[fieldP0Max] = editorRow{value: pfmt(now.P0Max), origin: src + pfmt(file.P0Max), changed: now.P0Max != file.P0Max}
+		rows[fieldT0Min] = editorRow{value: u.Temp(now.T0Min), origin: src + u.Temp(file.T0Min), changed: now.T0Min != file.T0Min}
+		rows[fieldQMax] = editorRow{value: qText(u, now.QMax), origin: src + qText(u, file.QMax), changed: now.QMax != file.QMax}
 	}
 	for k := range rows {
 		rows[k].label = field(k).label(water)
