@@ -242,13 +242,13 @@ func (g *Grid) evalRows(i0, i1 int, dT float64, spans *[]envSpan, acc *rowsAcc) 
 			g.evalInto(r, sp, &st, &rl)
 			if r.excl == InEnvelope {
 				inside++
-				maxMach = greaterOf(maxMach, r.mach)
+				maxMach = max(maxMach, r.mach)
 			}
 		}
 	}
 	acc.mu.Lock()
 	acc.inside += inside
-	acc.maxMach = greaterOf(acc.maxMach, maxMach)
+	acc.maxMach = max(acc.maxMach, maxMach)
 	acc.mu.Unlock()
 }
 

@@ -1195,17 +1195,11 @@ func (d *doc) facility(t *table) Facility {
 	f.Class, _ = t.text("class", false, `a short description in quotes, e.g. "pressurized transonic"`)
 
 	mediumOK := false
-	if s, ok := t.text("medium", true, `"air", "nitrogen" or "water"`); ok {
-		switch strings.ToLower(s) {
-		case "air":
-			f.Medium, mediumOK = MediumAir, true
-		case "nitrogen", "n2":
-			f.Medium, mediumOK = MediumNitrogen, true
-		case "water":
-			f.Medium, mediumOK = MediumWater, true
-		default:
+	if s, ok := t.text("medium", true, mediumWanted()); ok {
+		f.Medium, mediumOK = mediumNamed(s)
+		if !mediumOK {
 			p := t.keyPath("medium")
-			d.fail(p, display(p), strconv.Quote(s), `"air", "nitrogen" or "water"`)
+			d.fail(p, display(p), strconv.Quote(s), mediumWanted())
 		}
 	}
 
@@ -1219,7 +1213,7 @@ func (d *doc) facility(t *table) Facility {
 				continue
 			}
 			p := t.keyPath(k)
-			exp := "no " + k + " (condensation limits apply to air and nitrogen only)"
+			exp := "no " + k + " (condensation limits apply to " + andList(gasMedia()) + " only)"
 			if c, ok := waterCounterpart[k]; ok {
 				exp = c + " instead"
 			}
@@ -1231,38 +1225,40 @@ func (d *doc) facility(t *table) Facility {
 		lo, hi := t.span("mach_range", uMach, true)
 		d.need(&lo, lo.v > 0, "a Mach number above 0")
 		d.need(&hi, hi.v <= maxMach, fmt.Sprintf("a Mach number up to %g", maxMach))
-		f.MachMin, f.MachMax = lo.v, hi.v
+		g := &f.Gas
+		g.MachMin, g.MachMax = lo.v, hi.v
 		lo, hi = t.span("stagnation_pressure_range", uPressure, true)
 		d.need(&lo, lo.v > 0, "a pressure above 0")
 		d.need(&hi, hi.v <= maxPressure, "a pressure up to 1000 bar")
-		f.P0Min, f.P0Max = lo.v, hi.v
+		g.P0Min, g.P0Max = lo.v, hi.v
 		lo, hi = t.span("stagnation_temperature_range", uTemp, true)
 		d.need(&lo, lo.v > 0, "a temperature above 0 K")
 		d.need(&hi, hi.v <= maxGasT0, fmt.Sprintf("a temperature up to %g K", maxGasT0))
-		f.T0Min, f.T0Max = lo.v, hi.v
+		g.T0Min, g.T0Max = lo.v, hi.v
 		q := t.quantity("min_static_temperature", uTemp, false)
-		f.MinStaticT = d.positive(&q, maxGasT0, "a temperature above 0 K")
-		f.Condensation = t.boolean("condensation_check", true)
+		g.MinStaticT = d.positive(&q, maxGasT0, "a temperature above 0 K")
+		g.Condensation = t.boolean("condensation_check", true)
 		q = t.quantity("peak_local_mach", uMach, false)
-		f.PeakLocalMach = DefaultPeakLocalMach
+		g.PeakLocalMach = DefaultPeakLocalMach
 		if d.need(&q, q.v >= 1 && q.v <= 10, "a Mach number from 1 to 10") {
-			f.PeakLocalMach = q.v
+			g.PeakLocalMach = q.v
 		}
 	}
 	if mediumOK && f.Medium == MediumWater {
 		lo, hi := t.span("speed_range", uSpeed, true)
 		d.need(&lo, lo.v > 0, "a speed above 0")
 		d.need(&hi, hi.v <= maxWaterSpeed, fmt.Sprintf("a water speed up to %g m/s", maxWaterSpeed))
-		f.SpeedMin, f.SpeedMax = lo.v, hi.v
+		w := &f.Water
+		w.SpeedMin, w.SpeedMax = lo.v, hi.v
 		lo, hi = t.span("static_pressure_range", uPressure, true)
 		d.need(&lo, lo.v > 0, "a pressure above 0")
 		d.need(&hi, hi.v <= maxPressure, "a pressure up to 1000 bar")
-		f.P0Min, f.P0Max = lo.v, hi.v
+		w.PMin, w.PMax = lo.v, hi.v
 		lo, hi = t.span("water_temperature_range", uTemp, true)
 		const wt = "a water temperature from 0 degC to 100 degC"
 		d.need(&lo, lo.v >= waterFreezingK-1e-9 && lo.v <= waterBoilingK+1e-9, wt)
 		d.need(&hi, hi.v >= waterFreezingK-1e-9 && hi.v <= waterBoilingK+1e-9, wt)
-		f.T0Min, f.T0Max = math.Max(lo.v, waterFreezingK), math.Min(hi.v, waterBoilingK)
+		w.TMin, w.TMax = math.Max(lo.v, waterFreezingK), math.Min(hi.v, waterBoilingK)
 	}
 
 	q := t.quantity("max_dynamic_pressure", uPressure, false)
@@ -1287,6 +1283,42 @@ func (d *doc) facility(t *table) Facility {
 		mt.finish()
 	}
 	return f
+}
+
+// mediumNamed is the medium a file's medium text names: water, or a gas
+// atmos.GasByName knows (by its canonical name). Case is ignored; space
+// around the name is not.
+func mediumNamed(s string) (Medium, bool) {
+	if strings.TrimSpace(s) != s {
+		return "", false
+	}
+	if strings.EqualFold(s, string(MediumWater)) {
+		return MediumWater, true
+	}
+	g, err := atmos.GasByName(s)
+	if err != nil {
+		return "", false
+	}
+	return Medium(g.Name()), true
+}
+
+// mediumWanted lists the media a facility file may name, e.g. `"air",
+// "nitrogen" or "water"`.
+func mediumWanted() string {
+	var q []string
+	for _, n := range append(gasMedia(), string(MediumWater)) {
+		q = append(q, strconv.Quote(n))
+	}
+	return joinOr(q)
+}
+
+// andList lists words as "a, b and c".
+func andList(words []string) string {
+	s := joinOr(words)
+	if i := strings.LastIndex(s, " or "); i >= 0 {
+		s = s[:i] + " and " + s[i+len(" or "):]
+	}
+	return s
 }
 
 func article(word string) string {
@@ -1383,18 +1415,20 @@ func MarshalFacilities(fs []Facility) []byte {
 		}
 		kv(&b, "medium", tomlQuote(f.Medium.String()))
 		if f.Medium.IsGas() {
-			kv(&b, "mach_range", rangeText(f.MachMin, f.MachMax, ""))
-			kv(&b, "stagnation_pressure_range", rangeText(f.P0Min, f.P0Max, "Pa"))
-			kv(&b, "stagnation_temperature_range", rangeText(f.T0Min, f.T0Max, "K"))
-			if f.MinStaticT != 0 {
-				kv(&b, "min_static_temperature", si(f.MinStaticT, "K"))
+			g := &f.Gas
+			kv(&b, "mach_range", rangeText(g.MachMin, g.MachMax, ""))
+			kv(&b, "stagnation_pressure_range", rangeText(g.P0Min, g.P0Max, "Pa"))
+			kv(&b, "stagnation_temperature_range", rangeText(g.T0Min, g.T0Max, "K"))
+			if g.MinStaticT != 0 {
+				kv(&b, "min_static_temperature", si(g.MinStaticT, "K"))
 			}
-			kv(&b, "condensation_check", strconv.FormatBool(f.Condensation))
-			kv(&b, "peak_local_mach", si(f.PeakLocalMach, ""))
+			kv(&b, "condensation_check", strconv.FormatBool(g.Condensation))
+			kv(&b, "peak_local_mach", si(g.PeakLocalMach, ""))
 		} else {
-			kv(&b, "speed_range", rangeText(f.SpeedMin, f.SpeedMax, "m/s"))
-			kv(&b, "static_pressure_range", rangeText(f.P0Min, f.P0Max, "Pa"))
-			kv(&b, "water_temperature_range", rangeText(f.T0Min, f.T0Max, "K"))
+			w := &f.Water
+			kv(&b, "speed_range", rangeText(w.SpeedMin, w.SpeedMax, "m/s"))
+			kv(&b, "static_pressure_range", rangeText(w.PMin, w.PMax, "Pa"))
+			kv(&b, "water_temperature_range", rangeText(w.TMin, w.TMax, "K"))
 		}
 		if f.QMax != 0 {
 			kv(&b, "max_dynamic_pressure", si(f.QMax, "Pa"))

@@ -742,11 +742,11 @@ func (m *Model) editValue(f field) string {
 	switch f {
 	case fieldP0Max:
 		if fc.Medium.IsGas() {
-			return u.Stagnation(fc.P0Max)
+			return u.Stagnation(fc.PressureMax())
 		}
-		return u.Pressure(fc.P0Max)
+		return u.Pressure(fc.PressureMax())
 	case fieldT0Min:
-		return strings.ReplaceAll(u.Temp(fc.T0Min), "°F", "degF")
+		return strings.ReplaceAll(u.Temp(fc.TemperatureMin()), "°F", "degF")
 	case fieldQMax:
 		if fc.QMax <= 0 {
 			return "none"
@@ -794,17 +794,17 @@ func (m *Model) applyEdit() tea.Cmd {
 		fc := &facs[m.fac]
 		switch f {
 		case fieldP0Max:
-			if v <= fc.P0Min {
-				m.editor.err = "maximum must be above the minimum " + m.units.Stagnation(fc.P0Min)
+			if v <= fc.PressureMin() {
+				m.editor.err = "maximum must be above the minimum " + m.units.Stagnation(fc.PressureMin())
 				return nil
 			}
-			fc.P0Max = v
+			fc.SetPressureMax(v)
 		case fieldT0Min:
-			if fc.T0Max > 0 && v >= fc.T0Max {
-				m.editor.err = "minimum must be below the maximum " + m.units.Temp(fc.T0Max)
+			if fc.TemperatureMax() > 0 && v >= fc.TemperatureMax() {
+				m.editor.err = "minimum must be below the maximum " + m.units.Temp(fc.TemperatureMax())
 				return nil
 			}
-			fc.T0Min = v
+			fc.SetTemperatureMin(v)
 		case fieldQMax:
 			fc.QMax = v
 		}

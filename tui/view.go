@@ -452,11 +452,11 @@ func (m Model) changes() []change {
 		if water {
 			pfmt = u.Pressure
 		}
-		if now.P0Max != file.P0Max {
-			out = append(out, change{name + fieldP0Max.label(water), pfmt(now.P0Max), pfmt(file.P0Max)})
+		if now.PressureMax() != file.PressureMax() {
+			out = append(out, change{name + fieldP0Max.label(water), pfmt(now.PressureMax()), pfmt(file.PressureMax())})
 		}
-		if now.T0Min != file.T0Min {
-			out = append(out, change{name + fieldT0Min.label(water), u.Temp(now.T0Min), u.Temp(file.T0Min)})
+		if now.TemperatureMin() != file.TemperatureMin() {
+			out = append(out, change{name + fieldT0Min.label(water), u.Temp(now.TemperatureMin()), u.Temp(file.TemperatureMin())})
 		}
 		if now.QMax != file.QMax {
 			out = append(out, change{name + fieldQMax.label(water), qText(u, now.QMax), qText(u, file.QMax)})
@@ -506,8 +506,8 @@ func (m Model) editorRows() []editorRow {
 		if water {
 			pfmt = u.Pressure
 		}
-		rows[fieldP0Max] = editorRow{value: pfmt(now.P0Max), file: pfmt(file.P0Max), changed: now.P0Max != file.P0Max}
-		rows[fieldT0Min] = editorRow{value: u.Temp(now.T0Min), file: u.Temp(file.T0Min), changed: now.T0Min != file.T0Min}
+		rows[fieldP0Max] = editorRow{value: pfmt(now.PressureMax()), file: pfmt(file.PressureMax()), changed: now.PressureMax() != file.PressureMax()}
+		rows[fieldT0Min] = editorRow{value: u.Temp(now.TemperatureMin()), file: u.Temp(file.TemperatureMin()), changed: now.TemperatureMin() != file.TemperatureMin()}
 		rows[fieldQMax] = editorRow{value: qText(u, now.QMax), file: qText(u, file.QMax), changed: now.QMax != file.QMax}
 	}
 	for k := range rows {

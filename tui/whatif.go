@@ -53,8 +53,11 @@ func ApplyWhatIf(w WhatIf, s *envelope.Settings, facs []envelope.Facility) (chan
 			continue
 		}
 		fw := w.Facilities[name]
-		set(fieldP0Max, name+" p0 max", &facs[k].P0Max, fw.P0Max)
-		set(fieldT0Min, name+" T0 min", &facs[k].T0Min, fw.T0Min)
+		p0, t0 := facs[k].PressureMax(), facs[k].TemperatureMin()
+		set(fieldP0Max, name+" p0 max", &p0, fw.P0Max)
+		set(fieldT0Min, name+" T0 min", &t0, fw.T0Min)
+		facs[k].SetPressureMax(p0)
+		facs[k].SetTemperatureMin(t0)
 		set(fieldQMax, name+" q max", &facs[k].QMax, fw.QMax)
 	}
 	return changed, errors.Join(problems...)
