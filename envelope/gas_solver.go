@@ -216,7 +216,7 @@ func (sv *gasSolver) outOfRange(mf float64) (Limit, bool) {
 // matchMach is flight Mach number mf held within the facility range: the
 // Mach number a match is tried at.
 func (sv *gasSolver) matchMach(mf float64) float64 {
-	return min(max(mf, sv.lim.MachMin), sv.lim.MachMax)
+	return atMost(atLeast(mf, sv.lim.MachMin), sv.lim.MachMax)
 }
 
 // gasBounds is the feasible (p0, T0) region of a gas facility at one Mach
@@ -278,12 +278,8 @@ func (sv *gasSolver) bounds(M float64) gasBounds {
 	return c
 }
 
-// pressureRatio is p/p0 = τ^(γ/(γ−1)) for temperature ratio τ = T/T0;
-// for γ = 1.4 it is τ³·√τ, without the cost of math.Pow.
+// pressureRatio is p/p0 = τ^(γ/(γ−1)) for temperature ratio τ = T/T0.
 func (sv *gasSolver) pressureRatio(tau float64) float64 {
-	if sv.gamma == 1.4 {
-		return tau * tau * tau * math.Sqrt(tau)
-	}
 	return math.Pow(tau, sv.gamma/(sv.gamma-1))
 }
 
