@@ -3,8 +3,8 @@ package envelope
 import (
 	"errors"
 	"fmt"
+	"reflect"
 	"sync"
-	"unsafe"
 )
 
 // PlanningNote is attached to every facility detail: the engine plans,
@@ -164,7 +164,7 @@ func (m *Map) At(i, j int) Result { return m.Results[m.Grid.Index(i, j)] }
 
 // StoredBytes is the memory the map holds for its results (28 bytes per
 // point).
-func (m *Map) StoredBytes() int { return len(m.Results) * int(unsafe.Sizeof(Result{})) }
+func (m *Map) StoredBytes() int { return len(m.Results) * int(reflect.TypeFor[Result]().Size()) }
 
 // Detail recomputes point (i, j) at full precision and adds what the
 // compact Result leaves out: the test-section state, the Reynolds sweep at

@@ -74,7 +74,7 @@ func TestRunsMatched(t *testing.T) {
 		total += len(f.Runs)
 		water := f.Medium == "water"
 		c := envelope.CountChanges(back(f.Runs), water)
-		if c.T0 != f.Changes.T0 || c.P0 != f.Changes.P0 || c.Mach != f.Changes.Mach || c.Any != f.Changes.Any {
+		if c.T0 != f.Changes.T0 || c.P0 != f.Changes.P0 || c.Mach != f.Changes.Mach || c.Moved != f.Changes.Any {
 			t.Errorf("%s: changes %+v, recounted %+v", f.Facility, f.Changes, c)
 		}
 		for n, r := range f.Runs {
