@@ -22,7 +22,9 @@ import (
 // relations and Sutherland's law), far above the cap; flight at 15 km and
 // Mach 0.4 on a 2 m model needs only about 3e6.
 func TestOvershootWithinUnitReynoldsCap(t *testing.T) {
-	f := Facility{Name: "capped", Medium: "nitrogen", Gas: GasLimits{MachMin: 0.2, MachMax: 0.6, P0Min: 10e5, P0Max: 50e5, T0Min: 285, T0Max: 315}, MaxReynoldsPerM: 1e7, Width: 2, Height: 2}
+	f := Facility{Name: "capped", Medium: "nitrogen",
+		Gas:             GasLimits{MachMin: 0.2, MachMax: 0.6, P0Min: 10e5, P0Max: 50e5, T0Min: 285, T0Max: 315},
+		MaxReynoldsPerM: 1e7, Width: 2, Height: 2}
 	v := onePointVehicle(15000, 0.4, 2)
 	s := testSettings()
 	s.Scale = 1

@@ -181,7 +181,9 @@ func TestFullMatchInMachBand(t *testing.T) {
 // TestBandSearchHandCases: a pressurised air tunnel held by its p0 and T0
 // ranges alone, where the best Reynolds number rises with Mach number.
 func TestBandSearchHandCases(t *testing.T) {
-	f := Facility{Name: "band", Medium: "air", Gas: GasLimits{MachMin: 0.3, MachMax: 0.9, P0Min: 1e5, P0Max: 2e5, T0Min: 290, T0Max: 320}, Width: 2, Height: 2}
+	f := Facility{Name: "band", Medium: "air",
+		Gas:   GasLimits{MachMin: 0.3, MachMax: 0.9, P0Min: 1e5, P0Max: 2e5, T0Min: 290, T0Max: 320},
+		Width: 2, Height: 2}
 	s := testSettings()
 	sv := testSolver(t, f, s, 0.3)
 	at := func(M float64) float64 {
@@ -286,7 +288,9 @@ func TestPressureSideLimitUnderReCap(t *testing.T) {
 	}
 	// Hand cases on one facility: a cap that T0 can meet, and one so low
 	// that T0 reaches its maximum and p0 must come down.
-	f := Facility{Name: "cap", Medium: "air", Gas: GasLimits{MachMin: 0.3, MachMax: 0.9, P0Min: 1e4, P0Max: 4e5, T0Min: 280, T0Max: 320}, QMax: 5e4, Width: 2, Height: 2}
+	f := Facility{Name: "cap", Medium: "air",
+		Gas:  GasLimits{MachMin: 0.3, MachMax: 0.9, P0Min: 1e4, P0Max: 4e5, T0Min: 280, T0Max: 320},
+		QMax: 5e4, Width: 2, Height: 2}
 	for _, c := range []struct {
 		cap        float64
 		pLim, tLim Limit
@@ -315,7 +319,9 @@ func TestPressureSideLimitUnderReCap(t *testing.T) {
 // 1 atm water at 300 K is lighter by 0.13 % and 3.5 %).
 func TestWaterAtSectionPressure(t *testing.T) {
 	for _, c := range []struct{ p, v float64 }{{3e6, 0.100215168e-2}, {80e6, 0.971180894e-3}} {
-		f := Facility{Name: "pressurised water", Medium: MediumWater, Water: WaterLimits{SpeedMin: 0.5, SpeedMax: 20, PMin: c.p, PMax: c.p, TMin: 300, TMax: 300}, Width: 1, Height: 1}
+		f := Facility{Name: "pressurised water", Medium: MediumWater,
+			Water: WaterLimits{SpeedMin: 0.5, SpeedMax: 20, PMin: c.p, PMax: c.p, TMin: 300, TMax: 300},
+			Width: 1, Height: 1}
 		s := testSettings()
 		s.Scale = 0.1
 		g, err := NewGrid(onePointVehicle(3000, 0.1, 2), s)

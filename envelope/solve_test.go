@@ -137,7 +137,9 @@ func TestIsentropicSteps(t *testing.T) {
 // 200 kPa gives it, i.e. T0 = 300 K (the quadratic in T), and the lowest p0
 // at that T0 is 200 kPa.
 func TestHandWorkedTransonic(t *testing.T) {
-	f := Facility{Name: "hand", Medium: "air", Gas: GasLimits{MachMin: 0.3, MachMax: 1.1, P0Min: 1e5, P0Max: 2e5, T0Min: 250, T0Max: 320}}
+	f := Facility{Name: "hand", Medium: "air",
+		Gas: GasLimits{MachMin: 0.3, MachMax: 1.1, P0Min: 1e5, P0Max: 2e5, T0Min: 250, T0Max: 320},
+	}
 	sv := testSolver(t, f, testSettings(), 0.3)
 	ps := sv.solve(0.90, 8.4566e6, 250, true)
 	if ps.class != FullMatch {
