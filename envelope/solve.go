@@ -99,14 +99,15 @@ type Detail struct {
 // point. It depends on the facility and on the scale and tolerances of s;
 // the grid is not changed, so a facility what-if re-runs only Solve.
 //
-// Gas facilities: at the target Mach number the test-section static state
-// follows from the isentropic relations, and the Reynolds number from
-// Sutherland's law, so for each Mach number the limits (p0 and T0 ranges,
-// dynamic pressure, static temperature, saturation line, unit Reynolds
-// number) are solved jointly in (p0, T0) in closed form. Of the settings
-// that reach the flight Reynolds number the warmest T0 is taken, then the
-// lowest p0. Water facilities: warmest water (lowest viscosity), then the
-// lowest speed.
+// The solver of the facility's medium does the work (solver.go). Gas
+// facilities (gasSolver): at the target Mach number the test-section
+// static state follows from the isentropic relations, and the Reynolds
+// number from Sutherland's law, so for each Mach number the limits (p0 and
+// T0 ranges, dynamic pressure, static temperature, saturation line, unit
+// Reynolds number) are solved jointly in (p0, T0) in closed form. Of the
+// settings that reach the flight Reynolds number the warmest T0 is taken,
+// then the lowest p0. Water facilities (waterSolver): warmest water
+// (lowest viscosity), then the lowest speed.
 //
 // The day (DeltaT) and regime thresholds are the grid's; of s, Solve uses
 // the scale override and the tolerances. The model scale is s.Scale if set,
