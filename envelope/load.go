@@ -1285,42 +1285,6 @@ func (d *doc) facility(t *table) Facility {
 	return f
 }
 
-// mediumNamed is the medium a file's medium text names: water, or a gas
-// atmos.GasByName knows (by its canonical name). Case is ignored; space
-// around the name is not.
-func mediumNamed(s string) (Medium, bool) {
-	if strings.TrimSpace(s) != s {
-		return "", false
-	}
-	if strings.EqualFold(s, string(MediumWater)) {
-		return MediumWater, true
-	}
-	g, err := atmos.GasByName(s)
-	if err != nil {
-		return "", false
-	}
-	return Medium(g.Name()), true
-}
-
-// mediumWanted lists the media a facility file may name, e.g. `"air",
-// "nitrogen" or "water"`.
-func mediumWanted() string {
-	var q []string
-	for _, n := range append(gasMedia(), string(MediumWater)) {
-		q = append(q, strconv.Quote(n))
-	}
-	return joinOr(q)
-}
-
-// andList lists words as "a, b and c".
-func andList(words []string) string {
-	s := joinOr(words)
-	if i := strings.LastIndex(s, " or "); i >= 0 {
-		s = s[:i] + " and " + s[i+len(" or "):]
-	}
-	return s
-}
-
 func article(word string) string {
 	if word != "" && strings.ContainsRune("aeiou", rune(word[0])) {
 		return "n"

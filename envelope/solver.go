@@ -59,40 +59,9 @@ func newSolver(f *Facility, s Settings, reg atmos.Regimes) (solver, error) {
 	}
 	gas, err := atmos.GasByName(string(f.Medium))
 	if err != nil {
-		return nil, fmt.Errorf("medium %q: want water or one of the gases %s", string(f.Medium), joinOr(gasMedia()))
+		return nil, fmt.Errorf("medium %q: want %s", string(f.Medium), mediumWanted())
 	}
 	return newGasSolver(f, gas, s, reg)
-}
-
-// gasMedia are the canonical names of the gases atmos knows, in its
-// order (atmos.GasNames without the other spellings).
-func gasMedia() []string {
-	var out []string
-	seen := map[string]bool{}
-	for _, n := range atmos.GasNames() {
-		g, err := atmos.GasByName(n)
-		if err != nil || seen[g.Name()] {
-			continue
-		}
-		seen[g.Name()] = true
-		out = append(out, g.Name())
-	}
-	return out
-}
-
-// joinOr lists words as "a, b or c".
-func joinOr(words []string) string {
-	switch len(words) {
-	case 0:
-		return ""
-	case 1:
-		return words[0]
-	}
-	out := words[0]
-	for _, w := range words[1 : len(words)-1] {
-		out += ", " + w
-	}
-	return out + " or " + words[len(words)-1]
 }
 
 // pointSol is the full-precision answer for one point.
