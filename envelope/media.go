@@ -1,6 +1,6 @@
-// Names of the media a facility can use: water and the gases of atmos.
-
 package envelope
+
+// Names of the media a facility can use: water and the gases of atmos.
 
 import (
 	"strconv"
