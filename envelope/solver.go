@@ -55,7 +55,7 @@ func newSolver(f *Facility, s Settings, reg atmos.Regimes) (solver, error) {
 		return nil, err
 	}
 	if f.Medium == MediumWater {
-		return newWaterSolver(f, s, reg)
+		return newWaterSolver(f, s)
 	}
 	gas, err := atmos.GasByName(string(f.Medium))
 	if err != nil {

@@ -33,7 +33,7 @@ type waterSolver struct {
 }
 
 // newWaterSolver checks the water limits of f and prepares its solver.
-func newWaterSolver(f *Facility, s Settings, _ atmos.Regimes) (*waterSolver, error) {
+func newWaterSolver(f *Facility, s Settings) (*waterSolver, error) {
 	w := f.Water
 	if err := checkNonNegative([]namedValue{{"speed min", w.SpeedMin}, {"speed max", w.SpeedMax},
 		{"static pressure min", w.PMin}, {"static pressure max", w.PMax},
