@@ -28,6 +28,17 @@ type Gas interface {
 	// the inverse of SaturationTemperature below the critical temperature;
 	// above it the result is +Inf (no pressure condenses the gas).
 	SaturationPressure(T float64) float64
+	// CriticalTemperature is the upper end of the saturation line, K.
+	CriticalTemperature() float64
+	// ExceedsVapourPressure reports p > SaturationPressure(T), and
+	// ReachesVapourPressure p >= SaturationPressure(T), with the same answer
+	// for every input (p in Pa, T in K).
+	ExceedsVapourPressure(p, T float64) bool
+	ReachesVapourPressure(p, T float64) bool
+	// DrySupersonic reports whether a supersonic test section in this gas is
+	// always kept on the vapour side of the saturation line, whatever a
+	// facility's own condensation check says.
+	DrySupersonic() bool
 }
 
 // MolarMassNitrogen is the molar mass of N2, kg/mol (Span et al. 2000 give
@@ -68,27 +79,34 @@ type IdealGas struct {
 	beta  float64
 	s     float64
 	sat   *satCurve // one of the immutable curves below
+	// drySupersonic: see DrySupersonic.
+	drySupersonic bool
 }
 
 // Air returns dry air as modelled by the U.S. Standard Atmosphere 1976:
 // gamma = 1.4, R = RAir, Sutherland beta = 1.458e-6, S = 110.4 K. Its
 // saturation line is the dew line of Lemmon et al. (2000): below this
-// temperature at a given pressure the first liquid appears.
+// temperature at a given pressure the first liquid appears. A supersonic
+// air test section is always kept clear of that line (DrySupersonic;
+// common practice: supersonic and hypersonic air tunnels heat the air so
+// that it does not liquefy in the nozzle).
 func Air() IdealGas {
 	return IdealGas{
-		name:  "air",
-		gamma: GammaAir,
-		r:     RAir,
-		beta:  SutherlandBetaAir,
-		s:     SutherlandSAir,
-		sat:   &airDewLine,
+		name:          "air",
+		gamma:         GammaAir,
+		r:             RAir,
+		beta:          SutherlandBetaAir,
+		s:             SutherlandSAir,
+		sat:           &airDewLine,
+		drySupersonic: true,
 	}
 }
 
 // Nitrogen returns gaseous N2: gamma = 1.4, R from M = 28.0134 g/mol and
 // the USSA 1976 universal gas constant (296.80 J/(kg·K)), Sutherland
 // constants after White (see SutherlandMu0Nitrogen), and the vapour-pressure
-// line of Span et al. (2000).
+// line of Span et al. (2000). Whether a nitrogen facility keeps clear of
+// that line is its own condensation check (a cryogenic tunnel sets it).
 func Nitrogen() IdealGas {
 	return IdealGas{
 		name:  "nitrogen",
@@ -100,19 +118,40 @@ func Nitrogen() IdealGas {
 	}
 }
 
+// gases is the register behind GasByName: each gas with the names it is
+// known by, its canonical name (Name) first. A new gas is one more row.
+var gases = []struct {
+	names []string
+	gas   func() IdealGas
+}{
+	{[]string{"air"}, Air},
+	{[]string{"nitrogen", "n2"}, Nitrogen},
+}
+
 // GasNames lists the names GasByName accepts, canonical names first.
-func GasNames() []string { return []string{"air", "nitrogen", "n2"} }
+func GasNames() []string {
+	var out []string
+	for _, g := range gases {
+		out = append(out, g.names[0])
+	}
+	for _, g := range gases {
+		out = append(out, g.names[1:]...)
+	}
+	return out
+}
 
 // GasByName returns the gas called name: "air", or "nitrogen" / "n2".
 // Case and surrounding space are ignored.
 func GasByName(name string) (Gas, error) {
-	switch strings.ToLower(strings.TrimSpace(name)) {
-	case "air":
-		return Air(), nil
-	case "nitrogen", "n2":
-		return Nitrogen(), nil
+	key := strings.ToLower(strings.TrimSpace(name))
+	for _, g := range gases {
+		for _, n := range g.names {
+			if n == key {
+				return g.gas(), nil
+			}
+		}
 	}
-	return nil, fmt.Errorf("unknown gas %q: want one of air, nitrogen, n2", name)
+	return nil, fmt.Errorf("unknown gas %q: want one of %s", name, strings.Join(GasNames(), ", "))
 }
 
 // Name implements Gas.
@@ -146,6 +185,9 @@ func (g IdealGas) SpeedOfSound(T float64) float64 {
 	}
 	return math.Sqrt(g.gamma * g.r * T)
 }
+
+// DrySupersonic implements Gas.
+func (g IdealGas) DrySupersonic() bool { return g.drySupersonic }
 
 // Density is p/(R T), kg/m3.
 func (g IdealGas) Density(p, T float64) float64 { return p / (g.r * T) }

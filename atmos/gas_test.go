@@ -314,3 +314,26 @@ func BenchmarkSaturationTemperature(b *testing.B) {
 		_ = g.SaturationTemperature(1e3 + float64(i%1000)*3e3)
 	}
 }
+
+// TestDrySupersonic: a supersonic air test section is always kept clear
+// of the dew line (common practice: supersonic and hypersonic air tunnels
+// heat the air so that it does not liquefy in the nozzle); for nitrogen
+// the facility's own condensation check decides.
+func TestDrySupersonic(t *testing.T) {
+	if !Air().DrySupersonic() || Nitrogen().DrySupersonic() {
+		t.Errorf("DrySupersonic: air %v, nitrogen %v; want true, false", Air().DrySupersonic(), Nitrogen().DrySupersonic())
+	}
+}
+
+// TestGasRegister: every gas of the register is found by each of its
+// names, and its canonical name (the first) is the gas's Name.
+func TestGasRegister(t *testing.T) {
+	for _, g := range gases {
+		for _, n := range g.names {
+			got, err := GasByName(n)
+			if err != nil || got.Name() != g.names[0] || got.Name() != g.gas().Name() {
+				t.Errorf("GasByName(%q) = %v, %v; want the gas named %q", n, got, err, g.names[0])
+			}
+		}
+	}
+}

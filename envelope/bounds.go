@@ -284,9 +284,9 @@ func PositiveZero(v float64) float64 {
 // shows v in Pa).
 func CheckP0Max(f *Facility, found string, v float64) (float64, error) {
 	b := FacilityPressureBound()
-	if f.P0Min > 0 {
-		b.Lo, b.LoOpen = f.P0Min, false
-		b.Expected += fmt.Sprintf(", not below the facility's minimum %s Pa", numberText(f.P0Min))
+	if f.PressureMin() > 0 {
+		b.Lo, b.LoOpen = f.PressureMin(), false
+		b.Expected += fmt.Sprintf(", not below the facility's minimum %s Pa", numberText(f.PressureMin()))
 	}
 	return checked(b, found, "Pa", v)
 }
@@ -298,9 +298,9 @@ func CheckP0Max(f *Facility, found string, v float64) (float64, error) {
 // 0 degC).
 func CheckT0Min(f *Facility, found string, v float64) (float64, error) {
 	b := FacilityTemperatureBound(f.Medium)
-	if f.T0Max > 0 && f.T0Max < b.Hi {
-		b.Hi, b.HiOpen = f.T0Max, false
-		b.Expected += fmt.Sprintf(", not above the facility's maximum %s K", numberText(f.T0Max))
+	if f.TemperatureMax() > 0 && f.TemperatureMax() < b.Hi {
+		b.Hi, b.HiOpen = f.TemperatureMax(), false
+		b.Expected += fmt.Sprintf(", not above the facility's maximum %s K", numberText(f.TemperatureMax()))
 	}
 	return checked(b, found, "K", v)
 }

@@ -96,7 +96,7 @@ func TestParseBoundedValues(t *testing.T) {
 }
 
 func TestFacilityLimitChecks(t *testing.T) {
-	f := &Facility{Medium: MediumNitrogen, P0Min: 1.2e5, P0Max: 4.5e5, T0Min: 105, T0Max: 313}
+	f := &Facility{Medium: "nitrogen", Gas: GasLimits{P0Min: 1.2e5, P0Max: 4.5e5, T0Min: 105, T0Max: 313}}
 	if v, err := CheckP0Max(f, "", 1.2e5); err != nil || v != 1.2e5 {
 		t.Errorf("p0 max at the minimum: %g, %v; want it taken (a file's range may be one value)", v, err)
 	}
@@ -109,7 +109,7 @@ func TestFacilityLimitChecks(t *testing.T) {
 	if _, err := CheckT0Min(f, "", 320); err == nil || !strings.Contains(err.Error(), "not above the facility's maximum 313 K") {
 		t.Errorf("T0 min above T0 max: %v", err)
 	}
-	w := &Facility{Medium: MediumWater, T0Min: 281.15, T0Max: 308.15}
+	w := &Facility{Medium: MediumWater, Water: WaterLimits{TMin: 281.15, TMax: 308.15}}
 	if _, err := CheckT0Min(w, "", 5); err == nil || !strings.Contains(err.Error(), "water temperature") {
 		t.Errorf("water T0 min of 5 K: %v", err)
 	}

@@ -38,7 +38,7 @@ func Cautions(d *Detail, f *Facility, u QuantityFormat) []string {
 	}
 	if d.Flags.Has(FlagHighP0) {
 		add("p0 %s is within %.0f %% of the facility maximum %s: pressure-vessel limits govern.",
-			u.Stagnation(d.P0), 100*(1-NearLimitFraction), u.Stagnation(f.P0Max))
+			u.Stagnation(d.P0), 100*(1-NearLimitFraction), u.Stagnation(f.Gas.P0Max))
 	}
 	if d.Flags.Has(FlagQNearLimit) {
 		add("Dynamic pressure %s is within %.0f %% of the facility limit: check model, sting and balance loads.",

@@ -40,14 +40,20 @@ func benchVehicle(n int) *Vehicle {
 func benchFacilities() []Facility {
 	return []Facility{
 		cryoTunnel(),
-		{Name: "pressurised transonic", Medium: MediumAir, MachMin: 0.2, MachMax: 1.3,
-			P0Min: 0.3e5, P0Max: 3e5, T0Min: 300, T0Max: 330, QMax: 1.2e5, Width: 3, Height: 3},
-		{Name: "atmospheric low speed", Medium: MediumAir, MachMin: 0.03, MachMax: 0.3,
-			P0Min: 1e5, P0Max: 1.03e5, T0Min: 285, T0Max: 315, Width: 4, Height: 3},
-		{Name: "supersonic blowdown", Medium: MediumAir, MachMin: 1.5, MachMax: 4.5,
-			P0Min: 1.5e5, P0Max: 1.5e6, T0Min: 280, T0Max: 320, Condensation: true, Width: 0.6, Height: 0.6},
-		{Name: "hypersonic blowdown", Medium: MediumAir, MachMin: 5, MachMax: 10,
-			P0Min: 1e6, P0Max: 12e6, T0Min: 400, T0Max: 1100, Condensation: true, Width: 0.5, Height: 0.5},
+		{Name: "pressurised transonic", Medium: "air",
+			Gas:  GasLimits{MachMin: 0.2, MachMax: 1.3, P0Min: 0.3e5, P0Max: 3e5, T0Min: 300, T0Max: 330},
+			QMax: 1.2e5, Width: 3, Height: 3},
+		{Name: "atmospheric low speed", Medium: "air",
+			Gas:   GasLimits{MachMin: 0.03, MachMax: 0.3, P0Min: 1e5, P0Max: 1.03e5, T0Min: 285, T0Max: 315},
+			Width: 4, Height: 3},
+		{Name: "supersonic blowdown", Medium: "air",
+			Gas: GasLimits{MachMin: 1.5, MachMax: 4.5, P0Min: 1.5e5, P0Max: 1.5e6, T0Min: 280, T0Max: 320,
+				Condensation: true},
+			Width: 0.6, Height: 0.6},
+		{Name: "hypersonic blowdown", Medium: "air",
+			Gas: GasLimits{MachMin: 5, MachMax: 10, P0Min: 1e6, P0Max: 12e6, T0Min: 400, T0Max: 1100,
+				Condensation: true},
+			Width: 0.5, Height: 0.5},
 		waterTunnel(),
 	}
 }
@@ -138,7 +144,7 @@ func BenchmarkResolve400(b *testing.B) {
 	f := cryoTunnel()
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
-		f.P0Max = 4e5 + float64(i%2)*0.5e5 // the what-if
+		f.Gas.P0Max = 4e5 + float64(i%2)*0.5e5 // the what-if
 		if _, err := Solve(g, &f, s); err != nil {
 			b.Fatal(err)
 		}
@@ -150,8 +156,8 @@ func BenchmarkResolve400(b *testing.B) {
 // Reynolds number down to flight is found (a few atmos.WaterAt calls).
 func BenchmarkWaterCooling(b *testing.B) {
 	f := waterTunnel()
-	f.SpeedMin = 3
-	sv := testSolver(b, f, testSettings(), 0.5)
+	f.Water.SpeedMin = 3
+	sv := testWaterSolver(b, f, testSettings(), 0.5)
 	target := 0.8 * 3 * 0.5 / sv.hot.KinematicViscosity
 	b.ReportAllocs()
 	for i := 0; i < b.N; i++ {
@@ -197,7 +203,7 @@ func BenchmarkDemoSolve400(b *testing.B) {
 		b.Run(shortName(&facs[k]), func(b *testing.B) {
 			f := facs[k]
 			for i := 0; b.Loop(); i++ {
-				f.P0Max = facs[k].P0Max * (1 - 0.05*float64(i%2)) // the what-if
+				f.SetPressureMax(facs[k].PressureMax() * (1 - 0.05*float64(i%2))) // the what-if
 				if _, err := Solve(g, &f, s); err != nil {
 					b.Fatal(err)
 				}

@@ -27,9 +27,10 @@ func ExampleSolve() {
 		},
 	}
 	tunnel := envelope.Facility{
-		Name: "example cryogenic tunnel", Medium: envelope.MediumNitrogen,
-		MachMin: 0.2, MachMax: 1.2, P0Min: 1.2e5, P0Max: 2.5e5, T0Min: 90, T0Max: 320,
-		QMax: 8e4, Condensation: true, Width: 2.5, Height: 2.5,
+		Name: "example cryogenic tunnel", Medium: "nitrogen",
+		Gas: envelope.GasLimits{MachMin: 0.2, MachMax: 1.2, P0Min: 1.2e5, P0Max: 2.5e5, T0Min: 90, T0Max: 320,
+			Condensation: true},
+		QMax: 8e4, Width: 2.5, Height: 2.5,
 	}
 	s := envelope.DefaultSettings(v)
 

@@ -4,11 +4,11 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"reflect"
 	"runtime"
 	"sort"
 	"sync"
 	"sync/atomic"
-	"unsafe"
 
 	"likewind/atmos"
 )
@@ -67,6 +67,8 @@ func (e Exclusion) String() string {
 
 // FlightPoint is the flight side of one grid point as stored: single
 // precision and one-byte regimes. Use Grid.FlightDetail for full precision.
+// (The Mach layer and the Reynolds–Mach chart draw these stored values;
+// see Result on why they stay single precision.)
 type FlightPoint struct {
 	Mach float32 // flight Mach number
 	TAS  float32 // true airspeed, m/s
@@ -242,13 +244,13 @@ func (g *Grid) evalRows(i0, i1 int, dT float64, spans *[]envSpan, acc *rowsAcc) 
 			g.evalInto(r, sp, &st, &rl)
 			if r.excl == InEnvelope {
 				inside++
-				maxMach = greaterOf(maxMach, r.mach)
+				maxMach = max(maxMach, r.mach)
 			}
 		}
 	}
 	acc.mu.Lock()
 	acc.inside += inside
-	acc.maxMach = greaterOf(acc.maxMach, maxMach)
+	acc.maxMach = max(acc.maxMach, maxMach)
 	acc.mu.Unlock()
 }
 
@@ -528,8 +530,8 @@ func (g *Grid) FlightDetail(i, j int) (FlightDetail, error) {
 // StoredBytes is the memory the grid holds: the per-point records (32
 // bytes each), the per-row atmosphere and the axes.
 func (g *Grid) StoredBytes() int {
-	rec := int(unsafe.Sizeof(flightRec{}))
-	state := int(unsafe.Sizeof(atmos.State{}))
+	rec := int(reflect.TypeFor[flightRec]().Size())
+	state := int(reflect.TypeFor[atmos.State]().Size())
 	return len(g.points)*rec + len(g.rows)*state + 8*(len(g.Alts)+len(g.Speeds))
 }
 

@@ -2,9 +2,9 @@ package envelope
 
 import (
 	"math"
+	"reflect"
 	"strconv"
 	"testing"
-	"unsafe"
 
 	"likewind/atmos"
 )
@@ -347,10 +347,10 @@ func TestGridOtherKinds(t *testing.T) {
 // TestStoredSizes holds the per-point storage to its documented size:
 // 32 bytes of flight data and 28 bytes per facility result.
 func TestStoredSizes(t *testing.T) {
-	if n := unsafe.Sizeof(flightRec{}); n != 32 {
+	if n := reflect.TypeFor[flightRec]().Size(); n != 32 {
 		t.Errorf("flightRec is %d bytes, want 32", n)
 	}
-	if n := unsafe.Sizeof(Result{}); n != 28 {
+	if n := reflect.TypeFor[Result]().Size(); n != 28 {
 		t.Errorf("Result is %d bytes, want 28", n)
 	}
 }

@@ -1250,17 +1250,11 @@ func (d *doc) facility(t *table) Facility {
 	f.Class, _ = t.freeText("class", false, `a short description in quotes, e.g. "pressurized transonic"`)
 
 	mediumOK := false
-	if s, ok := t.text("medium", true, `"air", "nitrogen" or "water"`); ok {
-		switch strings.ToLower(s) {
-		case "air":
-			f.Medium, mediumOK = MediumAir, true
-		case "nitrogen", "n2":
-			f.Medium, mediumOK = MediumNitrogen, true
-		case "water":
-			f.Medium, mediumOK = MediumWater, true
-		default:
+	if s, ok := t.text("medium", true, mediumWanted()); ok {
+		f.Medium, mediumOK = mediumNamed(s)
+		if !mediumOK {
 			p := t.keyPath("medium")
-			d.fail(p, display(p), strconv.Quote(s), `"air", "nitrogen" or "water"`)
+			d.fail(p, display(p), strconv.Quote(s), mediumWanted())
 		}
 	}
 
@@ -1274,7 +1268,7 @@ func (d *doc) facility(t *table) Facility {
 				continue
 			}
 			p := t.keyPath(k)
-			exp := "no " + k + " (condensation limits apply to air and nitrogen only)"
+			exp := "no " + k + " (condensation limits apply to " + andList(gasMedia()) + " only)"
 			if c, ok := waterCounterpart[k]; ok {
 				exp = c + " instead"
 			}
@@ -1286,31 +1280,33 @@ func (d *doc) facility(t *table) Facility {
 		lo, hi := t.span("mach_range", uMach, true)
 		d.need(&lo, lo.v > 0, "a Mach number above 0")
 		d.need(&hi, hi.v <= maxMach, fmt.Sprintf("a Mach number up to %g", maxMach))
-		f.MachMin, f.MachMax = lo.v, hi.v
+		g := &f.Gas
+		g.MachMin, g.MachMax = lo.v, hi.v
 		lo, hi = t.span("stagnation_pressure_range", uPressure, true)
-		f.P0Min, f.P0Max = d.within(&lo, FacilityPressureBound()), d.within(&hi, FacilityPressureBound())
+		g.P0Min, g.P0Max = d.within(&lo, FacilityPressureBound()), d.within(&hi, FacilityPressureBound())
 		lo, hi = t.span("stagnation_temperature_range", uTemp, true)
 		tb := FacilityTemperatureBound(f.Medium)
-		f.T0Min, f.T0Max = d.within(&lo, tb), d.within(&hi, tb)
+		g.T0Min, g.T0Max = d.within(&lo, tb), d.within(&hi, tb)
 		q := t.quantity("min_static_temperature", uTemp, false)
-		f.MinStaticT = d.positive(&q, maxGasT0, "a temperature above 0 K")
-		f.Condensation = t.boolean("condensation_check", true)
+		g.MinStaticT = d.positive(&q, maxGasT0, "a temperature above 0 K")
+		g.Condensation = t.boolean("condensation_check", true)
 		q = t.quantity("peak_local_mach", uMach, false)
-		f.PeakLocalMach = DefaultPeakLocalMach
+		g.PeakLocalMach = DefaultPeakLocalMach
 		if d.need(&q, q.v >= 1 && q.v <= 10, "a Mach number from 1 to 10") {
-			f.PeakLocalMach = q.v
+			g.PeakLocalMach = q.v
 		}
 	}
 	if mediumOK && f.Medium == MediumWater {
 		lo, hi := t.span("speed_range", uSpeed, true)
 		d.need(&lo, lo.v > 0, "a speed above 0")
 		d.need(&hi, hi.v <= maxWaterSpeed, fmt.Sprintf("a water speed up to %g m/s", maxWaterSpeed))
-		f.SpeedMin, f.SpeedMax = lo.v, hi.v
+		w := &f.Water
+		w.SpeedMin, w.SpeedMax = lo.v, hi.v
 		lo, hi = t.span("static_pressure_range", uPressure, true)
-		f.P0Min, f.P0Max = d.within(&lo, FacilityPressureBound()), d.within(&hi, FacilityPressureBound())
+		w.PMin, w.PMax = d.within(&lo, FacilityPressureBound()), d.within(&hi, FacilityPressureBound())
 		lo, hi = t.span("water_temperature_range", uTemp, true)
 		wb := FacilityTemperatureBound(f.Medium)
-		f.T0Min, f.T0Max = d.within(&lo, wb), d.within(&hi, wb)
+		w.TMin, w.TMax = d.within(&lo, wb), d.within(&hi, wb)
 	}
 
 	q := t.quantity("max_dynamic_pressure", uPressure, false)
@@ -1431,18 +1427,20 @@ func MarshalFacilities(fs []Facility) []byte {
 		}
 		kv(&b, "medium", tomlQuote(f.Medium.String()))
 		if f.Medium.IsGas() {
-			kv(&b, "mach_range", rangeText(f.MachMin, f.MachMax, ""))
-			kv(&b, "stagnation_pressure_range", rangeText(f.P0Min, f.P0Max, "Pa"))
-			kv(&b, "stagnation_temperature_range", rangeText(f.T0Min, f.T0Max, "K"))
-			if f.MinStaticT != 0 {
-				kv(&b, "min_static_temperature", si(f.MinStaticT, "K"))
+			g := &f.Gas
+			kv(&b, "mach_range", rangeText(g.MachMin, g.MachMax, ""))
+			kv(&b, "stagnation_pressure_range", rangeText(g.P0Min, g.P0Max, "Pa"))
+			kv(&b, "stagnation_temperature_range", rangeText(g.T0Min, g.T0Max, "K"))
+			if g.MinStaticT != 0 {
+				kv(&b, "min_static_temperature", si(g.MinStaticT, "K"))
 			}
-			kv(&b, "condensation_check", strconv.FormatBool(f.Condensation))
-			kv(&b, "peak_local_mach", si(f.PeakLocalMach, ""))
+			kv(&b, "condensation_check", strconv.FormatBool(g.Condensation))
+			kv(&b, "peak_local_mach", si(g.PeakLocalMach, ""))
 		} else {
-			kv(&b, "speed_range", rangeText(f.SpeedMin, f.SpeedMax, "m/s"))
-			kv(&b, "static_pressure_range", rangeText(f.P0Min, f.P0Max, "Pa"))
-			kv(&b, "water_temperature_range", rangeText(f.T0Min, f.T0Max, "K"))
+			w := &f.Water
+			kv(&b, "speed_range", rangeText(w.SpeedMin, w.SpeedMax, "m/s"))
+			kv(&b, "static_pressure_range", rangeText(w.PMin, w.PMax, "Pa"))
+			kv(&b, "water_temperature_range", rangeText(w.TMin, w.TMax, "K"))
 		}
 		if f.QMax != 0 {
 			kv(&b, "max_dynamic_pressure", si(f.QMax, "Pa"))

@@ -106,18 +106,21 @@ func FuzzParseFacilities(f *testing.F) {
 			t.Fatal("no facilities and no error")
 		}
 		for _, x := range fs {
-			if !finiteAll(x.MachMin, x.MachMax, x.SpeedMin, x.SpeedMax, x.P0Min, x.P0Max, x.T0Min, x.T0Max,
-				x.QMax, x.MinStaticT, x.PeakLocalMach, x.MaxReynoldsPerM, x.Width, x.Height,
+			g, w := &x.Gas, &x.Water
+			if !finiteAll(g.MachMin, g.MachMax, g.P0Min, g.P0Max, g.T0Min, g.T0Max, g.MinStaticT, g.PeakLocalMach,
+				w.SpeedMin, w.SpeedMax, w.PMin, w.PMax, w.TMin, w.TMax,
+				x.QMax, x.MaxReynoldsPerM, x.Width, x.Height,
 				x.Model.Scale, x.Model.MaxSpanFraction, x.Model.MaxBlockage) {
 				t.Fatalf("facility has a non-finite value: %+v", x)
 			}
-			if x.MachMin > x.MachMax || x.SpeedMin > x.SpeedMax || x.P0Min > x.P0Max || x.T0Min > x.T0Max {
+			if g.MachMin > g.MachMax || w.SpeedMin > w.SpeedMax || x.PressureMin() > x.PressureMax() ||
+				x.TemperatureMin() > x.TemperatureMax() {
 				t.Fatalf("facility has an inverted range: %+v", x)
 			}
-			if !(x.Width > 0 && x.Height > 0 && x.P0Min > 0 && x.T0Min > 0) || x.Name == "" {
+			if !(x.Width > 0 && x.Height > 0 && x.PressureMin() > 0 && x.TemperatureMin() > 0) || x.Name == "" {
 				t.Fatalf("facility incomplete: %+v", x)
 			}
-			if x.Medium.IsGas() && !(x.MachMin > 0) || x.Medium == MediumWater && !(x.SpeedMin > 0) {
+			if x.Medium.IsGas() && !(g.MachMin > 0) || x.Medium == MediumWater && !(w.SpeedMin > 0) {
 				t.Fatalf("facility has no speed range: %+v", x)
 			}
 		}

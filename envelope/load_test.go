@@ -180,23 +180,23 @@ func TestFacilityFieldUnits(t *testing.T) {
 		want     float64
 	}{
 		{"P0 in psi", baseFacility, `["1 bar", "5 bar"]`, `["14.7 psi", "45 psi"]`,
-			func(f Facility) float64 { return f.P0Max }, 45 * psi},
+			func(f Facility) float64 { return f.Gas.P0Max }, 45 * psi},
 		{"P0 in atm", baseFacility, `["1 bar", "5 bar"]`, `["1 atm", "3 atm"]`,
-			func(f Facility) float64 { return f.P0Min }, 101325},
+			func(f Facility) float64 { return f.Gas.P0Min }, 101325},
 		{"P0 in torr", baseFacility, `["1 bar", "5 bar"]`, `["760 torr", "3 bar"]`,
-			func(f Facility) float64 { return f.P0Min }, 101325},
+			func(f Facility) float64 { return f.Gas.P0Min }, 101325},
 		{"T0 in degC", baseFacility, `["280 K", "320 K"]`, `["-20 degC", "50 degC"]`,
-			func(f Facility) float64 { return f.T0Min }, 253.15},
+			func(f Facility) float64 { return f.Gas.T0Min }, 253.15},
 		{"T0 in degF", baseFacility, `["280 K", "320 K"]`, `["-40 degF", "100 degF"]`,
-			func(f Facility) float64 { return f.T0Min }, 233.15},
+			func(f Facility) float64 { return f.Gas.T0Min }, 233.15},
 		{"T0 in degR", baseFacility, `["280 K", "320 K"]`, `["500 degR", "560 degR"]`,
-			func(f Facility) float64 { return f.T0Min }, 500 * 5.0 / 9},
+			func(f Facility) float64 { return f.Gas.T0Min }, 500 * 5.0 / 9},
 		{"Mach range written Mach 0.1", baseFacility, `["0.05", "0.3"]`, `["Mach 0.1", "M0.4"]`,
-			func(f Facility) float64 { return f.MachMax }, 0.4},
+			func(f Facility) float64 { return f.Gas.MachMax }, 0.4},
 		{"min static temperature", baseFacility, `section_width`, "min_static_temperature = \"-150 degC\"\nsection_width",
-			func(f Facility) float64 { return f.MinStaticT }, 123.15},
+			func(f Facility) float64 { return f.Gas.MinStaticT }, 123.15},
 		{"peak local Mach", baseFacility, `section_width`, "peak_local_mach = \"1.6\"\nsection_width",
-			func(f Facility) float64 { return f.PeakLocalMach }, 1.6},
+			func(f Facility) float64 { return f.Gas.PeakLocalMach }, 1.6},
 		{"max q in kPa", baseFacility, `section_width`, "max_dynamic_pressure = \"60 kPa\"\nsection_width",
 			func(f Facility) float64 { return f.QMax }, 60000},
 		{"unit Reynolds per foot", baseFacility, `section_width`, "max_reynolds_per_metre = \"30e6 /ft\"\nsection_width",
@@ -220,11 +220,11 @@ func TestFacilityFieldUnits(t *testing.T) {
 		{"model as inline table", baseFacility, `section_width`, "model = { scale = \"1/20\" }\nsection_width",
 			func(f Facility) float64 { return f.Model.Scale }, 0.05},
 		{"water speed in ft/s", baseWater, `["0.5 m/s", "10 m/s"]`, `["1 ft/s", "20 ft/s"]`,
-			func(f Facility) float64 { return f.SpeedMax }, 20 * 0.3048},
+			func(f Facility) float64 { return f.Water.SpeedMax }, 20 * 0.3048},
 		{"water temperature in degF", baseWater, `["10 degC", "30 degC"]`, `["50 degF", "68 degF"]`,
-			func(f Facility) float64 { return f.T0Max }, 293.15},
+			func(f Facility) float64 { return f.Water.TMax }, 293.15},
 		{"water static pressure in kPa", baseWater, `["0.2 bar", "2 bar"]`, `["20 kPa", "200 kPa"]`,
-			func(f Facility) float64 { return f.P0Max }, 200000},
+			func(f Facility) float64 { return f.Water.PMax }, 200000},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -245,11 +245,14 @@ func TestFacilityDefaults(t *testing.T) {
 		t.Fatal(err)
 	}
 	gas, water := fs[0], fs[1]
-	if !gas.Condensation || gas.PeakLocalMach != DefaultPeakLocalMach {
-		t.Errorf("gas defaults: Condensation %v, PeakLocalMach %g; want true, %g", gas.Condensation, gas.PeakLocalMach, DefaultPeakLocalMach)
+	if !gas.Gas.Condensation || gas.Gas.PeakLocalMach != DefaultPeakLocalMach {
+		t.Errorf("gas defaults: Condensation %v, PeakLocalMach %g; want true, %g", gas.Gas.Condensation, gas.Gas.PeakLocalMach, DefaultPeakLocalMach)
 	}
-	if water.Condensation || water.PeakLocalMach != 0 {
-		t.Errorf("water defaults: Condensation %v, PeakLocalMach %g; want false, 0", water.Condensation, water.PeakLocalMach)
+	if water.Gas != (GasLimits{}) {
+		t.Errorf("water facility has gas limits %+v, want none", water.Gas)
+	}
+	if gas.Water != (WaterLimits{}) {
+		t.Errorf("gas facility has water limits %+v, want none", gas.Water)
 	}
 	for _, f := range fs {
 		if f.Model != (ModelSizing{MaxSpanFraction: DefaultMaxSpanFraction}) {
@@ -259,7 +262,7 @@ func TestFacilityDefaults(t *testing.T) {
 			t.Errorf("%s: Source = %q, want f.toml", f.Name, f.Source)
 		}
 	}
-	if water.Medium != MediumWater || water.T0Min != 283.15 || water.SpeedMax != 10 {
+	if water.Medium != MediumWater || water.Water.TMin != 283.15 || water.Water.SpeedMax != 10 {
 		t.Errorf("water = %+v", water)
 	}
 }
@@ -272,7 +275,7 @@ func TestNitrogenWarm(t *testing.T) {
 	if err != nil {
 		t.Fatalf("warm nitrogen: %v", err)
 	}
-	if fs[0].Medium != MediumNitrogen || fs[0].T0Max != 380 {
+	if fs[0].Medium != "nitrogen" || fs[0].Gas.T0Max != 380 {
 		t.Errorf("nitrogen facility = %+v", fs[0])
 	}
 }
@@ -743,7 +746,7 @@ func TestDemo(t *testing.T) {
 			t.Errorf("%s: Source %q, want empty for built-in data", f.Name, f.Source)
 		}
 	}
-	if media[MediumAir] < 3 || media[MediumNitrogen] < 1 || media[MediumWater] < 1 {
+	if media["air"] < 3 || media["nitrogen"] < 1 || media[MediumWater] < 1 {
 		t.Errorf("demo media = %v, want air, nitrogen and water facilities", media)
 	}
 	if err := CheckDuplicateNames(facs); err != nil {

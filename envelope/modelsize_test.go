@@ -108,7 +108,7 @@ func TestModelTooLargeFlag(t *testing.T) {
 			}
 			mach := d.Mach
 			if !d.HasSettings {
-				mach = min(max(d.Flight.Airspeeds.Mach, m.Facility.MachMin), m.Facility.MachMax)
+				mach = min(max(d.Flight.Airspeeds.Mach, m.Facility.Gas.MachMin), m.Facility.Gas.MachMax)
 			}
 			want := mach >= BlockageMach
 			if got := d.Flags.Has(FlagModelTooLarge); got != want {

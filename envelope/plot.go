@@ -414,50 +414,16 @@ type ReRange struct {
 // flight Mach 0 and at the compressibility threshold, the band in which
 // it matches with Mach relaxed.
 func ReachableRe(m *Map, samples int) []ReRange {
-	f := m.Facility
-	sv := m.sv
-	if sv.water {
-		hot := sv.hot
-		vcap := f.SpeedMax
-		if sv.qmax > 0 {
-			vcap = math.Min(vcap, math.Sqrt(2*sv.qmax/hot.Density))
-		}
-		if sv.rpm > 0 {
-			vcap = math.Min(vcap, sv.rpm*hot.KinematicViscosity)
-		}
-		cold, err := sv.waterAt(f.T0Min)
-		if err != nil || vcap < f.SpeedMin {
-			return nil
-		}
-		lo := f.SpeedMin * sv.L / cold.KinematicViscosity
-		hi := vcap * sv.L / hot.KinematicViscosity
-		return []ReRange{{Mach: 0, Lo: lo, Hi: hi}, {Mach: m.Settings.CompressibilityMach, Lo: lo, Hi: hi}}
+	if m.sv == nil {
+		return nil
 	}
-	if samples < 2 {
-		samples = 2
-	}
-	m0 := math.Max(f.MachMin, 0.01)
-	var out []ReRange
-	for k := 0; k < samples; k++ {
-		M := m0 + (f.MachMax-m0)*float64(k)/float64(samples-1)
-		c := sv.bounds(M)
-		if !c.ok {
-			continue
-		}
-		_, _, hi, _, _, ok := sv.best(&c)
-		if !ok || !(hi > 0) {
-			continue
-		}
-		lo := sv.reAt(&c, sv.p0min, sv.t0max)
-		if sv.rpm > 0 {
-			lo = math.Min(lo, sv.rpm*sv.L)
-		}
-		if !(lo > 0) {
+	out := m.sv.reachableRe(max(samples, 2))
+	for k := range out {
+		if !(out[k].Lo > 0) {
 			// No lower p0 limit: show three decades below the top, which
 			// a log axis can draw.
-			lo = hi / 1000
+			out[k].Lo = out[k].Hi / 1000
 		}
-		out = append(out, ReRange{Mach: M, Lo: lo, Hi: hi})
 	}
 	return out
 }

@@ -117,10 +117,11 @@ func TestReachableReAgreesWithDetail(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			sv := m.sv
+			sv := m.sv.(*gasSolver)
 			c := sv.bounds(d.Mach)
-			_, _, hi, _, _, ok := sv.best(&c)
-			lo := sv.reAt(&c, sv.p0min, sv.t0max)
+			top, ok := sv.best(&c)
+			hi := top.re
+			lo := sv.reAt(&c, sv.lim.P0Min, sv.lim.T0Max)
 			if !ok || d.Re > hi*(1+tol) || d.Re < lo*(1-tol) {
 				t.Errorf("%s (%d,%d): Re %g outside drawn range %g–%g at Mach %g", m.Facility.Name, p.Row, p.Col, d.Re, lo, hi, d.Mach)
 			}

@@ -22,8 +22,9 @@ import (
 // relations and Sutherland's law), far above the cap; flight at 15 km and
 // Mach 0.4 on a 2 m model needs only about 3e6.
 func TestOvershootWithinUnitReynoldsCap(t *testing.T) {
-	f := Facility{Name: "capped", Medium: MediumNitrogen, MachMin: 0.2, MachMax: 0.6,
-		P0Min: 10e5, P0Max: 50e5, T0Min: 285, T0Max: 315, MaxReynoldsPerM: 1e7, Width: 2, Height: 2}
+	f := Facility{Name: "capped", Medium: "nitrogen",
+		Gas:             GasLimits{MachMin: 0.2, MachMax: 0.6, P0Min: 10e5, P0Max: 50e5, T0Min: 285, T0Max: 315},
+		MaxReynoldsPerM: 1e7, Width: 2, Height: 2}
 	v := onePointVehicle(15000, 0.4, 2)
 	s := testSettings()
 	s.Scale = 1
@@ -166,27 +167,27 @@ func TestPropertyReynoldsLinearInP0(t *testing.T) {
 		if c.f.Medium == MediumWater {
 			continue
 		}
-		c.f.QMax, c.f.MinStaticT, c.f.MaxReynoldsPerM, c.f.Condensation = 0, 0, 0, false
+		c.f.QMax, c.f.Gas.MinStaticT, c.f.MaxReynoldsPerM, c.f.Gas.Condensation = 0, 0, 0, false
 		s := c.settings
 		s.Scale = 0.05
 		k := 1 + 9*rng.Float64()
-		if c.f.P0Max*k > maxPressure {
-			k = maxPressure / c.f.P0Max
+		if c.f.Gas.P0Max*k > maxPressure {
+			k = maxPressure / c.f.Gas.P0Max
 		}
 		g, err := NewGrid(onePointVehicle(c.alt, c.mf, c.refLen), s)
 		if err != nil {
 			t.Fatal(err)
 		}
 		f1, fk := c.f, c.f
-		fk.P0Min, fk.P0Max = k*c.f.P0Min, k*c.f.P0Max
+		fk.Gas.P0Min, fk.Gas.P0Max = k*c.f.Gas.P0Min, k*c.f.Gas.P0Max
 		m1, err1 := Solve(g, &f1, s)
 		mk, errk := Solve(g, &fk, s)
 		if err1 != nil || errk != nil {
 			t.Fatal(err1, errk)
 		}
-		M := f1.MachMin + (f1.MachMax-f1.MachMin)*rng.Float64()
-		if M >= 1 && f1.Medium == MediumAir {
-			continue // the saturation line always applies to supersonic air
+		M := f1.Gas.MachMin + (f1.Gas.MachMax-f1.Gas.MachMin)*rng.Float64()
+		if gas, _ := atmos.GasByName(string(f1.Medium)); M >= 1 && gas.DrySupersonic() {
+			continue // the saturation line always applies (supersonic air)
 		}
 		lo1, hi1, ok1 := m1.ReynoldsRange(M)
 		lok, hik, okk := mk.ReynoldsRange(M)
@@ -323,8 +324,9 @@ func TestWaterCoolingKeepsDynamicPressure(t *testing.T) {
 		t.Fatal(err)
 	}
 	vmin := math.Sqrt(2*qmax/hot.Density) * (1 - 1e-6)
-	f := Facility{Name: "q-limited water", Medium: MediumWater, SpeedMin: vmin, SpeedMax: 3 * vmin,
-		P0Min: 1e5, P0Max: pStatic, T0Min: 283.15, T0Max: 313.15, QMax: qmax, Width: 1, Height: 1}
+	f := Facility{Name: "q-limited water", Medium: MediumWater,
+		Water: WaterLimits{SpeedMin: vmin, SpeedMax: 3 * vmin, PMin: 1e5, PMax: pStatic, TMin: 283.15, TMax: 313.15},
+		QMax:  qmax, Width: 1, Height: 1}
 	s := testSettings()
 	s.Scale = 0.5
 	g, err := NewGrid(onePointVehicle(10000, 0.01, 1), s)
@@ -345,8 +347,8 @@ func TestWaterCoolingKeepsDynamicPressure(t *testing.T) {
 	if d.Class != MachRelaxed || d.Limit != LimitQMax || !d.Flags.Has(FlagReOver) {
 		t.Errorf("class %v, limit %v, flags %v; want Mach relaxed held by the dynamic-pressure limit, Reynolds over", d.Class, d.Limit, d.Flags)
 	}
-	if !(d.T0 >= f.T0Min && d.T0 <= f.T0Max) || d.V != vmin {
-		t.Errorf("setting %.4f K at %.6g m/s, want within %g–%g K at the minimum speed %.6g", d.T0, d.V, f.T0Min, f.T0Max, vmin)
+	if !(d.T0 >= f.Water.TMin && d.T0 <= f.Water.TMax) || d.V != vmin {
+		t.Errorf("setting %.4f K at %.6g m/s, want within %g–%g K at the minimum speed %.6g", d.T0, d.V, f.Water.TMin, f.Water.TMax, vmin)
 	}
 	// The water is as cold as the limit allows: 0.01 K colder breaks it.
 	colder, err := atmos.WaterAtPressure(d.T0-0.01, pStatic)

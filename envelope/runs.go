@@ -67,8 +67,10 @@ type Run struct {
 // any of them. Steps holds the number of steps from one set point to the
 // next (set points − 1).
 type Changes struct {
-	T0, P0, Mach, Any int
-	Steps             int
+	T0, P0, Mach int
+	// Moved counts the steps that move at least one of them.
+	Moved int
+	Steps int
 }
 
 // RunList is one facility's ordered run list.
@@ -314,7 +316,7 @@ func CountChanges(runs []Run, water bool) Changes {
 			}
 		}
 		if moved {
-			c.Any++
+			c.Moved++
 		}
 	}
 	return c

@@ -53,7 +53,7 @@ func TestOrderRunsGas(t *testing.T) {
 	}
 	// E→C Mach; C→B all three; B→D p0 and Mach (T0 0.4 K apart);
 	// D→A Mach (p0 0.25 % apart); A→F all three.
-	want := Changes{T0: 2, P0: 3, Mach: 5, Any: 5, Steps: 5}
+	want := Changes{T0: 2, P0: 3, Mach: 5, Moved: 5, Steps: 5}
 	if got != want {
 		t.Errorf("OrderRuns changes = %+v, want %+v", got, want)
 	}
@@ -76,7 +76,7 @@ func TestOrderRunsWater(t *testing.T) {
 	if s := strings.Join(rows, " "); s != "3 1 2 4 0" {
 		t.Errorf("water order rows = %s, want 3 1 2 4 0", s)
 	}
-	want := Changes{T0: 1, P0: 0, Mach: 4, Any: 4, Steps: 4}
+	want := Changes{T0: 1, P0: 0, Mach: 4, Moved: 4, Steps: 4}
 	if got != want {
 		t.Errorf("water changes = %+v, want %+v", got, want)
 	}
@@ -128,7 +128,7 @@ func TestPlanRunsDemo(t *testing.T) {
 		if c := CountChanges(rl.Runs, water); c != rl.Changes {
 			t.Errorf("%s: Changes = %+v, CountChanges = %+v", m.Facility.Name, rl.Changes, c)
 		}
-		if c := rl.Changes; c.Any > len(rl.Runs)-1 || c.T0 > c.Any || c.P0 > c.Any || c.Mach > c.Any {
+		if c := rl.Changes; c.Moved > len(rl.Runs)-1 || c.T0 > c.Moved || c.P0 > c.Moved || c.Mach > c.Moved {
 			t.Errorf("%s: changes %+v inconsistent with %d runs", m.Facility.Name, c, len(rl.Runs))
 		}
 		for k, r := range rl.Runs {
@@ -299,7 +299,7 @@ func TestPlanRunsMergesDemo(t *testing.T) {
 				}
 			}
 		}
-		if c := rl.Changes; c.Steps != rl.SetPoints-1 || c.Any > c.Steps {
+		if c := rl.Changes; c.Steps != rl.SetPoints-1 || c.Moved > c.Steps {
 			t.Errorf("%s: changes %+v with %d set points", m.Facility.Name, c, rl.SetPoints)
 		}
 	}

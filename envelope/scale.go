@@ -101,7 +101,7 @@ func (m *Map) sizeMach(flightMach float64, has bool, testMach float64) float64 {
 	case has:
 		return testMach
 	}
-	return greaterOf(lesserOf(flightMach, m.Facility.MachMax), m.Facility.MachMin)
+	return max(min(flightMach, m.Facility.Gas.MachMax), m.Facility.Gas.MachMin)
 }
 
 // sizeFlag is FlagModelTooLarge when the map's model does not fit the
@@ -123,60 +123,33 @@ func (m *Map) sizeFlag(mach float64) Flags {
 //	scale_min = (1 − ReTol)·Re_flight / (Re_best at scale 1),
 //
 // with Re_best the highest over the Mach numbers within MachTol of flight
-// (the flight Mach number and solver.maxOver of the band), as Solve finds
+// (the flight Mach number and gasSolver.maxOver of the band), as Solve finds
 // a full match anywhere in that band.
 //
 // ok is false when the point is outside the envelope, the facility cannot
 // run the flight Mach number (within MachTol), no setting exists there, or
 // the medium is a liquid (no Mach match).
 func MinScaleFullMatch(g *Grid, f *Facility, s Settings, i, j int) (float64, bool) {
-	if f.Medium == MediumWater || checkFacility(f) != nil || checkSettings(s) != nil {
+	sv, ok := scaleOneSolver(g, f, s)
+	if !ok {
 		return 0, false
 	}
-	sv := solverFor(f, s, g.Regimes, g.Vehicle.RefLength)
 	return sv.minScale(&g.points[g.Index(i, j)], nil)
 }
 
-// minScale is MinScaleFullMatch for flight record r; memo, when not nil,
-// keeps the scale-1 Reynolds number per flight Mach number.
-func (sv *solver) minScale(r *flightRec, memo map[float64]float64) (float64, bool) {
-	if r.excl != InEnvelope {
-		return 0, false
+// scaleOneSolver is the solver of facility f for a full-scale model (its
+// Reynolds numbers are those at scale 1); ok is false when f or s is not
+// valid.
+func scaleOneSolver(g *Grid, f *Facility, s Settings) (solver, bool) {
+	if checkSettings(s) != nil {
+		return nil, false
 	}
-	mf := r.mach
-	mm := math.Min(math.Max(mf, sv.f.MachMin), sv.f.MachMax)
-	if !sv.machMatched(mm, mf) {
-		return 0, false
+	sv, err := newSolver(f, s, g.Regimes)
+	if err != nil {
+		return nil, false
 	}
-	re1, seen := memo[mf]
-	if !seen {
-		re1 = sv.bestNearMach(mf, mm)
-		if memo != nil {
-			memo[mf] = re1
-		}
-	}
-	if !(re1 > 0) {
-		return 0, false
-	}
-	return (1 - sv.reTol) * r.re / re1, true
-}
-
-// bestNearMach is the highest best-setting Reynolds number at facility
-// Mach numbers within MachTol of flight Mach number mf (mm: mf held within
-// the facility range), 0 when none is usable.
-func (sv *solver) bestNearMach(mf, mm float64) float64 {
-	var re1 float64
-	if c := sv.bounds(mm); c.ok {
-		if _, _, re, _, _, ok := sv.best(&c); ok {
-			re1 = re
-		}
-	}
-	if lo, hi, ok := sv.machBand(mf); ok {
-		if top, ok := sv.maxOver(lo, hi); ok {
-			re1 = math.Max(re1, top.re)
-		}
-	}
-	return re1
+	sv.setModelLength(g.Vehicle.RefLength)
+	return sv, true
 }
 
 // MinScaleEnvelope is the smallest model scale at which every inside point
@@ -193,10 +166,10 @@ func MinScaleEnvelope(g *Grid, f *Facility, s Settings) (float64, bool) {
 // of g and the number of points that have one, with one solver and the
 // scale-1 Reynolds number computed once per flight Mach number.
 func minScaleSurvey(g *Grid, f *Facility, s Settings) (most float64, n int) {
-	if f.Medium == MediumWater || checkFacility(f) != nil || checkSettings(s) != nil {
+	sv, ok := scaleOneSolver(g, f, s)
+	if !ok {
 		return 0, 0
 	}
-	sv := solverFor(f, s, g.Regimes, g.Vehicle.RefLength)
 	memo := map[float64]float64{}
 	for k := range g.points {
 		if sc, ok := sv.minScale(&g.points[k], memo); ok {

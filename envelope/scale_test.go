@@ -118,7 +118,7 @@ func TestMinScaleEnvelope(t *testing.T) {
 			}
 		}
 	}
-	f.MachMin = 0.1
+	f.Gas.MachMin = 0.1
 	if sc2, ok := MinScaleEnvelope(g, &f, testSettings()); !ok || sc2 < sc {
 		t.Errorf("with Mach 0.1 reachable: MinScaleEnvelope = %v, %v; want ok and at least %v", sc2, ok, sc)
 	}

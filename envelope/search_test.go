@@ -23,15 +23,16 @@ func facilityNamed(t *testing.T, maps []*Map, prefix string) *Map {
 // bestRe is the best-setting Reynolds number of m at facility Mach number
 // M (0 when none).
 func bestRe(m *Map, M float64) float64 {
-	c := m.sv.bounds(M)
+	sv := m.sv.(*gasSolver)
+	c := sv.bounds(M)
 	if !c.ok {
 		return 0
 	}
-	_, _, re, _, _, ok := m.sv.best(&c)
+	top, ok := sv.best(&c)
 	if !ok {
 		return 0
 	}
-	return re
+	return top.re
 }
 
 // TestRelaxReachesTopOfRange: the Mach-relaxed search includes the top of
@@ -78,7 +79,7 @@ func TestRelaxClassIndependentOfMachMin(t *testing.T) {
 	tested := 0
 	for _, lo := range lows {
 		f := *ref.Facility
-		f.MachMin = lo
+		f.Gas.MachMin = lo
 		m, err := Solve(g, &f, ref.Settings)
 		if err != nil {
 			t.Fatal(err)
@@ -92,7 +93,7 @@ func TestRelaxClassIndependentOfMachMin(t *testing.T) {
 				tested++
 				if got, want := m.At(i, j).Class, ref.At(i, j).Class; got != want {
 					t.Errorf("Mach range from %g: (%d, %d) at flight Mach %.2f is %v, from %g it is %v",
-						lo, i, j, fp.Mach, got, ref.Facility.MachMin, want)
+						lo, i, j, fp.Mach, got, ref.Facility.Gas.MachMin, want)
 				}
 			}
 		}
@@ -150,15 +151,15 @@ func TestFullMatchInMachBand(t *testing.T) {
 					mf := d.Flight.Airspeeds.Mach
 					need := (1 - m.Settings.ReTol) * d.ReFlight
 					if r.Class == FullMatch {
-						if math.Abs(d.Mach-mf) > tol*(1+1e-9) || d.ReRatio < (1-m.Settings.ReTol)*(1-1e-9) {
+						if !withinTol(d.Mach, mf, tol) || d.ReRatio < (1-m.Settings.ReTol)*(1-1e-9) {
 							t.Errorf("%s (%d, %d): full match at test Mach %g (flight %g), ratio %g", m.Facility.Name, i, j, d.Mach, mf, d.ReRatio)
 						}
-						if bestRe(m, math.Min(math.Max(mf, m.Facility.MachMin), m.Facility.MachMax)) < need {
+						if bestRe(m, math.Min(math.Max(mf, m.Facility.Gas.MachMin), m.Facility.Gas.MachMax)) < need {
 							upgraded++
 						}
 						continue
 					}
-					lo, hi := math.Max(mf-tol, m.Facility.MachMin), math.Min(mf+tol, m.Facility.MachMax)
+					lo, hi := math.Max(mf-tol, m.Facility.Gas.MachMin), math.Min(mf+tol, m.Facility.Gas.MachMax)
 					for M := lo; M <= hi+1e-12; M += 0.0005 {
 						if re := bestRe(m, math.Min(M, hi)); re >= need*(1+1e-6) {
 							t.Errorf("%s (%d, %d): %v, but test Mach %.4f (flight %.2f) reaches ratio %.4f",
@@ -180,13 +181,15 @@ func TestFullMatchInMachBand(t *testing.T) {
 // TestBandSearchHandCases: a pressurised air tunnel held by its p0 and T0
 // ranges alone, where the best Reynolds number rises with Mach number.
 func TestBandSearchHandCases(t *testing.T) {
-	f := Facility{Name: "band", Medium: MediumAir, MachMin: 0.3, MachMax: 0.9,
-		P0Min: 1e5, P0Max: 2e5, T0Min: 290, T0Max: 320, Width: 2, Height: 2}
+	f := Facility{Name: "band", Medium: "air",
+		Gas:   GasLimits{MachMin: 0.3, MachMax: 0.9, P0Min: 1e5, P0Max: 2e5, T0Min: 290, T0Max: 320},
+		Width: 2, Height: 2}
 	s := testSettings()
 	sv := testSolver(t, f, s, 0.3)
 	at := func(M float64) float64 {
 		c := sv.bounds(M)
-		_, _, re, _, _, _ := sv.best(&c)
+		top, _ := sv.best(&c)
+		re := top.re
 		return re
 	}
 	const mf, tFlight = 0.55, 220.0
@@ -250,7 +253,7 @@ func TestRelaxedReMaxIsBest(t *testing.T) {
 	_, maps := outSecondDemoMaps(t)
 	m := facilityNamed(t, maps, "Kellen Fold")
 	d, _ := m.Detail(0, 2)
-	if d.Class != MachRelaxed || d.Mach != m.Facility.MachMin || relErr(d.ReMax, d.ReSweepMax) > solveTol || !(d.ReMax > 1.1*d.Re) {
+	if d.Class != MachRelaxed || d.Mach != m.Facility.Gas.MachMin || relErr(d.ReMax, d.ReSweepMax) > solveTol || !(d.ReMax > 1.1*d.Re) {
 		t.Errorf("Kellen Fold (0, 2): %v at Mach %g, ReMax %.7g, sweep max %.7g, model Re %.7g; want ReMax = sweep max above Re",
 			d.Class, d.Mach, d.ReMax, d.ReSweepMax, d.Re)
 	}
@@ -285,20 +288,23 @@ func TestPressureSideLimitUnderReCap(t *testing.T) {
 	}
 	// Hand cases on one facility: a cap that T0 can meet, and one so low
 	// that T0 reaches its maximum and p0 must come down.
-	f := Facility{Name: "cap", Medium: MediumAir, MachMin: 0.3, MachMax: 0.9,
-		P0Min: 1e4, P0Max: 4e5, T0Min: 280, T0Max: 320, QMax: 5e4, Width: 2, Height: 2}
+	f := Facility{Name: "cap", Medium: "air",
+		Gas:  GasLimits{MachMin: 0.3, MachMax: 0.9, P0Min: 1e4, P0Max: 4e5, T0Min: 280, T0Max: 320},
+		QMax: 5e4, Width: 2, Height: 2}
 	for _, c := range []struct {
 		cap        float64
 		pLim, tLim Limit
 	}{{0, LimitQMax, LimitT0Min}, {0.9, LimitQMax, LimitRePerM}, {0.5, LimitRePerM, LimitT0Max}} {
 		sv := testSolver(t, f, testSettings(), 0.3)
 		b := sv.bounds(0.7)
-		_, _, re, _, _, _ := sv.best(&b)
+		top, _ := sv.best(&b)
+		re := top.re
 		f2 := f
 		f2.MaxReynoldsPerM = c.cap * re / 0.3
 		sv = testSolver(t, f2, testSettings(), 0.3)
 		b = sv.bounds(0.7)
-		p0, t0, _, pl, tl, ok := sv.best(&b)
+		top, ok := sv.best(&b)
+		p0, t0, pl, tl := top.p0, top.t0, top.lim.p, top.lim.t
 		if !ok || pl != c.pLim || tl != c.tLim {
 			t.Errorf("cap %g of the uncapped best: p0 %.6g T0 %.5g limits %v / %v, want %v / %v",
 				c.cap, p0, t0, pl, tl, c.pLim, c.tLim)
@@ -313,8 +319,9 @@ func TestPressureSideLimitUnderReCap(t *testing.T) {
 // 1 atm water at 300 K is lighter by 0.13 % and 3.5 %).
 func TestWaterAtSectionPressure(t *testing.T) {
 	for _, c := range []struct{ p, v float64 }{{3e6, 0.100215168e-2}, {80e6, 0.971180894e-3}} {
-		f := Facility{Name: "pressurised water", Medium: MediumWater, SpeedMin: 0.5, SpeedMax: 20,
-			P0Min: c.p, P0Max: c.p, T0Min: 300, T0Max: 300, Width: 1, Height: 1}
+		f := Facility{Name: "pressurised water", Medium: MediumWater,
+			Water: WaterLimits{SpeedMin: 0.5, SpeedMax: 20, PMin: c.p, PMax: c.p, TMin: 300, TMax: 300},
+			Width: 1, Height: 1}
 		s := testSettings()
 		s.Scale = 0.1
 		g, err := NewGrid(onePointVehicle(3000, 0.1, 2), s)

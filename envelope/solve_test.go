@@ -32,15 +32,15 @@ func testSettings() Settings {
 
 // cryoTunnel is an invented pressurised cryogenic nitrogen tunnel.
 func cryoTunnel() Facility {
-	return Facility{Name: "cryogenic test tunnel", Medium: MediumNitrogen, MachMin: 0.2, MachMax: 1.2,
-		P0Min: 1.2e5, P0Max: 4.5e5, T0Min: 90, T0Max: 320, QMax: 1.2e5, Condensation: true,
-		Width: 2.5, Height: 2.5}
+	return Facility{Name: "cryogenic test tunnel", Medium: "nitrogen",
+		Gas:  GasLimits{MachMin: 0.2, MachMax: 1.2, P0Min: 1.2e5, P0Max: 4.5e5, T0Min: 90, T0Max: 320, Condensation: true},
+		QMax: 1.2e5, Width: 2.5, Height: 2.5}
 }
 
 // waterTunnel is an invented water tunnel.
 func waterTunnel() Facility {
-	return Facility{Name: "water test tunnel", Medium: MediumWater, SpeedMin: 1, SpeedMax: 15,
-		T0Min: 283.15, T0Max: 313.15, P0Max: 2e5, Width: 1, Height: 1}
+	return Facility{Name: "water test tunnel", Medium: MediumWater,
+		Water: WaterLimits{SpeedMin: 1, SpeedMax: 15, TMin: 283.15, TMax: 313.15, PMax: 2e5}, Width: 1, Height: 1}
 }
 
 // classTunnel is an invented cryogenic nitrogen tunnel whose limits make
@@ -48,17 +48,39 @@ func waterTunnel() Facility {
 // dynamic-pressure cap that binds near its top Mach number, and a Mach
 // range that starts above the lowest flight Mach numbers.
 func classTunnel() Facility {
-	return Facility{Name: "class tunnel", Medium: MediumNitrogen, MachMin: 0.2, MachMax: 0.9,
-		P0Min: 1e5, P0Max: 3e5, T0Min: 80, T0Max: 320, QMax: 6e4, Condensation: true,
-		Width: 2, Height: 2}
+	return Facility{Name: "class tunnel", Medium: "nitrogen",
+		Gas:  GasLimits{MachMin: 0.2, MachMax: 0.9, P0Min: 1e5, P0Max: 3e5, T0Min: 80, T0Max: 320, Condensation: true},
+		QMax: 6e4, Width: 2, Height: 2}
 }
 
-func testSolver(t testing.TB, f Facility, s Settings, L float64) *solver {
+// testSolver is the solver of gas facility f for a model of reference
+// length L (m), and testWaterSolver that of a water facility.
+func testSolver(t testing.TB, f Facility, s Settings, L float64) *gasSolver {
 	t.Helper()
-	if err := checkFacility(&f); err != nil {
+	sv, ok := mustSolver(t, f, s, L).(*gasSolver)
+	if !ok {
+		t.Fatalf("%s: not a gas facility", f.Name)
+	}
+	return sv
+}
+
+func testWaterSolver(t testing.TB, f Facility, s Settings, L float64) *waterSolver {
+	t.Helper()
+	sv, ok := mustSolver(t, f, s, L).(*waterSolver)
+	if !ok {
+		t.Fatalf("%s: not a water facility", f.Name)
+	}
+	return sv
+}
+
+func mustSolver(t testing.TB, f Facility, s Settings, L float64) solver {
+	t.Helper()
+	sv, err := newSolver(&f, s, atmos.DefaultRegimes())
+	if err != nil {
 		t.Fatal(err)
 	}
-	return solverFor(&f, s, atmos.DefaultRegimes(), L)
+	sv.setModelLength(L)
+	return sv
 }
 
 // TestIsentropicSteps checks the isentropic ratios and q/p0 used by the
@@ -115,8 +137,9 @@ func TestIsentropicSteps(t *testing.T) {
 // 200 kPa gives it, i.e. T0 = 300 K (the quadratic in T), and the lowest p0
 // at that T0 is 200 kPa.
 func TestHandWorkedTransonic(t *testing.T) {
-	f := Facility{Name: "hand", Medium: MediumAir, MachMin: 0.3, MachMax: 1.1,
-		P0Min: 1e5, P0Max: 2e5, T0Min: 250, T0Max: 320}
+	f := Facility{Name: "hand", Medium: "air",
+		Gas: GasLimits{MachMin: 0.3, MachMax: 1.1, P0Min: 1e5, P0Max: 2e5, T0Min: 250, T0Max: 320},
+	}
 	sv := testSolver(t, f, testSettings(), 0.3)
 	ps := sv.solve(0.90, 8.4566e6, 250, true)
 	if ps.class != FullMatch {
@@ -177,13 +200,13 @@ func feasible(f *Facility, gas atmos.IdealGas, M, p0, t0, L float64, condOn bool
 	tol := 1e-9
 	T := t0 * atmos.TemperatureRatio(M, 1.4)
 	p := p0 * atmos.PressureRatio(M, 1.4)
-	if p0 < f.P0Min*(1-tol) || p0 > f.P0Max*(1+tol) || t0 < f.T0Min*(1-tol) || t0 > f.T0Max*(1+tol) {
+	if p0 < f.Gas.P0Min*(1-tol) || p0 > f.Gas.P0Max*(1+tol) || t0 < f.Gas.T0Min*(1-tol) || t0 > f.Gas.T0Max*(1+tol) {
 		return false
 	}
 	if f.QMax > 0 && 0.7*p*M*M > f.QMax*(1+tol) {
 		return false
 	}
-	if T < f.MinStaticT*(1-tol) {
+	if T < f.Gas.MinStaticT*(1-tol) {
 		return false
 	}
 	if condOn && T < gas.SaturationTemperature(p)*(1-tol) {
@@ -205,7 +228,7 @@ func feasible(f *Facility, gas atmos.IdealGas, M, p0, t0, L float64, condOn bool
 func TestBestIsJointMaximum(t *testing.T) {
 	rng := rand.New(rand.NewPCG(3, 4))
 	f := classTunnel()
-	f.MinStaticT = 70
+	f.Gas.MinStaticT = 70
 	f.MaxReynoldsPerM = 3.5e8
 	sv := testSolver(t, f, testSettings(), 0.2)
 	gas := atmos.Nitrogen()
@@ -215,7 +238,8 @@ func TestBestIsJointMaximum(t *testing.T) {
 		if !c.ok {
 			continue
 		}
-		p0b, t0b, reb, _, _, ok := sv.best(&c)
+		top, ok := sv.best(&c)
+		p0b, t0b, reb := top.p0, top.t0, top.re
 		if !ok {
 			continue
 		}
@@ -223,8 +247,8 @@ func TestBestIsJointMaximum(t *testing.T) {
 			t.Errorf("M %.3f: best corner p0 %.6g T0 %.6g fails a limit", M, p0b, t0b)
 		}
 		for n := 0; n < 400; n++ {
-			p0 := f.P0Min + (f.P0Max-f.P0Min)*rng.Float64()
-			t0 := f.T0Min + (f.T0Max-f.T0Min)*rng.Float64()*rng.Float64()
+			p0 := f.Gas.P0Min + (f.Gas.P0Max-f.Gas.P0Min)*rng.Float64()
+			t0 := f.Gas.T0Min + (f.Gas.T0Max-f.Gas.T0Min)*rng.Float64()*rng.Float64()
 			if !feasible(&f, gas, M, p0, t0, sv.L, c.condOn) {
 				continue
 			}
@@ -248,12 +272,14 @@ func TestHitIsWarmestThenLowest(t *testing.T) {
 	for k := 0; k < 400; k++ {
 		M := 0.2 + 0.7*rng.Float64()
 		c := sv.bounds(M)
-		_, _, reb, _, _, ok := sv.best(&c)
+		top, ok := sv.best(&c)
+		reb := top.re
 		if !ok {
 			continue
 		}
 		target := reb * (0.05 + 0.95*rng.Float64())
-		p0, t0, re, over, ok := sv.tryHit(&c, target)
+		h, ok := sv.tryHit(&c, target)
+		p0, t0, re, over := h.p0, h.t0, h.re, h.over
 		if !ok {
 			t.Errorf("M %.3f: target %.4g below best %.4g not reached", M, target, reb)
 			continue
@@ -262,7 +288,7 @@ func TestHitIsWarmestThenLowest(t *testing.T) {
 			t.Errorf("M %.3f: setting p0 %.6g T0 %.6g fails a limit", M, p0, t0)
 		}
 		if over {
-			if !(re >= target) || p0 != f.P0Min {
+			if !(re >= target) || p0 != f.Gas.P0Min {
 				t.Errorf("M %.3f: overshoot flagged with Re %v target %v p0 %v", M, re, target, p0)
 			}
 			continue
@@ -273,7 +299,7 @@ func TestHitIsWarmestThenLowest(t *testing.T) {
 		}
 		// Warmer by 0.1 K at the highest usable p0 falls short (unless T0 is
 		// already at T0Max).
-		if t0 < f.T0Max-1e-9 {
+		if t0 < f.Gas.T0Max-1e-9 {
 			if r := sv.reAt(&c, c.p0hi, t0+0.1); r >= target {
 				t.Errorf("M %.3f: T0 %.4f not the warmest: T0+0.1 K at p0hi gives %.6g ≥ %.6g", M, t0, r, target)
 			}
@@ -296,7 +322,8 @@ func TestClassesOneFacility(t *testing.T) {
 	sv := testSolver(t, f, s, 0.2)
 	bestAt := func(M float64) float64 {
 		c := sv.bounds(M)
-		_, _, re, _, _, ok := sv.best(&c)
+		top, ok := sv.best(&c)
+		re := top.re
 		if !ok {
 			t.Fatalf("no setting at M %v", M)
 		}
@@ -340,20 +367,20 @@ func TestClassesOneFacility(t *testing.T) {
 			}
 		}
 		if ps.class == MachRelaxed {
-			if ps.mach < f.MachMin || ps.mach > s.CompressibilityMach {
-				t.Errorf("%s: relaxed Mach %v outside %v–%v", tc.name, ps.mach, f.MachMin, s.CompressibilityMach)
+			if ps.mach < f.Gas.MachMin || ps.mach > s.CompressibilityMach {
+				t.Errorf("%s: relaxed Mach %v outside %v–%v", tc.name, ps.mach, f.Gas.MachMin, s.CompressibilityMach)
 			}
 			// Nearest to flight: a little nearer does not reach the target.
-			if ps.mach > f.MachMin+1e-4 {
+			if ps.mach > f.Gas.MachMin+1e-4 {
 				c := sv.bounds(ps.mach - 1e-4)
-				if _, _, _, _, ok := sv.tryHit(&c, tc.reF); ok {
+				if _, ok := sv.tryHit(&c, tc.reF); ok {
 					t.Errorf("%s: Mach %v is not the nearest to flight that reaches Re", tc.name, ps.mach)
 				}
 			}
 		}
 	}
 	// The liquid case: a water tunnel cannot run Mach 0.5.
-	w := testSolver(t, waterTunnel(), s, 0.2)
+	w := testWaterSolver(t, waterTunnel(), s, 0.2)
 	if ps := w.solve(0.5, 1e6, 250, true); ps.class != NoMatch || ps.limit != LimitIncompressible {
 		t.Errorf("water at M 0.5: class %v limit %v, want out of reach, %v", ps.class, ps.limit, LimitIncompressible)
 	}
@@ -374,14 +401,15 @@ func TestJointLimits(t *testing.T) {
 	c := sv.bounds(M)
 	tau, pi := c.tau, c.pi
 	// Independent checks, each at its own most favourable corner.
-	if q := 0.7 * f.P0Max * pi * M * M; q > f.QMax {
+	if q := 0.7 * f.Gas.P0Max * pi * M * M; q > f.QMax {
 		t.Fatalf("setup: q at P0Max %v above QMax", q)
 	}
-	if f.T0Min*tau < gas.SaturationTemperature(f.P0Min*pi) {
+	if f.Gas.T0Min*tau < gas.SaturationTemperature(f.Gas.P0Min*pi) {
 		t.Fatalf("setup: T0Min condenses even at P0Min")
 	}
-	naive := sv.reAt(&c, f.P0Max, f.T0Min) // "p0 in range, T0 in range"
-	_, _, joint, _, _, ok := sv.best(&c)
+	naive := sv.reAt(&c, f.Gas.P0Max, f.Gas.T0Min) // "p0 in range, T0 in range"
+	top, ok := sv.best(&c)
+	joint := top.re
 	if !ok || !(joint < naive) {
 		t.Fatalf("setup: joint best %v not below naive %v", joint, naive)
 	}
@@ -409,7 +437,8 @@ func TestLimitLines(t *testing.T) {
 	sv := testSolver(t, f, testSettings(), 0.2)
 	gas := atmos.Nitrogen()
 	c := sv.bounds(0.85)
-	p0, _, _, pl, _, _ := sv.best(&c)
+	top, _ := sv.best(&c)
+	p0, pl := top.p0, top.lim.p
 	if pl != LimitQMax {
 		t.Fatalf("M 0.85 pressure limit %v, want q cap", pl)
 	}
@@ -420,7 +449,8 @@ func TestLimitLines(t *testing.T) {
 		t.Errorf("q at the corner = %v, want QMax %v", q, f.QMax)
 	}
 	c = sv.bounds(0.5)
-	p0, t0, _, _, tl, _ := sv.best(&c)
+	top, _ = sv.best(&c)
+	p0, t0, tl := top.p0, top.t0, top.lim.t
 	if tl != LimitCondensation {
 		t.Fatalf("M 0.5 temperature limit %v, want condensation", tl)
 	}
@@ -428,11 +458,11 @@ func TestLimitLines(t *testing.T) {
 		t.Errorf("static T on the saturation line = %v, want Tsat = %v", T, Ts)
 	}
 	// With the flag off (nitrogen, subsonic) the floor is T0Min.
-	f.Condensation = false
+	f.Gas.Condensation = false
 	sv = testSolver(t, f, testSettings(), 0.2)
 	c = sv.bounds(0.5)
-	if _, t0, _, _, tl, _ := sv.best(&c); tl != LimitT0Min || t0 != f.T0Min {
-		t.Errorf("without the condensation check: T0 %v limit %v, want T0Min %v", t0, tl, f.T0Min)
+	if top, _ := sv.best(&c); top.lim.t != LimitT0Min || top.t0 != f.Gas.T0Min {
+		t.Errorf("without the condensation check: T0 %v limit %v, want T0Min %v", top.t0, top.lim.t, f.Gas.T0Min)
 	}
 }
 
@@ -441,12 +471,13 @@ func TestLimitLines(t *testing.T) {
 // not. Checked with the isentropic ratios at M 1.4 directly.
 func TestCondensationWarning(t *testing.T) {
 	f := cryoTunnel()
-	f.T0Min = 80
+	f.Gas.T0Min = 80
 	sv := testSolver(t, f, testSettings(), 0.2)
 	gas := atmos.Nitrogen()
 	tau14, pi14 := atmos.TemperatureRatio(1.4, 1.4), atmos.PressureRatio(1.4, 1.4)
 	c := sv.bounds(0.8)
-	_, _, reb, _, _, _ := sv.best(&c)
+	top, _ := sv.best(&c)
+	reb := top.re
 	var warned, clear int
 	for _, frac := range []float64{0.2, 0.4, 0.6, 0.8, 0.95, 1.0} {
 		ps := sv.solve(0.8, frac*reb, 250, true)
@@ -473,18 +504,19 @@ func TestCondensationWarning(t *testing.T) {
 // 2000 ancillary, in atmos): at Mach 4.5 the T0 floor is Tsat(p)/τ.
 func TestAirSupersonicMinT0(t *testing.T) {
 	f := benchFacilities()[3] // supersonic blowdown, air
-	f.Condensation = false
-	f.T0Min = 250
+	f.Gas.Condensation = false
+	f.Gas.T0Min = 250
 	sv := testSolver(t, f, testSettings(), 0.05)
 	gas := atmos.Air()
 	const M = 4.5
 	c := sv.bounds(M)
-	p0, t0, _, _, tl, ok := sv.best(&c)
+	top, ok := sv.best(&c)
+	p0, t0, tl := top.p0, top.t0, top.lim.t
 	if !ok || tl != LimitCondensation {
 		t.Fatalf("M 4.5 best: ok %v, T0 limit %v, want condensation", ok, tl)
 	}
 	want := gas.SaturationTemperature(p0*c.pi) / c.tau
-	if relErr(t0, want) > solveTol || t0 <= f.T0Min {
+	if relErr(t0, want) > solveTol || t0 <= f.Gas.T0Min {
 		t.Errorf("T0 floor %v, want Tsat(p)/τ = %v above T0Min", t0, want)
 	}
 	ps := sv.solve(M, 1e12, 220, true) // far beyond reach: report the best
@@ -498,7 +530,7 @@ func TestAirSupersonicMinT0(t *testing.T) {
 // 30 km); a facility T0 of at most 900 K is below half of it.
 func TestEnthalpyAndRealGas(t *testing.T) {
 	f := benchFacilities()[4] // hypersonic blowdown, air, T0 up to 1100 K
-	f.T0Max = 900
+	f.Gas.T0Max = 900
 	sv := testSolver(t, f, testSettings(), 0.1)
 	st, err := atmos.At(30000)
 	if err != nil {
@@ -521,10 +553,10 @@ func TestEnthalpyAndRealGas(t *testing.T) {
 // stops the settings from coming down.
 func TestOvershoot(t *testing.T) {
 	f := benchFacilities()[1]
-	f.P0Min = 2.5e5
+	f.Gas.P0Min = 2.5e5
 	sv := testSolver(t, f, testSettings(), 0.5)
 	c := sv.bounds(0.6)
-	low := sv.reAt(&c, f.P0Min, f.T0Max)
+	low := sv.reAt(&c, f.Gas.P0Min, f.Gas.T0Max)
 	ps := sv.solve(0.6, low/2, 250, true)
 	if ps.class != FullMatch || ps.limit != LimitP0Min || !ps.flags.Has(FlagReOver) {
 		t.Errorf("overshoot: class %v limit %v flags %v, want full match, minimum p0, Reynolds over", ps.class, ps.limit, ps.flags)
@@ -532,7 +564,7 @@ func TestOvershoot(t *testing.T) {
 	if ps.pLim != LimitP0Min || ps.tLim != LimitT0Max {
 		t.Errorf("overshoot side limits %v, %v; want minimum p0, maximum T0", ps.pLim, ps.tLim)
 	}
-	if ps.p0 != f.P0Min || ps.t0 != f.T0Max || relErr(ps.ratio, 2) > exactTol {
+	if ps.p0 != f.Gas.P0Min || ps.t0 != f.Gas.T0Max || relErr(ps.ratio, 2) > exactTol {
 		t.Errorf("overshoot setting p0 %v T0 %v ratio %v, want P0Min, T0Max, 2", ps.p0, ps.t0, ps.ratio)
 	}
 }
@@ -543,13 +575,14 @@ func TestReynoldsSweep(t *testing.T) {
 	f := classTunnel()
 	sv := testSolver(t, f, testSettings(), 0.2)
 	c := sv.bounds(0.7)
-	_, _, reb, _, _, _ := sv.best(&c)
+	top, _ := sv.best(&c)
+	reb := top.re
 	ps := sv.solve(0.7, 0.5*reb, 250, true)
-	lo, hi := sv.gasSweep(&c, ps.p0)
+	lo, hi := sv.sweep(&c, ps.p0)
 	if !(lo <= ps.re*(1+exactTol) && ps.re <= hi*(1+exactTol)) {
 		t.Errorf("sweep %v–%v does not contain Re %v", lo, hi, ps.re)
 	}
-	if want := sv.reAt(&c, ps.p0, f.T0Max); relErr(lo, want) > exactTol {
+	if want := sv.reAt(&c, ps.p0, f.Gas.T0Max); relErr(lo, want) > exactTol {
 		t.Errorf("sweep low end %v, want Re at T0Max %v", lo, want)
 	}
 	floor, _ := sv.floorT0(&c, ps.p0)
@@ -569,9 +602,9 @@ func TestReynoldsSweep(t *testing.T) {
 //	σ = (101 325 − 2339)/50 250  = 1.9699
 func TestWaterHandWorked(t *testing.T) {
 	f := waterTunnel()
-	f.T0Min, f.T0Max = 293.15, 293.15
-	f.P0Min, f.P0Max = 0, atmos.SeaLevelPressure
-	sv := testSolver(t, f, testSettings(), 0.5)
+	f.Water.TMin, f.Water.TMax = 293.15, 293.15
+	f.Water.PMin, f.Water.PMax = 0, atmos.SeaLevelPressure
+	sv := testWaterSolver(t, f, testSettings(), 0.5)
 	ps := sv.solve(0.2, 5e6, 288.15, true)
 	if ps.class != MachRelaxed {
 		t.Fatalf("water class %v limit %v, want Mach relaxed", ps.class, ps.limit)
@@ -590,12 +623,12 @@ func TestWaterHandWorked(t *testing.T) {
 	}
 	// Minimum speed overshoots warm water: cooling brings Re down to flight.
 	f = waterTunnel()
-	f.SpeedMin = 3
-	sv = testSolver(t, f, testSettings(), 0.5)
-	hot, _ := atmos.WaterAt(f.T0Max)
+	f.Water.SpeedMin = 3
+	sv = testWaterSolver(t, f, testSettings(), 0.5)
+	hot, _ := atmos.WaterAt(f.Water.TMax)
 	target := 0.8 * 3 * 0.5 / hot.KinematicViscosity
 	ps = sv.solve(0.2, target, 288.15, true)
-	if ps.class != MachRelaxed || ps.v != 3 || relErr(ps.re, target) > 1e-6 || !(ps.t0 < f.T0Max && ps.t0 > f.T0Min) {
+	if ps.class != MachRelaxed || ps.v != 3 || relErr(ps.re, target) > 1e-6 || !(ps.t0 < f.Water.TMax && ps.t0 > f.Water.TMin) {
 		t.Errorf("cooled water: class %v V %v T %v Re %v, want Mach relaxed at 3 m/s, cooler water, Re %v", ps.class, ps.v, ps.t0, ps.re, target)
 	}
 }
@@ -611,10 +644,10 @@ func TestSolveErrors(t *testing.T) {
 		f    func(*Facility)
 		s    func(*Settings)
 	}{
-		{"no p0 max", func(f *Facility) { f.P0Max = 0 }, nil},
-		{"T0 range reversed", func(f *Facility) { f.T0Max = 50 }, nil},
+		{"no p0 max", func(f *Facility) { f.Gas.P0Max = 0 }, nil},
+		{"T0 range reversed", func(f *Facility) { f.Gas.T0Max = 50 }, nil},
 		{"negative q", func(f *Facility) { f.QMax = -1 }, nil},
-		{"water too hot", func(f *Facility) { *f = waterTunnel(); f.T0Max = 400 }, nil},
+		{"water too hot", func(f *Facility) { *f = waterTunnel(); f.Water.TMax = 400 }, nil},
 		{"Re tolerance 1", nil, func(s *Settings) { s.ReTol = 1 }},
 		{"NaN scale", nil, func(s *Settings) { s.Scale = math.NaN() }},
 		{"no scale", func(f *Facility) { f.Width = 0 }, nil},
@@ -648,7 +681,7 @@ func TestWhatIfTouchesOnlySolve(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	f.P0Max = 2e5
+	f.Gas.P0Max = 2e5
 	m2, err := Solve(g, &f, s)
 	if err != nil {
 		t.Fatal(err)
@@ -711,9 +744,11 @@ func TestReynoldsRange(t *testing.T) {
 		t.Fatal(err)
 	}
 	lo, hi, ok := m.ReynoldsRange(0.7)
-	c := m.sv.bounds(0.7)
-	_, _, best, _, _, _ := m.sv.best(&c)
-	if !ok || relErr(hi, best) > exactTol || relErr(lo, m.sv.reAt(&c, f.P0Min, f.T0Max)) > exactTol || !(lo < hi) {
+	sv := m.sv.(*gasSolver)
+	c := sv.bounds(0.7)
+	top, _ := sv.best(&c)
+	best := top.re
+	if !ok || relErr(hi, best) > exactTol || relErr(lo, sv.reAt(&c, f.Gas.P0Min, f.Gas.T0Max)) > exactTol || !(lo < hi) {
 		t.Errorf("ReynoldsRange(0.7) = %v, %v, %v; want P0Min/T0Max Re up to the best %v", lo, hi, ok, best)
 	}
 	if _, _, ok := m.ReynoldsRange(0.95); ok {
@@ -729,7 +764,7 @@ func TestEveryClassOnAMap(t *testing.T) {
 		t.Fatal(err)
 	}
 	f := classTunnel()
-	f.MachMax = 0.85
+	f.Gas.MachMax = 0.85
 	s := testSettings()
 	s.Scale = 0.05
 	m, err := Solve(g, &f, s)

@@ -72,46 +72,45 @@ type GridSpec struct {
 	SpeedKind atmos.SpeedKind
 }
 
-// Medium is the working fluid of a facility.
-type Medium uint8
+// Medium is the working fluid of a facility: a gas by the name
+// atmos.GasByName gives it ("air", "nitrogen"), or MediumWater.
+type Medium string
 
-const (
-	MediumAir Medium = iota
-	MediumNitrogen
-	MediumWater
-)
+// MediumWater is liquid water (IAPWS properties, see atmos/water.go).
+const MediumWater Medium = "water"
 
-func (m Medium) String() string {
-	switch m {
-	case MediumAir:
-		return "air"
-	case MediumNitrogen:
-		return "nitrogen"
-	case MediumWater:
-		return "water"
-	}
-	return "unknown"
-}
+func (m Medium) String() string { return string(m) }
 
-// IsGas reports whether the medium is compressible (air or nitrogen).
-func (m Medium) IsGas() bool { return m == MediumAir || m == MediumNitrogen }
+// IsGas reports whether the medium is a gas (compressible): any medium
+// but water. Solve refuses a name atmos.GasByName does not know.
+func (m Medium) IsGas() bool { return m != MediumWater && m != "" }
 
-// Facility is a ground test facility with its operating limits. For a gas
-// facility the P0/T0 ranges are stagnation pressure and temperature; for a
-// water facility SpeedMin/SpeedMax bound the test-section speed, T0Min/T0Max
-// bound the water temperature and P0Min/P0Max bound the test-section static
-// pressure (used for the cavitation number).
+// Facility is a ground test facility with its operating limits: those of
+// its medium in Gas (a gas facility) or Water (a water facility), the
+// other left zero, and those every facility has.
 type Facility struct {
 	Name   string
 	Class  string // free text, e.g. "pressurized transonic"
 	Source string // file it came from
 	Medium Medium
 
-	MachMin, MachMax   float64 // gas
-	SpeedMin, SpeedMax float64 // water, m/s
-	P0Min, P0Max       float64 // Pa
-	T0Min, T0Max       float64 // K
-	QMax               float64 // Pa, 0 = no limit
+	Gas   GasLimits   // when Medium is a gas
+	Water WaterLimits // when Medium is MediumWater
+
+	QMax float64 // Pa, test-section dynamic pressure, 0 = no limit
+	// MaxReynoldsPerM is an optional cap on unit Reynolds number (1/m), 0 =
+	// none.
+	MaxReynoldsPerM float64
+
+	Width, Height float64 // m, test section
+	Model         ModelSizing
+}
+
+// GasLimits are the operating limits of a gas facility.
+type GasLimits struct {
+	MachMin, MachMax float64 // test-section Mach number
+	P0Min, P0Max     float64 // stagnation pressure, Pa
+	T0Min, T0Max     float64 // stagnation temperature, K
 
 	// MinStaticT is a lower bound on test-section static temperature (K),
 	// 0 when not set.
@@ -121,12 +120,51 @@ type Facility struct {
 	// PeakLocalMach is the local Mach number on the model at which the
 	// condensation warning is evaluated (default 1.4).
 	PeakLocalMach float64
-	// MaxReynoldsPerM is an optional cap on unit Reynolds number (1/m), 0 =
-	// none.
-	MaxReynoldsPerM float64
+}
 
-	Width, Height float64 // m, test section
-	Model         ModelSizing
+// WaterLimits are the operating limits of a water facility.
+type WaterLimits struct {
+	SpeedMin, SpeedMax float64 // test-section speed, m/s
+	// PMin and PMax bound the test-section static pressure (Pa); the
+	// solve takes PMax (for the water properties and the cavitation
+	// number).
+	PMin, PMax float64
+	TMin, TMax float64 // water temperature, K
+}
+
+// PressureMin and PressureMax are the facility's pressure limits: the
+// stagnation pressure of a gas facility, the test-section static pressure
+// of a water facility. TemperatureMin and TemperatureMax are its
+// temperature limits: stagnation temperature (gas) or water temperature.
+// They are the limits the what-if editor changes, whatever the medium.
+func (f *Facility) PressureMin() float64 { return *f.ranges().pMin }
+
+// PressureMax: see PressureMin.
+func (f *Facility) PressureMax() float64 { return *f.ranges().pMax }
+
+// TemperatureMin: see PressureMin.
+func (f *Facility) TemperatureMin() float64 { return *f.ranges().tMin }
+
+// TemperatureMax: see PressureMin.
+func (f *Facility) TemperatureMax() float64 { return *f.ranges().tMax }
+
+// SetPressureMax sets the limit PressureMax reads.
+func (f *Facility) SetPressureMax(p float64) { *f.ranges().pMax = p }
+
+// SetTemperatureMin sets the limit TemperatureMin reads.
+func (f *Facility) SetTemperatureMin(T float64) { *f.ranges().tMin = T }
+
+// rangeLimits points at the pressure and temperature limits of a
+// facility's medium.
+type rangeLimits struct{ pMin, pMax, tMin, tMax *float64 }
+
+func (f *Facility) ranges() rangeLimits {
+	if f.Medium == MediumWater {
+		w := &f.Water
+		return rangeLimits{&w.PMin, &w.PMax, &w.TMin, &w.TMax}
+	}
+	g := &f.Gas
+	return rangeLimits{&g.P0Min, &g.P0Max, &g.T0Min, &g.T0Max}
 }
 
 // ModelSizing says how big the model is: a fixed scale, or the largest scale

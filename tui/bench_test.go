@@ -93,8 +93,8 @@ func BenchmarkKeyToFrame(b *testing.B) {
 			m.fac = facilityNamed(b, m, fc)
 			m.mode = modeEdit
 			m.editor.sel = int(fieldP0Max)
-			p0 := m.facs[m.fac].P0Max
-			lower := max(0.9*p0, 0.5*(m.facs[m.fac].P0Min+p0)) // stays above P0Min
+			p0 := m.facs[m.fac].PressureMax()
+			lower := max(0.9*p0, 0.5*(m.facs[m.fac].PressureMin()+p0)) // stays above P0Min
 			values := []string{sig(lower/1000, 4) + " kPa", sig(p0/1000, 4) + " kPa"}
 			b.ResetTimer()
 			for k := range b.N {

@@ -18,7 +18,7 @@ var siUnit = regexp.MustCompile(`[0-9] (K|kPa|MPa|Pa|m/s)\b`)
 // 260.33 °F; 440 kPa / 6.894757 kPa/psi = 63.82 psi; 450 kPa = 65.27 psi;
 // 10 MPa = 1450.4 psi; 119 kPa / 47.880 Pa/psf = 2485 psf.
 func TestCautionsInCustomaryUnits(t *testing.T) {
-	f := envelope.Facility{P0Max: 450e3}
+	f := envelope.Facility{Medium: "nitrogen", Gas: envelope.GasLimits{P0Max: 450e3}}
 	d := envelope.Detail{T0: 105, P0: 440e3, Q: 119e3, FlightT0: 400,
 		Flags: envelope.FlagCryogenic | envelope.FlagHighP0 | envelope.FlagQNearLimit |
 			envelope.FlagRealGas | envelope.FlagEnthalpyShort}

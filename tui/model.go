@@ -944,11 +944,11 @@ func (m *Model) editValue(f field) string {
 	switch f {
 	case fieldP0Max:
 		if fc.Medium.IsGas() {
-			return u.Stagnation(fc.P0Max)
+			return u.Stagnation(fc.PressureMax())
 		}
-		return u.Pressure(fc.P0Max)
+		return u.Pressure(fc.PressureMax())
 	case fieldT0Min:
-		return strings.ReplaceAll(u.Temp(fc.T0Min), "°F", "degF")
+		return strings.ReplaceAll(u.Temp(fc.TemperatureMin()), "°F", "degF")
 	case fieldQMax:
 		if fc.QMax <= 0 {
 			return "none"
@@ -1002,9 +1002,9 @@ func (m *Model) applyEdit() tea.Cmd {
 		fc := &facs[m.fac]
 		switch f {
 		case fieldP0Max:
-			fc.P0Max = v
+			fc.SetPressureMax(v)
 		case fieldT0Min:
-			fc.T0Min = v
+			fc.SetTemperatureMin(v)
 		case fieldQMax:
 			fc.QMax = v
 		}

@@ -49,10 +49,10 @@ func TestProgramEndToEnd(t *testing.T) {
 		t.Fatalf("final facility = %d, want 2", k)
 	}
 	// 40 psi = 275.79 kPa (NIST SP 811: 1 lbf/in² = 6894.757 Pa).
-	if got := final.facs[k].P0Max; got < 275789 || got > 275791 {
+	if got := final.facs[k].PressureMax(); got < 275789 || got > 275791 {
 		t.Errorf("p0 max = %g Pa, want 275790", got)
 	}
-	if final.busy || final.res.maps[k].Facility.P0Max != final.facs[k].P0Max {
+	if final.busy || final.res.maps[k].Facility.PressureMax() != final.facs[k].PressureMax() {
 		t.Errorf("the recompute of the edit did not land")
 	}
 	if !final.discard || !final.Quitting() {

@@ -45,11 +45,11 @@ func (m Model) Session() Session {
 		}
 		now, was := m.facs[k], m.fileFacs[k]
 		var fw FacilityWhatIf
-		if now.P0Max != was.P0Max {
-			fw.P0Max = ptr(now.P0Max)
+		if now.PressureMax() != was.PressureMax() {
+			fw.P0Max = ptr(now.PressureMax())
 		}
-		if now.T0Min != was.T0Min {
-			fw.T0Min = ptr(now.T0Min)
+		if now.TemperatureMin() != was.TemperatureMin() {
+			fw.T0Min = ptr(now.TemperatureMin())
 		}
 		if now.QMax != was.QMax {
 			fw.QMax = ptr(now.QMax)

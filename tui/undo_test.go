@@ -31,14 +31,14 @@ func TestUndoRestoreAndClear(t *testing.T) {
 
 	// R, then U: the what-if values are back and the results follow them.
 	m, _ = press(m, "R")
-	if len(m.changes()) != 0 || m.res.maps[k].Facility.P0Max == editedFac.P0Max {
+	if len(m.changes()) != 0 || m.res.maps[k].Facility.PressureMax() == editedFac.PressureMax() {
 		t.Fatalf("R did not restore the files' values")
 	}
 	m, _ = press(m, "U")
 	if m.set != edited || m.facs[k] != editedFac {
-		t.Errorf("U after R: settings %+v facility p0 max %g, want the edited %+v and %g", m.set, m.facs[k].P0Max, edited, editedFac.P0Max)
+		t.Errorf("U after R: settings %+v facility p0 max %g, want the edited %+v and %g", m.set, m.facs[k].PressureMax(), edited, editedFac.PressureMax())
 	}
-	if m.busy || m.res.maps[k].Facility.P0Max != editedFac.P0Max || m.res.maps[k].Scale != 0.3 {
+	if m.busy || m.res.maps[k].Facility.PressureMax() != editedFac.PressureMax() || m.res.maps[k].Scale != 0.3 {
 		t.Errorf("results not recomputed after the undo")
 	}
 	if !strings.Contains(m.status, "undone: restore the files' values") {

@@ -265,10 +265,10 @@ func TestWhatIfFacilityEditResolvesOnlyThatFacility(t *testing.T) {
 	if m.editor.err != "" {
 		t.Fatalf("edit error %q", m.editor.err)
 	}
-	if got, want := m.facs[k].P0Max, 3e5; got != want {
+	if got, want := m.facs[k].PressureMax(), 3e5; got != want {
 		t.Errorf("p0 max = %g Pa, want %g", got, want)
 	}
-	if m.fileFacs[k].P0Max == 3e5 || before.facs[k].P0Max == 3e5 {
+	if m.fileFacs[k].PressureMax() == 3e5 || before.facs[k].PressureMax() == 3e5 {
 		t.Errorf("the edit changed the files' values or the earlier model")
 	}
 	if m.res.grid != before.res.grid {
@@ -283,8 +283,8 @@ func TestWhatIfFacilityEditResolvesOnlyThatFacility(t *testing.T) {
 			t.Errorf("map of facility %d was re-solved; only %d should be", j, k)
 		}
 	}
-	if m.res.maps[k].Facility.P0Max != 3e5 {
-		t.Errorf("re-solved map used p0 max %g, want 3e5", m.res.maps[k].Facility.P0Max)
+	if m.res.maps[k].Facility.PressureMax() != 3e5 {
+		t.Errorf("re-solved map used p0 max %g, want 3e5", m.res.maps[k].Facility.PressureMax())
 	}
 	head := m.headerText()
 	if !strings.Contains(head, "what-if:") || !strings.Contains(head, "p0 max 300") {
@@ -295,8 +295,8 @@ func TestWhatIfFacilityEditResolvesOnlyThatFacility(t *testing.T) {
 	}
 	// R restores the files' values.
 	r, _ := press(m, "esc", "R")
-	if r.facs[k].P0Max != r.fileFacs[k].P0Max || len(r.changes()) != 0 {
-		t.Errorf("after R: p0 max %g, changes %v; want the file value and none", r.facs[k].P0Max, r.changes())
+	if r.facs[k].PressureMax() != r.fileFacs[k].PressureMax() || len(r.changes()) != 0 {
+		t.Errorf("after R: p0 max %g, changes %v; want the file value and none", r.facs[k].PressureMax(), r.changes())
 	}
 }
 
@@ -330,7 +330,7 @@ func TestWhatIfT0MinTakesUnits(t *testing.T) {
 		t.Fatalf("edit error %q", m.editor.err)
 	}
 	// -150 °C = 123.15 K (definition of the Celsius scale).
-	if got := m.facs[k].T0Min; got < 123.149 || got > 123.151 {
+	if got := m.facs[k].TemperatureMin(); got < 123.149 || got > 123.151 {
 		t.Errorf("T0 min = %g K, want 123.15", got)
 	}
 }
@@ -347,12 +347,12 @@ func TestWhatIfLongEntryTakenWhole(t *testing.T) {
 		t.Fatalf("edit error %q", m.editor.err)
 	}
 	// 1 psi = 6894.757 Pa (NIST SP 811, Appendix B.8).
-	if got, want := m.facs[k].P0Max, 1000*6894.757293168361; math.Abs(got-want) > 1e-6*want {
+	if got, want := m.facs[k].PressureMax(), 1000*6894.757293168361; math.Abs(got-want) > 1e-6*want {
 		t.Errorf("p0 max = %.6g Pa after %d characters, want %.6g (1000 psi)", got, len(long), want)
 	}
 	// Beyond any value's length the entry is refused with a message, and
 	// nothing is applied.
-	before := m.facs[k].P0Max
+	before := m.facs[k].PressureMax()
 	m = edit(t, m, fieldP0Max, "3"+strings.Repeat("0", maxEntry)+" Pa")
 	if !strings.Contains(m.editor.err, "characters long") || !m.editor.editing {
 		t.Errorf("over-long entry: err %q editing %v, want a refusal naming the length with the line open", m.editor.err, m.editor.editing)
@@ -360,8 +360,8 @@ func TestWhatIfLongEntryTakenWhole(t *testing.T) {
 	if got := m.editor.input.Value(); utf8.RuneCountInString(got) != maxEntry+4 {
 		t.Errorf("input line holds %d characters, want all %d typed", utf8.RuneCountInString(got), maxEntry+4)
 	}
-	if m.facs[k].P0Max != before {
-		t.Errorf("over-long entry applied: p0 max %g", m.facs[k].P0Max)
+	if m.facs[k].PressureMax() != before {
+		t.Errorf("over-long entry applied: p0 max %g", m.facs[k].PressureMax())
 	}
 }
 
@@ -510,7 +510,7 @@ func TestIncrementalBestMatchesBest(t *testing.T) {
 	for _, name := range []string{"Harl Cove", "Kellen Fold", "Aldmoor", "Wenlow"} {
 		k := facilityNamed(t, m, name)
 		facs := append([]envelope.Facility(nil), m.facs...)
-		facs[k].P0Max = facs[k].P0Min + 0.7*(facs[k].P0Max-facs[k].P0Min)
+		facs[k].SetPressureMax(facs[k].PressureMin() + 0.7*(facs[k].PressureMax()-facs[k].PressureMin()))
 		facs[k].QMax *= 0.5
 		got, err := solveOne(m.res, facs, m.set, k)
 		if err != nil {

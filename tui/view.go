@@ -615,11 +615,11 @@ func (m Model) changes() []change {
 			pfmt = u.Pressure
 		}
 		src := facilityOrigin(file) + " "
-		if now.P0Max != file.P0Max {
-			add(fieldP0Max.label(water), pfmt(now.P0Max), src+pfmt(file.P0Max), k)
+		if now.PressureMax() != file.PressureMax() {
+			add(fieldP0Max.label(water), pfmt(now.PressureMax()), src+pfmt(file.PressureMax()), k)
 		}
-		if now.T0Min != file.T0Min {
-			add(fieldT0Min.label(water), u.Temp(now.T0Min), src+u.Temp(file.T0Min), k)
+		if now.TemperatureMin() != file.TemperatureMin() {
+			add(fieldT0Min.label(water), u.Temp(now.TemperatureMin()), src+u.Temp(file.TemperatureMin()), k)
 		}
 		if now.QMax != file.QMax {
 			add(fieldQMax.label(water), qText(u, now.QMax), src+qText(u, file.QMax), k)
@@ -699,8 +699,8 @@ func (m Model) editorRows() []editorRow {
 			pfmt = u.Pressure
 		}
 		src := facilityOrigin(file) + " "
-		rows[fieldP0Max] = editorRow{value: pfmt(now.P0Max), origin: src + pfmt(file.P0Max), changed: now.P0Max != file.P0Max}
-		rows[fieldT0Min] = editorRow{value: u.Temp(now.T0Min), origin: src + u.Temp(file.T0Min), changed: now.T0Min != file.T0Min}
+		rows[fieldP0Max] = editorRow{value: pfmt(now.PressureMax()), origin: src + pfmt(file.PressureMax()), changed: now.PressureMax() != file.PressureMax()}
+		rows[fieldT0Min] = editorRow{value: u.Temp(now.TemperatureMin()), origin: src + u.Temp(file.TemperatureMin()), changed: now.TemperatureMin() != file.TemperatureMin()}
 		rows[fieldQMax] = editorRow{value: qText(u, now.QMax), origin: src + qText(u, file.QMax), changed: now.QMax != file.QMax}
 	}
 	for k := range rows {

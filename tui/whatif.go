@@ -55,8 +55,11 @@ func ApplyWhatIf(w WhatIf, s *envelope.Settings, facs []envelope.Facility) (chan
 		}
 		fw := w.Facilities[name]
 		fac := &facs[k]
-		set(fieldP0Max, fac, name+" p0 max", &fac.P0Max, fw.P0Max)
-		set(fieldT0Min, fac, name+" T0 min", &fac.T0Min, fw.T0Min)
+		p0, t0 := fac.PressureMax(), fac.TemperatureMin()
+		set(fieldP0Max, fac, name+" p0 max", &p0, fw.P0Max)
+		set(fieldT0Min, fac, name+" T0 min", &t0, fw.T0Min)
+		fac.SetPressureMax(p0)
+		fac.SetTemperatureMin(t0)
 		set(fieldQMax, fac, name+" q max", &fac.QMax, fw.QMax)
 	}
 	return changed, errors.Join(problems...)

@@ -40,8 +40,8 @@ func TestApplyWhatIfOrderAndBadValues(t *testing.T) {
 	if s.Scale != 0.05 || s.DeltaT != 10 || s.ReTol != wantReTol || s.CompressibilityMach != 0.25 || s.Regimes.Incompressible != 0.25 {
 		t.Errorf("settings after what-if = %+v", s)
 	}
-	if facs[2].QMax != 5e4 || facs[2].P0Max != 6e5 || facs[0].T0Min != 100 {
-		t.Errorf("facility limits after what-if: q %g p0 %g T0 %g", facs[2].QMax, facs[2].P0Max, facs[0].T0Min)
+	if facs[2].QMax != 5e4 || facs[2].PressureMax() != 6e5 || facs[0].TemperatureMin() != 100 {
+		t.Errorf("facility limits after what-if: q %g p0 %g T0 %g", facs[2].QMax, facs[2].PressureMax(), facs[0].TemperatureMin())
 	}
 	if err == nil {
 		t.Fatal("ApplyWhatIf error = nil, want the NaN and the unknown facility named")

@@ -200,10 +200,10 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 			b.WriteString("no points to run\n")
 		} else if water {
 			fmt.Fprintf(&b, "%s; set-point changes: water temperature %d, static pressure %d, speed %d; %d of %s change a setting\n",
-				runCount(rl), c.T0, c.P0, c.Mach, c.Any, plural(c.Steps, "step", "steps"))
+				runCount(rl), c.T0, c.P0, c.Mach, c.Moved, plural(c.Steps, "step", "steps"))
 		} else {
 			fmt.Fprintf(&b, "%s; set-point changes: T0 %d, p0 %d, Mach %d; %d of %s change a setting\n",
-				runCount(rl), c.T0, c.P0, c.Mach, c.Any, plural(c.Steps, "step", "steps"))
+				runCount(rl), c.T0, c.P0, c.Mach, c.Moved, plural(c.Steps, "step", "steps"))
 		}
 		if len(rl.Runs) > 0 {
 			head := []string{"run", "altitude " + altU, speedTitle, "flight Re", "flight q " + qU}
@@ -398,10 +398,10 @@ type runJSONFacility struct {
 }
 
 type runChanges struct {
-	T0   int `json:"t0"`
-	P0   int `json:"p0"`
-	Mach int `json:"mach"`
-	Any  int `json:"any"`
+	T0    int `json:"t0"`
+	P0    int `json:"p0"`
+	Mach  int `json:"mach"`
+	Moved int `json:"any"`
 }
 
 func (p *runPlan) writeJSON(w io.Writer) error {
@@ -424,7 +424,7 @@ func (p *runPlan) writeJSON(w io.Writer) error {
 		c := rl.Changes
 		doc.Facilities = append(doc.Facilities, runJSONFacility{
 			Facility: rl.Facility, Medium: rl.Medium.String(), Scale: envelope.Num(rl.Scale), SetPoints: rl.SetPoints,
-			Changes: runChanges{T0: c.T0, P0: c.P0, Mach: c.Mach, Any: c.Any}, Runs: runs, Unrunnable: un,
+			Changes: runChanges{T0: c.T0, P0: c.P0, Mach: c.Mach, Moved: c.Moved}, Runs: runs, Unrunnable: un,
 		})
 	}
 	b, err := json.MarshalIndent(doc, "", "  ")

@@ -74,7 +74,7 @@ func TestRunsMatched(t *testing.T) {
 		total += len(f.Runs)
 		water := f.Medium == "water"
 		c := envelope.CountChanges(back(f.Runs), water)
-		if c.T0 != f.Changes.T0 || c.P0 != f.Changes.P0 || c.Mach != f.Changes.Mach || c.Any != f.Changes.Any {
+		if c.T0 != f.Changes.T0 || c.P0 != f.Changes.P0 || c.Mach != f.Changes.Mach || c.Moved != f.Changes.Any {
 			t.Errorf("%s: changes %+v, recounted %+v", f.Facility, f.Changes, c)
 		}
 		for n, r := range f.Runs {
@@ -208,8 +208,8 @@ func TestApplyWhatIf(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if s.Scale != 0.05 || s.CompressibilityMach != 0.25 || s.Regimes.Incompressible != 0.25 || facs[1].P0Max != 6e5 {
-		t.Errorf("after what-if: scale %g, cm %g, incompressible %g, p0 max %g", s.Scale, s.CompressibilityMach, s.Regimes.Incompressible, facs[1].P0Max)
+	if s.Scale != 0.05 || s.CompressibilityMach != 0.25 || s.Regimes.Incompressible != 0.25 || facs[1].PressureMax() != 6e5 {
+		t.Errorf("after what-if: scale %g, cm %g, incompressible %g, p0 max %g", s.Scale, s.CompressibilityMach, s.Regimes.Incompressible, facs[1].PressureMax())
 	}
 	if len(changed) != 3 {
 		t.Errorf("changed = %v, want 3 entries", changed)
