@@ -588,7 +588,7 @@ func (m *Model) keyEdit(msg tea.KeyMsg) tea.Cmd {
 			return nil
 		}
 		row := m.editorRows()[f]
-		m.editor.begin(row.label, m.editValue(f))
+		m.editor.begin(row.label, row.start)
 	case matches(msg, k.Restore):
 		return m.restoreFiles()
 	case matches(msg, k.Undo):
@@ -919,50 +919,12 @@ func (m *Model) whatIfChanged() bool {
 	return len(m.changes()) > 0
 }
 
-// editValue is the text the input line starts with for field f.
-func (m *Model) editValue(f field) string {
-	u := m.units
-	switch f {
-	case fieldScale:
-		if m.set.Scale > 0 {
-			return sig(m.set.Scale, 4)
-		}
-		return "fit"
-	case fieldDeltaT:
-		return strings.ReplaceAll(u.DeltaT(m.set.DeltaT), "°F", "degF")
-	case fieldMachTol:
-		return sig(m.set.MachTol, 3)
-	case fieldReTol:
-		return sig(m.set.ReTol*100, 3) + " %"
-	case fieldCompMach:
-		return sig(m.set.CompressibilityMach, 3)
-	}
-	if m.fac < 0 || m.fac >= len(m.facs) {
-		return ""
-	}
-	fc := m.facs[m.fac]
-	switch f {
-	case fieldP0Max:
-		if fc.Medium.IsGas() {
-			return u.Stagnation(fc.P0Max)
-		}
-		return u.Pressure(fc.P0Max)
-	case fieldT0Min:
-		return strings.ReplaceAll(u.Temp(fc.T0Min), "°F", "degF")
-	case fieldQMax:
-		if fc.QMax <= 0 {
-			return "none"
-		}
-		return u.Q(fc.QMax)
-	}
-	return ""
-}
-
 // applyEdit parses the input line and applies it.
 func (m *Model) applyEdit() tea.Cmd {
 	f := field(m.editor.sel)
+	d := f.def()
 	var fac *envelope.Facility
-	if f.facilityField() {
+	if d.facility {
 		if m.fac < 0 || m.fac >= len(m.facs) {
 			m.editor.err = "choose a facility first"
 			return nil
@@ -970,46 +932,27 @@ func (m *Model) applyEdit() tea.Cmd {
 		fac = &m.facs[m.fac]
 	}
 	v, err := parseField(f, m.editor.input.Value(), m.units, fac)
+	if err == nil {
+		err = validateField(f, m.set, v)
+	}
 	if err != nil {
 		m.editor.err = err.Error()
 		return nil
 	}
 	// The state before the edit, for undo.
-	before := undoStep{what: "what-if " + m.editorRows()[f].label, whatIf: true, set: m.set, facs: m.facs, marks: m.marks}
+	before := undoStep{what: "what-if " + f.label(isWater(fac)), whatIf: true, set: m.set, facs: m.facs, marks: m.marks}
 	kind := recomputeSolve
-	switch f {
-	case fieldScale:
-		m.set.Scale = v
-	case fieldDeltaT:
-		m.set.DeltaT = v
-		kind = recomputeGrid
-	case fieldMachTol:
-		m.set.MachTol = v
-	case fieldReTol:
-		m.set.ReTol = v
-	case fieldCompMach:
-		if v >= m.set.Regimes.Subsonic {
-			m.editor.err = fmt.Sprintf("compressibility Mach must stay below the subsonic bound %.2f", m.set.Regimes.Subsonic)
-			return nil
-		}
-		// The same threshold bounds incompressible flow in the regime
-		// layer and the relaxation of Mach number in matching.
-		m.set.CompressibilityMach = v
-		m.set.Regimes.Incompressible = v
-		kind = recomputeGrid
-	default:
+	switch {
+	case d.facility:
 		facs := append([]envelope.Facility(nil), m.facs...)
-		fc := &facs[m.fac]
-		switch f {
-		case fieldP0Max:
-			fc.P0Max = v
-		case fieldT0Min:
-			fc.T0Min = v
-		case fieldQMax:
-			fc.QMax = v
-		}
+		d.set(nil, &facs[m.fac], v)
 		m.facs = facs
 		kind = recomputeOneFac
+	case d.grid:
+		d.set(&m.set, nil, v)
+		kind = recomputeGrid
+	default:
+		d.set(&m.set, nil, v)
 	}
 	m.pushStep(before)
 	m.editor.end()

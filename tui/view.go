@@ -580,52 +580,49 @@ type change struct {
 }
 
 // changes lists every what-if value that differs from the files, each
-// with where its starting value came from.
+// with where its starting value came from: the settings, then each
+// facility's limits.
 func (m Model) changes() []change {
 	u := m.units
 	var out []change
-	s, f := m.set, m.fileSet
-	add := func(label, now, origin string, fac int) {
-		out = append(out, change{label: label, now: now, origin: origin, fac: fac})
-	}
-	tol := m.settingsOrigin()
-	if s.Scale != f.Scale {
-		add("model scale", scaleText(s.Scale), tol+" "+scaleText(f.Scale), -1)
-	}
-	if s.DeltaT != f.DeltaT {
-		add("ΔT", u.DeltaT(s.DeltaT), m.vehicleOrigin()+" "+u.DeltaT(f.DeltaT), -1)
-	}
-	if s.MachTol != f.MachTol {
-		add("Mach tol", sig(s.MachTol, 3), tol+" "+sig(f.MachTol, 3), -1)
-	}
-	if s.ReTol != f.ReTol {
-		add("Re tol", sig(s.ReTol*100, 3)+" %", tol+" "+sig(f.ReTol*100, 3)+" %", -1)
-	}
-	if s.CompressibilityMach != f.CompressibilityMach || s.Regimes != f.Regimes {
-		add("compressibility M", sig(s.CompressibilityMach, 3), tol+" "+sig(f.CompressibilityMach, 3), -1)
-	}
-	for k := range m.facs {
-		if k >= len(m.fileFacs) {
-			break
+	for f := range fieldCount {
+		d := f.def()
+		if d.facility {
+			continue
 		}
-		now, file := m.facs[k], m.fileFacs[k]
-		water := !now.Medium.IsGas()
-		pfmt := u.Stagnation
-		if water {
-			pfmt = u.Pressure
+		now, file := d.get(&m.set, nil), d.get(&m.fileSet, nil)
+		if now != file {
+			out = append(out, change{label: f.headerLabel(false), now: f.show(u, now, false),
+				origin: m.originText(f, -1) + " " + f.show(u, file, false), fac: -1})
 		}
-		src := facilityOrigin(file) + " "
-		if now.P0Max != file.P0Max {
-			add(fieldP0Max.label(water), pfmt(now.P0Max), src+pfmt(file.P0Max), k)
-		}
-		if now.T0Min != file.T0Min {
-			add(fieldT0Min.label(water), u.Temp(now.T0Min), src+u.Temp(file.T0Min), k)
-		}
-		if now.QMax != file.QMax {
-			add(fieldQMax.label(water), qText(u, now.QMax), src+qText(u, file.QMax), k)
+	}
+	for k := range min(len(m.facs), len(m.fileFacs)) {
+		water := isWater(&m.facs[k])
+		for f := range fieldCount {
+			d := f.def()
+			if !d.facility {
+				continue
+			}
+			now, file := d.get(nil, &m.facs[k]), d.get(nil, &m.fileFacs[k])
+			if now != file {
+				out = append(out, change{label: f.headerLabel(water), now: f.show(u, now, water),
+					origin: m.originText(f, k) + " " + f.show(u, file, water), fac: k})
+			}
 		}
 	}
 	return out
+}
+
+// originText says where the starting value of field f comes from (fac:
+// the facility of a limit).
+func (m Model) originText(f field, fac int) string {
+	switch f.def().origin {
+	case fromVehicle:
+		return m.vehicleOrigin()
+	case fromFacility:
+		return facilityOrigin(m.fileFacs[fac])
+	}
+	return m.settingsOrigin()
 }
 
 // settingsOrigin says where the starting scale override and tolerances
@@ -681,34 +678,24 @@ func (m Model) editorTitle() string {
 // editorRows describes every what-if field in the current units.
 func (m Model) editorRows() []editorRow {
 	u := m.units
-	s, f := m.set, m.fileSet
 	rows := make([]editorRow, fieldCount)
-	tol, veh := m.settingsOrigin()+" ", m.vehicleOrigin()+" "
-	rows[fieldScale] = editorRow{value: scaleText(s.Scale), origin: tol + scaleText(f.Scale), changed: s.Scale != f.Scale}
-	rows[fieldDeltaT] = editorRow{value: u.DeltaT(s.DeltaT), origin: veh + u.DeltaT(f.DeltaT), changed: s.DeltaT != f.DeltaT}
-	rows[fieldMachTol] = editorRow{value: sig(s.MachTol, 3), origin: tol + sig(f.MachTol, 3), changed: s.MachTol != f.MachTol}
-	rows[fieldReTol] = editorRow{value: sig(s.ReTol*100, 3) + " %", origin: tol + sig(f.ReTol*100, 3) + " %", changed: s.ReTol != f.ReTol}
-	rows[fieldCompMach] = editorRow{value: sig(s.CompressibilityMach, 3), origin: tol + sig(f.CompressibilityMach, 3),
-		changed: s.CompressibilityMach != f.CompressibilityMach}
-	water := false
+	var now, file *envelope.Facility
 	if m.fac >= 0 && m.fac < len(m.facs) {
-		now, file := m.facs[m.fac], m.fileFacs[m.fac]
-		water = !now.Medium.IsGas()
-		pfmt := u.Stagnation
-		if water {
-			pfmt = u.Pressure
-		}
-		src := facilityOrigin(file) + " "
-		rows[fieldP0Max] = editorRow{value: pfmt(now.P0Max), origin: src + pfmt(file.P0Max), changed: now.P0Max != file.P0Max}
-		rows[fieldT0Min] = editorRow{value: u.Temp(now.T0Min), origin: src + u.Temp(file.T0Min), changed: now.T0Min != file.T0Min}
-		rows[fieldQMax] = editorRow{value: qText(u, now.QMax), origin: src + qText(u, file.QMax), changed: now.QMax != file.QMax}
+		now, file = &m.facs[m.fac], &m.fileFacs[m.fac]
 	}
-	for k := range rows {
-		rows[k].label = field(k).label(water)
-		rows[k].enabled = !field(k).facilityField() || m.fac >= 0
-		if !rows[k].enabled {
-			rows[k].note = "choose a facility"
+	water := isWater(now)
+	for f := range fieldCount {
+		d := f.def()
+		r := editorRow{label: f.label(water), enabled: !d.facility || now != nil}
+		if !r.enabled {
+			r.note = "choose a facility"
+			rows[f] = r
+			continue
 		}
+		v, was := d.get(&m.set, now), d.get(&m.fileSet, file)
+		r.value, r.start, r.changed = f.show(u, v, water), f.editText(u, v, water), v != was
+		r.origin = m.originText(f, m.fac) + " " + f.show(u, was, water)
+		rows[f] = r
 	}
 	return rows
 }
