@@ -99,7 +99,7 @@ func BenchmarkKeyToFrame(b *testing.B) {
 			b.ResetTimer()
 			for k := range b.N {
 				b.StopTimer()
-				m.editor.begin("p0 max", values[k%2])
+				m.editor.begin("p0 max", values[k%2], m.fieldParser(fieldP0Max))
 				b.StartTimer()
 				m, _ = drive(m, keyMsg("enter"))
 				_ = m.View()
@@ -119,7 +119,7 @@ func BenchmarkKeyToFrame(b *testing.B) {
 		b.ResetTimer()
 		for k := range b.N {
 			b.StopTimer()
-			m.editor.begin("ΔT", values[k%2])
+			m.editor.begin("ΔT", values[k%2], m.fieldParser(fieldDeltaT))
 			b.StartTimer()
 			m, _ = drive(m, keyMsg("enter"))
 			_ = m.View()

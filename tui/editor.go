@@ -18,7 +18,7 @@ type editor struct {
 	frame
 	sel     int
 	editing bool
-	input   lineInput
+	input   inputLine
 	err     string
 	lineW   int
 }
@@ -30,12 +30,15 @@ func newEditor(f frame) editor {
 // SetLineWidth sets the width of the input line (the whole screen).
 func (e *editor) SetLineWidth(w int) { e.lineW = max(w, 0) }
 
-// begin opens the input line for the selected field, pre-filled.
-func (e *editor) begin(prompt, value string) {
+// begin opens the input line for the selected field, pre-filled, with
+// parse as its Validate hook.
+func (e *editor) begin(prompt, value string, parse func(string) (float64, error)) {
 	e.editing = true
 	e.err = ""
-	e.input.prompt = prompt + " > "
-	e.input.set(value)
+	e.input = newInputLine(e.keys, prompt+" > ", value, maxEntry, func(s string) error {
+		_, err := parse(s)
+		return err
+	})
 }
 
 // end closes the input line.
@@ -86,5 +89,5 @@ func (e editor) Line() string {
 	if !e.editing {
 		return ""
 	}
-	return e.input.view(e.st, e.lineW)
+	return e.input.View(e.st, e.lineW)
 }

@@ -566,7 +566,10 @@ func (m *Model) keyEdit(msg tea.KeyMsg) tea.Cmd {
 			m.editor.end()
 			return m.askQuit()
 		default:
-			m.editor.input.update(k, msg)
+			m.editor.input, _ = m.editor.input.Update(msg)
+			if r := m.editor.input.Refused(); r != "" {
+				m.editor.err = field(m.editor.sel).label(m.editWater()) + ": " + r
+			}
 		}
 		return nil
 	}
@@ -588,7 +591,7 @@ func (m *Model) keyEdit(msg tea.KeyMsg) tea.Cmd {
 			return nil
 		}
 		row := m.editorRows()[f]
-		m.editor.begin(row.label, row.start)
+		m.editor.begin(row.label, row.start, m.fieldParser(f))
 	case matches(msg, k.Restore):
 		return m.restoreFiles()
 	case matches(msg, k.Undo):
@@ -919,6 +922,31 @@ func (m *Model) whatIfChanged() bool {
 	return len(m.changes()) > 0
 }
 
+// editWater reports whether the facility the editor's limits are for is
+// a water tunnel.
+func (m *Model) editWater() bool {
+	return m.fac >= 0 && m.fac < len(m.facs) && isWater(&m.facs[m.fac])
+}
+
+// fieldParser reads text typed for field f as the editor applies it: the
+// field's parser in the current units, for the chosen facility, then its
+// check against the other settings. It holds copies of the state it
+// needs, so it stays valid as the model is copied.
+func (m *Model) fieldParser(f field) func(string) (float64, error) {
+	var fac *envelope.Facility
+	if m.fac >= 0 && m.fac < len(m.facs) {
+		fac = &m.facs[m.fac] // the slice is never changed in place
+	}
+	u, set := m.units, m.set
+	return func(text string) (float64, error) {
+		v, err := parseField(f, text, u, fac)
+		if err == nil {
+			err = validateField(f, set, v)
+		}
+		return v, err
+	}
+}
+
 // applyEdit parses the input line and applies it.
 func (m *Model) applyEdit() tea.Cmd {
 	f := field(m.editor.sel)
@@ -931,10 +959,7 @@ func (m *Model) applyEdit() tea.Cmd {
 		}
 		fac = &m.facs[m.fac]
 	}
-	v, err := parseField(f, m.editor.input.Value(), m.units, fac)
-	if err == nil {
-		err = validateField(f, m.set, v)
-	}
+	v, err := m.fieldParser(f)(m.editor.input.Value())
 	if err != nil {
 		m.editor.err = err.Error()
 		return nil

@@ -16,13 +16,17 @@ type saveAsPrompt struct {
 	reason string // the whole error text, or why the file is not ours
 	failed bool   // a save failed (rather than a read-only session)
 	quit   bool   // end the program once saved
-	input  lineInput
+	input  inputLine
 }
+
+// maxPathEntry is the longest file name the save-as line takes, in
+// characters (the usual PATH_MAX); a longer offer is kept whole.
+const maxPathEntry = 4096
 
 // openSaveAs asks for another session file. err is the failed save (nil on
 // a read-only session); typed is a name to offer again.
 func (m *Model) openSaveAs(quit bool, err error, typed string) {
-	p := saveAsPrompt{quit: quit, failed: err != nil, input: lineInput{prompt: "save session to > "}}
+	p := saveAsPrompt{quit: quit, failed: err != nil}
 	if err != nil {
 		p.reason = err.Error()
 	} else {
@@ -34,7 +38,7 @@ func (m *Model) openSaveAs(quit bool, err error, typed string) {
 		elsewhere := err != nil && (errors.Is(err, fs.ErrPermission) || errors.Is(err, fs.ErrNotExist))
 		typed = m.store.Suggest(m.dumpDir, elsewhere)
 	}
-	p.input.set(typed)
+	p.input = newInputLine(m.fr.keys, "save session to > ", typed, maxPathEntry, nil)
 	m.saveAs = p
 	m.mode = modeSaveAs
 }
@@ -62,7 +66,7 @@ func (m *Model) keySaveAs(msg tea.KeyMsg) tea.Cmd {
 		m.mode = modeMain
 		return m.askQuit()
 	default:
-		m.saveAs.input.update(k, msg)
+		m.saveAs.input, _ = m.saveAs.input.Update(msg)
 	}
 	return nil
 }
@@ -85,6 +89,9 @@ func (m Model) saveAsPanel(w int) string {
 		wrapText("Type a new file for the session on the line below (an existing file is never replaced).", w),
 		wrapText(fmt.Sprintf("%s saves there%s · %s back to the matrix, nothing is lost · %s then %s quits without saving",
 			k.Select.Help().Key, then, k.Back.Help().Key, k.Interrupt.Help().Key, k.Yes.Help().Key), w),
+	}
+	if r := m.saveAs.input.Refused(); r != "" {
+		lines = append(lines, wrapText(st.Error.Render(r), w))
 	}
 	return strings.Join(lines, "\n")
 }

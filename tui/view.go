@@ -400,7 +400,7 @@ func (m Model) footer() string {
 		}
 		return wrapItems(st.Changed.Render(q), keyItems(st, confirmKeys{k: k, canSave: m.store != nil, readOnly: m.readOnly}.ShortHelp()), "  ", W)
 	case modeSaveAs:
-		return m.saveAs.input.view(st, W)
+		return m.saveAs.input.View(st, W)
 	case modeHelp:
 		return keyLine(st, []key.Binding{k.Help, k.Back, k.Quit}, W)
 	case modePicker:
