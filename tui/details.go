@@ -3,9 +3,150 @@ package tui
 import (
 	"fmt"
 	"math"
+	"strings"
+
+	"github.com/charmbracelet/bubbles/key"
+	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope"
 )
+
+// detailsView is the details panel: the flight conditions of the point
+// under the cursor, the facility answer there and its cautions. The root
+// computes them when what they show changes (Model.refreshDetails) and
+// stores them here with Show; View only lays them out. It owns no keys:
+// the keys that move the cursor are the matrix's, the root's own.
+type detailsView struct {
+	frame
+	key     detailKey
+	blocks  detailBlocks
+	stacked bool // one block above the other (the wide layout)
+}
+
+// detailBlocks is the text of the details panel.
+type detailBlocks struct {
+	flight   []string
+	facility []string
+	// cautions are the full caution texts; flags names the same cautions
+	// in a few words, for panels without room for the full texts.
+	cautions []string
+	flags    string
+	summary  string // one line for cramped screens
+}
+
+// Shows reports whether the panel holds the details for k.
+func (v detailsView) Shows(k detailKey) bool { return v.key == k }
+
+// Show stores the details for k, laid out one block above the other
+// (stacked) or side by side.
+func (v *detailsView) Show(k detailKey, d detailBlocks, stacked bool) {
+	v.key, v.blocks, v.stacked = k, d, stacked
+}
+
+// Update does nothing: the panel takes no keys.
+func (v detailsView) Update(tea.Msg) (detailsView, tea.Cmd) { return v, nil }
+
+// ShortHelp and FullHelp are empty: the panel takes no keys.
+func (v detailsView) ShortHelp() []key.Binding  { return nil }
+func (v detailsView) FullHelp() [][]key.Binding { return nil }
+
+// PreferredHeight is how many lines the blocks take side by side at
+// width w, every caution by its flag.
+func (v detailsView) PreferredHeight(w int) int { return len(detailLines(v.blocks, w, 0, false)) }
+
+// View lays the stored blocks out: one above the other (stacked, the wide
+// layout) or side by side (below the matrix).
+func (v detailsView) View() string {
+	if v.width <= 0 || v.height <= 0 {
+		return ""
+	}
+	if v.height < 4 {
+		return v.fit(wrapText(v.blocks.summary, v.width))
+	}
+	return v.fit(strings.Join(detailLines(v.blocks, v.width, v.height, v.stacked), "\n"))
+}
+
+// detailLines is the details panel as lines of at most w cells. Lines too
+// long for their column are wrapped, never cut. When the full caution texts
+// would not fit in h lines (h ≤ 0: no limit), the cautions are named by
+// their short flags instead.
+func detailLines(d detailBlocks, w, h int, stacked bool) []string {
+	wrapAll := func(ls []string, w int) []string {
+		var out []string
+		for _, l := range ls {
+			out = append(out, wrapLines(l, w, "  ")...)
+		}
+		return out
+	}
+	var body []string
+	if stacked {
+		body = wrapAll(d.flight, w)
+		if len(d.facility) > 0 {
+			body = append(body, "")
+			body = append(body, wrapAll(d.facility, w)...)
+		}
+	} else {
+		half := (w - 1) / 2
+		left, right := wrapAll(d.flight, half), wrapAll(d.facility, w-half-1)
+		rows := max(len(left), len(right))
+		body = strings.Split(joinColumns(box(strings.Join(left, "\n"), half, rows),
+			box(strings.Join(right, "\n"), w-half-1, rows), " "), "\n")
+	}
+	full := wrapAll(d.cautions, w)
+	if !stacked || h > 0 && len(body)+len(full) > h {
+		full = nil
+		if d.flags != "" {
+			full = wrapLines(d.flags, w, "  ")
+		}
+	}
+	return append(body, full...)
+}
+
+// detailKey is everything the details depend on. The panel is computed
+// again only when it changes.
+type detailKey struct {
+	grid   *envelope.Grid
+	answer *envelope.Map      // the map that answers at the point (nil: none)
+	fac    *envelope.Facility // its facility, as edited now
+	shown  int                // the facility shown (-1: best of all)
+	facs   int
+	errs   string // why the shown facility has no map
+	i, j   int
+	marked bool
+	units  Units
+	width  int
+	wide   bool
+	st     *Styles
+}
+
+// detailKey describes the details of the cursor point at width w.
+func (m *Model) detailKey(w int) detailKey {
+	k := detailKey{grid: m.res.grid, shown: m.fac, facs: len(m.facs), i: m.curI, j: m.curJ,
+		units: m.units, width: w, wide: m.wide, st: m.fr.st}
+	if g := m.res.grid; g != nil && g.Rows() > 0 && g.Cols() > 0 {
+		k.marked = m.marks[g.Index(min(m.curI, g.Rows()-1), min(m.curJ, g.Cols()-1))]
+	}
+	if _, f := m.res.result(m.fac, m.curI, m.curJ); f >= 0 && f < len(m.res.maps) {
+		k.answer = m.res.maps[f]
+		if f < len(m.facs) {
+			k.fac = &m.facs[f]
+		}
+	}
+	if m.fac >= 0 && m.fac < len(m.res.errs) && m.res.errs[m.fac] != nil {
+		k.errs = m.res.errs[m.fac].Error()
+	}
+	return k
+}
+
+// refreshDetails computes the details of the cursor point at width w when
+// the point, the facility, the results, the units, the marks at the point
+// or the panel changed since they were last computed, so that View draws
+// them without asking the engine.
+func (m *Model) refreshDetails(w int) {
+	if k := m.detailKey(w); !m.details.Shows(k) {
+		m.details.Show(k, m.detailBlocks(w), m.wide)
+	}
+}
 
 // detailBlocks builds the details text for the cursor point. w is the
 // width the panel has: blocks are laid out two to a line below w/2 each in

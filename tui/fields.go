@@ -323,6 +323,25 @@ func validateField(f field, s envelope.Settings, v float64) error {
 	return nil
 }
 
+// fieldReader reads the text typed for a field as the editor applies it:
+// in the current units, for the chosen facility, then checked against the
+// other settings. It holds copies of what it needs, so it stays valid as
+// the model is copied.
+type fieldReader struct {
+	units Units
+	fac   *envelope.Facility // the chosen facility, nil for none (its slice is never changed in place)
+	set   envelope.Settings
+}
+
+// read parses text for field f and checks it.
+func (r fieldReader) read(f field, text string) (float64, error) {
+	v, err := parseField(f, text, r.units, r.fac)
+	if err == nil {
+		err = validateField(f, r.set, v)
+	}
+	return v, err
+}
+
 // fieldByKey is the field stored under a session key, matched as
 // encoding/json matches struct keys (case folded); ok is false for none.
 func fieldByKey(key string, facility bool) (field, bool) {

@@ -150,11 +150,11 @@ type Model struct {
 	sessionPath string
 	saved       Session
 	keepOld     bool
-	readOnly    bool   // another likewind holds the session file
-	holder      string // which one
-	saveAs      saveAsPrompt
-	report      []string // what the saves did, for the terminal after exit
-	discard     bool     // user chose to quit without saving
+	readOnly    bool         // another likewind holds the session file
+	holder      string       // which one
+	saveAs      saveAsPrompt // the save-as question (modeSaveAs)
+	report      []string     // what the saves did, for the terminal after exit
+	discard     bool         // user chose to quit without saving
 	quitting    bool
 	inputs      []string
 	hash        string
@@ -188,6 +188,7 @@ func New(opts Options) Model {
 		details:  detailsView{frame: fr},
 		legend:   legendView{frame: fr},
 		picker:   picker{frame: fr},
+		saveAs:   saveAsPrompt{frame: fr},
 		editor:   newEditor(fr),
 		help:     newHelpView(fr),
 		vehicle:  veh,
@@ -436,21 +437,28 @@ func (m *Model) onComputed(msg computedMsg) {
 func (m *Model) setStatus(s string) { m.status, m.statusErr = envelope.CleanLines(s), false }
 func (m *Model) setError(s string)  { m.status, m.statusErr = envelope.CleanLines(s), true }
 
-// onKey dispatches a key to the mode that has the keyboard.
+// onKey gives a key to whatever has the keyboard: the matrix, the help
+// screen and the quit question are the root's own; a panel (picker,
+// editor, save-as question) gets the key itself, and the root acts on
+// what the panel reports.
 func (m *Model) onKey(msg tea.KeyMsg) tea.Cmd {
+	m.syncPanels()
+	var cmd tea.Cmd
 	switch m.mode {
 	case modeHelp:
 		return m.keyHelp(msg)
-	case modePicker:
-		return m.keyPicker(msg)
-	case modeEdit:
-		return m.keyEdit(msg)
 	case modeConfirm:
 		return m.keyConfirm(msg)
+	case modePicker:
+		m.picker, cmd = m.picker.Update(msg)
+	case modeEdit:
+		m.editor, cmd = m.editor.Update(msg)
 	case modeSaveAs:
-		return m.keySaveAs(msg)
+		m.saveAs, cmd = m.saveAs.Update(msg)
+	default:
+		return m.keyMain(msg)
 	}
-	return m.keyMain(msg)
+	return m.takeReport(cmd)
 }
 
 func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
@@ -483,7 +491,7 @@ func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
 		m.units = m.units.Toggle()
 	case matches(msg, k.Facility):
 		m.mode = modePicker
-		m.picker.sel = m.fac + 1
+		m.picker.Open(m.fac + 1)
 	case matches(msg, k.NextFac):
 		m.chooseFacility(m.fac + 1)
 	case matches(msg, k.PrevFac):
@@ -496,7 +504,7 @@ func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
 		}
 	case matches(msg, k.Edit):
 		m.mode = modeEdit
-		m.editor.err = ""
+		m.editor.Open()
 	case matches(msg, k.Restore):
 		return m.restoreFiles()
 	case matches(msg, k.Mark):
@@ -524,78 +532,6 @@ func (m *Model) keyHelp(msg tea.KeyMsg) tea.Cmd {
 	switch {
 	case matches(msg, k.Back), matches(msg, k.Help):
 		m.mode = modeMain
-	case matches(msg, k.Quit):
-		m.mode = modeMain
-		return m.askQuit()
-	}
-	return nil
-}
-
-func (m *Model) keyPicker(msg tea.KeyMsg) tea.Cmd {
-	k := m.fr.keys
-	n := len(m.facs) + 1
-	switch {
-	case matches(msg, k.Back), matches(msg, k.Facility):
-		m.mode = modeMain
-	case matches(msg, k.Help):
-		m.mode = modeHelp
-	case matches(msg, k.Prev):
-		m.picker.sel = (m.picker.sel - 1 + n) % n
-	case matches(msg, k.Next):
-		m.picker.sel = (m.picker.sel + 1) % n
-	case matches(msg, k.Select):
-		m.chooseFacility(m.picker.sel - 1)
-		m.mode = modeMain
-	case matches(msg, k.Quit):
-		m.mode = modeMain
-		return m.askQuit()
-	}
-	return nil
-}
-
-func (m *Model) keyEdit(msg tea.KeyMsg) tea.Cmd {
-	k := m.fr.keys
-	if m.editor.editing {
-		switch {
-		case matches(msg, k.Select):
-			return m.applyEdit()
-		case matches(msg, k.Back):
-			m.editor.end()
-			m.editor.err = ""
-		case matches(msg, k.Interrupt):
-			m.editor.end()
-			return m.askQuit()
-		default:
-			m.editor.input, _ = m.editor.input.Update(msg)
-			if r := m.editor.input.Refused(); r != "" {
-				m.editor.err = field(m.editor.sel).label(m.editWater()) + ": " + r
-			}
-		}
-		return nil
-	}
-	switch {
-	case matches(msg, k.Back), matches(msg, k.Edit):
-		m.mode = modeMain
-	case matches(msg, k.Help):
-		m.mode = modeHelp
-	case matches(msg, k.Prev):
-		m.editor.sel = (m.editor.sel - 1 + int(fieldCount)) % int(fieldCount)
-		m.editor.err = ""
-	case matches(msg, k.Next):
-		m.editor.sel = (m.editor.sel + 1) % int(fieldCount)
-		m.editor.err = ""
-	case matches(msg, k.Select):
-		f := field(m.editor.sel)
-		if f.facilityField() && m.fac < 0 {
-			m.editor.err = "choose a facility first (f or [ ])"
-			return nil
-		}
-		row := m.editorRows()[f]
-		m.editor.begin(row.label, row.start, m.fieldParser(f))
-	case matches(msg, k.Restore):
-		return m.restoreFiles()
-	case matches(msg, k.Undo):
-		return m.undoLast()
 	case matches(msg, k.Quit):
 		m.mode = modeMain
 		return m.askQuit()
@@ -922,50 +858,27 @@ func (m *Model) whatIfChanged() bool {
 	return len(m.changes()) > 0
 }
 
-// editWater reports whether the facility the editor's limits are for is
-// a water tunnel.
-func (m *Model) editWater() bool {
-	return m.fac >= 0 && m.fac < len(m.facs) && isWater(&m.facs[m.fac])
-}
-
-// fieldParser reads text typed for field f as the editor applies it: the
-// field's parser in the current units, for the chosen facility, then its
-// check against the other settings. It holds copies of the state it
-// needs, so it stays valid as the model is copied.
-func (m *Model) fieldParser(f field) func(string) (float64, error) {
-	var fac *envelope.Facility
+// fieldReader reads typed values for the editor in the current units,
+// for the chosen facility and against the current settings.
+func (m *Model) fieldReader() fieldReader {
+	r := fieldReader{units: m.units, set: m.set}
 	if m.fac >= 0 && m.fac < len(m.facs) {
-		fac = &m.facs[m.fac] // the slice is never changed in place
+		r.fac = &m.facs[m.fac]
 	}
-	u, set := m.units, m.set
-	return func(text string) (float64, error) {
-		v, err := parseField(f, text, u, fac)
-		if err == nil {
-			err = validateField(f, set, v)
-		}
-		return v, err
-	}
+	return r
 }
 
-// applyEdit parses the input line and applies it.
-func (m *Model) applyEdit() tea.Cmd {
-	f := field(m.editor.sel)
+// applyField applies the value v the editor read for field f (checked
+// there) and recomputes what it changes: the grid for a flight-side
+// setting, every facility for another setting, the chosen facility for
+// one of its limits.
+func (m *Model) applyField(f field, v float64) tea.Cmd {
 	d := f.def()
-	var fac *envelope.Facility
-	if d.facility {
-		if m.fac < 0 || m.fac >= len(m.facs) {
-			m.editor.err = "choose a facility first"
-			return nil
-		}
-		fac = &m.facs[m.fac]
-	}
-	v, err := m.fieldParser(f)(m.editor.input.Value())
-	if err != nil {
-		m.editor.err = err.Error()
-		return nil
+	if d.facility && (m.fac < 0 || m.fac >= len(m.facs)) {
+		return nil // the editor opens no limit without a facility
 	}
 	// The state before the edit, for undo.
-	before := undoStep{what: "what-if " + f.label(isWater(fac)), whatIf: true, set: m.set, facs: m.facs, marks: m.marks}
+	before := undoStep{what: "what-if " + f.label(d.facility && isWater(&m.facs[m.fac])), whatIf: true, set: m.set, facs: m.facs, marks: m.marks}
 	kind := recomputeSolve
 	switch {
 	case d.facility:
@@ -980,8 +893,6 @@ func (m *Model) applyEdit() tea.Cmd {
 		d.set(&m.set, nil, v)
 	}
 	m.pushStep(before)
-	m.editor.end()
-	m.editor.err = ""
 	return m.recompute(kind)
 }
 
