@@ -2,6 +2,7 @@ package tui
 
 import (
 	"github.com/charmbracelet/bubbles/help"
+	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
 )
 
@@ -50,6 +51,28 @@ type (
 	// saveAsCancelledMsg: the save-as question was closed unanswered.
 	saveAsCancelledMsg struct{}
 )
+
+// listKey is what a key does in a list of n rows with the pointer on
+// sel, the same in the picker and the editor's list: up and down move the
+// pointer (wrapping around), esc or closer (the key that opened the list)
+// closes it, ? opens the help and q quits, each by its report. ok is false
+// for any other key, which the list handles itself.
+func listKey(k tea.KeyMsg, keys *KeyMap, closer key.Binding, sel, n int) (next int, cmd tea.Cmd, ok bool) {
+	n = max(n, 1)
+	switch {
+	case key.Matches(k, keys.Prev):
+		return (sel - 1 + n) % n, nil, true
+	case key.Matches(k, keys.Next):
+		return (sel + 1) % n, nil, true
+	case key.Matches(k, keys.Back), key.Matches(k, closer):
+		return sel, report(panelClosedMsg{}), true
+	case key.Matches(k, keys.Help):
+		return sel, report(helpWantedMsg{}), true
+	case key.Matches(k, keys.Quit):
+		return sel, report(quitWantedMsg{}), true
+	}
+	return sel, nil, false
+}
 
 // report is the command whose message is msg.
 func report(msg tea.Msg) tea.Cmd { return func() tea.Msg { return msg } }

@@ -115,18 +115,13 @@ func (e editor) Update(msg tea.Msg) (editor, tea.Cmd) {
 		}
 		return e, nil
 	}
-	n := int(fieldCount)
+	if sel, cmd, ok := listKey(k, keys, keys.Edit, e.sel, int(fieldCount)); ok {
+		if sel != e.sel {
+			e.sel, e.err = sel, ""
+		}
+		return e, cmd
+	}
 	switch {
-	case key.Matches(k, keys.Back), key.Matches(k, keys.Edit):
-		return e, report(panelClosedMsg{})
-	case key.Matches(k, keys.Help):
-		return e, report(helpWantedMsg{})
-	case key.Matches(k, keys.Prev):
-		e.sel = (e.sel - 1 + n) % n
-		e.err = ""
-	case key.Matches(k, keys.Next):
-		e.sel = (e.sel + 1) % n
-		e.err = ""
 	case key.Matches(k, keys.Select):
 		if e.sel >= len(e.rows) || !e.rows[e.sel].enabled {
 			e.err = "choose a facility first (f or [ ])"
@@ -137,8 +132,6 @@ func (e editor) Update(msg tea.Msg) (editor, tea.Cmd) {
 		return e, report(restoreWantedMsg{})
 	case key.Matches(k, keys.Undo):
 		return e, report(undoWantedMsg{})
-	case key.Matches(k, keys.Quit):
-		return e, report(quitWantedMsg{})
 	}
 	return e, nil
 }

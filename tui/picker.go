@@ -41,21 +41,12 @@ func (p picker) Update(msg tea.Msg) (picker, tea.Cmd) {
 	if !ok {
 		return p, nil
 	}
-	keys := p.keys
-	n := max(len(p.rows), 1)
-	switch {
-	case key.Matches(k, keys.Back), key.Matches(k, keys.Facility):
-		return p, report(panelClosedMsg{})
-	case key.Matches(k, keys.Help):
-		return p, report(helpWantedMsg{})
-	case key.Matches(k, keys.Prev):
-		p.sel = (p.sel - 1 + n) % n
-	case key.Matches(k, keys.Next):
-		p.sel = (p.sel + 1) % n
-	case key.Matches(k, keys.Select):
+	var cmd tea.Cmd
+	if p.sel, cmd, ok = listKey(k, p.keys, p.keys.Facility, p.sel, len(p.rows)); ok {
+		return p, cmd
+	}
+	if key.Matches(k, p.keys.Select) {
 		return p, report(facilityChosenMsg{fac: p.sel - 1})
-	case key.Matches(k, keys.Quit):
-		return p, report(quitWantedMsg{})
 	}
 	return p, nil
 }
