@@ -152,23 +152,34 @@ func (m *Model) refreshDetails(w int) {
 // width the panel has: blocks are laid out two to a line below w/2 each in
 // the narrow layout, one above the other in the wide one.
 func (m Model) detailBlocks(w int) detailBlocks {
-	st := m.fr.st
-	u := m.units
 	var d detailBlocks
 	g := m.res.grid
 	if g == nil || g.Rows() == 0 || g.Cols() == 0 {
-		d.flight = []string{st.Section.Render("FLIGHT"), "no grid"}
+		d.flight = []string{m.fr.st.Section.Render("FLIGHT"), "no grid"}
 		d.summary = "no grid"
 		return d
 	}
-	// Pairs of values line up in columns: a quarter of the narrow panel
-	// (two blocks side by side), up to half of the wide one.
+	pair := m.pairs(w)
+	fd, ok := m.flightBlock(&d, pair)
+	if ok {
+		m.facilityBlock(&d, fd, w, pair)
+	}
+	return d
+}
+
+// pairFunc writes two labelled values on one line, the second in a column.
+type pairFunc func(a, av, b, bv string) string
+
+// pairs lines pairs of values up in columns: a quarter of the narrow
+// panel (two blocks side by side), up to half of the wide one.
+func (m Model) pairs(w int) pairFunc {
+	st := m.fr.st
 	colW := min(w/2, 22)
 	if !m.wide {
 		colW = (w - 1) / 4
 	}
 	colW = max(colW, 12)
-	pair := func(a, av, b, bv string) string {
+	return func(a, av, b, bv string) string {
 		left := st.Label.Render(a) + " " + av
 		if b == "" {
 			return left
@@ -178,14 +189,19 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		}
 		return padRight(left, colW) + st.Label.Render(b) + " " + bv
 	}
+}
 
+// flightBlock writes the flight conditions of the cursor point into d;
+// ok is false when there are none.
+func (m Model) flightBlock(d *detailBlocks, pair pairFunc) (fd envelope.FlightDetail, ok bool) {
+	st, u, g := m.fr.st, m.units, m.res.grid
 	fd, err := g.FlightDetail(m.curI, m.curJ)
 	head := st.Section.Render("FLIGHT") + " " + u.Alt(g.Alts[m.curI]) + " " + st.Label.Render("ΔT") + " " + u.DeltaT(g.DeltaT)
 	d.flight = append(d.flight, head)
 	if err != nil {
 		d.flight = append(d.flight, st.Error.Render(err.Error()))
 		d.summary = err.Error()
-		return d
+		return fd, false
 	}
 	s, a := fd.State, fd.Airspeeds
 	if !fd.Inside {
@@ -204,8 +220,13 @@ func (m Model) detailBlocks(w int) detailBlocks {
 	if m.marks[g.Index(m.curI, m.curJ)] {
 		d.flight[0] += " " + st.HelpKey.Render("[test point]")
 	}
+	return fd, true
+}
 
-	// Facility answer.
+// facilityBlock writes the facility answer at the cursor point into d:
+// the facility, class and limit, the settings and the cautions.
+func (m Model) facilityBlock(d *detailBlocks, fd envelope.FlightDetail, w int, pair pairFunc) {
+	st := m.fr.st
 	res, k := m.res.result(m.fac, m.curI, m.curJ)
 	if k < 0 || k >= len(m.res.maps) || m.res.maps[k] == nil {
 		d.facility = append(d.facility, st.Section.Render("FACILITY"))
@@ -219,9 +240,8 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		default:
 			d.facility = append(d.facility, "no answer")
 		}
-		return d
+		return
 	}
-	mp := m.res.maps[k]
 	fac := m.facs[k]
 	title := st.Section.Render("FACILITY") + " "
 	if m.fac < 0 {
@@ -229,7 +249,7 @@ func (m Model) detailBlocks(w int) detailBlocks {
 			d.facility = append(d.facility, title+st.Label.Render("best of all"),
 				"no facility reaches this point")
 			d.summary += " | out of reach"
-			return d
+			return
 		}
 		title += st.Label.Render("best:") + " "
 	}
@@ -242,20 +262,40 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		title += m.facilityLabel(k, w-(w-1)/2-1-visibleWidth(title))
 	}
 	d.facility = append(d.facility, title)
-	det, err := mp.Detail(m.curI, m.curJ)
+	det, err := m.res.maps[k].Detail(m.curI, m.curJ)
 	if err != nil {
 		d.facility = append(d.facility, st.Error.Render(err.Error()))
-		return d
+		return
 	}
 	if det.Class == envelope.Outside {
 		d.facility = append(d.facility, st.Faint.Render("no answer outside the envelope"))
-		return d
+		return
 	}
 	d.facility = append(d.facility, st.Label.Render("class")+" "+classWord(det.Class))
 	if det.Limit != envelope.LimitNone {
 		d.facility = append(d.facility, st.Label.Render("limited by")+" "+det.Limit.String())
 	}
 	d.summary += " | " + classWord(det.Class)
+	m.settingLines(d, &det, &fac, pair)
+
+	// The cautions by name, for panels without room for the full texts,
+	// and the full texts in the panel's units, like every other value.
+	if det.Flags != 0 {
+		d.flags = st.Caution.Render("! " + det.Flags.String())
+	}
+	for _, c := range envelope.Cautions(&det, &fac, m.units) {
+		if c == envelope.PlanningNote {
+			continue
+		}
+		d.cautions = append(d.cautions, st.Caution.Render("! "+c))
+	}
+}
+
+// settingLines writes the facility settings of det into d: p0 and T0, or
+// water speed and temperature, then q, the Reynolds number reached, the
+// model and the operating rule.
+func (m Model) settingLines(d *detailBlocks, det *envelope.Detail, fac *envelope.Facility, pair pairFunc) {
+	st, u := m.fr.st, m.units
 	if !det.HasSettings {
 		d.facility = append(d.facility, st.Faint.Render("no setting reaches this condition"))
 	} else if fac.Medium.IsGas() {
@@ -281,7 +321,7 @@ func (m Model) detailBlocks(w int) detailBlocks {
 			pair("Re", expo(det.Re, 3), "ratio", fixed(det.ReRatio, 3)),
 		)
 		if det.Class == envelope.ReShort {
-			d.facility = append(d.facility, st.Label.Render("ΔCf")+" "+skinFrictionNote(det))
+			d.facility = append(d.facility, st.Label.Render("ΔCf")+" "+skinFrictionNote(*det))
 		}
 	}
 	d.facility = append(d.facility, pair("scale", sig(det.Scale, 3), "model", u.Length(det.ModelLength)))
@@ -289,19 +329,6 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		// Which of the settings that reach the target was taken.
 		d.facility = append(d.facility, st.Label.Render("rule")+" "+envelope.OperatingRule(fac.Medium))
 	}
-
-	// The cautions by name, for panels without room for the full texts,
-	// and the full texts in the panel's units, like every other value.
-	if det.Flags != 0 {
-		d.flags = st.Caution.Render("! " + det.Flags.String())
-	}
-	for _, c := range envelope.Cautions(&det, &fac, u) {
-		if c == envelope.PlanningNote {
-			continue
-		}
-		d.cautions = append(d.cautions, st.Caution.Render("! "+c))
-	}
-	return d
 }
 
 // skinFrictionNote grades a Reynolds shortfall by its effect: the change in
