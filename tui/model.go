@@ -168,6 +168,52 @@ type Model struct {
 // New builds the model and runs the first evaluation synchronously, so the
 // first frame already shows results.
 func New(opts Options) Model {
+	m := newModel(opts)
+	var notes statusNotes
+	restored := false
+	if opts.Session != nil {
+		if err := CheckSession(*opts.Session, m.inputs, m.hash); err != nil {
+			notes.add("session not restored: "+err.Error(), true)
+		} else {
+			notes.lines = append(notes.lines, m.applySession(*opts.Session))
+			restored = true
+		}
+	}
+	m.evaluate(!restored)
+	if opts.Session != nil {
+		m.restoreSessionPoints(*opts.Session)
+	} else {
+		m.curI, m.curJ = m.startPoint()
+	}
+	if m.status != "" { // an evaluation error, or marks dropped
+		notes.add(m.status, m.statusErr)
+	}
+	if opts.SessionNote != "" {
+		notes.add(opts.SessionNote, true)
+	}
+	if m.store != nil {
+		if _, ok := m.store.Found(); ok && !restored {
+			m.keepOld = true
+		}
+		m.storeNotes(&notes, opts.SessionFile != nil)
+	}
+	if len(notes.lines) > 0 {
+		m.status, m.statusErr = strings.Join(notes.lines, "; "), notes.err
+	}
+	m.saved = m.Session()
+	w, h := opts.Width, opts.Height
+	if w <= 0 || h <= 0 {
+		w, h = 80, 24
+	}
+	m.fr.SetSize(w, h)
+	m.relayout()
+	return m
+}
+
+// newModel sets the model up from opts with the files' values: styles,
+// keys, components, data, settings and the session file, nothing
+// evaluated yet.
+func newModel(opts Options) Model {
 	st := opts.Styles
 	if st == nil {
 		p := PlainStyles()
@@ -219,8 +265,6 @@ func New(opts Options) Model {
 	if len(m.facs) == 0 {
 		m.fac = -1
 	}
-	var notes []string
-	notesErr := false
 	m.store = opts.SessionFile
 	if m.store == nil && opts.SessionPath != "" {
 		// Opening without a lock only reads: it cannot fail but on an
@@ -231,65 +275,51 @@ func New(opts Options) Model {
 		m.sessionPath = m.store.Path()
 		m.readOnly, m.holder = m.store.ReadOnly()
 	}
-	restored := false
-	if opts.Session != nil {
-		if err := CheckSession(*opts.Session, m.inputs, m.hash); err != nil {
-			notes, notesErr = append(notes, "session not restored: "+err.Error()), true
-		} else {
-			notes = append(notes, m.applySession(*opts.Session))
-			restored = true
-		}
-	}
+	return m
+}
+
+// evaluate runs the first evaluation synchronously; with pick it opens on
+// the facility with the most full matches (StartFacility).
+func (m *Model) evaluate(pick bool) {
 	if m.vehicle == nil {
 		m.setError("no vehicle loaded")
-	} else {
-		r, err := computeGrid(m.vehicle, m.facs, m.set)
-		if err != nil {
-			m.setError("evaluation failed: " + err.Error())
-		} else {
-			m.res = r
-			if !restored {
-				if k := StartFacility(r.maps); k >= 0 {
-					m.fac = k
-				}
-			}
-		}
+		return
 	}
-	if opts.Session != nil {
-		m.restoreSessionPoints(*opts.Session)
-	} else {
-		m.curI, m.curJ = m.startPoint()
+	r, err := computeGrid(m.vehicle, m.facs, m.set)
+	if err != nil {
+		m.setError("evaluation failed: " + err.Error())
+		return
 	}
-	if m.status != "" { // an evaluation error, or marks dropped
-		notes, notesErr = append(notes, m.status), m.statusErr
+	m.res = r
+	if !pick {
+		return
 	}
-	if opts.SessionNote != "" {
-		notes, notesErr = append(notes, opts.SessionNote), true
+	if k := StartFacility(r.maps); k >= 0 {
+		m.fac = k
 	}
-	if m.store != nil {
-		if _, ok := m.store.Found(); ok && !restored {
-			m.keepOld = true
-		}
-		if m.readOnly {
-			notes, notesErr = append(notes, fmt.Sprintf("read-only: %s is open in another likewind (%s); s saves this session to another file", m.sessionPath, m.holder)), true
-		} else if err := m.store.LockError(); err != nil && opts.SessionFile != nil {
-			notes, notesErr = append(notes, fmt.Sprintf("no lock on %s: %v", m.sessionPath, err)), true
-		}
-		if err := m.store.Refused(); err != nil {
-			notes, notesErr = append(notes, fmt.Sprintf("%s %v; it is kept, and the session will be saved beside it", m.sessionPath, err)), true
-		}
+}
+
+// statusNotes collects the status line at start; err is whether the
+// latest note that says so is an error.
+type statusNotes struct {
+	lines []string
+	err   bool
+}
+
+func (n *statusNotes) add(s string, isErr bool) { n.lines, n.err = append(n.lines, s), isErr }
+
+// storeNotes adds what the status line says about the session file: held
+// by another likewind, not locked (when the caller gave the file, locked),
+// or refused and kept.
+func (m *Model) storeNotes(notes *statusNotes, locked bool) {
+	if m.readOnly {
+		notes.add(fmt.Sprintf("read-only: %s is open in another likewind (%s); s saves this session to another file", m.sessionPath, m.holder), true)
+	} else if err := m.store.LockError(); err != nil && locked {
+		notes.add(fmt.Sprintf("no lock on %s: %v", m.sessionPath, err), true)
 	}
-	if len(notes) > 0 {
-		m.status, m.statusErr = strings.Join(notes, "; "), notesErr
+	if err := m.store.Refused(); err != nil {
+		notes.add(fmt.Sprintf("%s %v; it is kept, and the session will be saved beside it", m.sessionPath, err), true)
 	}
-	m.saved = m.Session()
-	w, h := opts.Width, opts.Height
-	if w <= 0 || h <= 0 {
-		w, h = 80, 24
-	}
-	m.fr.SetSize(w, h)
-	m.relayout()
-	return m
 }
 
 // startPoint picks the inside point nearest the middle of the grid.
