@@ -69,10 +69,11 @@ type fieldDef struct {
 	// bareCustomary are the units a bare number takes ("" = none).
 	dim                   atmos.Dimension
 	bareSI, bareCustomary string
-	// word is typed for the stored value 0 ("fit": each facility's own
-	// sizing; "none": no limit); wordHint is added to an out-of-range
-	// refusal to say so. A typed 0 is refused, not read as the word.
-	word, wordHint string
+	// words are typed for values that are no quantity ("fit" for the
+	// scale 0: each facility's own sizing; "none" for q max 0: no limit).
+	// An out-of-range refusal names them; a typed number is never read as
+	// one (a typed 0 is refused).
+	words []fieldWord
 
 	// get and set read and write the value (SI): settings in s, a limit
 	// in f, the facility it belongs to.
@@ -96,14 +97,21 @@ type fieldDef struct {
 	show func(u Units, v float64, water bool) string
 }
 
+// fieldWord is a word a field takes for a value, and what it means.
+type fieldWord struct {
+	word  string
+	value float64
+	means string
+}
+
 // fieldTable is every what-if field, indexed by field.
 var fieldTable = [fieldCount]fieldDef{
 	fieldScale: {
 		label: "model scale", name: "model scale", key: "scale",
-		word: "fit", wordHint: `or the word "fit" for each facility's own sizing`,
-		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.Scale },
-		set:  func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.Scale = v },
-		read: envelope.ParseModelScale, bound: envelope.ModelScaleBound,
+		words: []fieldWord{{word: "fit", value: 0, means: "each facility's own sizing"}},
+		get:   func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.Scale },
+		set:   func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.Scale = v },
+		read:  envelope.ParseModelScale, bound: envelope.ModelScaleBound,
 		show: func(_ Units, v float64, _ bool) string { return scaleText(v) },
 	},
 	fieldDeltaT: {
@@ -175,9 +183,9 @@ var fieldTable = [fieldCount]fieldDef{
 		label: "q max", name: "q max", key: "q_max_Pa",
 		facility: true, origin: fromFacility,
 		dim: atmos.Pressure, bareSI: "kPa", bareCustomary: "psf",
-		word: "none", wordHint: `or the word "none" for no limit`,
-		get: func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.QMax },
-		set: func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.QMax = v },
+		words: []fieldWord{{word: "none", value: 0, means: "no limit"}},
+		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.QMax },
+		set:   func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.QMax = v },
 		limit: func(_ *envelope.Facility, found string, v float64) (float64, error) {
 			return envelope.CheckQMax(found, v)
 		},
@@ -222,13 +230,38 @@ func (f field) bareUnit(u Units) string {
 func (f field) show(u Units, v float64, water bool) string { return f.def().show(u, v, water) }
 
 // editText is the text the input line starts with for the value v: what
-// show writes, in a form the field reads back (the word for 0, degF for
-// °F).
+// show writes, in a form the field reads back (its word, degF for °F).
 func (f field) editText(u Units, v float64, water bool) string {
-	if d := f.def(); v == 0 && d.word != "" {
-		return d.word
+	if w, ok := f.wordFor(v); ok {
+		return w.word
 	}
 	return strings.ReplaceAll(f.show(u, v, water), "°F", "degF")
+}
+
+// wordFor is the word the field takes for the value v, if any.
+func (f field) wordFor(v float64) (fieldWord, bool) {
+	for _, w := range f.def().words {
+		if w.value == v {
+			return w, true
+		}
+	}
+	return fieldWord{}, false
+}
+
+// wordHint is what an out-of-range refusal adds about the field's words
+// ("" for none): `or the word "fit" for each facility's own sizing`.
+func (f field) wordHint() string {
+	var parts []string
+	for _, w := range f.def().words {
+		parts = append(parts, fmt.Sprintf("%q for %s", w.word, w.means))
+	}
+	switch len(parts) {
+	case 0:
+		return ""
+	case 1:
+		return "or the word " + parts[0]
+	}
+	return "or one of the words " + strings.Join(parts, ", ")
 }
 
 // isWater reports whether fac is a water facility (false for nil).
@@ -258,8 +291,10 @@ func parseField(f field, text string, u Units, fac *envelope.Facility) (float64,
 	if n := utf8.RuneCountInString(t); n > maxEntry {
 		return fail(fmt.Errorf("the entry is %d characters long, expected at most %d", n, maxEntry))
 	}
-	if d.word != "" && strings.EqualFold(t, d.word) {
-		return 0, nil
+	for _, w := range d.words {
+		if strings.EqualFold(t, w.word) {
+			return w.value, nil
+		}
 	}
 	if d.facility && fac == nil {
 		return fail(errors.New("choose a facility first"))
@@ -279,8 +314,8 @@ func parseField(f field, text string, u Units, fac *envelope.Facility) (float64,
 	} else {
 		v, err = d.read(t)
 	}
-	if errors.Is(err, envelope.ErrOutOfBounds) && d.wordHint != "" {
-		err = fmt.Errorf("%w, %s", err, d.wordHint)
+	if hint := f.wordHint(); hint != "" && errors.Is(err, envelope.ErrOutOfBounds) {
+		err = fmt.Errorf("%w, %s", err, hint)
 	}
 	if err != nil {
 		return fail(err)
@@ -295,9 +330,10 @@ func parseField(f field, text string, u Units, fac *envelope.Facility) (float64,
 func checkField(f field, v float64, fac *envelope.Facility) (float64, error) {
 	d := f.def()
 	var err error
+	_, isWord := f.wordFor(v)
 	switch {
-	case v == 0 && d.word != "":
-		return 0, nil
+	case isWord:
+		return v, nil
 	case d.facility && fac == nil:
 		err = errors.New("no facility")
 	case d.facility:
