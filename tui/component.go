@@ -46,8 +46,12 @@ type (
 	// restoreWantedMsg and undoWantedMsg: the R and U keys of the editor.
 	restoreWantedMsg struct{}
 	undoWantedMsg    struct{}
-	// sessionFileChosenMsg: the save-as question was answered with path.
-	sessionFileChosenMsg struct{ path string }
+	// sessionFileChosenMsg: the save-as question was answered with path;
+	// quit ends the program once the session is saved there.
+	sessionFileChosenMsg struct {
+		path string
+		quit bool
+	}
 	// saveAsCancelledMsg: the save-as question was closed unanswered.
 	saveAsCancelledMsg struct{}
 )
@@ -110,7 +114,7 @@ func (m *Model) onReport(msg tea.Msg) tea.Cmd {
 	case undoWantedMsg:
 		return m.undoLast()
 	case sessionFileChosenMsg:
-		return m.saveAsCmd(r.path)
+		return m.saveAsCmd(r.path, r.quit)
 	case saveAsCancelledMsg:
 		m.mode = modeMain
 		m.setError("session not saved; the changes are still here")

@@ -22,8 +22,8 @@ type editorRow struct {
 // chosen, an input line. enter on a field opens the line with its value;
 // enter on the line reads it with the field's parser (fieldReader) and
 // reports the value (fieldAppliedMsg), or shows why it is refused and
-// keeps the line open. The root gives it the rows, the title and the
-// reader (SetFields).
+// keeps the line open. The root gives it the rows, the facility the
+// limits are for and the reader (SetFields).
 type editor struct {
 	frame
 	rows    []editorRow
@@ -77,6 +77,9 @@ func (e *editor) begin(text string) {
 		return err
 	})
 }
+
+// Editing reports whether the input line is open.
+func (e editor) Editing() bool { return e.editing }
 
 // end closes the input line.
 func (e *editor) end() { e.editing = false }

@@ -48,9 +48,10 @@ func (m *Model) openSaveAs(quit bool, err error, typed string) {
 	m.mode = modeSaveAs
 }
 
-// saveAsCmd saves the session to the file the user typed, in a command.
-func (m *Model) saveAsCmd(typed string) tea.Cmd {
-	store, s, quit := m.store, m.Session(), m.saveAs.quit
+// saveAsCmd saves the session to the file the user typed, in a command;
+// with quit the program ends once the save succeeded.
+func (m *Model) saveAsCmd(typed string, quit bool) tea.Cmd {
+	store, s := m.store, m.Session()
 	if store == nil {
 		m.mode = modeMain
 		return nil
@@ -69,7 +70,7 @@ func (p saveAsPrompt) Update(msg tea.Msg) (saveAsPrompt, tea.Cmd) {
 	}
 	switch {
 	case key.Matches(k, p.keys.Select):
-		return p, report(sessionFileChosenMsg{path: p.input.Value()})
+		return p, report(sessionFileChosenMsg{path: p.input.Value(), quit: p.quit})
 	case key.Matches(k, p.keys.Back):
 		return p, report(saveAsCancelledMsg{})
 	case key.Matches(k, p.keys.Interrupt):

@@ -264,7 +264,7 @@ func (m Model) footer() string {
 	k := m.fr.keys
 	st := m.fr.st
 	W := m.fr.width
-	if m.status != "" && m.mode != modeConfirm && m.mode != modeSaveAs && !(m.mode == modeEdit && m.editor.editing) {
+	if m.status != "" && m.mode != modeConfirm && m.mode != modeSaveAs && !(m.mode == modeEdit && m.editor.Editing()) {
 		style := st.Status
 		if m.statusErr {
 			style = st.Error
@@ -292,7 +292,7 @@ func (m Model) footer() string {
 	case modePicker:
 		return keyLine(st, m.picker.ShortHelp(), W)
 	case modeEdit:
-		if m.editor.editing {
+		if m.editor.Editing() {
 			return m.editor.Line()
 		}
 		return keyLine(st, m.editor.ShortHelp(), W)
