@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/x/ansi"
 )
 
 // reportOf runs a component's command and returns its report (nil for
@@ -152,5 +153,24 @@ func TestReportTakenWithItsKey(t *testing.T) {
 	}
 	if cmd == nil {
 		t.Errorf("no recompute started for the edit")
+	}
+}
+
+// A refusal in the editor is shown whole, wrapped over the panel's lines,
+// never cut at its edge: in the side panel and below the matrix.
+func TestEditorRefusalShownWhole(t *testing.T) {
+	for _, size := range []struct{ w, h int }{{80, 24}, {120, 40}} {
+		m := newDemo(t, size.w, size.h)
+		m.fac = facilityNamed(t, m, "Kellen Fold")
+		m = edit(t, m, fieldP0Max, "1 bar")
+		want := m.editor.err
+		if !strings.Contains(want, "not below the facility's minimum 120000 Pa") {
+			t.Fatalf("%d×%d: refusal %q", size.w, size.h, want)
+		}
+		// The panel as the body draws it, its lines joined.
+		panel := strings.Join(strings.Fields(ansi.Strip(m.editor.View())), " ")
+		if !strings.Contains(panel, strings.Join(strings.Fields(want), " ")) {
+			t.Errorf("%d×%d: the refusal is not shown whole:\n%s", size.w, size.h, m.editor.View())
+		}
 	}
 }

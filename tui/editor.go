@@ -197,7 +197,10 @@ func (e editor) View() string {
 		}
 	}
 	if e.err != "" {
-		b.WriteString("\n" + e.st.Error.Render(e.err))
+		// Wrapped whole: a refusal names what was found and expected.
+		for _, l := range wrapLines(e.err, e.width, "") {
+			b.WriteString("\n" + e.st.Error.Render(l))
+		}
 	}
 	return e.fit(b.String())
 }
