@@ -20,7 +20,10 @@ type results struct {
 	full    []float64 // full-match share of inside points, per facility
 	matched []float64 // full match or Mach relaxed, per facility
 	union   float64   // share of inside points some facility matches
-	errs    []error   // per facility: why it has no map (nil map)
+	// bestFull is the share of inside points whose best class is a full
+	// match.
+	bestFull float64
+	errs     []error // per facility: why it has no map (nil map)
 }
 
 // computeGrid evaluates the flight side and every facility.
@@ -100,7 +103,7 @@ func (r *results) summarise(prev *results, changed int) {
 	if prev == nil || changed < 0 || !r.incrementalBest(prev, changed) {
 		r.best, r.bestRes = BestOfAll(r.maps)
 	}
-	var n, inside int
+	var n, full, inside int
 	for _, res := range r.bestRes {
 		if res.Class != envelope.Outside {
 			inside++
@@ -108,9 +111,13 @@ func (r *results) summarise(prev *results, changed int) {
 		if res.Class.Matched() {
 			n++
 		}
+		if res.Class == envelope.FullMatch {
+			full++
+		}
 	}
 	if inside > 0 {
 		r.union = float64(n) / float64(inside)
+		r.bestFull = float64(full) / float64(inside)
 	}
 }
 

@@ -3,31 +3,183 @@ package tui
 import (
 	"fmt"
 	"math"
+	"strings"
+
+	"github.com/charmbracelet/bubbles/key"
+	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope"
 )
+
+// detailsView is the details panel: the flight conditions of the point
+// under the cursor, the facility answer there and its cautions. The root
+// computes them when what they show changes (Model.refreshDetails) and
+// stores them here with Show; View only lays them out. It owns no keys:
+// the keys that move the cursor are the matrix's, the root's own.
+type detailsView struct {
+	frame
+	key     detailKey
+	blocks  detailBlocks
+	stacked bool // one block above the other (the wide layout)
+}
+
+// detailBlocks is the text of the details panel.
+type detailBlocks struct {
+	flight   []string
+	facility []string
+	// cautions are the full caution texts; flags names the same cautions
+	// in a few words, for panels without room for the full texts.
+	cautions []string
+	flags    string
+	summary  string // one line for cramped screens
+}
+
+// Shows reports whether the panel holds the details for k.
+func (v detailsView) Shows(k detailKey) bool { return v.key == k }
+
+// Show stores the details for k, laid out one block above the other
+// (stacked) or side by side.
+func (v *detailsView) Show(k detailKey, d detailBlocks, stacked bool) {
+	v.key, v.blocks, v.stacked = k, d, stacked
+}
+
+// Update does nothing: the panel takes no keys.
+func (v detailsView) Update(tea.Msg) (detailsView, tea.Cmd) { return v, nil }
+
+// ShortHelp and FullHelp are empty: the panel takes no keys.
+func (v detailsView) ShortHelp() []key.Binding  { return nil }
+func (v detailsView) FullHelp() [][]key.Binding { return nil }
+
+// PreferredHeight is how many lines the blocks take side by side at
+// width w, every caution by its flag.
+func (v detailsView) PreferredHeight(w int) int { return len(detailLines(v.blocks, w, 0, false)) }
+
+// View lays the stored blocks out: one above the other (stacked, the wide
+// layout) or side by side (below the matrix).
+func (v detailsView) View() string {
+	if v.width <= 0 || v.height <= 0 {
+		return ""
+	}
+	if v.height < 4 {
+		return v.fit(wrapText(v.blocks.summary, v.width))
+	}
+	return v.fit(strings.Join(detailLines(v.blocks, v.width, v.height, v.stacked), "\n"))
+}
+
+// detailLines is the details panel as lines of at most w cells. Lines too
+// long for their column are wrapped, never cut. When the full caution texts
+// would not fit in h lines (h ≤ 0: no limit), the cautions are named by
+// their short flags instead.
+func detailLines(d detailBlocks, w, h int, stacked bool) []string {
+	wrapAll := func(ls []string, w int) []string {
+		var out []string
+		for _, l := range ls {
+			out = append(out, wrapLines(l, w, "  ")...)
+		}
+		return out
+	}
+	var body []string
+	if stacked {
+		body = wrapAll(d.flight, w)
+		if len(d.facility) > 0 {
+			body = append(body, "")
+			body = append(body, wrapAll(d.facility, w)...)
+		}
+	} else {
+		half := (w - 1) / 2
+		left, right := wrapAll(d.flight, half), wrapAll(d.facility, w-half-1)
+		rows := max(len(left), len(right))
+		body = strings.Split(joinColumns(box(strings.Join(left, "\n"), half, rows),
+			box(strings.Join(right, "\n"), w-half-1, rows), " "), "\n")
+	}
+	full := wrapAll(d.cautions, w)
+	if !stacked || h > 0 && len(body)+len(full) > h {
+		full = nil
+		if d.flags != "" {
+			full = wrapLines(d.flags, w, "  ")
+		}
+	}
+	return append(body, full...)
+}
+
+// detailKey is everything the details depend on. The panel is computed
+// again only when it changes.
+type detailKey struct {
+	grid   *envelope.Grid
+	answer *envelope.Map      // the map that answers at the point (nil: none)
+	fac    *envelope.Facility // its facility, as edited now
+	shown  int                // the facility shown (-1: best of all)
+	facs   int
+	errs   string // why the shown facility has no map
+	i, j   int
+	marked bool
+	units  Units
+	width  int
+	wide   bool
+	st     *Styles
+}
+
+// detailKey describes the details of the cursor point at width w.
+func (m *Model) detailKey(w int) detailKey {
+	k := detailKey{grid: m.res.grid, shown: m.fac, facs: len(m.facs), i: m.curI, j: m.curJ,
+		units: m.units, width: w, wide: m.wide, st: m.fr.st}
+	if g := m.res.grid; g != nil && g.Rows() > 0 && g.Cols() > 0 {
+		k.marked = m.marks[g.Index(min(m.curI, g.Rows()-1), min(m.curJ, g.Cols()-1))]
+	}
+	if _, f := m.res.result(m.fac, m.curI, m.curJ); f >= 0 && f < len(m.res.maps) {
+		k.answer = m.res.maps[f]
+		if f < len(m.facs) {
+			k.fac = &m.facs[f]
+		}
+	}
+	if m.fac >= 0 && m.fac < len(m.res.errs) && m.res.errs[m.fac] != nil {
+		k.errs = m.res.errs[m.fac].Error()
+	}
+	return k
+}
+
+// refreshDetails computes the details of the cursor point at width w when
+// the point, the facility, the results, the units, the marks at the point
+// or the panel changed since they were last computed, so that View draws
+// them without asking the engine.
+func (m *Model) refreshDetails(w int) {
+	if k := m.detailKey(w); !m.details.Shows(k) {
+		m.details.Show(k, m.detailBlocks(w), m.wide)
+	}
+}
 
 // detailBlocks builds the details text for the cursor point. w is the
 // width the panel has: blocks are laid out two to a line below w/2 each in
 // the narrow layout, one above the other in the wide one.
 func (m Model) detailBlocks(w int) detailBlocks {
-	st := m.fr.st
-	u := m.units
 	var d detailBlocks
 	g := m.res.grid
 	if g == nil || g.Rows() == 0 || g.Cols() == 0 {
-		d.flight = []string{st.Section.Render("FLIGHT"), "no grid"}
+		d.flight = []string{m.fr.st.Section.Render("FLIGHT"), "no grid"}
 		d.summary = "no grid"
 		return d
 	}
-	// Pairs of values line up in columns: a quarter of the narrow panel
-	// (two blocks side by side), up to half of the wide one.
+	pair := m.pairs(w)
+	fd, ok := m.flightBlock(&d, pair)
+	if ok {
+		m.facilityBlock(&d, fd, w, pair)
+	}
+	return d
+}
+
+// pairFunc writes two labelled values on one line, the second in a column.
+type pairFunc func(a, av, b, bv string) string
+
+// pairs lines pairs of values up in columns: a quarter of the narrow
+// panel (two blocks side by side), up to half of the wide one.
+func (m Model) pairs(w int) pairFunc {
+	st := m.fr.st
 	colW := min(w/2, 22)
 	if !m.wide {
 		colW = (w - 1) / 4
 	}
 	colW = max(colW, 12)
-	pair := func(a, av, b, bv string) string {
+	return func(a, av, b, bv string) string {
 		left := st.Label.Render(a) + " " + av
 		if b == "" {
 			return left
@@ -37,14 +189,19 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		}
 		return padRight(left, colW) + st.Label.Render(b) + " " + bv
 	}
+}
 
+// flightBlock writes the flight conditions of the cursor point into d;
+// ok is false when there are none.
+func (m Model) flightBlock(d *detailBlocks, pair pairFunc) (fd envelope.FlightDetail, ok bool) {
+	st, u, g := m.fr.st, m.units, m.res.grid
 	fd, err := g.FlightDetail(m.curI, m.curJ)
 	head := st.Section.Render("FLIGHT") + " " + u.Alt(g.Alts[m.curI]) + " " + st.Label.Render("ΔT") + " " + u.DeltaT(g.DeltaT)
 	d.flight = append(d.flight, head)
 	if err != nil {
 		d.flight = append(d.flight, st.Error.Render(err.Error()))
 		d.summary = err.Error()
-		return d
+		return fd, false
 	}
 	s, a := fd.State, fd.Airspeeds
 	if !fd.Inside {
@@ -63,8 +220,13 @@ func (m Model) detailBlocks(w int) detailBlocks {
 	if m.marks[g.Index(m.curI, m.curJ)] {
 		d.flight[0] += " " + st.HelpKey.Render("[test point]")
 	}
+	return fd, true
+}
 
-	// Facility answer.
+// facilityBlock writes the facility answer at the cursor point into d:
+// the facility, class and limit, the settings and the cautions.
+func (m Model) facilityBlock(d *detailBlocks, fd envelope.FlightDetail, w int, pair pairFunc) {
+	st := m.fr.st
 	res, k := m.res.result(m.fac, m.curI, m.curJ)
 	if k < 0 || k >= len(m.res.maps) || m.res.maps[k] == nil {
 		d.facility = append(d.facility, st.Section.Render("FACILITY"))
@@ -78,9 +240,8 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		default:
 			d.facility = append(d.facility, "no answer")
 		}
-		return d
+		return
 	}
-	mp := m.res.maps[k]
 	fac := m.facs[k]
 	title := st.Section.Render("FACILITY") + " "
 	if m.fac < 0 {
@@ -88,7 +249,7 @@ func (m Model) detailBlocks(w int) detailBlocks {
 			d.facility = append(d.facility, title+st.Label.Render("best of all"),
 				"no facility reaches this point")
 			d.summary += " | out of reach"
-			return d
+			return
 		}
 		title += st.Label.Render("best:") + " "
 	}
@@ -101,20 +262,40 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		title += m.facilityLabel(k, w-(w-1)/2-1-visibleWidth(title))
 	}
 	d.facility = append(d.facility, title)
-	det, err := mp.Detail(m.curI, m.curJ)
+	det, err := m.res.maps[k].Detail(m.curI, m.curJ)
 	if err != nil {
 		d.facility = append(d.facility, st.Error.Render(err.Error()))
-		return d
+		return
 	}
 	if det.Class == envelope.Outside {
 		d.facility = append(d.facility, st.Faint.Render("no answer outside the envelope"))
-		return d
+		return
 	}
 	d.facility = append(d.facility, st.Label.Render("class")+" "+classWord(det.Class))
 	if det.Limit != envelope.LimitNone {
 		d.facility = append(d.facility, st.Label.Render("limited by")+" "+det.Limit.String())
 	}
 	d.summary += " | " + classWord(det.Class)
+	m.settingLines(d, &det, &fac, pair)
+
+	// The cautions by name, for panels without room for the full texts,
+	// and the full texts in the panel's units, like every other value.
+	if det.Flags != 0 {
+		d.flags = st.Caution.Render("! " + det.Flags.String())
+	}
+	for _, c := range envelope.Cautions(&det, &fac, m.units) {
+		if c == envelope.PlanningNote {
+			continue
+		}
+		d.cautions = append(d.cautions, st.Caution.Render("! "+c))
+	}
+}
+
+// settingLines writes the facility settings of det into d: p0 and T0, or
+// water speed and temperature, then q, the Reynolds number reached, the
+// model and the operating rule.
+func (m Model) settingLines(d *detailBlocks, det *envelope.Detail, fac *envelope.Facility, pair pairFunc) {
+	st, u := m.fr.st, m.units
 	if !det.HasSettings {
 		d.facility = append(d.facility, st.Faint.Render("no setting reaches this condition"))
 	} else if fac.Medium.IsGas() {
@@ -140,7 +321,7 @@ func (m Model) detailBlocks(w int) detailBlocks {
 			pair("Re", expo(det.Re, 3), "ratio", fixed(det.ReRatio, 3)),
 		)
 		if det.Class == envelope.ReShort {
-			d.facility = append(d.facility, st.Label.Render("ΔCf")+" "+skinFrictionNote(det))
+			d.facility = append(d.facility, st.Label.Render("ΔCf")+" "+skinFrictionNote(*det))
 		}
 	}
 	d.facility = append(d.facility, pair("scale", sig(det.Scale, 3), "model", u.Length(det.ModelLength)))
@@ -148,19 +329,6 @@ func (m Model) detailBlocks(w int) detailBlocks {
 		// Which of the settings that reach the target was taken.
 		d.facility = append(d.facility, st.Label.Render("rule")+" "+envelope.OperatingRule(fac.Medium))
 	}
-
-	// The cautions by name, for panels without room for the full texts,
-	// and the full texts in the panel's units, like every other value.
-	if det.Flags != 0 {
-		d.flags = st.Caution.Render("! " + det.Flags.String())
-	}
-	for _, c := range envelope.Cautions(&det, &fac, u) {
-		if c == envelope.PlanningNote {
-			continue
-		}
-		d.cautions = append(d.cautions, st.Caution.Render("! "+c))
-	}
-	return d
 }
 
 // skinFrictionNote grades a Reynolds shortfall by its effect: the change in

@@ -1,250 +1,38 @@
 package tui
 
 import (
-	"errors"
-	"fmt"
-	"strconv"
 	"strings"
-	"unicode/utf8"
 
-	"likewind/atmos"
-	"likewind/envelope"
+	"github.com/charmbracelet/bubbles/key"
+	tea "github.com/charmbracelet/bubbletea"
 )
-
-// field is one what-if value.
-type field int
-
-const (
-	fieldScale field = iota
-	fieldDeltaT
-	fieldMachTol
-	fieldReTol
-	fieldCompMach
-	fieldP0Max
-	fieldT0Min
-	fieldQMax
-
-	fieldCount
-)
-
-// facilityField reports whether the field belongs to the chosen facility.
-func (f field) facilityField() bool { return f >= fieldP0Max }
-
-// label names the field; water facilities bound static pressure and water
-// temperature instead of p0 and T0.
-func (f field) label(water bool) string {
-	switch f {
-	case fieldScale:
-		return "model scale"
-	case fieldDeltaT:
-		return "ΔT of day"
-	case fieldMachTol:
-		return "Mach tolerance"
-	case fieldReTol:
-		return "Re tolerance"
-	case fieldCompMach:
-		return "compressibility M"
-	case fieldP0Max:
-		if water {
-			return "max static p"
-		}
-		return "p0 max"
-	case fieldT0Min:
-		if water {
-			return "min water T"
-		}
-		return "T0 min"
-	case fieldQMax:
-		return "q max"
-	}
-	return "?"
-}
-
-// dimension is the atmos dimension the field is parsed in.
-func (f field) dimension() atmos.Dimension {
-	switch f {
-	case fieldDeltaT:
-		return atmos.TemperatureDelta
-	case fieldP0Max, fieldQMax:
-		return atmos.Pressure
-	case fieldT0Min:
-		return atmos.Temperature
-	}
-	return atmos.Dimensionless
-}
-
-// bareUnit is the unit assumed when a number is typed without one, in the
-// current unit system ("" for dimensionless fields).
-func (f field) bareUnit(u Units) string {
-	switch f {
-	case fieldDeltaT:
-		if u == Customary {
-			return "degF"
-		}
-		return "K"
-	case fieldP0Max:
-		if u == Customary {
-			return "psi"
-		}
-		return "kPa"
-	case fieldQMax:
-		if u == Customary {
-			return "psf"
-		}
-		return "kPa"
-	case fieldT0Min:
-		if u == Customary {
-			return "degF"
-		}
-		return "K"
-	}
-	return ""
-}
-
-// maxEntry is the longest text the input line takes for a value, in
-// characters: far beyond any value written out in full, yet a paste of a
-// whole file is refused with a message rather than parsed.
-const maxEntry = 1024
-
-// parseField reads the text typed for field f, with the parsers and bounds
-// the files and the command line use (envelope/bounds.go). A bare number
-// takes the field's unit in the current unit system. The model scale
-// takes the forms a file takes ("0.05", "1/20", "1:20", "5 %") or the word
-// "fit" for each facility's own sizing; q max takes a pressure or the word
-// "none". Both words return 0, as the settings store them; a typed 0 is
-// refused, not read as either. The facility limits (p0 max, T0 min, q max)
-// are checked against fac, the facility they are for, as its file's ranges
-// are.
-func parseField(f field, text string, u Units, fac *envelope.Facility) (float64, error) {
-	water := fac != nil && fac.Medium == envelope.MediumWater
-	fail := func(err error) (float64, error) { return 0, fmt.Errorf("%s: %w", f.label(water), err) }
-	t := strings.TrimSpace(text)
-	if t == "" {
-		return fail(errors.New("empty value"))
-	}
-	if n := utf8.RuneCountInString(t); n > maxEntry {
-		return fail(fmt.Errorf("the entry is %d characters long, expected at most %d", n, maxEntry))
-	}
-	lower := strings.ToLower(t)
-	switch f {
-	case fieldScale:
-		if lower == "fit" {
-			return 0, nil
-		}
-		v, err := envelope.ParseModelScale(t)
-		if errors.Is(err, envelope.ErrOutOfBounds) {
-			err = fmt.Errorf(`%w, or the word "fit" for each facility's own sizing`, err)
-		}
-		if err != nil {
-			return fail(err)
-		}
-		return v, nil
-	case fieldMachTol, fieldReTol, fieldCompMach:
-		parse := map[field]func(string) (float64, error){
-			fieldMachTol: envelope.ParseMachTol, fieldReTol: envelope.ParseReTol, fieldCompMach: envelope.ParseCompressibilityMach,
-		}[f]
-		v, err := parse(t)
-		if err != nil {
-			return fail(err)
-		}
-		return v, nil
-	case fieldQMax:
-		if lower == "none" {
-			return 0, nil
-		}
-	}
-	if f.facilityField() && fac == nil {
-		return fail(errors.New("choose a facility first"))
-	}
-	if _, err := strconv.ParseFloat(t, 64); err == nil {
-		t += " " + f.bareUnit(u)
-	}
-	if f == fieldDeltaT {
-		v, err := envelope.ParseDeltaT(t)
-		if err != nil {
-			return fail(err)
-		}
-		return v, nil
-	}
-	v, err := atmos.ParseQuantity(t, f.dimension())
-	if err != nil {
-		return fail(err)
-	}
-	found := strconv.Quote(t)
-	switch f {
-	case fieldP0Max:
-		v, err = envelope.CheckP0Max(fac, found, v)
-	case fieldT0Min:
-		v, err = envelope.CheckT0Min(fac, found, v)
-	case fieldQMax:
-		v, err = envelope.CheckQMax(found, v)
-		if errors.Is(err, envelope.ErrOutOfBounds) {
-			err = fmt.Errorf(`%w, or the word "none" for no limit`, err)
-		}
-	}
-	if err != nil {
-		return fail(err)
-	}
-	return v, nil
-}
-
-// checkField refuses a stored value (a session's, in SI) that the editor
-// would refuse typed: the same bounds, with 0 meaning each facility's own
-// sizing for the scale and no limit for q max, as the settings store them.
-// fac is the facility a limit is for (nil for the other fields).
-func checkField(f field, v float64, fac *envelope.Facility) (float64, error) {
-	water := fac != nil && fac.Medium == envelope.MediumWater
-	var err error
-	found := strconv.FormatFloat(v, 'g', 6, 64)
-	switch f {
-	case fieldScale:
-		if v != 0 {
-			err = envelope.ModelScaleBound().Check(found, v)
-		}
-	case fieldDeltaT:
-		err = envelope.DeltaTBound().Check(found+" K", v)
-	case fieldMachTol:
-		err = envelope.MachTolBound().Check(found, v)
-	case fieldReTol:
-		err = envelope.ReTolBound().Check(found, v)
-	case fieldCompMach:
-		err = envelope.CompressibilityMachBound().Check(found, v)
-	default:
-		if fac == nil {
-			err = errors.New("no facility")
-			break
-		}
-		switch f {
-		case fieldP0Max:
-			v, err = envelope.CheckP0Max(fac, "", v)
-		case fieldT0Min:
-			v, err = envelope.CheckT0Min(fac, "", v)
-		case fieldQMax:
-			v, err = envelope.CheckQMax("", v)
-		}
-	}
-	if err != nil {
-		return 0, fmt.Errorf("%s: %w", f.label(water), err)
-	}
-	return v, nil
-}
 
 // editorRow is one line of the what-if list as the root describes it.
 type editorRow struct {
 	label   string
 	value   string // current value, display units
+	start   string // the text the input line starts with
 	origin  string // where the starting value comes from, and that value ("facility file 450.0 kPa", "built-in 0.0100")
 	changed bool
 	enabled bool
 	note    string // why disabled
 }
 
-// editor is the what-if panel: a list of fields and an input line.
+// editor is the what-if panel: the list of fields and, for the one
+// chosen, an input line. enter on a field opens the line with its value;
+// enter on the line reads it with the field's parser (fieldReader) and
+// reports the value (fieldAppliedMsg), or shows why it is refused and
+// keeps the line open. The root gives it the rows, the facility the
+// limits are for and the reader (SetFields).
 type editor struct {
 	frame
+	rows    []editorRow
+	fac     int    // facility the limits are for (-1: none)
+	facName string // its name
+	reader  fieldReader
 	sel     int
 	editing bool
-	input   lineInput
+	input   inputLine
 	err     string
 	lineW   int
 }
@@ -253,24 +41,131 @@ func newEditor(f frame) editor {
 	return editor{frame: f}
 }
 
+// Open shows the list with no message.
+func (e *editor) Open() { e.err = "" }
+
+// SetFields sets the rows, the facility the limits are for (fac -1:
+// none) with its name, and the reader of typed values.
+func (e *editor) SetFields(rows []editorRow, fac int, name string, r fieldReader) {
+	e.rows, e.fac, e.facName, e.reader = rows, fac, name, r
+}
+
+// title names what the facility fields apply to: the facility's letter and
+// name, the name shortened to its first words where the panel is narrow
+// (the letter still names it uniquely).
+func (e editor) title() string {
+	if e.fac >= 0 {
+		return "facility " + facilityLabel(e.fac, e.facName, e.width-len("WHAT-IF facility "))
+	}
+	return "facility limits: choose a facility"
+}
+
 // SetLineWidth sets the width of the input line (the whole screen).
 func (e *editor) SetLineWidth(w int) { e.lineW = max(w, 0) }
 
-// begin opens the input line for the selected field, pre-filled.
-func (e *editor) begin(prompt, value string) {
+// field is the field under the pointer.
+func (e editor) field() field { return field(e.sel) }
+
+// begin opens the input line for the field under the pointer, holding
+// text, with the field's parser as its Validate hook.
+func (e *editor) begin(text string) {
+	f, r := e.field(), e.reader
 	e.editing = true
 	e.err = ""
-	e.input.prompt = prompt + " > "
-	e.input.set(value)
+	e.input = newInputLine(e.keys, f.label(isWater(r.fac))+" > ", text, maxEntry, func(s string) error {
+		_, err := r.read(f, s)
+		return err
+	})
 }
+
+// Editing reports whether the input line is open.
+func (e editor) Editing() bool { return e.editing }
 
 // end closes the input line.
 func (e *editor) end() { e.editing = false }
 
+// Update takes a key: on the list it moves, opens the line or passes R, U,
+// ? and q on to the root; on the line it edits, applies (enter) or
+// closes it (esc).
+func (e editor) Update(msg tea.Msg) (editor, tea.Cmd) {
+	k, ok := msg.(tea.KeyMsg)
+	if !ok {
+		return e, nil
+	}
+	keys := e.keys
+	if e.editing {
+		switch {
+		case key.Matches(k, keys.Select):
+			v, err := e.reader.read(e.field(), e.input.Value())
+			if err != nil {
+				e.err = err.Error()
+				return e, nil
+			}
+			e.end()
+			e.err = ""
+			return e, report(fieldAppliedMsg{field: e.field(), value: v})
+		case key.Matches(k, keys.Back):
+			e.end()
+			e.err = ""
+		case key.Matches(k, keys.Interrupt):
+			e.end()
+			return e, report(quitWantedMsg{})
+		default:
+			e.input, _ = e.input.Update(k)
+			if r := e.input.Refused(); r != "" {
+				e.err = e.field().label(isWater(e.reader.fac)) + ": " + r
+			}
+		}
+		return e, nil
+	}
+	if sel, cmd, ok := listKey(k, keys, keys.Edit, e.sel, int(fieldCount)); ok {
+		if sel != e.sel {
+			e.sel, e.err = sel, ""
+		}
+		return e, cmd
+	}
+	switch {
+	case key.Matches(k, keys.Select):
+		if e.sel >= len(e.rows) || !e.rows[e.sel].enabled {
+			e.err = "choose a facility first (f or [ ])"
+			return e, nil
+		}
+		e.begin(e.rows[e.sel].start)
+	case key.Matches(k, keys.Restore):
+		return e, report(restoreWantedMsg{})
+	case key.Matches(k, keys.Undo):
+		return e, report(undoWantedMsg{})
+	}
+	return e, nil
+}
+
+// ShortHelp is the key line of the list (the line itself shows instead of
+// keys while editing).
+func (e editor) ShortHelp() []key.Binding {
+	k := e.keys
+	if e.editing {
+		return []key.Binding{k.Select, k.Back, k.Interrupt}
+	}
+	return []key.Binding{k.Prev, k.Next, k.Select, k.Restore, k.Undo, k.Back}
+}
+
+// FullHelp lists the same keys.
+func (e editor) FullHelp() [][]key.Binding { return [][]key.Binding{e.ShortHelp()} }
+
+// PreferredHeight is how many lines the panel takes at width w.
+func (e editor) PreferredHeight(w int) int {
+	n := len(e.rows) + 1
+	if e.err != "" {
+		n += len(wrapLines(e.err, w, ""))
+	}
+	return n
+}
+
 // View draws the list of fields.
-func (e editor) View(rows []editorRow, title string) string {
+func (e editor) View() string {
+	rows := e.rows
 	var b strings.Builder
-	b.WriteString(e.st.Section.Render("WHAT-IF") + " " + e.st.Faint.Render(title))
+	b.WriteString(e.st.Section.Render("WHAT-IF") + " " + e.st.Faint.Render(e.title()))
 	lw := 0
 	for _, r := range rows {
 		lw = max(lw, visibleWidth(r.label))
@@ -302,7 +197,10 @@ func (e editor) View(rows []editorRow, title string) string {
 		}
 	}
 	if e.err != "" {
-		b.WriteString("\n" + e.st.Error.Render(e.err))
+		// Wrapped whole: a refusal names what was found and expected.
+		for _, l := range wrapLines(e.err, e.width, "") {
+			b.WriteString("\n" + e.st.Error.Render(l))
+		}
 	}
 	return e.fit(b.String())
 }
@@ -312,5 +210,5 @@ func (e editor) Line() string {
 	if !e.editing {
 		return ""
 	}
-	return e.input.view(e.st, e.lineW)
+	return e.input.View(e.st, e.lineW)
 }

@@ -114,15 +114,6 @@ func (k KeyMap) FullHelp() [][]key.Binding {
 	}
 }
 
-// listKeys is the key map shown while a list (picker, what-if fields) is
-// open.
-type listKeys struct{ k *KeyMap }
-
-func (l listKeys) ShortHelp() []key.Binding {
-	return []key.Binding{l.k.Prev, l.k.Next, l.k.Select, l.k.Restore, l.k.Undo, l.k.Back}
-}
-func (l listKeys) FullHelp() [][]key.Binding { return [][]key.Binding{l.ShortHelp()} }
-
 // confirmKeys is the key map of the quit question.
 type confirmKeys struct {
 	k        *KeyMap

@@ -158,12 +158,21 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 		return ansi.Truncate(msg, width, "")
 	}
 	sr, sc := FitScroll(in, width, height)
-	curD := displayRow(in, in.CursorRow)
-
 	var b strings.Builder
 	b.Grow((g.rows + 3) * (width + 32) * 2)
+	st.axis.wrap(&b, ansi.Truncate(matrixTitle(in, g, sr, sc, width), width, ""))
+	avail := width - g.gutter // room for '|' and cells
+	writeCellRows(&b, in, &st, g, sr, sc, avail)
+	b.WriteByte('\n')
+	st.axis.wrap(&b, strings.Repeat(" ", g.gutter)+columnAxis(in, g, sc, avail))
+	b.WriteByte('\n')
+	st.axis.wrap(&b, padLeft(in.SpeedTitle, g.gutter-1)+" "+speedLabels(in, g, sc, avail))
+	return b.String()
+}
 
-	// Title line.
+// matrixTitle is the altitude title, with the rows and columns in view
+// when the matrix does not show them all.
+func matrixTitle(in MatrixInput, g matrixGeom, sr, sc, width int) string {
 	title := in.AltTitle
 	if sr > 0 || sc > 0 || g.rows < in.Rows || g.cols < in.Cols {
 		info := fmt.Sprintf("rows %d-%d/%d  cols %d-%d/%d",
@@ -172,8 +181,14 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 			title += strings.Repeat(" ", pad) + info
 		}
 	}
-	st.axis.wrap(&b, ansi.Truncate(title, width, ""))
+	return title
+}
 
+// writeCellRows writes the rows in view, each on a new line: the altitude
+// label with the cursor-row marker, then the cells from scroll column sc,
+// cut to avail cells. Bytes of one paint are written as one run.
+func writeCellRows(b *strings.Builder, in MatrixInput, st *Styles, g matrixGeom, sr, sc, avail int) {
+	curD := displayRow(in, in.CursorRow)
 	line := make([]byte, 0, g.cols*g.cw+1)
 	ids := make([]int, 0, g.cols*g.cw+1)
 	paints := make([]paint, 0, 8)
@@ -188,8 +203,10 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 	}
 	plain := idOf(paint{})
 	axisID := idOf(st.axis)
-	avail := width - g.gutter // room for '|' and cells
-
+	put := func(c byte, id int) {
+		line = append(line, c)
+		ids = append(ids, id)
+	}
 	for r := 0; r < g.rows; r++ {
 		d := sr + r
 		i := in.Rows - 1 - d
@@ -202,13 +219,10 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 		if d == curD {
 			marker = ">"
 		}
-		gut := padLeft(label, g.gutter-1) + marker
-		st.axis.wrap(&b, gut)
+		st.axis.wrap(b, padLeft(label, g.gutter-1)+marker)
 
-		line = line[:0]
-		ids = ids[:0]
-		line = append(line, '|')
-		ids = append(ids, axisID)
+		line, ids = line[:0], ids[:0]
+		put('|', axisID)
 		for c := 0; c < g.cols; c++ {
 			j := sc + c
 			var cell Cell
@@ -221,23 +235,20 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 				glyph = Glyph(in.Layer, cell.Level)
 			}
 			p := idOf(st.cellPaint(in.Layer, cell.Level, cell.Inside, cur))
-			line = append(line, glyph)
-			ids = append(ids, p)
+			put(glyph, p)
 			if in.Tags {
 				t := cell.Tag
 				if t == 0 {
 					t = ' '
 				}
-				line = append(line, t)
-				ids = append(ids, p)
+				put(t, p)
 			}
 			if in.Marks {
 				mark := byte(' ')
 				if cell.Marked {
 					mark = MarkGlyph
 				}
-				line = append(line, mark)
-				ids = append(ids, p)
+				put(mark, p)
 			}
 			gap := byte(' ')
 			if cur {
@@ -245,18 +256,19 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 				ids[len(ids)-g.cw] = plain
 				gap = ']'
 			}
-			line = append(line, gap)
-			ids = append(ids, plain)
+			put(gap, plain)
 		}
 		if len(line) > avail {
 			line = line[:max(avail, 0)]
 			ids = ids[:len(line)]
 		}
-		writeRuns(&b, line, ids, paints)
+		writeRuns(b, line, ids, paints)
 	}
+}
 
-	// Axis line with the cursor column mark.
-	b.WriteByte('\n')
+// columnAxis is the axis line under the cells, with the cursor column
+// marked, cut to avail cells.
+func columnAxis(in MatrixInput, g matrixGeom, sc, avail int) string {
 	axis := make([]byte, 0, g.cols*g.cw+1)
 	axis = append(axis, '+')
 	for c := 0; c < g.cols; c++ {
@@ -272,11 +284,12 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 	if len(axis) > avail {
 		axis = axis[:max(avail, 0)]
 	}
-	st.axis.wrap(&b, strings.Repeat(" ", g.gutter)+string(axis))
+	return string(axis)
+}
 
-	// Speed labels, every step-th absolute column so they do not jump
-	// while scrolling.
-	b.WriteByte('\n')
+// speedLabels are the speed labels under the axis, every step-th absolute
+// column so they do not jump while scrolling, cut to avail cells.
+func speedLabels(in MatrixInput, g matrixGeom, sc, avail int) string {
 	step := 1
 	for step*g.cw < g.labelW+1 {
 		step++
@@ -298,8 +311,7 @@ func RenderMatrix(in MatrixInput, st Styles, width, height int) string {
 	if len(labLine) > avail {
 		labLine = labLine[:max(avail, 0)]
 	}
-	st.axis.wrap(&b, padLeft(in.SpeedTitle, g.gutter-1)+" "+labLine)
-	return b.String()
+	return labLine
 }
 
 // writeRuns writes line with paints grouped into runs of equal paint.

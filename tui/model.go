@@ -1,9 +1,6 @@
 package tui
 
 import (
-	"context"
-	"encoding/json"
-	"errors"
 	"fmt"
 	"math"
 	"strings"
@@ -90,10 +87,12 @@ const (
 	modeSaveAs // the session could not be saved (or not there): ask for another file
 )
 
-// Model is the root Bubble Tea model. It composes the matrix, details,
-// legend, facility picker, what-if editor and help components, which share
-// one frame (size, styles, keys). Update dispatches and assigns; View is a
-// pure function of the state.
+// Model is the root Bubble Tea model. It owns the data, the what-if values,
+// the facility, layer, cursor, marks and units, and composes the matrix,
+// legend and help with the panels (details, facility picker, what-if
+// editor, save-as question), which share one frame (styles, keys) and get
+// their sizes from relayout. Update passes a key to the panel that has the
+// keyboard and acts on its report (component.go); View draws the state.
 type Model struct {
 	fr      frame
 	matrix  matrixView
@@ -150,11 +149,11 @@ type Model struct {
 	sessionPath string
 	saved       Session
 	keepOld     bool
-	readOnly    bool   // another likewind holds the session file
-	holder      string // which one
-	saveAs      saveAsPrompt
-	report      []string // what the saves did, for the terminal after exit
-	discard     bool     // user chose to quit without saving
+	readOnly    bool         // another likewind holds the session file
+	holder      string       // which one
+	saveAs      saveAsPrompt // the save-as question (modeSaveAs)
+	report      []string     // what the saves did, for the terminal after exit
+	discard     bool         // user chose to quit without saving
 	quitting    bool
 	inputs      []string
 	hash        string
@@ -169,6 +168,52 @@ type Model struct {
 // New builds the model and runs the first evaluation synchronously, so the
 // first frame already shows results.
 func New(opts Options) Model {
+	m := newModel(opts)
+	var notes statusNotes
+	restored := false
+	if opts.Session != nil {
+		if err := CheckSession(*opts.Session, m.inputs, m.hash); err != nil {
+			notes.add("session not restored: "+err.Error(), true)
+		} else {
+			notes.lines = append(notes.lines, m.applySession(*opts.Session))
+			restored = true
+		}
+	}
+	m.evaluate(!restored)
+	if opts.Session != nil {
+		m.restoreSessionPoints(*opts.Session)
+	} else {
+		m.curI, m.curJ = m.startPoint()
+	}
+	if m.status != "" { // an evaluation error, or marks dropped
+		notes.add(m.status, m.statusErr)
+	}
+	if opts.SessionNote != "" {
+		notes.add(opts.SessionNote, true)
+	}
+	if m.store != nil {
+		if _, ok := m.store.Found(); ok && !restored {
+			m.keepOld = true
+		}
+		m.storeNotes(&notes, opts.SessionFile != nil)
+	}
+	if len(notes.lines) > 0 {
+		m.status, m.statusErr = strings.Join(notes.lines, "; "), notes.err
+	}
+	m.saved = m.Session()
+	w, h := opts.Width, opts.Height
+	if w <= 0 || h <= 0 {
+		w, h = 80, 24
+	}
+	m.fr.SetSize(w, h)
+	m.relayout()
+	return m
+}
+
+// newModel sets the model up from opts with the files' values: styles,
+// keys, components, data, settings and the session file, nothing
+// evaluated yet.
+func newModel(opts Options) Model {
 	st := opts.Styles
 	if st == nil {
 		p := PlainStyles()
@@ -188,6 +233,7 @@ func New(opts Options) Model {
 		details:  detailsView{frame: fr},
 		legend:   legendView{frame: fr},
 		picker:   picker{frame: fr},
+		saveAs:   saveAsPrompt{frame: fr},
 		editor:   newEditor(fr),
 		help:     newHelpView(fr),
 		vehicle:  veh,
@@ -219,8 +265,6 @@ func New(opts Options) Model {
 	if len(m.facs) == 0 {
 		m.fac = -1
 	}
-	var notes []string
-	notesErr := false
 	m.store = opts.SessionFile
 	if m.store == nil && opts.SessionPath != "" {
 		// Opening without a lock only reads: it cannot fail but on an
@@ -231,65 +275,51 @@ func New(opts Options) Model {
 		m.sessionPath = m.store.Path()
 		m.readOnly, m.holder = m.store.ReadOnly()
 	}
-	restored := false
-	if opts.Session != nil {
-		if err := CheckSession(*opts.Session, m.inputs, m.hash); err != nil {
-			notes, notesErr = append(notes, "session not restored: "+err.Error()), true
-		} else {
-			notes = append(notes, m.applySession(*opts.Session))
-			restored = true
-		}
-	}
+	return m
+}
+
+// evaluate runs the first evaluation synchronously; with pick it opens on
+// the facility with the most full matches (StartFacility).
+func (m *Model) evaluate(pick bool) {
 	if m.vehicle == nil {
 		m.setError("no vehicle loaded")
-	} else {
-		r, err := computeGrid(m.vehicle, m.facs, m.set)
-		if err != nil {
-			m.setError("evaluation failed: " + err.Error())
-		} else {
-			m.res = r
-			if !restored {
-				if k := StartFacility(r.maps); k >= 0 {
-					m.fac = k
-				}
-			}
-		}
+		return
 	}
-	if opts.Session != nil {
-		m.restoreSessionPoints(*opts.Session)
-	} else {
-		m.curI, m.curJ = m.startPoint()
+	r, err := computeGrid(m.vehicle, m.facs, m.set)
+	if err != nil {
+		m.setError("evaluation failed: " + err.Error())
+		return
 	}
-	if m.status != "" { // an evaluation error, or marks dropped
-		notes, notesErr = append(notes, m.status), m.statusErr
+	m.res = r
+	if !pick {
+		return
 	}
-	if opts.SessionNote != "" {
-		notes, notesErr = append(notes, opts.SessionNote), true
+	if k := StartFacility(r.maps); k >= 0 {
+		m.fac = k
 	}
-	if m.store != nil {
-		if _, ok := m.store.Found(); ok && !restored {
-			m.keepOld = true
-		}
-		if m.readOnly {
-			notes, notesErr = append(notes, fmt.Sprintf("read-only: %s is open in another likewind (%s); s saves this session to another file", m.sessionPath, m.holder)), true
-		} else if err := m.store.LockError(); err != nil && opts.SessionFile != nil {
-			notes, notesErr = append(notes, fmt.Sprintf("no lock on %s: %v", m.sessionPath, err)), true
-		}
-		if err := m.store.Refused(); err != nil {
-			notes, notesErr = append(notes, fmt.Sprintf("%s %v; it is kept, and the session will be saved beside it", m.sessionPath, err)), true
-		}
+}
+
+// statusNotes collects the status line at start; err is whether the
+// latest note that says so is an error.
+type statusNotes struct {
+	lines []string
+	err   bool
+}
+
+func (n *statusNotes) add(s string, isErr bool) { n.lines, n.err = append(n.lines, s), isErr }
+
+// storeNotes adds what the status line says about the session file: held
+// by another likewind, not locked (when the caller gave the file, locked),
+// or refused and kept.
+func (m *Model) storeNotes(notes *statusNotes, locked bool) {
+	if m.readOnly {
+		notes.add(fmt.Sprintf("read-only: %s is open in another likewind (%s); s saves this session to another file", m.sessionPath, m.holder), true)
+	} else if err := m.store.LockError(); err != nil && locked {
+		notes.add(fmt.Sprintf("no lock on %s: %v", m.sessionPath, err), true)
 	}
-	if len(notes) > 0 {
-		m.status, m.statusErr = strings.Join(notes, "; "), notesErr
+	if err := m.store.Refused(); err != nil {
+		notes.add(fmt.Sprintf("%s %v; it is kept, and the session will be saved beside it", m.sessionPath, err), true)
 	}
-	m.saved = m.Session()
-	w, h := opts.Width, opts.Height
-	if w <= 0 || h <= 0 {
-		w, h = 80, 24
-	}
-	m.fr.SetSize(w, h)
-	m.relayout()
-	return m
 }
 
 // startPoint picks the inside point nearest the middle of the grid.
@@ -436,21 +466,28 @@ func (m *Model) onComputed(msg computedMsg) {
 func (m *Model) setStatus(s string) { m.status, m.statusErr = envelope.CleanLines(s), false }
 func (m *Model) setError(s string)  { m.status, m.statusErr = envelope.CleanLines(s), true }
 
-// onKey dispatches a key to the mode that has the keyboard.
+// onKey gives a key to whatever has the keyboard: the matrix, the help
+// screen and the quit question are the root's own; a panel (picker,
+// editor, save-as question) gets the key itself, and the root acts on
+// what the panel reports.
 func (m *Model) onKey(msg tea.KeyMsg) tea.Cmd {
+	m.syncPanels()
+	var cmd tea.Cmd
 	switch m.mode {
 	case modeHelp:
 		return m.keyHelp(msg)
-	case modePicker:
-		return m.keyPicker(msg)
-	case modeEdit:
-		return m.keyEdit(msg)
 	case modeConfirm:
 		return m.keyConfirm(msg)
+	case modePicker:
+		m.picker, cmd = m.picker.Update(msg)
+	case modeEdit:
+		m.editor, cmd = m.editor.Update(msg)
 	case modeSaveAs:
-		return m.keySaveAs(msg)
+		m.saveAs, cmd = m.saveAs.Update(msg)
+	default:
+		return m.keyMain(msg)
 	}
-	return m.keyMain(msg)
+	return m.takeReport(cmd)
 }
 
 func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
@@ -483,7 +520,7 @@ func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
 		m.units = m.units.Toggle()
 	case matches(msg, k.Facility):
 		m.mode = modePicker
-		m.picker.sel = m.fac + 1
+		m.picker.Open(m.fac + 1)
 	case matches(msg, k.NextFac):
 		m.chooseFacility(m.fac + 1)
 	case matches(msg, k.PrevFac):
@@ -496,7 +533,7 @@ func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
 		}
 	case matches(msg, k.Edit):
 		m.mode = modeEdit
-		m.editor.err = ""
+		m.editor.Open()
 	case matches(msg, k.Restore):
 		return m.restoreFiles()
 	case matches(msg, k.Mark):
@@ -531,209 +568,8 @@ func (m *Model) keyHelp(msg tea.KeyMsg) tea.Cmd {
 	return nil
 }
 
-func (m *Model) keyPicker(msg tea.KeyMsg) tea.Cmd {
-	k := m.fr.keys
-	n := len(m.facs) + 1
-	switch {
-	case matches(msg, k.Back), matches(msg, k.Facility):
-		m.mode = modeMain
-	case matches(msg, k.Help):
-		m.mode = modeHelp
-	case matches(msg, k.Prev):
-		m.picker.sel = (m.picker.sel - 1 + n) % n
-	case matches(msg, k.Next):
-		m.picker.sel = (m.picker.sel + 1) % n
-	case matches(msg, k.Select):
-		m.chooseFacility(m.picker.sel - 1)
-		m.mode = modeMain
-	case matches(msg, k.Quit):
-		m.mode = modeMain
-		return m.askQuit()
-	}
-	return nil
-}
-
-func (m *Model) keyEdit(msg tea.KeyMsg) tea.Cmd {
-	k := m.fr.keys
-	if m.editor.editing {
-		switch {
-		case matches(msg, k.Select):
-			return m.applyEdit()
-		case matches(msg, k.Back):
-			m.editor.end()
-			m.editor.err = ""
-		case matches(msg, k.Interrupt):
-			m.editor.end()
-			return m.askQuit()
-		default:
-			m.editor.input.update(k, msg)
-		}
-		return nil
-	}
-	switch {
-	case matches(msg, k.Back), matches(msg, k.Edit):
-		m.mode = modeMain
-	case matches(msg, k.Help):
-		m.mode = modeHelp
-	case matches(msg, k.Prev):
-		m.editor.sel = (m.editor.sel - 1 + int(fieldCount)) % int(fieldCount)
-		m.editor.err = ""
-	case matches(msg, k.Next):
-		m.editor.sel = (m.editor.sel + 1) % int(fieldCount)
-		m.editor.err = ""
-	case matches(msg, k.Select):
-		f := field(m.editor.sel)
-		if f.facilityField() && m.fac < 0 {
-			m.editor.err = "choose a facility first (f or [ ])"
-			return nil
-		}
-		row := m.editorRows()[f]
-		m.editor.begin(row.label, m.editValue(f))
-	case matches(msg, k.Restore):
-		return m.restoreFiles()
-	case matches(msg, k.Undo):
-		return m.undoLast()
-	case matches(msg, k.Quit):
-		m.mode = modeMain
-		return m.askQuit()
-	}
-	return nil
-}
-
-func (m *Model) keyConfirm(msg tea.KeyMsg) tea.Cmd {
-	k := m.fr.keys
-	switch {
-	case m.store != nil && matches(msg, k.SaveYes):
-		if m.readOnly {
-			m.openSaveAs(true, nil, "")
-			return nil
-		}
-		return m.saveCmd(true)
-	case matches(msg, k.Yes), matches(msg, k.Interrupt):
-		m.quitting = true
-		m.discard = true
-		return tea.Quit
-	case matches(msg, k.No):
-		m.mode = modeMain
-	}
-	return nil
-}
-
 // matches is key.Matches for one binding.
 func matches(msg tea.KeyMsg, b key.Binding) bool { return key.Matches(msg, b) }
-
-// askQuit quits, asks first, or saves first. With nothing changed since
-// the session was restored, started afresh or last saved, it quits at
-// once and writes nothing. With changed what-if values or marks, or on a
-// read-only session, it asks. When only the view changed (facility,
-// layer, units), it saves and quits; a failed save keeps the program
-// open and asks for another file.
-func (m *Model) askQuit() tea.Cmd {
-	switch {
-	case !m.unsaved(), m.store == nil && !m.hasUnsaved():
-		m.quitting = true
-		return tea.Quit
-	case m.store == nil, m.readOnly, m.hasUnsaved():
-		m.mode = modeConfirm
-		return nil
-	}
-	return m.saveCmd(true)
-}
-
-// sessionState is the part of a session whose change is worth a write:
-// all of it but the cursor (moving alone never rewrites a session).
-func sessionState(s Session) string {
-	s.Cursor, s.Version = nil, SessionVersion
-	b, _ := json.Marshal(s) // numbers and strings: cannot fail
-	return string(b)
-}
-
-// workState is the work in a session: what-if values and marks.
-func workState(s Session) string {
-	b, _ := json.Marshal(struct {
-		W WhatIf
-		M []Point
-	}{s.WhatIf, s.Marks})
-	return string(b)
-}
-
-// unsaved reports whether the state differs from the one last in step
-// with the session file (restored, started afresh, or saved).
-func (m *Model) unsaved() bool { return sessionState(m.Session()) != sessionState(m.saved) }
-
-// hasUnsaved reports whether quitting now would lose what-if values or
-// marks.
-func (m *Model) hasUnsaved() bool { return workState(m.Session()) != workState(m.saved) }
-
-// save is the save key: write the session in a command, or, on a
-// read-only session, ask for another file.
-func (m *Model) save() tea.Cmd {
-	if m.store == nil {
-		m.setError("no session file was given; nothing saved")
-		return nil
-	}
-	if m.readOnly {
-		m.openSaveAs(false, nil, "")
-		return nil
-	}
-	return m.saveCmd(false)
-}
-
-// saveCmd saves the current state to the session file in a command; with
-// quit the program ends once the save succeeded.
-func (m *Model) saveCmd(quit bool) tea.Cmd {
-	store, s, keep := m.store, m.Session(), m.keepOld
-	return func() tea.Msg {
-		res, err := store.Save(s, keep)
-		return savedMsg{res: res, err: err, state: s, quit: quit}
-	}
-}
-
-// onSaved takes a save's outcome. A failure never quits: it shows the whole
-// error and asks for another file.
-func (m *Model) onSaved(msg savedMsg) tea.Cmd {
-	if msg.err != nil {
-		m.openSaveAs(msg.quit, msg.err, msg.typed)
-		return nil
-	}
-	m.noteSaved(msg.res, msg.state)
-	if m.mode == modeSaveAs || m.mode == modeConfirm {
-		m.mode = modeMain
-	}
-	if msg.quit {
-		if m.unsaved() { // changed again while the save ran
-			m.mode = modeConfirm
-			return nil
-		}
-		m.quitting = true
-		return tea.Quit
-	}
-	return nil
-}
-
-// noteSaved records a successful save.
-func (m *Model) noteSaved(res SaveResult, state Session) {
-	m.saved, m.keepOld = state, false
-	m.sessionPath, m.readOnly, m.holder = res.Path, false, ""
-	line := "session saved to " + res.Path
-	if !res.Written {
-		line = "session unchanged in " + res.Path
-	}
-	m.report = append(m.report, line)
-	if res.Note != "" {
-		m.report = append(m.report, res.Note)
-		line += "; " + res.Note
-	}
-	m.setStatus(line)
-}
-
-// SaveReport is what the saves of this run did, one line each, for the
-// terminal after the program ends: where the session went, and any file
-// kept beside it.
-func (m Model) SaveReport() []string { return append([]string(nil), m.report...) }
-
-// SessionPath is the file the session is saved to now ("" without one).
-func (m Model) SessionPath() string { return m.sessionPath }
 
 // chooseFacility selects facility k (-1 = best of all), wrapping around.
 func (m *Model) chooseFacility(k int) {
@@ -782,303 +618,3 @@ func (m *Model) visibleRows() int {
 	r, _ := MatrixCapacity(m.matrixInput(), m.matrix.width, m.matrix.height)
 	return r
 }
-
-// toggleMark marks or unmarks the cursor point.
-func (m *Model) toggleMark() {
-	g := m.res.grid
-	if g == nil || m.rows() == 0 || m.cols() == 0 {
-		return
-	}
-	if !g.Inside(m.curI, m.curJ) {
-		m.setError("this point is outside the envelope; not marked")
-		return
-	}
-	idx := g.Index(m.curI, m.curJ)
-	marks := cloneMarks(m.marks)
-	if marks[idx] {
-		m.pushUndo("unmark a point", false)
-		delete(marks, idx)
-		m.setStatus(fmt.Sprintf("mark removed (%d marked)", len(marks)))
-	} else {
-		m.pushUndo("mark a point", false)
-		marks[idx] = true
-		m.setStatus(fmt.Sprintf("point marked (%d marked)", len(marks)))
-	}
-	m.marks = marks
-}
-
-// markFullMatches marks every full-match point of the current facility
-// (or of the best facility per point in best-of-all mode).
-func (m *Model) markFullMatches() {
-	g := m.res.grid
-	if g == nil || len(m.res.maps) == 0 {
-		m.setError("no facility results to mark")
-		return
-	}
-	var src []envelope.Result
-	if m.fac < 0 {
-		src = m.res.bestRes
-	} else {
-		src = m.res.maps[m.fac].Results
-	}
-	marks := cloneMarks(m.marks)
-	added := 0
-	for idx, r := range src {
-		if r.Class == envelope.FullMatch && !marks[idx] {
-			marks[idx] = true
-			added++
-		}
-	}
-	if added > 0 {
-		m.pushUndo(fmt.Sprintf("mark %d full matches", added), false)
-	}
-	m.marks = marks
-	m.setStatus(fmt.Sprintf("%d full-match points marked (%d marked)", added, len(marks)))
-}
-
-func cloneMarks(src map[int]bool) map[int]bool {
-	out := make(map[int]bool, len(src)+1)
-	for k, v := range src {
-		out[k] = v
-	}
-	return out
-}
-
-// restoreFiles puts back the files' values and recomputes.
-func (m *Model) restoreFiles() tea.Cmd {
-	if !m.whatIfChanged() {
-		m.setStatus("what-if values already match the files")
-		return nil
-	}
-	n := len(m.changes())
-	m.pushUndo(fmt.Sprintf("restore the files' values (%d what-if values back)", n), true)
-	gridChanged := m.set.DeltaT != m.fileSet.DeltaT || m.set.Regimes != m.fileSet.Regimes
-	m.set = m.fileSet
-	m.facs = append([]envelope.Facility(nil), m.fileFacs...)
-	m.setStatus(fmt.Sprintf("files' values restored (%s undoes)", m.fr.keys.Undo.Help().Key))
-	if gridChanged {
-		return m.recompute(recomputeGrid)
-	}
-	return m.recompute(recomputeSolve)
-}
-
-// maxUndo is how many what-if and mark changes can be undone.
-const maxUndo = 200
-
-// undoStep is the state before one change of what-if values or marks.
-type undoStep struct {
-	what   string
-	whatIf bool // what-if values changed (a recompute on undo)
-	set    envelope.Settings
-	facs   []envelope.Facility
-	marks  map[int]bool
-}
-
-// pushUndo records the state before a change. The maps and slices are
-// never changed in place (every change builds new ones), so holding them
-// is enough.
-func (m *Model) pushUndo(what string, whatIf bool) {
-	m.pushStep(undoStep{what: what, whatIf: whatIf, set: m.set, facs: m.facs, marks: m.marks})
-}
-
-func (m *Model) pushStep(st undoStep) {
-	n := len(m.undo)
-	if n >= maxUndo {
-		m.undo = m.undo[n-maxUndo+1:]
-		n = len(m.undo)
-	}
-	// A full slice expression: a copy of the model never shares the
-	// appended element.
-	m.undo = append(m.undo[:n:n], st)
-}
-
-// undoLast puts back the state before the latest change of what-if values
-// or marks (R and X included) and recomputes when values changed.
-func (m *Model) undoLast() tea.Cmd {
-	n := len(m.undo)
-	if n == 0 {
-		m.setStatus("nothing to undo")
-		return nil
-	}
-	st := m.undo[n-1]
-	m.undo = m.undo[: n-1 : n-1]
-	gridChanged := m.set.DeltaT != st.set.DeltaT || m.set.Regimes != st.set.Regimes
-	m.set, m.facs, m.marks = st.set, st.facs, st.marks
-	m.setStatus(fmt.Sprintf("undone: %s (%d marked)", st.what, len(m.marks)))
-	switch {
-	case gridChanged:
-		return m.recompute(recomputeGrid)
-	case st.whatIf:
-		return m.recompute(recomputeSolve)
-	}
-	return nil
-}
-
-// whatIfChanged reports whether any what-if value differs from the files.
-func (m *Model) whatIfChanged() bool {
-	return len(m.changes()) > 0
-}
-
-// editValue is the text the input line starts with for field f.
-func (m *Model) editValue(f field) string {
-	u := m.units
-	switch f {
-	case fieldScale:
-		if m.set.Scale > 0 {
-			return sig(m.set.Scale, 4)
-		}
-		return "fit"
-	case fieldDeltaT:
-		return strings.ReplaceAll(u.DeltaT(m.set.DeltaT), "°F", "degF")
-	case fieldMachTol:
-		return sig(m.set.MachTol, 3)
-	case fieldReTol:
-		return sig(m.set.ReTol*100, 3) + " %"
-	case fieldCompMach:
-		return sig(m.set.CompressibilityMach, 3)
-	}
-	if m.fac < 0 || m.fac >= len(m.facs) {
-		return ""
-	}
-	fc := m.facs[m.fac]
-	switch f {
-	case fieldP0Max:
-		if fc.Medium.IsGas() {
-			return u.Stagnation(fc.PressureMax())
-		}
-		return u.Pressure(fc.PressureMax())
-	case fieldT0Min:
-		return strings.ReplaceAll(u.Temp(fc.TemperatureMin()), "°F", "degF")
-	case fieldQMax:
-		if fc.QMax <= 0 {
-			return "none"
-		}
-		return u.Q(fc.QMax)
-	}
-	return ""
-}
-
-// applyEdit parses the input line and applies it.
-func (m *Model) applyEdit() tea.Cmd {
-	f := field(m.editor.sel)
-	var fac *envelope.Facility
-	if f.facilityField() {
-		if m.fac < 0 || m.fac >= len(m.facs) {
-			m.editor.err = "choose a facility first"
-			return nil
-		}
-		fac = &m.facs[m.fac]
-	}
-	v, err := parseField(f, m.editor.input.Value(), m.units, fac)
-	if err != nil {
-		m.editor.err = err.Error()
-		return nil
-	}
-	// The state before the edit, for undo.
-	before := undoStep{what: "what-if " + m.editorRows()[f].label, whatIf: true, set: m.set, facs: m.facs, marks: m.marks}
-	kind := recomputeSolve
-	switch f {
-	case fieldScale:
-		m.set.Scale = v
-	case fieldDeltaT:
-		m.set.DeltaT = v
-		kind = recomputeGrid
-	case fieldMachTol:
-		m.set.MachTol = v
-	case fieldReTol:
-		m.set.ReTol = v
-	case fieldCompMach:
-		if v >= m.set.Regimes.Subsonic {
-			m.editor.err = fmt.Sprintf("compressibility Mach must stay below the subsonic bound %.2f", m.set.Regimes.Subsonic)
-			return nil
-		}
-		// The same threshold bounds incompressible flow in the regime
-		// layer and the relaxation of Mach number in matching.
-		m.set.CompressibilityMach = v
-		m.set.Regimes.Incompressible = v
-		kind = recomputeGrid
-	default:
-		facs := append([]envelope.Facility(nil), m.facs...)
-		fc := &facs[m.fac]
-		switch f {
-		case fieldP0Max:
-			fc.SetPressureMax(v)
-		case fieldT0Min:
-			fc.SetTemperatureMin(v)
-		case fieldQMax:
-			fc.QMax = v
-		}
-		m.facs = facs
-		kind = recomputeOneFac
-	}
-	m.pushStep(before)
-	m.editor.end()
-	m.editor.err = ""
-	return m.recompute(kind)
-}
-
-// ErrSessionNotSaved is wrapped by Run's error when the session file could
-// not be written on exit.
-var ErrSessionNotSaved = errors.New("session not saved")
-
-// Run starts the interactive program on the terminal and blocks until it
-// ends. The user's quit saves inside the program (a failed save keeps it
-// open). When the program ends otherwise (ctx cancelled: a hang-up or a
-// kill) with state not yet saved, Run saves it: to the session file, or,
-// on a read-only session, to a new numbered file beside it. Nothing is
-// written when nothing changed, when the user chose to quit without
-// saving, or when the program could not start. A failed write is reported
-// as an error wrapping ErrSessionNotSaved. It returns the final model.
-//
-// Without opts.SessionFile, Run opens opts.SessionPath with its lock and
-// releases it on return.
-//
-// Run leaves signals to the caller: the caller cancels ctx on SIGHUP,
-// SIGTERM and SIGINT. (Bubble Tea's own handler is turned off because, with
-// both listening, a signal could make the program quit through ctx while
-// the handler still waits to deliver its quit message, and shutdown would
-// hang.)
-func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Model, error) {
-	if opts.SessionFile == nil && opts.SessionPath != "" {
-		hash := opts.InputHash
-		if hash == "" {
-			hash = DataHash(opts.Vehicle, opts.Facilities)
-		}
-		sf, err := OpenSessionFile(opts.SessionPath, opts.Inputs, hash)
-		if err != nil {
-			return New(opts), err
-		}
-		defer sf.Close()
-		opts.SessionFile = sf
-	}
-	m := New(opts)
-	all := append([]tea.ProgramOption{tea.WithAltScreen(), tea.WithContext(ctx), tea.WithoutSignalHandler()}, progOpts...)
-	final, err := tea.NewProgram(m, all...).Run()
-	if fm, ok := final.(Model); ok {
-		m = fm
-	}
-	if m.WantsSave() {
-		s := m.Session()
-		var res SaveResult
-		var serr error
-		if m.readOnly {
-			res, serr = m.store.SaveBeside(s)
-		} else {
-			res, serr = m.store.Save(s, m.keepOld)
-		}
-		if serr != nil {
-			err = errors.Join(err, fmt.Errorf("%w: %w", ErrSessionNotSaved, serr))
-		} else {
-			m.noteSaved(res, s)
-		}
-	}
-	return m, err
-}
-
-// WantsSave reports whether the state must still be written on exit: there
-// is a session file, the state differs from the one last in step with it,
-// and the user did not choose to quit without saving.
-func (m Model) WantsSave() bool { return m.store != nil && !m.discard && m.unsaved() }
-
-// Quitting reports whether the model asked to quit.
-func (m Model) Quitting() bool { return m.quitting }

@@ -51,7 +51,7 @@ func TestModelTooLargeShownOnScreen(t *testing.T) {
 
 	v, facs := demoData(t)
 	half := 0.5
-	s := &Session{Version: SessionVersion, Hash: DataHash(v, facs), WhatIf: WhatIf{Scale: &half}}
+	s := &Session{Version: SessionVersion, Hash: DataHash(v, facs), WhatIf: WhatIf{Values: map[string]float64{"scale": half}}}
 	m := newDemo(t, 160, 48, func(o *Options) { o.Session = s })
 	if m.set.Scale != 0.5 {
 		t.Fatalf("session scale not applied: %g (status %q)", m.set.Scale, m.status)

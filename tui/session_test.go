@@ -15,7 +15,6 @@ import (
 )
 
 func TestSessionRoundTripFile(t *testing.T) {
-	f := func(v float64) *float64 { return &v }
 	want := Session{
 		Version:   SessionVersion,
 		Inputs:    []string{"a.toml", "b.toml"},
@@ -23,7 +22,7 @@ func TestSessionRoundTripFile(t *testing.T) {
 		Facility:  "Tunnel",
 		Layer:     LayerQ.String(),
 		Units:     Customary.String(),
-		WhatIf:    WhatIf{Scale: f(0.05), DeltaT: f(-10), Facilities: map[string]FacilityWhatIf{"Tunnel": {P0Max: f(3e5), QMax: f(0)}}},
+		WhatIf:    WhatIf{Values: map[string]float64{"scale": 0.05, "delta_t_K": -10}, Facilities: map[string]FacilityWhatIf{"Tunnel": {"p0_max_Pa": 3e5, "q_max_Pa": 0}}},
 		Marks:     []Point{{Altitude: 1000, Speed: 0.8}, {Altitude: 2000, Speed: 0.9}},
 		Cursor:    &Point{Altitude: 1000, Speed: 0.8},
 		BestOfAll: false,
@@ -131,8 +130,8 @@ func TestModelSessionRoundTrip(t *testing.T) {
 	if s.Facility != m.facs[k].Name || s.BestOfAll {
 		t.Errorf("session facility = %q best %v", s.Facility, s.BestOfAll)
 	}
-	if s.WhatIf.Scale == nil || *s.WhatIf.Scale != 0.3 || s.WhatIf.DeltaT != nil {
-		t.Errorf("session what-if scale %v ΔT %v, want 0.3 and unchanged", s.WhatIf.Scale, s.WhatIf.DeltaT)
+	if scale, ok := s.WhatIf.Values["scale"]; !ok || scale != 0.3 || len(s.WhatIf.Values) != 2 {
+		t.Errorf("session what-if values %v, want scale 0.3, the Reynolds tolerance and nothing else", s.WhatIf.Values)
 	}
 
 	path := filepath.Join(t.TempDir(), "s.json")

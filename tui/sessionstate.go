@@ -22,45 +22,7 @@ func (m Model) Session() Session {
 	} else {
 		s.BestOfAll = true
 	}
-	ptr := func(v float64) *float64 { return &v }
-	set, file := m.set, m.fileSet
-	if set.Scale != file.Scale {
-		s.WhatIf.Scale = ptr(set.Scale)
-	}
-	if set.DeltaT != file.DeltaT {
-		s.WhatIf.DeltaT = ptr(set.DeltaT)
-	}
-	if set.MachTol != file.MachTol {
-		s.WhatIf.MachTol = ptr(set.MachTol)
-	}
-	if set.ReTol != file.ReTol {
-		s.WhatIf.ReTol = ptr(set.ReTol)
-	}
-	if set.CompressibilityMach != file.CompressibilityMach {
-		s.WhatIf.CompressibilityMach = ptr(set.CompressibilityMach)
-	}
-	for k := range m.facs {
-		if k >= len(m.fileFacs) {
-			break
-		}
-		now, was := m.facs[k], m.fileFacs[k]
-		var fw FacilityWhatIf
-		if now.PressureMax() != was.PressureMax() {
-			fw.P0Max = ptr(now.PressureMax())
-		}
-		if now.TemperatureMin() != was.TemperatureMin() {
-			fw.T0Min = ptr(now.TemperatureMin())
-		}
-		if now.QMax != was.QMax {
-			fw.QMax = ptr(now.QMax)
-		}
-		if !fw.empty() {
-			if s.WhatIf.Facilities == nil {
-				s.WhatIf.Facilities = map[string]FacilityWhatIf{}
-			}
-			s.WhatIf.Facilities[now.Name] = fw
-		}
-	}
+	s.WhatIf = m.whatIf()
 	g := m.res.grid
 	if g != nil && g.Cols() > 0 {
 		idx := make([]int, 0, len(m.marks))
@@ -81,6 +43,42 @@ func (m Model) Session() Session {
 		}
 	}
 	return s
+}
+
+// whatIf lists the what-if values that differ from the files, by their
+// session keys.
+func (m Model) whatIf() WhatIf {
+	var w WhatIf
+	put := func(vals *map[string]float64, f field, v float64) {
+		if *vals == nil {
+			*vals = map[string]float64{}
+		}
+		(*vals)[f.def().key] = v
+	}
+	for f := range fieldCount {
+		if d := f.def(); !d.facility {
+			if now := d.get(&m.set, nil); now != d.get(&m.fileSet, nil) {
+				put(&w.Values, f, now)
+			}
+		}
+	}
+	for k := range min(len(m.facs), len(m.fileFacs)) {
+		var fw map[string]float64
+		for f := range fieldCount {
+			if d := f.def(); d.facility {
+				if now := d.get(nil, &m.facs[k]); now != d.get(nil, &m.fileFacs[k]) {
+					put(&fw, f, now)
+				}
+			}
+		}
+		if fw != nil {
+			if w.Facilities == nil {
+				w.Facilities = map[string]FacilityWhatIf{}
+			}
+			w.Facilities[m.facs[k].Name] = fw
+		}
+	}
+	return w
 }
 
 // applySession takes over the session's choices and what-if values (before

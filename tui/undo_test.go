@@ -70,7 +70,7 @@ func TestUndoRestoreAndClear(t *testing.T) {
 		t.Errorf("U in the what-if list: mode %v scale %g, want the list and 0.25", m.mode, m.set.Scale)
 	}
 	found := false
-	for _, b := range (listKeys{k: m.fr.keys}).ShortHelp() {
+	for _, b := range m.editor.ShortHelp() {
 		found = found || b.Help().Key == "U"
 	}
 	if !found {

@@ -350,18 +350,20 @@ func TestWhatIfLongEntryTakenWhole(t *testing.T) {
 	if got, want := m.facs[k].PressureMax(), 1000*6894.757293168361; math.Abs(got-want) > 1e-6*want {
 		t.Errorf("p0 max = %.6g Pa after %d characters, want %.6g (1000 psi)", got, len(long), want)
 	}
-	// Beyond any value's length the entry is refused with a message, and
-	// nothing is applied.
+	// Beyond any value's length the typed text is refused with a message
+	// as it is typed, the line holds what it took, and nothing is applied.
 	before := m.facs[k].PressureMax()
-	m = edit(t, m, fieldP0Max, "3"+strings.Repeat("0", maxEntry)+" Pa")
-	if !strings.Contains(m.editor.err, "characters long") || !m.editor.editing {
+	m, _ = press(m, "enter", "ctrl+u")
+	m = typeText(m, "3"+strings.Repeat("0", maxEntry)+" Pa")
+	if !strings.Contains(m.editor.err, "p0 max: the entry would be 1025 characters long, expected at most 1024") || !m.editor.editing {
 		t.Errorf("over-long entry: err %q editing %v, want a refusal naming the length with the line open", m.editor.err, m.editor.editing)
 	}
-	if got := m.editor.input.Value(); utf8.RuneCountInString(got) != maxEntry+4 {
-		t.Errorf("input line holds %d characters, want all %d typed", utf8.RuneCountInString(got), maxEntry+4)
+	if got := m.editor.input.Value(); utf8.RuneCountInString(got) != maxEntry {
+		t.Errorf("input line holds %d characters, want the %d taken", utf8.RuneCountInString(got), maxEntry)
 	}
-	if m.facs[k].PressureMax() != before {
-		t.Errorf("over-long entry applied: p0 max %g", m.facs[k].PressureMax())
+	m, _ = press(m, "enter")
+	if m.facs[k].PressureMax() != before || m.editor.err == "" || !m.editor.editing {
+		t.Errorf("over-long entry applied: p0 max %g, err %q", m.facs[k].PressureMax(), m.editor.err)
 	}
 }
 
@@ -481,25 +483,75 @@ func TestResizeReflows(t *testing.T) {
 
 func TestInputLineEditing(t *testing.T) {
 	k := DefaultKeyMap()
-	var l lineInput
-	for _, r := range "3 br" {
-		l.update(&k, tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{r}})
+	l := newInputLine(&k, "> ", "", maxEntry, nil)
+	send := func(msgs ...tea.KeyMsg) {
+		for _, msg := range msgs {
+			l, _ = l.Update(msg)
+		}
 	}
-	l.update(&k, keyMsg("left"))
-	l.update(&k, tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{'a'}})
+	for _, r := range "3 br" {
+		send(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{r}})
+	}
+	send(keyMsg("left"), tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{'a'}})
 	if got := l.Value(); got != "3 bar" {
 		t.Errorf("value = %q, want %q", got, "3 bar")
 	}
-	l.update(&k, keyMsg("home"))
-	l.update(&k, keyMsg("delete"))
-	l.update(&k, keyMsg("end"))
-	l.update(&k, keyMsg("backspace"))
+	send(keyMsg("home"), keyMsg("delete"), keyMsg("end"), keyMsg("backspace"))
 	if got := l.Value(); got != " ba" {
 		t.Errorf("value = %q, want %q", got, " ba")
 	}
-	l.update(&k, keyMsg("ctrl+u"))
+	// ctrl+u clears the whole line, wherever the cursor is.
+	send(keyMsg("left"), keyMsg("ctrl+u"))
 	if l.Value() != "" {
 		t.Errorf("value after ctrl+u = %q, want empty", l.Value())
+	}
+	// The space key types a space; control characters typed or pasted
+	// are dropped (ESC, BEL, newline, DEL, a C1 CSI).
+	send(keyMsg("space"), tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("1\x1b[31m\a\n\x7f\u009b0 K"), Paste: true})
+	if got := l.Value(); got != " 1[31m0 K" {
+		t.Errorf("value = %q, want the controls dropped", got)
+	}
+	// The keys the help screen does not list do nothing to the text.
+	send(tea.KeyMsg{Type: tea.KeyCtrlW}, tea.KeyMsg{Type: tea.KeyCtrlK}, tea.KeyMsg{Type: tea.KeyCtrlV}, tea.KeyMsg{Type: tea.KeyTab})
+	if got := l.Value(); got != " 1[31m0 K" {
+		t.Errorf("value = %q after unlisted keys, want it unchanged", got)
+	}
+}
+
+// The input line takes entries whole up to its limit. Text that would go
+// beyond is refused with a message, never cut to fit; what is in the line
+// is exactly what enter reads.
+func TestInputLineLimit(t *testing.T) {
+	k := DefaultKeyMap()
+	l := newInputLine(&k, "> ", "12", 5, nil)
+	l, _ = l.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("3456"), Paste: true})
+	if l.Value() != "12" || !strings.Contains(l.Refused(), "would be 6 characters long, expected at most 5; the pasted text was not taken") {
+		t.Errorf("paste past the limit: value %q, refused %q; want the line unchanged and the refusal", l.Value(), l.Refused())
+	}
+	l, _ = l.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("345"), Paste: true})
+	if l.Value() != "12345" || l.Refused() != "" {
+		t.Errorf("paste up to the limit: value %q, refused %q; want it taken whole", l.Value(), l.Refused())
+	}
+	l, _ = l.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{'6'}})
+	if l.Value() != "12345" || !strings.Contains(l.Refused(), "the typed text was not taken") {
+		t.Errorf("typing past the limit: value %q, refused %q", l.Value(), l.Refused())
+	}
+	// An offered text longer than the limit is kept whole.
+	long := strings.Repeat("x", 10)
+	if l := newInputLine(&k, "> ", long, 5, nil); l.Value() != long {
+		t.Errorf("offered %q, line holds %q", long, l.Value())
+	}
+	// The Validate hook sees the text as it stands.
+	l = newInputLine(&k, "> ", "", 5, func(s string) error {
+		if s == "" {
+			return nil
+		}
+		_, err := parseField(fieldMachTol, s, SI, nil)
+		return err
+	})
+	l, _ = l.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("2")})
+	if l.Err() == nil || !strings.Contains(l.Err().Error(), "Mach tolerance") {
+		t.Errorf("Validate hook: Err %v, want the parser's refusal of 2", l.Err())
 	}
 }
 

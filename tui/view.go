@@ -24,130 +24,6 @@ func (v legendView) View(in LegendInput) string {
 	return v.fit(RenderLegend(in, *v.st, v.width))
 }
 
-// pickerRow is one line of the facility picker.
-type pickerRow struct {
-	name, info string
-	full       float64 // full-match share
-	matched    float64 // full match or Mach relaxed
-	err        string
-}
-
-// picker lists the facilities with their coverage.
-type picker struct {
-	frame
-	sel int
-}
-
-// ShownMark marks, in the facility list, the facility the matrix shows.
-// It is no glyph of any layer, so it cannot be read as a match class.
-const ShownMark = "✓"
-
-func (p picker) View(rows []pickerRow, current int) string {
-	var b strings.Builder
-	b.WriteString(wrapText(p.st.Section.Render("FACILITIES")+" "+
-		p.st.Faint.Render("("+ShownMark+" shown)  full match, matched share of envelope"), p.width))
-	for k, r := range rows {
-		pointer, cur := " ", " "
-		if k == p.sel {
-			pointer = ">"
-		}
-		if k == current {
-			cur = ShownMark
-		}
-		share := fmt.Sprintf("%3.0f%% %3.0f%%", 100*r.full, 100*r.matched)
-		if r.err != "" {
-			share = "  not solved"
-		}
-		// The name wraps under itself where it is too long for the row.
-		nameW := max(p.width-visibleWidth(share)-5, 8)
-		name := wrapLines(r.name, nameW, "  ")
-		for n, l := range name {
-			text := "    " + l
-			if n == 0 {
-				text = pointer + cur + " " + padRight(l, nameW) + " " + share
-			}
-			if k == p.sel {
-				text = p.st.Selected.Render(text)
-			}
-			b.WriteString("\n" + text)
-		}
-		if r.info != "" && k == p.sel {
-			for _, l := range wrapLines(r.info, p.width-4, "") {
-				b.WriteString("\n    " + p.st.Faint.Render(l))
-			}
-		}
-		if r.err != "" && k == p.sel {
-			for _, l := range wrapLines(r.err, p.width-4, "") {
-				b.WriteString("\n    " + p.st.Error.Render(l))
-			}
-		}
-	}
-	return p.fit(b.String())
-}
-
-// detailsView draws the point details: flight conditions, the facility
-// answer and cautions.
-type detailsView struct{ frame }
-
-// detailBlocks is the text of the details panel.
-type detailBlocks struct {
-	flight   []string
-	facility []string
-	// cautions are the full caution texts; flags names the same cautions
-	// in a few words, for panels without room for the full texts.
-	cautions []string
-	flags    string
-	summary  string // one line for cramped screens
-}
-
-// View lays the blocks out: one above the other (stacked, the wide
-// layout) or side by side (below the matrix).
-func (v detailsView) View(d detailBlocks, stacked bool) string {
-	if v.width <= 0 || v.height <= 0 {
-		return ""
-	}
-	if v.height < 4 {
-		return v.fit(wrapText(d.summary, v.width))
-	}
-	return v.fit(strings.Join(detailLines(d, v.width, v.height, stacked), "\n"))
-}
-
-// detailLines is the details panel as lines of at most w cells. Lines too
-// long for their column are wrapped, never cut. When the full caution texts
-// would not fit in h lines (h ≤ 0: no limit), the cautions are named by
-// their short flags instead.
-func detailLines(d detailBlocks, w, h int, stacked bool) []string {
-	wrapAll := func(ls []string, w int) []string {
-		var out []string
-		for _, l := range ls {
-			out = append(out, wrapLines(l, w, "  ")...)
-		}
-		return out
-	}
-	var body []string
-	if stacked {
-		body = wrapAll(d.flight, w)
-		if len(d.facility) > 0 {
-			body = append(body, "")
-			body = append(body, wrapAll(d.facility, w)...)
-		}
-	} else {
-		half := (w - 1) / 2
-		left, right := wrapAll(d.flight, half), wrapAll(d.facility, w-half-1)
-		rows := max(len(left), len(right))
-		body = strings.Split(joinColumns(box(strings.Join(left, "\n"), half, rows),
-			box(strings.Join(right, "\n"), w-half-1, rows), " "), "\n")
-	}
-	full := wrapAll(d.cautions, w)
-	if !stacked || h > 0 && len(body)+len(full) > h {
-		full = nil
-		if d.flags != "" {
-			full = wrapLines(d.flags, w, "  ")
-		}
-	}
-	return append(body, full...)
-}
-
 // joinColumns joins two boxed blocks of equal height line by line.
 func joinColumns(a, b, gap string) string {
 	la, lb := strings.Split(a, "\n"), strings.Split(b, "\n")
@@ -185,6 +61,7 @@ func (m *Model) relayout() {
 	m.tooSmall = W < MinWidth || H < MinHeight
 	m.help.SetSize(W, 1)
 	m.editor.SetLineWidth(W)
+	m.syncPanels()
 	if m.tooSmall {
 		return
 	}
@@ -203,22 +80,45 @@ func (m *Model) relayout() {
 		m.sideW = min(max(W-need-len(sideGap), minSideWidth), maxSideWidth)
 		matW := W - m.sideW - len(sideGap)
 		m.matrix.SetSize(matW, m.bodyH)
-		m.details.SetSize(m.sideW, m.bodyH)
-		m.picker.SetSize(m.sideW, m.bodyH)
-		m.editor.SetSize(m.sideW, m.bodyH)
+		m.refreshDetails(m.sideW)
+		m.setPanelSize(m.sideW, m.bodyH)
 		m.lowerH = 0
 	} else {
+		m.refreshDetails(W)
 		pref := m.lowerPreferred(W)
 		avail := m.bodyH - minMatrixHeight
 		m.lowerH = min(pref, max(avail, 1))
 		m.matrix.SetSize(W, m.bodyH-m.lowerH)
-		m.details.SetSize(W, m.lowerH)
-		m.picker.SetSize(W, m.lowerH)
-		m.editor.SetSize(W, m.lowerH)
+		m.setPanelSize(W, m.lowerH)
 	}
 	m.legend.SetSize(m.fr.width, m.legendH)
 	in := m.matrixInput()
 	m.scrollR, m.scrollC = FitScroll(in, m.matrix.width, m.matrix.height)
+}
+
+// setPanelSize gives the panels beside or below the matrix their area.
+func (m *Model) setPanelSize(w, h int) {
+	m.details.SetSize(w, h)
+	m.picker.SetSize(w, h)
+	m.editor.SetSize(w, h)
+	m.saveAs.SetSize(w, h)
+}
+
+// syncPanels gives the open panel what it shows: the picker its rows,
+// the editor its rows, the facility its limits are for and the reader of
+// typed values. It runs before a key reaches the panel and in every
+// relayout, so that a panel's Update and View read only its own state.
+func (m *Model) syncPanels() {
+	switch m.mode {
+	case modePicker:
+		m.picker.SetRows(m.pickerRows(), m.fac+1)
+	case modeEdit:
+		name := ""
+		if m.fac >= 0 && m.fac < len(m.facs) {
+			name = m.facs[m.fac].Name
+		}
+		m.editor.SetFields(m.editorRows(), m.fac, name, m.fieldReader())
+	}
 }
 
 // sideGap separates the matrix from the side panel in the wide layout.
@@ -229,19 +129,13 @@ const sideGap = "  "
 func (m *Model) lowerPreferred(w int) int {
 	switch m.mode {
 	case modePicker:
-		p := m.picker
-		p.SetSize(w, 1<<20)
-		return lineCount(p.View(m.pickerRows(), m.fac+1)) + 1
+		return m.picker.PreferredHeight(w)
 	case modeEdit:
-		n := int(fieldCount) + 1
-		if m.editor.err != "" {
-			n += len(wrapLines(m.editor.err, w, ""))
-		}
-		return n
+		return m.editor.PreferredHeight(w)
 	case modeSaveAs:
-		return lineCount(m.saveAsPanel(w))
+		return m.saveAs.PreferredHeight(w)
 	}
-	return len(detailLines(m.detailBlocks(w), w, 0, false))
+	return m.details.PreferredHeight(w)
 }
 
 // View implements tea.Model. It draws from the state only.
@@ -278,21 +172,13 @@ func (m Model) bodyView() string {
 	var panel string
 	switch m.mode {
 	case modePicker:
-		panel = m.picker.View(m.pickerRows(), m.fac+1)
+		panel = m.picker.View()
 	case modeEdit:
-		panel = m.editor.View(m.editorRows(), m.editorTitle())
+		panel = m.editor.View()
 	case modeSaveAs:
-		if m.wide {
-			panel = m.saveAsPanel(m.sideW)
-		} else {
-			panel = m.saveAsPanel(m.fr.width)
-		}
+		panel = m.saveAs.View()
 	default:
-		if m.wide {
-			panel = m.details.View(m.detailBlocks(m.sideW), true)
-		} else {
-			panel = m.details.View(m.detailBlocks(m.fr.width), false)
-		}
+		panel = m.details.View()
 	}
 	if m.wide {
 		return joinColumns(mat, box(panel, m.sideW, m.bodyH), sideGap)
@@ -378,7 +264,7 @@ func (m Model) footer() string {
 	k := m.fr.keys
 	st := m.fr.st
 	W := m.fr.width
-	if m.status != "" && m.mode != modeConfirm && m.mode != modeSaveAs && !(m.mode == modeEdit && m.editor.editing) {
+	if m.status != "" && m.mode != modeConfirm && m.mode != modeSaveAs && !(m.mode == modeEdit && m.editor.Editing()) {
 		style := st.Status
 		if m.statusErr {
 			style = st.Error
@@ -400,16 +286,16 @@ func (m Model) footer() string {
 		}
 		return wrapItems(st.Changed.Render(q), keyItems(st, confirmKeys{k: k, canSave: m.store != nil, readOnly: m.readOnly}.ShortHelp()), "  ", W)
 	case modeSaveAs:
-		return m.saveAs.input.view(st, W)
+		return m.saveAs.Line(W)
 	case modeHelp:
 		return keyLine(st, []key.Binding{k.Help, k.Back, k.Quit}, W)
 	case modePicker:
-		return keyLine(st, []key.Binding{k.Prev, k.Next, k.Select, k.Back}, W)
+		return keyLine(st, m.picker.ShortHelp(), W)
 	case modeEdit:
-		if m.editor.editing {
+		if m.editor.Editing() {
 			return m.editor.Line()
 		}
-		return keyLine(st, listKeys{k: k}.ShortHelp(), W)
+		return keyLine(st, m.editor.ShortHelp(), W)
 	}
 	return keyLine(st, k.ShortHelp(), W)
 }
@@ -515,9 +401,12 @@ func fitWords(s string, n int) string {
 
 // facilityLabel is facility k's letter and name within n cells: the whole
 // name where it fits, else its first words (the letter still names it).
-func (m Model) facilityLabel(k, n int) string {
+func (m Model) facilityLabel(k, n int) string { return facilityLabel(k, m.facs[k].Name, n) }
+
+// facilityLabel is the letter of facility k and its name within n cells.
+func facilityLabel(k int, name string, n int) string {
 	tag := string(facilityTag(k)) + " "
-	return tag + fitWords(m.facs[k].Name, max(n-len(tag), 8))
+	return tag + fitWords(name, max(n-len(tag), 8))
 }
 
 // matrixInput describes the matrix for the renderer.
@@ -533,7 +422,7 @@ func (m Model) pickerRows() []pickerRow {
 	rows := []pickerRow{{
 		name:    "best of all",
 		info:    "per point the facility with the best class",
-		full:    bestShare(m.res, envelope.FullMatch),
+		full:    m.res.bestFull,
 		matched: m.res.union,
 	}}
 	for k, f := range m.facs {
@@ -552,24 +441,6 @@ func (m Model) pickerRows() []pickerRow {
 	return rows
 }
 
-// bestShare is the share of inside points whose best class is c.
-func bestShare(r results, c envelope.Class) float64 {
-	var n, inside int
-	for _, res := range r.bestRes {
-		if res.Class == envelope.Outside {
-			continue
-		}
-		inside++
-		if res.Class == c {
-			n++
-		}
-	}
-	if inside == 0 {
-		return 0
-	}
-	return float64(n) / float64(inside)
-}
-
 // change is one what-if value that differs from the files: its label, the
 // value now, and where the starting value came from with that value
 // ("vehicle file +0.0 K", "built-in 0.0100"). fac is the facility of a
@@ -580,52 +451,49 @@ type change struct {
 }
 
 // changes lists every what-if value that differs from the files, each
-// with where its starting value came from.
+// with where its starting value came from: the settings, then each
+// facility's limits.
 func (m Model) changes() []change {
 	u := m.units
 	var out []change
-	s, f := m.set, m.fileSet
-	add := func(label, now, origin string, fac int) {
-		out = append(out, change{label: label, now: now, origin: origin, fac: fac})
-	}
-	tol := m.settingsOrigin()
-	if s.Scale != f.Scale {
-		add("model scale", scaleText(s.Scale), tol+" "+scaleText(f.Scale), -1)
-	}
-	if s.DeltaT != f.DeltaT {
-		add("ΔT", u.DeltaT(s.DeltaT), m.vehicleOrigin()+" "+u.DeltaT(f.DeltaT), -1)
-	}
-	if s.MachTol != f.MachTol {
-		add("Mach tol", sig(s.MachTol, 3), tol+" "+sig(f.MachTol, 3), -1)
-	}
-	if s.ReTol != f.ReTol {
-		add("Re tol", sig(s.ReTol*100, 3)+" %", tol+" "+sig(f.ReTol*100, 3)+" %", -1)
-	}
-	if s.CompressibilityMach != f.CompressibilityMach || s.Regimes != f.Regimes {
-		add("compressibility M", sig(s.CompressibilityMach, 3), tol+" "+sig(f.CompressibilityMach, 3), -1)
-	}
-	for k := range m.facs {
-		if k >= len(m.fileFacs) {
-			break
+	for f := range fieldCount {
+		d := f.def()
+		if d.facility {
+			continue
 		}
-		now, file := m.facs[k], m.fileFacs[k]
-		water := !now.Medium.IsGas()
-		pfmt := u.Stagnation
-		if water {
-			pfmt = u.Pressure
+		now, file := d.get(&m.set, nil), d.get(&m.fileSet, nil)
+		if now != file {
+			out = append(out, change{label: f.headerLabel(false), now: f.show(u, now, false),
+				origin: m.originText(f, -1) + " " + f.show(u, file, false), fac: -1})
 		}
-		src := facilityOrigin(file) + " "
-		if now.PressureMax() != file.PressureMax() {
-			add(fieldP0Max.label(water), pfmt(now.PressureMax()), src+pfmt(file.PressureMax()), k)
-		}
-		if now.TemperatureMin() != file.TemperatureMin() {
-			add(fieldT0Min.label(water), u.Temp(now.TemperatureMin()), src+u.Temp(file.TemperatureMin()), k)
-		}
-		if now.QMax != file.QMax {
-			add(fieldQMax.label(water), qText(u, now.QMax), src+qText(u, file.QMax), k)
+	}
+	for k := range min(len(m.facs), len(m.fileFacs)) {
+		water := isWater(&m.facs[k])
+		for f := range fieldCount {
+			d := f.def()
+			if !d.facility {
+				continue
+			}
+			now, file := d.get(nil, &m.facs[k]), d.get(nil, &m.fileFacs[k])
+			if now != file {
+				out = append(out, change{label: f.headerLabel(water), now: f.show(u, now, water),
+					origin: m.originText(f, k) + " " + f.show(u, file, water), fac: k})
+			}
 		}
 	}
 	return out
+}
+
+// originText says where the starting value of field f comes from (fac:
+// the facility of a limit).
+func (m Model) originText(f field, fac int) string {
+	switch f.def().origin {
+	case fromVehicle:
+		return m.vehicleOrigin()
+	case fromFacility:
+		return facilityOrigin(m.fileFacs[fac])
+	}
+	return m.settingsOrigin()
 }
 
 // settingsOrigin says where the starting scale override and tolerances
@@ -668,47 +536,27 @@ func qText(u Units, q float64) string {
 	return "none"
 }
 
-// editorTitle names what the facility fields apply to: the facility's
-// letter and name, the name shortened to its first words where the panel
-// is narrow (the letter still names it uniquely).
-func (m Model) editorTitle() string {
-	if m.fac >= 0 && m.fac < len(m.facs) {
-		return "facility " + m.facilityLabel(m.fac, m.editor.width-len("WHAT-IF facility "))
-	}
-	return "facility limits: choose a facility"
-}
-
 // editorRows describes every what-if field in the current units.
 func (m Model) editorRows() []editorRow {
 	u := m.units
-	s, f := m.set, m.fileSet
 	rows := make([]editorRow, fieldCount)
-	tol, veh := m.settingsOrigin()+" ", m.vehicleOrigin()+" "
-	rows[fieldScale] = editorRow{value: scaleText(s.Scale), origin: tol + scaleText(f.Scale), changed: s.Scale != f.Scale}
-	rows[fieldDeltaT] = editorRow{value: u.DeltaT(s.DeltaT), origin: veh + u.DeltaT(f.DeltaT), changed: s.DeltaT != f.DeltaT}
-	rows[fieldMachTol] = editorRow{value: sig(s.MachTol, 3), origin: tol + sig(f.MachTol, 3), changed: s.MachTol != f.MachTol}
-	rows[fieldReTol] = editorRow{value: sig(s.ReTol*100, 3) + " %", origin: tol + sig(f.ReTol*100, 3) + " %", changed: s.ReTol != f.ReTol}
-	rows[fieldCompMach] = editorRow{value: sig(s.CompressibilityMach, 3), origin: tol + sig(f.CompressibilityMach, 3),
-		changed: s.CompressibilityMach != f.CompressibilityMach}
-	water := false
+	var now, file *envelope.Facility
 	if m.fac >= 0 && m.fac < len(m.facs) {
-		now, file := m.facs[m.fac], m.fileFacs[m.fac]
-		water = !now.Medium.IsGas()
-		pfmt := u.Stagnation
-		if water {
-			pfmt = u.Pressure
-		}
-		src := facilityOrigin(file) + " "
-		rows[fieldP0Max] = editorRow{value: pfmt(now.PressureMax()), origin: src + pfmt(file.PressureMax()), changed: now.PressureMax() != file.PressureMax()}
-		rows[fieldT0Min] = editorRow{value: u.Temp(now.TemperatureMin()), origin: src + u.Temp(file.TemperatureMin()), changed: now.TemperatureMin() != file.TemperatureMin()}
-		rows[fieldQMax] = editorRow{value: qText(u, now.QMax), origin: src + qText(u, file.QMax), changed: now.QMax != file.QMax}
+		now, file = &m.facs[m.fac], &m.fileFacs[m.fac]
 	}
-	for k := range rows {
-		rows[k].label = field(k).label(water)
-		rows[k].enabled = !field(k).facilityField() || m.fac >= 0
-		if !rows[k].enabled {
-			rows[k].note = "choose a facility"
+	water := isWater(now)
+	for f := range fieldCount {
+		d := f.def()
+		r := editorRow{label: f.label(water), enabled: !d.facility || now != nil}
+		if !r.enabled {
+			r.note = "choose a facility"
+			rows[f] = r
+			continue
 		}
+		v, was := d.get(&m.set, now), d.get(&m.fileSet, file)
+		r.value, r.start, r.changed = f.show(u, v, water), f.editText(u, v, water), v != was
+		r.origin = m.originText(f, m.fac) + " " + f.show(u, was, water)
+		rows[f] = r
 	}
 	return rows
 }

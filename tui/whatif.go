@@ -14,33 +14,39 @@ import (
 // the settings first, then each facility's limits by facility name, e.g.
 // "ΔT" or "<facility> p0 max".
 //
-// A value that is not a finite number, or a facility that is not among
-// facs, is left out; the returned error lists every such value (nil when
-// everything was applied). A new compressibility Mach number also moves
-// the incompressible bound of the regime classes, as in the editor.
+// A value is checked as the editor checks a typed one (the what-if field
+// table): a value out of its bounds or not a finite number, a key that
+// names no field, or a facility that is not among facs, is left out; the
+// returned error lists every such value (nil when everything was applied).
+// A new compressibility Mach number also moves the incompressible bound of
+// the regime classes, as in the editor.
 func ApplyWhatIf(w WhatIf, s *envelope.Settings, facs []envelope.Facility) (changed []string, err error) {
 	var problems []error
-	// Every value goes through the same range check as the editor, so a
-	// hand-edited session cannot bring in what the keyboard would refuse.
-	set := func(f field, fac *envelope.Facility, name string, dst *float64, v *float64) bool {
-		if v == nil {
-			return false
+	// apply puts the value stored under field f's key in vals (if any)
+	// into s or fac, checked as the editor checks it, so a hand-edited
+	// session cannot bring in what the keyboard would refuse.
+	apply := func(f field, fac *envelope.Facility, prefix string, vals map[string]float64) {
+		v, ok := vals[f.def().key]
+		if !ok {
+			return
 		}
-		x, err := checkField(f, *v, fac)
+		name := prefix + f.def().name
+		x, err := checkField(f, v, fac)
+		if err == nil {
+			err = validateField(f, *s, x)
+		}
 		if err != nil {
 			problems = append(problems, fmt.Errorf("what-if %s: %w", name, err))
-			return false
+			return
 		}
-		*dst = x
+		f.def().set(s, fac, x)
 		changed = append(changed, name)
-		return true
 	}
-	set(fieldScale, nil, "model scale", &s.Scale, w.Scale)
-	set(fieldDeltaT, nil, "ΔT", &s.DeltaT, w.DeltaT)
-	set(fieldMachTol, nil, "Mach tolerance", &s.MachTol, w.MachTol)
-	set(fieldReTol, nil, "Reynolds tolerance", &s.ReTol, w.ReTol)
-	if set(fieldCompMach, nil, "compressibility Mach", &s.CompressibilityMach, w.CompressibilityMach) {
-		s.Regimes.Incompressible = s.CompressibilityMach
+	problems = append(problems, unknownKeys(w.Values, false, "")...)
+	for f := range fieldCount {
+		if !f.facilityField() {
+			apply(f, nil, "", w.Values)
+		}
 	}
 	names := make([]string, 0, len(w.Facilities))
 	for n := range w.Facilities {
@@ -54,15 +60,31 @@ func ApplyWhatIf(w WhatIf, s *envelope.Settings, facs []envelope.Facility) (chan
 			continue
 		}
 		fw := w.Facilities[name]
-		fac := &facs[k]
-		p0, t0 := fac.PressureMax(), fac.TemperatureMin()
-		set(fieldP0Max, fac, name+" p0 max", &p0, fw.P0Max)
-		set(fieldT0Min, fac, name+" T0 min", &t0, fw.T0Min)
-		fac.SetPressureMax(p0)
-		fac.SetTemperatureMin(t0)
-		set(fieldQMax, fac, name+" q max", &fac.QMax, fw.QMax)
+		problems = append(problems, unknownKeys(fw, true, name+" ")...)
+		for f := range fieldCount {
+			if f.facilityField() {
+				apply(f, &facs[k], name+" ", fw)
+			}
+		}
 	}
 	return changed, errors.Join(problems...)
+}
+
+// unknownKeys names the keys of vals that are no field's (settings, or
+// facility limits), sorted.
+func unknownKeys(vals map[string]float64, facility bool, prefix string) []error {
+	var bad []string
+	for k := range vals {
+		if f, ok := fieldByKey(k, facility); !ok || f.def().key != k {
+			bad = append(bad, k)
+		}
+	}
+	sort.Strings(bad)
+	var out []error
+	for _, k := range bad {
+		out = append(out, fmt.Errorf("what-if %sunknown value %q (expected %s)", prefix, k, fieldKeys(facility)))
+	}
+	return out
 }
 
 // facilityByName is the index of the facility named exactly name, or -1.

@@ -14,16 +14,12 @@ import (
 func TestApplyWhatIfOrderAndBadValues(t *testing.T) {
 	v, facs := demoData(t)
 	s := envelope.DefaultSettings(v)
-	p := func(x float64) *float64 { return &x }
 	w := WhatIf{
-		DeltaT:              p(10),
-		Scale:               p(0.05),
-		ReTol:               p(math.NaN()),
-		CompressibilityMach: p(0.25),
+		Values: map[string]float64{"delta_t_K": 10, "scale": 0.05, "re_tol": math.NaN(), "compressibility_mach": 0.25},
 		Facilities: map[string]FacilityWhatIf{
-			facs[2].Name:     {QMax: p(5e4), P0Max: p(6e5)},
-			facs[0].Name:     {T0Min: p(100)},
-			"No such tunnel": {QMax: p(1)},
+			facs[2].Name:     {"q_max_Pa": 5e4, "p0_max_Pa": 6e5},
+			facs[0].Name:     {"t0_min_K": 100},
+			"No such tunnel": {"q_max_Pa": 1},
 		},
 	}
 	wantReTol := s.ReTol
@@ -102,27 +98,26 @@ func TestCheckSessionInputs(t *testing.T) {
 // A hand-edited session must not bring in values the editor refuses.
 func TestApplyWhatIfOutOfRange(t *testing.T) {
 	v, facs := demoData(t)
-	p := func(x float64) *float64 { return &x }
 	cases := []struct {
 		name string
 		w    WhatIf
 		want string // part of the error
 	}{
-		{"ΔT far below any day", WhatIf{DeltaT: p(-1000)}, "ΔT"},
-		{"absurd scale", WhatIf{Scale: p(1e300)}, "model scale"},
-		{"negative scale", WhatIf{Scale: p(-0.1)}, "model scale"},
-		{"Mach tolerance of 2", WhatIf{MachTol: p(2)}, "Mach tolerance"},
-		{"compressibility above 1", WhatIf{CompressibilityMach: p(1.5)}, "compressibility"},
-		{"negative p0 max", WhatIf{Facilities: map[string]FacilityWhatIf{facs[0].Name: {P0Max: p(-1)}}}, "p0 max"},
-		{"T0 min at absolute zero", WhatIf{Facilities: map[string]FacilityWhatIf{facs[0].Name: {T0Min: p(0)}}}, "T0 min"},
+		{"ΔT far below any day", WhatIf{Values: map[string]float64{"delta_t_K": -1000}}, "ΔT"},
+		{"absurd scale", WhatIf{Values: map[string]float64{"scale": 1e300}}, "model scale"},
+		{"negative scale", WhatIf{Values: map[string]float64{"scale": -0.1}}, "model scale"},
+		{"Mach tolerance of 2", WhatIf{Values: map[string]float64{"mach_tol": 2}}, "Mach tolerance"},
+		{"compressibility above 1", WhatIf{Values: map[string]float64{"compressibility_mach": 1.5}}, "compressibility"},
+		{"negative p0 max", WhatIf{Facilities: map[string]FacilityWhatIf{facs[0].Name: {"p0_max_Pa": -1}}}, "p0 max"},
+		{"T0 min at absolute zero", WhatIf{Facilities: map[string]FacilityWhatIf{facs[0].Name: {"t0_min_K": 0}}}, "T0 min"},
 		// The bounds of the files (±60 K; 0–100 degC water; 1000 bar).
-		{"ΔT of 70 K", WhatIf{DeltaT: p(70)}, "within ±60 K"},
-		{"scale above 10", WhatIf{Scale: p(11)}, "a model scale above 0 and at most 10"},
-		{"water at 5 K", WhatIf{Facilities: map[string]FacilityWhatIf{facs[5].Name: {T0Min: p(5)}}}, "a water temperature from 0 degC to 100 degC"},
-		{"p0 max below p0 min", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {P0Max: p(1e5)}}}, "not below the facility's minimum"},
-		{"T0 min above T0 max", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {T0Min: p(400)}}}, "not above the facility's maximum"},
-		{"q max of 2000 bar", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {QMax: p(2e8)}}}, "at most 1000 bar"},
-		{"negative q max", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {QMax: p(-1)}}}, "q max"},
+		{"ΔT of 70 K", WhatIf{Values: map[string]float64{"delta_t_K": 70}}, "within ±60 K"},
+		{"scale above 10", WhatIf{Values: map[string]float64{"scale": 11}}, "a model scale above 0 and at most 10"},
+		{"water at 5 K", WhatIf{Facilities: map[string]FacilityWhatIf{facs[5].Name: {"t0_min_K": 5}}}, "a water temperature from 0 degC to 100 degC"},
+		{"p0 max below p0 min", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {"p0_max_Pa": 1e5}}}, "not below the facility's minimum"},
+		{"T0 min above T0 max", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {"t0_min_K": 400}}}, "not above the facility's maximum"},
+		{"q max of 2000 bar", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {"q_max_Pa": 2e8}}}, "at most 1000 bar"},
+		{"negative q max", WhatIf{Facilities: map[string]FacilityWhatIf{facs[3].Name: {"q_max_Pa": -1}}}, "q max"},
 	}
 	for _, c := range cases {
 		s := envelope.DefaultSettings(v)

@@ -89,9 +89,8 @@ func checkGolden(t *testing.T, name, got string) {
 }
 
 func TestDumpGolden(t *testing.T) {
-	ptr := func(x float64) *float64 { return &x }
 	sess := outDemoSession(t, [][2]int{{10, 12}, {20, 20}, {20, 21}, {5, 8}},
-		tui.WhatIf{DeltaT: ptr(10)}, "Kellen Fold cryogenic transonic tunnel")
+		tui.WhatIf{Values: map[string]float64{"delta_t_K": 10}}, "Kellen Fold cryogenic transonic tunnel")
 	cases := []struct {
 		golden string
 		args   []string

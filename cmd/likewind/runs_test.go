@@ -201,9 +201,8 @@ func TestApplyWhatIf(t *testing.T) {
 		t.Fatal(err)
 	}
 	s := envelope.DefaultSettings(v)
-	p := func(x float64) *float64 { return &x }
-	w := tui.WhatIf{Scale: p(0.05), CompressibilityMach: p(0.25),
-		Facilities: map[string]tui.FacilityWhatIf{facs[1].Name: {P0Max: p(6e5)}}}
+	w := tui.WhatIf{Values: map[string]float64{"scale": 0.05, "compressibility_mach": 0.25},
+		Facilities: map[string]tui.FacilityWhatIf{facs[1].Name: {"p0_max_Pa": 6e5}}}
 	changed, err := tui.ApplyWhatIf(w, &s, facs)
 	if err != nil {
 		t.Fatal(err)
@@ -214,7 +213,7 @@ func TestApplyWhatIf(t *testing.T) {
 	if len(changed) != 3 {
 		t.Errorf("changed = %v, want 3 entries", changed)
 	}
-	w = tui.WhatIf{Facilities: map[string]tui.FacilityWhatIf{"No such tunnel": {QMax: p(1)}}}
+	w = tui.WhatIf{Facilities: map[string]tui.FacilityWhatIf{"No such tunnel": {"q_max_Pa": 1}}}
 	if _, err := tui.ApplyWhatIf(w, &s, facs); err == nil {
 		t.Error("what-if for an unknown facility accepted")
 	}

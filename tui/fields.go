@@ -1,0 +1,402 @@
+package tui
+
+import (
+	"errors"
+	"fmt"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+
+	"likewind/atmos"
+	"likewind/envelope"
+)
+
+// The what-if fields. Each value a user can change without editing files
+// is one row of fieldTable: the editor lists, reads and applies it, the
+// header lists its change, the session file stores it under its key and a
+// restored session is checked by it. Adding a field is one row here (and,
+// when it is new engine state, its envelope.Settings or Facility field).
+
+// field names a row of fieldTable.
+type field int
+
+// The rows, in the order the editor lists them: the settings, then the
+// limits of the chosen facility.
+const (
+	fieldScale field = iota
+	fieldDeltaT
+	fieldMachTol
+	fieldReTol
+	fieldCompMach
+	fieldP0Max
+	fieldT0Min
+	fieldQMax
+
+	fieldCount
+)
+
+// origin is where a field's starting value comes from.
+type origin uint8
+
+const (
+	fromSettings origin = iota // the built-in defaults, or the settings the caller gave
+	fromVehicle                // the vehicle (its file, or the demo)
+	fromFacility               // the facility (its file, or the demo)
+)
+
+// fieldDef declares one what-if field.
+type fieldDef struct {
+	// label names the field in the editor, in its errors and, for a
+	// facility limit, in the header; waterLabel replaces it for a water
+	// facility, which bounds static pressure and water temperature.
+	label, waterLabel string
+	// short names a setting in the header's what-if list ("" = label).
+	short string
+	// name is how a restored session names the change, in the dump
+	// header and in its errors ("Mach tolerance"; "<facility> p0 max").
+	name string
+	// key is the session file's JSON key of the value (SI).
+	key string
+	// facility marks a limit of the chosen facility; the others are
+	// settings of the whole evaluation.
+	facility bool
+	origin   origin
+	// grid marks a value of the flight side: a change rebuilds the grid.
+	// Other settings re-solve every facility, a limit only its facility.
+	grid bool
+
+	// dim is the dimension the typed value is read in; bareSI and
+	// bareCustomary are the units a bare number takes ("" = none).
+	dim                   atmos.Dimension
+	bareSI, bareCustomary string
+	// words are typed for values that are no quantity ("fit" for the
+	// scale 0: each facility's own sizing; "none" for q max 0: no limit).
+	// An out-of-range refusal names them; a typed number is never read as
+	// one (a typed 0 is refused).
+	words []fieldWord
+
+	// get and set read and write the value (SI): settings in s, a limit
+	// in f, the facility it belongs to.
+	get func(s *envelope.Settings, f *envelope.Facility) float64
+	set func(s *envelope.Settings, f *envelope.Facility, v float64)
+
+	// A setting is read by its shared parser (envelope/bounds.go), which
+	// bounds it, and a stored value is checked against bound (shown with
+	// siUnit). A facility limit is read as a quantity of dim and checked,
+	// typed or stored, by limit against the facility's own ranges.
+	read   func(text string) (float64, error)
+	bound  func() envelope.Bound
+	siUnit string
+	limit  func(f *envelope.Facility, found string, v float64) (float64, error)
+
+	// validate refuses a value that the other settings rule out (nil:
+	// none).
+	validate func(s envelope.Settings, v float64) error
+	// show writes the value in the units u; water is set for a limit of
+	// a water facility.
+	show func(u Units, v float64, water bool) string
+}
+
+// fieldWord is a word a field takes for a value, and what it means.
+type fieldWord struct {
+	word  string
+	value float64
+	means string
+}
+
+// fieldTable is every what-if field, indexed by field.
+var fieldTable = [fieldCount]fieldDef{
+	fieldScale: {
+		label: "model scale", name: "model scale", key: "scale",
+		words: []fieldWord{{word: "fit", value: 0, means: "each facility's own sizing"}},
+		get:   func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.Scale },
+		set:   func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.Scale = v },
+		read:  envelope.ParseModelScale, bound: envelope.ModelScaleBound,
+		show: func(_ Units, v float64, _ bool) string { return scaleText(v) },
+	},
+	fieldDeltaT: {
+		label: "ΔT of day", short: "ΔT", name: "ΔT", key: "delta_t_K",
+		origin: fromVehicle, grid: true,
+		dim: atmos.TemperatureDelta, bareSI: "K", bareCustomary: "degF",
+		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.DeltaT },
+		set:  func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.DeltaT = v },
+		read: envelope.ParseDeltaT, bound: envelope.DeltaTBound, siUnit: "K",
+		show: func(u Units, v float64, _ bool) string { return u.DeltaT(v) },
+	},
+	fieldMachTol: {
+		label: "Mach tolerance", short: "Mach tol", name: "Mach tolerance", key: "mach_tol",
+		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.MachTol },
+		set:  func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.MachTol = v },
+		read: envelope.ParseMachTol, bound: envelope.MachTolBound,
+		show: func(_ Units, v float64, _ bool) string { return sig(v, 3) },
+	},
+	fieldReTol: {
+		label: "Re tolerance", short: "Re tol", name: "Reynolds tolerance", key: "re_tol",
+		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.ReTol },
+		set:  func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.ReTol = v },
+		read: envelope.ParseReTol, bound: envelope.ReTolBound,
+		show: func(_ Units, v float64, _ bool) string { return sig(v*100, 3) + " %" },
+	},
+	fieldCompMach: {
+		label: "compressibility M", name: "compressibility Mach", key: "compressibility_mach",
+		grid: true,
+		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.CompressibilityMach },
+		// The same threshold bounds incompressible flow in the regime
+		// layer and the relaxation of Mach number in matching.
+		set: func(s *envelope.Settings, _ *envelope.Facility, v float64) {
+			s.CompressibilityMach = v
+			s.Regimes.Incompressible = v
+		},
+		read: envelope.ParseCompressibilityMach, bound: envelope.CompressibilityMachBound,
+		validate: func(s envelope.Settings, v float64) error {
+			if v >= s.Regimes.Subsonic {
+				return fmt.Errorf("compressibility Mach must stay below the subsonic bound %.2f", s.Regimes.Subsonic)
+			}
+			return nil
+		},
+		show: func(_ Units, v float64, _ bool) string { return sig(v, 3) },
+	},
+	fieldP0Max: {
+		label: "p0 max", waterLabel: "max static p", name: "p0 max", key: "p0_max_Pa",
+		facility: true, origin: fromFacility,
+		dim: atmos.Pressure, bareSI: "kPa", bareCustomary: "psi",
+		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.PressureMax() },
+		set:   func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.SetPressureMax(v) },
+		limit: envelope.CheckP0Max,
+		show: func(u Units, v float64, water bool) string {
+			if water {
+				return u.Pressure(v)
+			}
+			return u.Stagnation(v)
+		},
+	},
+	fieldT0Min: {
+		label: "T0 min", waterLabel: "min water T", name: "T0 min", key: "t0_min_K",
+		facility: true, origin: fromFacility,
+		dim: atmos.Temperature, bareSI: "K", bareCustomary: "degF",
+		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.TemperatureMin() },
+		set:   func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.SetTemperatureMin(v) },
+		limit: envelope.CheckT0Min,
+		show:  func(u Units, v float64, _ bool) string { return u.Temp(v) },
+	},
+	fieldQMax: {
+		label: "q max", name: "q max", key: "q_max_Pa",
+		facility: true, origin: fromFacility,
+		dim: atmos.Pressure, bareSI: "kPa", bareCustomary: "psf",
+		words: []fieldWord{{word: "none", value: 0, means: "no limit"}},
+		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.QMax },
+		set:   func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.QMax = v },
+		limit: func(_ *envelope.Facility, found string, v float64) (float64, error) {
+			return envelope.CheckQMax(found, v)
+		},
+		show: func(u Units, v float64, _ bool) string { return qText(u, v) },
+	},
+}
+
+// def is the field's row of fieldTable.
+func (f field) def() *fieldDef { return &fieldTable[f] }
+
+// facilityField reports whether the field belongs to the chosen facility.
+func (f field) facilityField() bool { return f.def().facility }
+
+// label names the field; water facilities bound static pressure and water
+// temperature instead of p0 and T0.
+func (f field) label(water bool) string {
+	d := f.def()
+	if water && d.waterLabel != "" {
+		return d.waterLabel
+	}
+	return d.label
+}
+
+// headerLabel is the field's name in the header's what-if list.
+func (f field) headerLabel(water bool) string {
+	if d := f.def(); d.short != "" {
+		return d.short
+	}
+	return f.label(water)
+}
+
+// bareUnit is the unit assumed when a number is typed without one, in the
+// current unit system ("" for dimensionless fields).
+func (f field) bareUnit(u Units) string {
+	if u == Customary {
+		return f.def().bareCustomary
+	}
+	return f.def().bareSI
+}
+
+// show writes a value of the field in the units u.
+func (f field) show(u Units, v float64, water bool) string { return f.def().show(u, v, water) }
+
+// editText is the text the input line starts with for the value v: what
+// show writes, in a form the field reads back (its word, degF for °F).
+func (f field) editText(u Units, v float64, water bool) string {
+	if w, ok := f.wordFor(v); ok {
+		return w.word
+	}
+	return strings.ReplaceAll(f.show(u, v, water), "°F", "degF")
+}
+
+// wordFor is the word the field takes for the value v, if any.
+func (f field) wordFor(v float64) (fieldWord, bool) {
+	for _, w := range f.def().words {
+		if w.value == v {
+			return w, true
+		}
+	}
+	return fieldWord{}, false
+}
+
+// wordHint is what an out-of-range refusal adds about the field's words
+// ("" for none): `or the word "fit" for each facility's own sizing`.
+func (f field) wordHint() string {
+	var parts []string
+	for _, w := range f.def().words {
+		parts = append(parts, fmt.Sprintf("%q for %s", w.word, w.means))
+	}
+	switch len(parts) {
+	case 0:
+		return ""
+	case 1:
+		return "or the word " + parts[0]
+	}
+	return "or one of the words " + strings.Join(parts, ", ")
+}
+
+// isWater reports whether fac is a water facility (false for nil).
+func isWater(fac *envelope.Facility) bool { return fac != nil && fac.Medium == envelope.MediumWater }
+
+// maxEntry is the longest text the input line takes for a value, in
+// characters: far beyond any value written out in full, yet a paste of a
+// whole file is refused with a message rather than parsed.
+const maxEntry = 1024
+
+// parseField reads the text typed for field f, with the parsers and bounds
+// the files and the command line use (envelope/bounds.go). A bare number
+// takes the field's unit in the current unit system. The model scale
+// takes the forms a file takes ("0.05", "1/20", "1:20", "5 %") or the word
+// "fit" for each facility's own sizing; q max takes a pressure or the word
+// "none". Both words return 0, as the settings store them; a typed 0 is
+// refused, not read as either. The facility limits (p0 max, T0 min, q max)
+// are checked against fac, the facility they are for, as its file's ranges
+// are.
+func parseField(f field, text string, u Units, fac *envelope.Facility) (float64, error) {
+	d := f.def()
+	fail := func(err error) (float64, error) { return 0, fmt.Errorf("%s: %w", f.label(isWater(fac)), err) }
+	t := strings.TrimSpace(text)
+	if t == "" {
+		return fail(errors.New("empty value"))
+	}
+	if n := utf8.RuneCountInString(t); n > maxEntry {
+		return fail(fmt.Errorf("the entry is %d characters long, expected at most %d", n, maxEntry))
+	}
+	for _, w := range d.words {
+		if strings.EqualFold(t, w.word) {
+			return w.value, nil
+		}
+	}
+	if d.facility && fac == nil {
+		return fail(errors.New("choose a facility first"))
+	}
+	if unit := f.bareUnit(u); unit != "" {
+		if _, err := strconv.ParseFloat(t, 64); err == nil {
+			t += " " + unit
+		}
+	}
+	var v float64
+	var err error
+	if d.facility {
+		v, err = atmos.ParseQuantity(t, d.dim)
+		if err == nil {
+			v, err = d.limit(fac, strconv.Quote(t), v)
+		}
+	} else {
+		v, err = d.read(t)
+	}
+	if hint := f.wordHint(); hint != "" && errors.Is(err, envelope.ErrOutOfBounds) {
+		err = fmt.Errorf("%w, %s", err, hint)
+	}
+	if err != nil {
+		return fail(err)
+	}
+	return v, nil
+}
+
+// checkField refuses a stored value (a session's, in SI) that the editor
+// would refuse typed: the same bounds, with 0 meaning each facility's own
+// sizing for the scale and no limit for q max, as the settings store them.
+// fac is the facility a limit is for (nil for the other fields).
+func checkField(f field, v float64, fac *envelope.Facility) (float64, error) {
+	d := f.def()
+	var err error
+	_, isWord := f.wordFor(v)
+	switch {
+	case isWord:
+		return v, nil
+	case d.facility && fac == nil:
+		err = errors.New("no facility")
+	case d.facility:
+		v, err = d.limit(fac, "", v)
+	default:
+		found := strconv.FormatFloat(v, 'g', 6, 64)
+		if d.siUnit != "" {
+			found += " " + d.siUnit
+		}
+		err = d.bound().Check(found, v)
+	}
+	if err != nil {
+		return 0, fmt.Errorf("%s: %w", f.label(isWater(fac)), err)
+	}
+	return v, nil
+}
+
+// validateField refuses a value of f that the settings s rule out.
+func validateField(f field, s envelope.Settings, v float64) error {
+	if d := f.def(); d.validate != nil {
+		return d.validate(s, v)
+	}
+	return nil
+}
+
+// fieldReader reads the text typed for a field as the editor applies it:
+// in the current units, for the chosen facility, then checked against the
+// other settings. It holds copies of what it needs, so it stays valid as
+// the model is copied.
+type fieldReader struct {
+	units Units
+	fac   *envelope.Facility // the chosen facility, nil for none (its slice is never changed in place)
+	set   envelope.Settings
+}
+
+// read parses text for field f and checks it.
+func (r fieldReader) read(f field, text string) (float64, error) {
+	v, err := parseField(f, text, r.units, r.fac)
+	if err == nil {
+		err = validateField(f, r.set, v)
+	}
+	return v, err
+}
+
+// fieldByKey is the field stored under a session key, matched as
+// encoding/json matches struct keys (case folded); ok is false for none.
+func fieldByKey(key string, facility bool) (field, bool) {
+	for f := range fieldCount {
+		if d := f.def(); d.facility == facility && strings.EqualFold(d.key, key) {
+			return f, true
+		}
+	}
+	return 0, false
+}
+
+// fieldKeys lists the session keys of the settings (facility false) or of
+// the facility limits, for error messages.
+func fieldKeys(facility bool) string {
+	var keys []string
+	for f := range fieldCount {
+		if d := f.def(); d.facility == facility {
+			keys = append(keys, d.key)
+		}
+	}
+	return strings.Join(keys, ", ")
+}
