@@ -5,7 +5,7 @@ import (
 	"io"
 	"strings"
 
-	"likewind/envelope"
+	"likewind/envelope/report"
 )
 
 // runCoverage prints the facilities × match classes table, the union
@@ -35,7 +35,7 @@ func runCoverage(args []string, stdout, stderr io.Writer) int {
 	if code >= 0 {
 		return code
 	}
-	r := envelope.NewCoverageReport(ev.e)
+	r := report.NewCoverage(ev.e)
 	err := o.write(stdout, func(w io.Writer) error {
 		switch f {
 		case "csv":

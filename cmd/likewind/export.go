@@ -12,6 +12,8 @@ import (
 	"time"
 
 	"likewind/envelope"
+	"likewind/envelope/fileout"
+	"likewind/envelope/report"
 	"likewind/tui"
 )
 
@@ -70,9 +72,9 @@ func runExport(args []string, stdout, stderr io.Writer) int {
 	}
 	write := func(w io.Writer) error {
 		if f == "json" {
-			return envelope.WriteJSON(w, envelope.ExportInfo{Tool: "likewind", Version: version, Generated: day}, maps)
+			return report.WriteExportJSON(w, report.ExportInfo{Tool: "likewind", Version: version, Generated: day}, maps)
 		}
-		return envelope.WriteCSV(w, maps)
+		return report.WriteExportCSV(w, maps)
 	}
 	if err := o.write(stdout, write); err != nil {
 		return fail(stderr, fmt.Errorf("export: %w", err))
@@ -160,14 +162,14 @@ func (o *outFlags) write(stdout io.Writer, write func(io.Writer) error) error {
 		}
 		return nil
 	}
-	return envelope.WriteAtomic(o.path, o.force, write)
+	return fileout.WriteAtomic(o.path, o.force, write)
 }
 
 // checkTarget reports (exit 1) an output file that exists without --force,
 // or that is a link, device, pipe or folder. The atomic write checks again
 // when it puts the file in place.
 func checkTarget(path string, force bool, stderr io.Writer) int {
-	if err := envelope.CheckOutputTarget(path, force); err != nil {
+	if err := fileout.CheckOutputTarget(path, force); err != nil {
 		return fail(stderr, err)
 	}
 	return -1

@@ -7,6 +7,8 @@ import (
 	"strings"
 
 	"likewind/envelope"
+	"likewind/envelope/fileout"
+	"likewind/envelope/report"
 )
 
 // runPlot writes the altitude–speed class map and the Reynolds–Mach chart
@@ -91,16 +93,16 @@ func runPlot(args []string, stdout, stderr io.Writer) int {
 	// Render everything first: a failure then leaves no file at all.
 	outs := make([][]byte, len(targets))
 	for k, t := range targets {
-		var ch *envelope.Chart
+		var ch *report.Chart
 		var err error
 		if t.chart == "map" {
-			ch, err = envelope.MapChart(ev.e, fac, *customary)
+			ch, err = report.MapChart(ev.e, fac, *customary)
 		} else {
 			var sel []int
 			if fac >= 0 {
 				sel = []int{fac}
 			}
-			ch, err = envelope.ReMachChart(ev.e, sel)
+			ch, err = report.ReMachChart(ev.e, sel)
 		}
 		if err == nil {
 			outs[k], err = ch.Render(format)
@@ -116,11 +118,11 @@ func runPlot(args []string, stdout, stderr io.Writer) int {
 		return 0
 	}
 	// Both pictures or neither.
-	set := make([]envelope.AtomicFile, len(targets))
+	set := make([]fileout.AtomicFile, len(targets))
 	for k, t := range targets {
-		set[k] = envelope.AtomicFile{Path: t.path, Data: outs[k]}
+		set[k] = fileout.AtomicFile{Path: t.path, Data: outs[k]}
 	}
-	if err := envelope.WriteFilesAtomic(set, o.force); err != nil {
+	if err := fileout.WriteFilesAtomic(set, o.force); err != nil {
 		return fail(stderr, fmt.Errorf("plot: %w", err))
 	}
 	for _, t := range targets {

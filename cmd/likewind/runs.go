@@ -11,6 +11,7 @@ import (
 
 	"likewind/atmos"
 	"likewind/envelope"
+	"likewind/envelope/report"
 	"likewind/tui"
 )
 
@@ -89,7 +90,7 @@ func runRuns(args []string, stdout, stderr io.Writer) int {
 type runPlan struct {
 	ev     *evaluated
 	marked bool // points are the session's marks, not the full matches
-	lists  []envelope.RunList
+	lists  []report.RunList
 	date   string
 }
 
@@ -103,9 +104,9 @@ func planAll(ev *evaluated, sel int) (*runPlan, error) {
 		}
 		pts := ev.marks
 		if !p.marked {
-			pts = envelope.DefaultRunPoints(m)
+			pts = report.DefaultRunPoints(m)
 		}
-		rl, err := envelope.PlanRuns(m, pts)
+		rl, err := report.PlanRuns(m, pts)
 		if err != nil {
 			return nil, err
 		}
@@ -115,11 +116,11 @@ func planAll(ev *evaluated, sel int) (*runPlan, error) {
 }
 
 // stepChanges says which settings move from run k-1 to run k.
-func stepChanges(runs []envelope.Run, k int, water bool) envelope.Changes {
+func stepChanges(runs []report.Run, k int, water bool) report.Changes {
 	if k == 0 {
-		return envelope.Changes{}
+		return report.Changes{}
 	}
-	return envelope.CountChanges(runs[k-1:k+1], water)
+	return report.CountChanges(runs[k-1:k+1], water)
 }
 
 func (p *runPlan) pointsWords() string {
@@ -138,7 +139,7 @@ func plural(n int, one, many string) string {
 }
 
 // runCount says how many runs (set points) cover how many flight points.
-func runCount(rl envelope.RunList) string {
+func runCount(rl report.RunList) string {
 	s := plural(rl.SetPoints, "run", "runs")
 	if len(rl.Runs) != rl.SetPoints {
 		s += " for " + plural(len(rl.Runs), "flight point", "flight points")
@@ -160,7 +161,7 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 	fmt.Fprintf(&b, "%-9s %s\n", "points", p.pointsWords())
 	fmt.Fprintf(&b, "%-9s grouped by T0, then p0, then Mach number ascending (water: temperature, static pressure, speed);\n"+
 		"%-9s a setting counts as changed when it moves by %g K, %g %% of p0, %g in Mach or %g m/s\n",
-		"order", "", envelope.RunT0Step, 100*envelope.RunP0Frac, envelope.RunMachStep, envelope.RunSpeedStep)
+		"order", "", report.RunT0Step, 100*report.RunP0Frac, report.RunMachStep, report.RunSpeedStep)
 	fmt.Fprintf(&b, "%-9s %s\n", "caution", tui.SafetyNote)
 	speedTitle, speedLabel := u.SpeedAxis(g.SpeedKind)
 	altU := u.AltUnit()
@@ -236,7 +237,7 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 				row = append(row, strconv.FormatFloat(r.ReRatio, 'f', 2, 64), q, r.Class.String(), changes)
 				rows = append(rows, row)
 			}
-			envelope.WriteTable(&b, head, rows, func(k int) bool { return k == 11 || k == 12 })
+			report.WriteTable(&b, head, rows, func(k int) bool { return k == 11 || k == 12 })
 		}
 		if len(rl.Unrunnable) > 0 {
 			fmt.Fprintf(&b, "not runnable (%s):\n", plural(len(rl.Unrunnable), "point", "points"))
@@ -255,7 +256,7 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 
 // changeWords names the settings that move before a run ("" for none,
 // "start" for the first).
-func changeWords(c envelope.Changes, water bool) string {
+func changeWords(c report.Changes, water bool) string {
 	var parts []string
 	names := [3]string{"T0", "p0", "Mach"}
 	if water {
@@ -276,33 +277,33 @@ func sig4(x float64) string { return strconv.FormatFloat(x, 'g', 4, 64) }
 // runRecord is one line of the CSV and one object of the JSON run list;
 // all SI. Settings that do not apply are null (JSON) or empty (CSV).
 type runRecord struct {
-	Facility         string       `json:"facility"`
-	Medium           string       `json:"medium"`
-	Run              int          `json:"run"` // set point, 1-based (shared by its flight points); 0 for a point that cannot be run
-	Row              int          `json:"row"`
-	Col              int          `json:"col"`
-	Altitude         envelope.Num `json:"altitude_m"`
-	GridSpeed        envelope.Num `json:"grid_speed"`
-	GridSpeedKind    string       `json:"grid_speed_kind"`
-	FlightMach       envelope.Num `json:"flight_mach"`
-	FlightTAS        envelope.Num `json:"flight_tas_m_s"`
-	FlightQ          envelope.Num `json:"flight_q_pa"`
-	FlightRe         envelope.Num `json:"flight_reynolds"`
-	Class            string       `json:"class"`
-	Limit            string       `json:"limit"`
-	Flags            string       `json:"flags"`
-	TestMach         envelope.Num `json:"test_mach"`
-	P0               envelope.Num `json:"p0_pa"`
-	T0               envelope.Num `json:"t0_k"`
-	WaterTemperature envelope.Num `json:"water_temperature_k"`
-	StaticPressure   envelope.Num `json:"static_pressure_pa"`
-	TestSpeed        envelope.Num `json:"test_speed_m_s"`
-	TestQ            envelope.Num `json:"test_q_pa"`
-	ModelRe          envelope.Num `json:"model_reynolds"`
-	ReRatio          envelope.Num `json:"reynolds_ratio"`
-	T0Change         bool         `json:"t0_change"`
-	P0Change         bool         `json:"p0_change"`
-	MachChange       bool         `json:"mach_change"`
+	Facility         string     `json:"facility"`
+	Medium           string     `json:"medium"`
+	Run              int        `json:"run"` // set point, 1-based (shared by its flight points); 0 for a point that cannot be run
+	Row              int        `json:"row"`
+	Col              int        `json:"col"`
+	Altitude         report.Num `json:"altitude_m"`
+	GridSpeed        report.Num `json:"grid_speed"`
+	GridSpeedKind    string     `json:"grid_speed_kind"`
+	FlightMach       report.Num `json:"flight_mach"`
+	FlightTAS        report.Num `json:"flight_tas_m_s"`
+	FlightQ          report.Num `json:"flight_q_pa"`
+	FlightRe         report.Num `json:"flight_reynolds"`
+	Class            string     `json:"class"`
+	Limit            string     `json:"limit"`
+	Flags            string     `json:"flags"`
+	TestMach         report.Num `json:"test_mach"`
+	P0               report.Num `json:"p0_pa"`
+	T0               report.Num `json:"t0_k"`
+	WaterTemperature report.Num `json:"water_temperature_k"`
+	StaticPressure   report.Num `json:"static_pressure_pa"`
+	TestSpeed        report.Num `json:"test_speed_m_s"`
+	TestQ            report.Num `json:"test_q_pa"`
+	ModelRe          report.Num `json:"model_reynolds"`
+	ReRatio          report.Num `json:"reynolds_ratio"`
+	T0Change         bool       `json:"t0_change"`
+	P0Change         bool       `json:"p0_change"`
+	MachChange       bool       `json:"mach_change"`
 }
 
 var runCSVHeader = []string{
@@ -323,16 +324,16 @@ func (rr runRecord) csv() []string {
 
 // records turns a run list into records: runs in order, then the points
 // that cannot be run.
-func (p *runPlan) records(rl envelope.RunList) (runs, unrunnable []runRecord) {
+func (p *runPlan) records(rl report.RunList) (runs, unrunnable []runRecord) {
 	g := p.ev.e.Grid
 	water := rl.Medium == envelope.MediumWater
-	nan := envelope.Num(math.NaN())
-	mk := func(r envelope.Run, n int) runRecord {
+	nan := report.Num(math.NaN())
+	mk := func(r report.Run, n int) runRecord {
 		rec := runRecord{
 			Facility: rl.Facility, Medium: rl.Medium.String(), Run: n, Row: r.Row, Col: r.Col,
-			Altitude: envelope.Num(r.Altitude), GridSpeed: envelope.Num(r.GridSpeed), GridSpeedKind: g.SpeedKind.String(),
-			FlightMach: envelope.Num(r.FlightMach), FlightTAS: envelope.Num(r.FlightTAS), FlightQ: envelope.Num(r.FlightQ),
-			FlightRe: envelope.Num(r.FlightRe), Class: r.Class.String(), Limit: r.Limit.String(), Flags: r.Flags.String(),
+			Altitude: report.Num(r.Altitude), GridSpeed: report.Num(r.GridSpeed), GridSpeedKind: g.SpeedKind.String(),
+			FlightMach: report.Num(r.FlightMach), FlightTAS: report.Num(r.FlightTAS), FlightQ: report.Num(r.FlightQ),
+			FlightRe: report.Num(r.FlightRe), Class: r.Class.String(), Limit: r.Limit.String(), Flags: r.Flags.String(),
 			TestMach: nan, P0: nan, T0: nan, WaterTemperature: nan, StaticPressure: nan,
 			TestSpeed: nan, TestQ: nan, ModelRe: nan, ReRatio: nan,
 		}
@@ -340,12 +341,12 @@ func (p *runPlan) records(rl envelope.RunList) (runs, unrunnable []runRecord) {
 			return rec
 		}
 		if water {
-			rec.WaterTemperature, rec.StaticPressure = envelope.Num(r.T0), envelope.Num(r.P0)
+			rec.WaterTemperature, rec.StaticPressure = report.Num(r.T0), report.Num(r.P0)
 		} else {
-			rec.TestMach, rec.P0, rec.T0 = envelope.Num(r.Mach), envelope.Num(r.P0), envelope.Num(r.T0)
+			rec.TestMach, rec.P0, rec.T0 = report.Num(r.Mach), report.Num(r.P0), report.Num(r.T0)
 		}
-		rec.TestSpeed, rec.TestQ = envelope.Num(r.Speed), envelope.Num(r.Q)
-		rec.ModelRe, rec.ReRatio = envelope.Num(r.Re), envelope.Num(r.ReRatio)
+		rec.TestSpeed, rec.TestQ = report.Num(r.Speed), report.Num(r.Q)
+		rec.ModelRe, rec.ReRatio = report.Num(r.Re), report.Num(r.ReRatio)
 		return rec
 	}
 	for k, r := range rl.Runs {
@@ -379,7 +380,7 @@ func (p *runPlan) writeCSV(w io.Writer) error {
 
 // runJSON is the JSON run list.
 type runJSON struct {
-	envelope.ExportInfo
+	report.ExportInfo
 	Caution    string            `json:"caution"`
 	Units      string            `json:"units"`
 	Vehicle    string            `json:"vehicle"`
@@ -388,13 +389,13 @@ type runJSON struct {
 }
 
 type runJSONFacility struct {
-	Facility   string       `json:"facility"`
-	Medium     string       `json:"medium"`
-	Scale      envelope.Num `json:"model_scale"`
-	SetPoints  int          `json:"set_points"` // runs; each record of "runs" is one flight point
-	Changes    runChanges   `json:"changes"`
-	Runs       []runRecord  `json:"runs"`
-	Unrunnable []runRecord  `json:"unrunnable"`
+	Facility   string      `json:"facility"`
+	Medium     string      `json:"medium"`
+	Scale      report.Num  `json:"model_scale"`
+	SetPoints  int         `json:"set_points"` // runs; each record of "runs" is one flight point
+	Changes    runChanges  `json:"changes"`
+	Runs       []runRecord `json:"runs"`
+	Unrunnable []runRecord `json:"unrunnable"`
 }
 
 type runChanges struct {
@@ -406,7 +407,7 @@ type runChanges struct {
 
 func (p *runPlan) writeJSON(w io.Writer) error {
 	doc := runJSON{
-		ExportInfo: envelope.ExportInfo{Tool: "likewind", Version: version, Generated: p.date},
+		ExportInfo: report.ExportInfo{Tool: "likewind", Version: version, Generated: p.date},
 		Caution:    envelope.PlanningNote, Units: "SI", Vehicle: envelope.CleanText(p.ev.e.Grid.Vehicle.Name),
 		Points: "matched", Facilities: []runJSONFacility{},
 	}
@@ -423,7 +424,7 @@ func (p *runPlan) writeJSON(w io.Writer) error {
 		}
 		c := rl.Changes
 		doc.Facilities = append(doc.Facilities, runJSONFacility{
-			Facility: rl.Facility, Medium: rl.Medium.String(), Scale: envelope.Num(rl.Scale), SetPoints: rl.SetPoints,
+			Facility: rl.Facility, Medium: rl.Medium.String(), Scale: report.Num(rl.Scale), SetPoints: rl.SetPoints,
 			Changes: runChanges{T0: c.T0, P0: c.P0, Mach: c.Mach, Moved: c.Moved}, Runs: runs, Unrunnable: un,
 		})
 	}

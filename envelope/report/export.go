@@ -1,4 +1,4 @@
-package envelope
+package report
 
 import (
 	"encoding/csv"
@@ -8,6 +8,8 @@ import (
 	"math"
 	"reflect"
 	"strconv"
+
+	"likewind/envelope"
 )
 
 // Num is a float64 that is written as null in JSON (and as an empty field
@@ -187,7 +189,7 @@ func (r *ExportRecord) csvRow(buf []string) []string {
 
 // NewExportRecord builds the record of inside point (i, j) of m from
 // Map.Detail (full precision).
-func NewExportRecord(m *Map, i, j int) (ExportRecord, error) {
+func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
 	d, err := m.Detail(i, j)
 	if err != nil {
 		return ExportRecord{}, fmt.Errorf("export %s point (%d, %d): %w", m.Facility.Name, i, j, err)
@@ -200,7 +202,7 @@ func NewExportRecord(m *Map, i, j int) (ExportRecord, error) {
 	st := fl.State
 	s := m.Settings
 	r := ExportRecord{
-		Facility: CleanText(m.Facility.Name),
+		Facility: envelope.CleanText(m.Facility.Name),
 		Medium:   m.Facility.Medium.String(),
 		Row:      i,
 		Col:      j,
@@ -259,7 +261,7 @@ func NewExportRecord(m *Map, i, j int) (ExportRecord, error) {
 	if !d.HasSettings {
 		return r, nil
 	}
-	water := d.Medium == MediumWater
+	water := d.Medium == envelope.MediumWater
 	if water {
 		r.WaterTemperature = Num(d.T0)
 		r.VapourPressure = Num(d.VapourPressure)
@@ -292,7 +294,7 @@ func NewExportRecord(m *Map, i, j int) (ExportRecord, error) {
 // EachRecord calls fn with the record of every inside point of every map,
 // map by map, rows from the lowest altitude up and columns from the
 // slowest. It stops at the first error.
-func EachRecord(maps []*Map, fn func(ExportRecord) error) error {
+func EachRecord(maps []*envelope.Map, fn func(ExportRecord) error) error {
 	for _, m := range maps {
 		g := m.Grid
 		for i := 0; i < g.Rows(); i++ {
@@ -313,9 +315,9 @@ func EachRecord(maps []*Map, fn func(ExportRecord) error) error {
 	return nil
 }
 
-// WriteCSV writes a header row of ExportColumns and one row per inside
+// WriteExportCSV writes a header row of ExportColumns and one row per inside
 // point per map.
-func WriteCSV(w io.Writer, maps []*Map) error {
+func WriteExportCSV(w io.Writer, maps []*envelope.Map) error {
 	cw := csv.NewWriter(w)
 	if err := cw.Write(ExportColumns()); err != nil {
 		return fmt.Errorf("csv: %w", err)
@@ -396,15 +398,15 @@ type ExportDoc struct {
 
 // NewExportHeader describes the maps (solved on one grid) for the JSON
 // export. Names and file names pass through CleanText.
-func NewExportHeader(info ExportInfo, maps []*Map) ExportHeader {
-	h := ExportHeader{ExportInfo: info, Caution: PlanningNote, Units: "SI", Facilities: []ExportFacility{}}
+func NewExportHeader(info ExportInfo, maps []*envelope.Map) ExportHeader {
+	h := ExportHeader{ExportInfo: info, Caution: envelope.PlanningNote, Units: "SI", Facilities: []ExportFacility{}}
 	if len(maps) == 0 {
 		return h
 	}
 	g := maps[0].Grid
 	v := g.Vehicle
 	h.Vehicle = ExportVehicle{
-		Name: CleanText(v.Name), Source: CleanText(v.Source), RefLength: Num(v.RefLength), RefLengthName: CleanText(v.RefLengthName),
+		Name: envelope.CleanText(v.Name), Source: envelope.CleanText(v.Source), RefLength: Num(v.RefLength), RefLengthName: envelope.CleanText(v.RefLengthName),
 		AltitudeKind: v.AltitudeKind.String(), GridSpeedKind: g.SpeedKind.String(),
 		Rows: g.Rows(), Cols: g.Cols(), InsidePoints: g.InsideCount(),
 	}
@@ -419,7 +421,7 @@ func NewExportHeader(info ExportInfo, maps []*Map) ExportHeader {
 	for _, m := range maps {
 		f := m.Facility
 		ef := ExportFacility{
-			Name: CleanText(f.Name), Class: CleanText(f.Class), Medium: f.Medium.String(), Source: CleanText(f.Source),
+			Name: envelope.CleanText(f.Name), Class: envelope.CleanText(f.Class), Medium: f.Medium.String(), Source: envelope.CleanText(f.Source),
 			Scale: Num(m.Scale), ScaleRule: m.ScaleRule, FitScale: na, FitRule: m.FitRule,
 			Records: m.Grid.InsideCount(),
 		}
@@ -431,10 +433,10 @@ func NewExportHeader(info ExportInfo, maps []*Map) ExportHeader {
 	return h
 }
 
-// WriteJSON writes one JSON object: the header fields of NewExportHeader
+// WriteExportJSON writes one JSON object: the header fields of NewExportHeader
 // and "records", an array with one object per inside point per map (one
 // per line, so large exports stream and diff well).
-func WriteJSON(w io.Writer, info ExportInfo, maps []*Map) error {
+func WriteExportJSON(w io.Writer, info ExportInfo, maps []*envelope.Map) error {
 	h := NewExportHeader(info, maps)
 	head, err := json.MarshalIndent(h, "", "  ")
 	if err != nil {
