@@ -172,7 +172,7 @@ func hostileOutputs(t *testing.T, name, file string) map[string]string {
 		t.Fatal(err)
 	}
 	must("runs text", p.writeText(&b, tui.SI))
-	must("runs csv", p.writeCSV(&b))
+	must("runs csv", p.WriteCSV(&b))
 	must("runs json", p.writeJSON(&b))
 	for what, mk := range map[string]func() (*report.Chart, error){
 		"map svg":     func() (*report.Chart, error) { return report.MapChart(e, 0, false) },

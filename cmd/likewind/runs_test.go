@@ -24,8 +24,8 @@ type outRunsDoc struct {
 		Scale      report.Num `json:"model_scale"`
 		SetPoints  int        `json:"set_points"`
 		Changes    struct{ T0, P0, Mach, Any int }
-		Runs       []runRecord
-		Unrunnable []runRecord
+		Runs       []report.RunRecord
+		Unrunnable []report.RunRecord
 	}
 }
 
@@ -43,7 +43,7 @@ func outRunsJSON(t *testing.T, args ...string) outRunsDoc {
 }
 
 // back rebuilds engine runs from records, to recount changes.
-func back(recs []runRecord) []report.Run {
+func back(recs []report.RunRecord) []report.Run {
 	var rs []report.Run
 	for _, r := range recs {
 		run := report.Run{Mach: float64(r.TestMach), P0: float64(r.P0), T0: float64(r.T0), Speed: float64(r.TestSpeed)}
@@ -183,7 +183,7 @@ func TestRunsMarkedFromSession(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if strings.Join(rows[0], ",") != strings.Join(runCSVHeader, ",") {
+	if strings.Join(rows[0], ",") != strings.Join(report.RunColumns(), ",") {
 		t.Errorf("CSV header = %v", rows[0])
 	}
 	if got, want := len(rows)-1, len(marks)*len(e.Solved()); got != want {

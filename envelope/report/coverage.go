@@ -1,7 +1,6 @@
 package report
 
 import (
-	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -22,6 +21,9 @@ type CoverageRow struct {
 	Scale     Num    `json:"model_scale"`
 	ScaleRule string `json:"scale_rule"`
 	FitScale  Num    `json:"fit_scale"` // largest scale the section takes, null when unknown
+	// Inside is the number of points inside the envelope (the report's
+	// Inside, repeated on each CSV row).
+	Inside int `json:"-" csv:"inside_points"`
 
 	Counts [envelope.NumClasses]int `json:"-"`
 	// Shares of inside points per class (0–1).
@@ -84,7 +86,8 @@ func NewCoverage(e *envelope.Evaluation) Coverage {
 	}
 	for k := range e.Facilities {
 		f := &e.Facilities[k]
-		row := CoverageRow{Facility: envelope.CleanText(f.Name), Medium: f.Medium.String(), Scale: na, FitScale: na, MinScale: na}
+		row := CoverageRow{Facility: envelope.CleanText(f.Name), Medium: f.Medium.String(), Scale: na, FitScale: na, MinScale: na,
+			Inside: r.Inside}
 		m := e.Maps[k]
 		if m == nil {
 			row.Error = "not evaluated"
@@ -110,7 +113,7 @@ func NewCoverage(e *envelope.Evaluation) Coverage {
 		}
 		r.Facilities = append(r.Facilities, row)
 	}
-	r.Best = CoverageRow{Facility: "best of all", Scale: na, FitScale: na, MinScale: na}
+	r.Best = CoverageRow{Facility: "best of all", Scale: na, FitScale: na, MinScale: na, Inside: r.Inside}
 	if solved := e.Solved(); len(solved) > 0 {
 		r.Best.setShares(envelope.BestShares(solved))
 		r.Union = envelope.UnionCoverage(solved)
@@ -276,50 +279,38 @@ func wrapWords(s string, width int) string {
 	return b.String()
 }
 
-// coverageCSVHeader are the CSV columns of the coverage report.
-var coverageCSVHeader = []string{
-	"facility", "medium", "error", "model_scale", "scale_rule", "fit_scale", "inside_points",
-	"full_match", "reynolds_short", "mach_relaxed", "out_of_reach", "matched",
-	"min_scale_full_match", "mach_matchable_points", "min_scale_covers_envelope", "min_scale_fits_section",
-	"scale_fits_section", "model_too_large_points",
-}
+// coverageCSV is the coverage report's CSV column table, derived once
+// from CoverageRow's tags (never changed after initialisation).
+var coverageCSV = newCSVTable[CoverageRow]()
+
+// bestBlank are the CSV columns left empty on the best-of-all row: they
+// count or judge one facility's points and model.
+var bestBlank = []string{"mach_matchable_points", "min_scale_covers_envelope", "min_scale_fits_section", "model_too_large_points"}
 
 // WriteCSV writes one row per facility and a last row "best of all" whose
 // matched column is the union coverage. Shares are fractions of the inside
 // points (0–1).
 func (r Coverage) WriteCSV(w io.Writer) error {
-	cw := csv.NewWriter(w)
-	f := func(x float64) string { return strconv.FormatFloat(x, 'g', -1, 64) }
-	rec := func(row CoverageRow) []string {
-		return []string{row.Facility, row.Medium, row.Error, row.Scale.String(), row.ScaleRule, row.FitScale.String(),
-			strconv.Itoa(r.Inside), f(row.FullMatch), f(row.ReShort), f(row.MachRelaxed), f(row.NoMatch), f(row.Matched),
-			row.MinScale.String(), strconv.Itoa(row.MachMatchable), strconv.FormatBool(row.MinScaleCoversAll),
-			strconv.FormatBool(row.MinScaleFits), optBool(row.ScaleFits), strconv.Itoa(row.TooLargePoints)}
-	}
-	if err := cw.Write(coverageCSVHeader); err != nil {
+	cw, err := newCSVWriter(w, coverageCSV)
+	if err != nil {
 		return err
 	}
-	for _, row := range r.Facilities {
-		if err := cw.Write(rec(row)); err != nil {
+	for k := range r.Facilities {
+		if err := cw.write(&r.Facilities[k], nil); err != nil {
 			return err
 		}
 	}
-	best := rec(r.Best)
-	best[11] = f(r.Union)
-	best[13], best[14], best[15], best[17] = "", "", "", ""
-	if err := cw.Write(best); err != nil {
+	best := r.Best
+	best.Matched = r.Union
+	err = cw.write(&best, func(cells []string) {
+		for _, name := range bestBlank {
+			cells[coverageCSV.column(name)] = ""
+		}
+	})
+	if err != nil {
 		return err
 	}
-	cw.Flush()
-	return cw.Error()
-}
-
-// optBool is a CSV cell for a yes/no that may be unknown (empty).
-func optBool(b *bool) string {
-	if b == nil {
-		return ""
-	}
-	return strconv.FormatBool(*b)
+	return cw.flush()
 }
 
 // WriteJSON writes the report as one indented JSON object.

@@ -1,12 +1,10 @@
 package report
 
 import (
-	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"io"
 	"math"
-	"reflect"
 	"strconv"
 
 	"likewind/envelope"
@@ -136,56 +134,13 @@ type ExportRecord struct {
 	Cavitation        Num `json:"cavitation_number"`
 }
 
-// exportCol is one CSV column: its name and the field it reads.
-type exportCol struct {
-	name  string
-	field int
-}
-
-// exportCols is the column table, derived once from ExportRecord's JSON
-// tags so that CSV columns and JSON keys cannot drift apart. It is never
-// changed after initialisation.
-var exportCols = func() []exportCol {
-	t := reflect.TypeFor[ExportRecord]()
-	cols := make([]exportCol, 0, t.NumField())
-	for k := 0; k < t.NumField(); k++ {
-		tag := t.Field(k).Tag.Get("json")
-		cols = append(cols, exportCol{name: tag, field: k})
-	}
-	return cols
-}()
+// exportCSV is the export's CSV column table, derived once from
+// ExportRecord's JSON tags (never changed after initialisation).
+var exportCSV = newCSVTable[ExportRecord]()
 
 // ExportColumns returns the CSV column names (and JSON record keys) in
 // order.
-func ExportColumns() []string {
-	out := make([]string, len(exportCols))
-	for k, c := range exportCols {
-		out[k] = c.name
-	}
-	return out
-}
-
-// csvRow formats r in column order.
-func (r *ExportRecord) csvRow(buf []string) []string {
-	v := reflect.ValueOf(r).Elem()
-	buf = buf[:0]
-	for _, c := range exportCols {
-		f := v.Field(c.field)
-		switch x := f.Interface().(type) {
-		case Num:
-			buf = append(buf, x.String())
-		case string:
-			buf = append(buf, x)
-		case int:
-			buf = append(buf, strconv.Itoa(x))
-		case bool:
-			buf = append(buf, strconv.FormatBool(x))
-		default:
-			buf = append(buf, fmt.Sprint(x))
-		}
-	}
-	return buf
-}
+func ExportColumns() []string { return exportCSV.header() }
 
 // NewExportRecord builds the record of inside point (i, j) of m from
 // Map.Detail (full precision).
@@ -318,20 +273,15 @@ func EachRecord(maps []*envelope.Map, fn func(ExportRecord) error) error {
 // WriteExportCSV writes a header row of ExportColumns and one row per inside
 // point per map.
 func WriteExportCSV(w io.Writer, maps []*envelope.Map) error {
-	cw := csv.NewWriter(w)
-	if err := cw.Write(ExportColumns()); err != nil {
-		return fmt.Errorf("csv: %w", err)
-	}
-	buf := make([]string, 0, len(exportCols))
-	err := EachRecord(maps, func(r ExportRecord) error {
-		buf = r.csvRow(buf)
-		return cw.Write(buf)
-	})
+	cw, err := newCSVWriter(w, exportCSV)
 	if err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
-	cw.Flush()
-	if err := cw.Error(); err != nil {
+	err = EachRecord(maps, func(r ExportRecord) error { return cw.write(&r, nil) })
+	if err != nil {
+		return fmt.Errorf("csv: %w", err)
+	}
+	if err := cw.flush(); err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
 	return nil

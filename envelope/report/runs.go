@@ -5,6 +5,7 @@ import (
 	"math"
 	"sort"
 
+	"likewind/atmos"
 	"likewind/envelope"
 )
 
@@ -77,6 +78,8 @@ type RunList struct {
 	Facility string
 	Medium   envelope.Medium
 	Scale    float64
+	// SpeedKind is the kind of the grid speed of the runs (Run.GridSpeed).
+	SpeedKind atmos.SpeedKind
 	// Runs are the flight points in facility order: grouped by T0
 	// (ascending), within that by p0 (ascending), then by Mach number
 	// ascending (water: by temperature, then speed), so that the slow
@@ -128,7 +131,8 @@ func DefaultRunPoints(m *envelope.Map) []envelope.GridPoint {
 // PlanRuns builds the run list of facility map m for the given points
 // (duplicates are dropped) and orders it with OrderRuns.
 func PlanRuns(m *envelope.Map, points []envelope.GridPoint) (RunList, error) {
-	rl := RunList{Facility: envelope.CleanText(m.Facility.Name), Medium: m.Facility.Medium, Scale: m.Scale}
+	rl := RunList{Facility: envelope.CleanText(m.Facility.Name), Medium: m.Facility.Medium, Scale: m.Scale,
+		SpeedKind: m.Grid.SpeedKind}
 	g := m.Grid
 	seen := map[envelope.GridPoint]bool{}
 	for _, p := range points {
