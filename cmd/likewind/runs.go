@@ -102,11 +102,10 @@ func runCount(rl report.RunList) string {
 	return s
 }
 
-// writeText writes the run lists as aligned tables.
+// writeText writes the run lists as aligned tables under a header.
 func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 	var b strings.Builder
-	e := p.ev.e
-	g := e.Grid
+	g := p.ev.e.Grid
 	fmt.Fprintf(&b, "likewind %s run list, %s\n", version, p.date)
 	src := "built-in demo data"
 	if len(p.ev.in.files) > 0 {
@@ -118,95 +117,128 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 		"%-9s a setting counts as changed when it moves by %g K, %g %% of p0, %g in Mach or %g m/s\n",
 		"order", "", report.RunT0Step, 100*report.RunP0Frac, report.RunMachStep, report.RunSpeedStep)
 	fmt.Fprintf(&b, "%-9s %s\n", "caution", tui.SafetyNote)
-	speedTitle, speedLabel := u.SpeedAxis(g.SpeedKind)
-	altU := u.AltUnit()
-	pU, qU, tU, vU := "kPa", "kPa", "K", "m/s"
-	if u == tui.Customary {
-		pU, qU, tU, vU = "psi", "psf", "°F", "ft/s"
-	}
-	pv := func(x float64) string { // stagnation or static pressure
-		if u == tui.Customary {
-			return sig4(x / atmos.PSI)
-		}
-		return sig4(x / 1000)
-	}
-	qv := func(x float64) string {
-		if u == tui.Customary {
-			return sig4(x / atmos.PSF)
-		}
-		return sig4(x / 1000)
-	}
-	tv := func(k float64) string {
-		if u == tui.Customary {
-			return strconv.FormatFloat(k*9/5-459.67, 'f', 1, 64)
-		}
-		return strconv.FormatFloat(k, 'f', 1, 64)
-	}
-	vv := func(x float64) string {
-		if u == tui.Customary {
-			return strconv.FormatFloat(x/atmos.Foot, 'f', 2, 64)
-		}
-		return strconv.FormatFloat(x, 'f', 2, 64)
-	}
+	t := newRunText(u, g.SpeedKind)
 	for _, rl := range p.Lists {
-		water := rl.Medium == envelope.MediumWater
-		fmt.Fprintf(&b, "\n%s (%s, model scale %.3g)\n", rl.Facility, rl.Medium, rl.Scale)
-		c := rl.Changes
-		if len(rl.Runs) == 0 {
-			b.WriteString("no points to run\n")
-		} else if water {
-			fmt.Fprintf(&b, "%s; set-point changes: water temperature %d, static pressure %d, speed %d; %d of %s change a setting\n",
-				runCount(rl), c.T0, c.P0, c.Mach, c.Moved, plural(c.Steps, "step", "steps"))
-		} else {
-			fmt.Fprintf(&b, "%s; set-point changes: T0 %d, p0 %d, Mach %d; %d of %s change a setting\n",
-				runCount(rl), c.T0, c.P0, c.Mach, c.Moved, plural(c.Steps, "step", "steps"))
-		}
-		if len(rl.Runs) > 0 {
-			head := []string{"run", "altitude " + altU, speedTitle, "flight Re", "flight q " + qU}
-			if water {
-				head = append(head, "water T "+tU, "static p "+pU, "speed "+vU)
-			} else {
-				head = append(head, "T0 "+tU, "p0 "+pU, "test Mach")
-			}
-			head = append(head, "model Re", "Re ratio", "q "+qU, "class", "changes")
-			var rows [][]string
-			for k, r := range rl.Runs {
-				// A further flight point of the same run leaves the run
-				// number and the settings blank.
-				again := k > 0 && rl.Runs[k-1].SetPoint == r.SetPoint
-				row := []string{strconv.Itoa(r.SetPoint), u.AltLabel(r.Altitude), speedLabel(r.GridSpeed),
-					sig3(r.FlightRe), qv(r.FlightQ)}
-				switch {
-				case again:
-					row[0] = ""
-					row = append(row, "", "", "", "")
-				case water:
-					row = append(row, tv(r.T0), pv(r.P0), vv(r.Speed), sig3(r.Re))
-				default:
-					row = append(row, tv(r.T0), pv(r.P0), strconv.FormatFloat(r.Mach, 'f', 3, 64), sig3(r.Re))
-				}
-				q, changes := qv(r.Q), changeWords(report.StepChanges(rl.Runs, k, water), water)
-				if again {
-					q, changes = "", "same run"
-				}
-				row = append(row, strconv.FormatFloat(r.ReRatio, 'f', 2, 64), q, r.Class.String(), changes)
-				rows = append(rows, row)
-			}
-			report.WriteTable(&b, head, rows, func(k int) bool { return k == 11 || k == 12 })
-		}
-		if len(rl.Unrunnable) > 0 {
-			fmt.Fprintf(&b, "not runnable (%s):\n", plural(len(rl.Unrunnable), "point", "points"))
-			for _, r := range rl.Unrunnable {
-				why := r.Class.String()
-				if r.Limit != envelope.LimitNone {
-					why += ", limit: " + r.Limit.String()
-				}
-				fmt.Fprintf(&b, "  %s, %s %s: %s\n", u.Alt(r.Altitude), speedTitle, speedLabel(r.GridSpeed), why)
-			}
-		}
+		t.writeList(&b, rl)
 	}
 	_, err := io.WriteString(w, b.String())
 	return err
+}
+
+// runText formats run lists in SI units (kPa, K, m/s) or customary ones
+// (psi for p0 and static pressure, psf for q, °F, ft/s).
+type runText struct {
+	u          tui.Units
+	speedTitle string
+	speedLabel func(float64) string
+	// unit labels of altitude, pressure, dynamic pressure, temperature
+	// and speed
+	altU, pU, qU, tU, vU string
+}
+
+func newRunText(u tui.Units, kind atmos.SpeedKind) runText {
+	t := runText{u: u, altU: u.AltUnit(), pU: "kPa", qU: "kPa", tU: "K", vU: "m/s"}
+	t.speedTitle, t.speedLabel = u.SpeedAxis(kind)
+	if u == tui.Customary {
+		t.pU, t.qU, t.tU, t.vU = "psi", "psf", "°F", "ft/s"
+	}
+	return t
+}
+
+func (t runText) customary() bool { return t.u == tui.Customary }
+
+// p is a stagnation or static pressure.
+func (t runText) p(x float64) string {
+	if t.customary() {
+		return sig4(x / atmos.PSI)
+	}
+	return sig4(x / 1000)
+}
+
+// q is a dynamic pressure.
+func (t runText) q(x float64) string {
+	if t.customary() {
+		return sig4(x / atmos.PSF)
+	}
+	return sig4(x / 1000)
+}
+
+func (t runText) temp(k float64) string {
+	if t.customary() {
+		return strconv.FormatFloat(k*9/5-459.67, 'f', 1, 64)
+	}
+	return strconv.FormatFloat(k, 'f', 1, 64)
+}
+
+func (t runText) speed(x float64) string {
+	if t.customary() {
+		return strconv.FormatFloat(x/atmos.Foot, 'f', 2, 64)
+	}
+	return strconv.FormatFloat(x, 'f', 2, 64)
+}
+
+// writeList writes one facility's list: the counts of runs and set-point
+// changes, the runs in order and the points it cannot run.
+func (t runText) writeList(b *strings.Builder, rl report.RunList) {
+	water := rl.Medium == envelope.MediumWater
+	fmt.Fprintf(b, "\n%s (%s, model scale %.3g)\n", rl.Facility, rl.Medium, rl.Scale)
+	c := rl.Changes
+	if len(rl.Runs) == 0 {
+		b.WriteString("no points to run\n")
+	} else if water {
+		fmt.Fprintf(b, "%s; set-point changes: water temperature %d, static pressure %d, speed %d; %d of %s change a setting\n",
+			runCount(rl), c.T0, c.P0, c.Mach, c.Moved, plural(c.Steps, "step", "steps"))
+	} else {
+		fmt.Fprintf(b, "%s; set-point changes: T0 %d, p0 %d, Mach %d; %d of %s change a setting\n",
+			runCount(rl), c.T0, c.P0, c.Mach, c.Moved, plural(c.Steps, "step", "steps"))
+	}
+	if len(rl.Runs) > 0 {
+		head := []string{"run", "altitude " + t.altU, t.speedTitle, "flight Re", "flight q " + t.qU}
+		if water {
+			head = append(head, "water T "+t.tU, "static p "+t.pU, "speed "+t.vU)
+		} else {
+			head = append(head, "T0 "+t.tU, "p0 "+t.pU, "test Mach")
+		}
+		head = append(head, "model Re", "Re ratio", "q "+t.qU, "class", "changes")
+		var rows [][]string
+		for k := range rl.Runs {
+			rows = append(rows, t.row(rl.Runs, k, water))
+		}
+		report.WriteTable(b, head, rows, func(k int) bool { return k == 11 || k == 12 })
+	}
+	if len(rl.Unrunnable) > 0 {
+		fmt.Fprintf(b, "not runnable (%s):\n", plural(len(rl.Unrunnable), "point", "points"))
+		for _, r := range rl.Unrunnable {
+			why := r.Class.String()
+			if r.Limit != envelope.LimitNone {
+				why += ", limit: " + r.Limit.String()
+			}
+			fmt.Fprintf(b, "  %s, %s %s: %s\n", t.u.Alt(r.Altitude), t.speedTitle, t.speedLabel(r.GridSpeed), why)
+		}
+	}
+}
+
+// row is the table row of run k. A further flight point of the same run
+// leaves the run number and the settings blank.
+func (t runText) row(runs []report.Run, k int, water bool) []string {
+	r := runs[k]
+	again := k > 0 && runs[k-1].SetPoint == r.SetPoint
+	row := []string{strconv.Itoa(r.SetPoint), t.u.AltLabel(r.Altitude), t.speedLabel(r.GridSpeed),
+		sig3(r.FlightRe), t.q(r.FlightQ)}
+	switch {
+	case again:
+		row[0] = ""
+		row = append(row, "", "", "", "")
+	case water:
+		row = append(row, t.temp(r.T0), t.p(r.P0), t.speed(r.Speed), sig3(r.Re))
+	default:
+		row = append(row, t.temp(r.T0), t.p(r.P0), strconv.FormatFloat(r.Mach, 'f', 3, 64), sig3(r.Re))
+	}
+	q, changes := t.q(r.Q), changeWords(report.StepChanges(runs, k, water), water)
+	if again {
+		q, changes = "", "same run"
+	}
+	return append(row, strconv.FormatFloat(r.ReRatio, 'f', 2, 64), q, r.Class.String(), changes)
 }
 
 // changeWords names the settings that move before a run ("" for none,
