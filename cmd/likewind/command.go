@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 	"time"
@@ -132,23 +133,14 @@ func (c *command) checkFormat() error {
 	c.format = strings.ToLower(raw)
 	if c.format == "" && c.spec.formatFromExt {
 		c.format = fm[0]
-		if ext := strings.ToLower(strings.TrimPrefix(filepath.Ext(c.out.path), ".")); ext != "" && contains(fm, ext) {
+		if ext := strings.ToLower(strings.TrimPrefix(filepath.Ext(c.out.path), ".")); ext != "" && slices.Contains(fm, ext) {
 			c.format = ext
 		}
 	}
-	if !contains(fm, c.format) {
+	if !slices.Contains(fm, c.format) {
 		return c.usagef("--format %q: want %s", raw, orList(fm))
 	}
 	return nil
-}
-
-func contains(list []string, s string) bool {
-	for _, x := range list {
-		if x == s {
-			return true
-		}
-	}
-	return false
 }
 
 // orList is "a or b", "a, b or c".
