@@ -460,6 +460,10 @@ func (g *Grid) Rows() int { return len(g.Alts) }
 // Cols is the number of speeds.
 func (g *Grid) Cols() int { return len(g.Speeds) }
 
+// GridPoint names a grid point by row (altitude, 0 the lowest) and column
+// (speed, 0 the slowest).
+type GridPoint struct{ Row, Col int }
+
 // Index is the position of point (i, j) in per-point slices such as
 // Map.Results: i*Cols()+j.
 func (g *Grid) Index(i, j int) int { return i*len(g.Speeds) + j }

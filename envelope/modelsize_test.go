@@ -1,8 +1,6 @@
 package envelope
 
 import (
-	"bytes"
-	"encoding/csv"
 	"slices"
 	"strings"
 	"testing"
@@ -137,68 +135,5 @@ func TestModelTooLargeFlag(t *testing.T) {
 	}
 	if FlagModelTooLarge.String() != "model too large for the section" {
 		t.Errorf("flag name %q", FlagModelTooLarge.String())
-	}
-}
-
-// The flag reaches the export's flags column.
-func TestModelTooLargeInExport(t *testing.T) {
-	for _, scale := range []float64{0, 0.5} {
-		e, k := sizeCase(t, func(s *Settings, _ []Facility, _ int) { s.Scale = scale })
-		var b bytes.Buffer
-		if err := WriteCSV(&b, []*Map{e.Maps[k]}); err != nil {
-			t.Fatal(err)
-		}
-		rows, err := csv.NewReader(&b).ReadAll()
-		if err != nil {
-			t.Fatal(err)
-		}
-		col := slices.Index(rows[0], "flags")
-		n := 0
-		for _, r := range rows[1:] {
-			if strings.Contains(r[col], "model too large for the section") {
-				n++
-			}
-		}
-		want := 0
-		if scale > 0 {
-			want = len(rows) - 1
-		}
-		if n != want || len(rows) < 2 {
-			t.Errorf("scale %g: %d of %d export records flag the model too large, want %d", scale, n, len(rows)-1, want)
-		}
-	}
-}
-
-// Coverage says whether the scale in force fits, in text, CSV and the row.
-func TestModelTooLargeInCoverage(t *testing.T) {
-	e, k := sizeCase(t, func(s *Settings, _ []Facility, _ int) { s.Scale = 0.5 })
-	r := NewCoverageReport(e)
-	row := r.Facilities[k]
-	if row.ScaleFits == nil || *row.ScaleFits || row.TooLargePoints != r.Inside {
-		t.Errorf("coverage row: fits %v, %d too-large points of %d; want false and all", row.ScaleFits, row.TooLargePoints, r.Inside)
-	}
-	var text, c bytes.Buffer
-	if err := r.WriteText(&text); err != nil {
-		t.Fatal(err)
-	}
-	if !strings.Contains(text.String(), row.Facility+": model too large for the section: scale 0.5") || !strings.Contains(text.String(), "0.5!") {
-		t.Errorf("coverage text does not say the model is too large:\n%s", text.String())
-	}
-	if err := r.WriteCSV(&c); err != nil {
-		t.Fatal(err)
-	}
-	rows, err := csv.NewReader(&c).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
-	col := slices.Index(rows[0], "scale_fits_section")
-	if col < 0 || rows[k+1][col] != "false" {
-		t.Errorf("coverage CSV scale_fits_section for %s = %v", row.Facility, rows[k+1])
-	}
-
-	e, k = sizeCase(t, func(*Settings, []Facility, int) {})
-	row = NewCoverageReport(e).Facilities[k]
-	if row.ScaleFits == nil || !*row.ScaleFits || row.TooLargePoints != 0 {
-		t.Errorf("files' scale 1/40: fits %v, %d too-large points; want true, 0", row.ScaleFits, row.TooLargePoints)
 	}
 }

@@ -158,24 +158,34 @@ func scaleOneSolver(g *Grid, f *Facility, s Settings) (solver, bool) {
 // cannot be Mach-matched at any scale, or no point can; the scale returned
 // then still covers the points that can (0 when none can).
 func MinScaleEnvelope(g *Grid, f *Facility, s Settings) (float64, bool) {
-	most, n := minScaleSurvey(g, f, s)
-	return most, n > 0 && n == g.InsideCount()
+	ms := SurveyMinScale(g, f, s)
+	return ms.Scale, ms.Points > 0 && ms.Points == g.InsideCount()
 }
 
-// minScaleSurvey is the largest MinScaleFullMatch over the inside points
-// of g and the number of points that have one, with one solver and the
-// scale-1 Reynolds number computed once per flight Mach number.
-func minScaleSurvey(g *Grid, f *Facility, s Settings) (most float64, n int) {
+// MinScaleSurvey is what SurveyMinScale finds for one facility: the
+// largest MinScaleFullMatch over the inside points (Scale, 0 when none has
+// one) and the number of inside points that have one (Points: those the
+// facility can run at flight Mach number).
+type MinScaleSurvey struct {
+	Scale  float64
+	Points int
+}
+
+// SurveyMinScale surveys the inside points of g for facility f, with one
+// solver and the scale-1 Reynolds number computed once per flight Mach
+// number.
+func SurveyMinScale(g *Grid, f *Facility, s Settings) MinScaleSurvey {
+	var ms MinScaleSurvey
 	sv, ok := scaleOneSolver(g, f, s)
 	if !ok {
-		return 0, 0
+		return ms
 	}
 	memo := map[float64]float64{}
 	for k := range g.points {
 		if sc, ok := sv.minScale(&g.points[k], memo); ok {
-			most = math.Max(most, sc)
-			n++
+			ms.Scale = math.Max(ms.Scale, sc)
+			ms.Points++
 		}
 	}
-	return most, n
+	return ms
 }

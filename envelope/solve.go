@@ -228,3 +228,25 @@ func (m *Map) ReynoldsRange(mach float64) (lo, hi float64, ok bool) {
 	}
 	return m.sv.reynoldsRange(mach)
 }
+
+// ReRange is the span of model Reynolds numbers a facility reaches at one
+// test Mach number with its model: from the lowest setting (P0Min at
+// T0Max) to the highest (ReMax of Detail), within every limit. Lo is 0
+// when the facility sets no lower p0 limit.
+type ReRange struct {
+	Mach   float64
+	Lo, Hi float64
+}
+
+// ReachableRe samples the Reynolds range of the map's facility at the
+// map's model scale: for a gas facility at samples (at least 2) test Mach
+// numbers evenly over its Mach range, leaving out those where no setting
+// exists (ReynoldsRange at each); for a water tunnel the band it spans, at
+// flight Mach 0 and at the compressibility threshold, where it matches
+// with Mach relaxed.
+func (m *Map) ReachableRe(samples int) []ReRange {
+	if m.sv == nil {
+		return nil
+	}
+	return m.sv.reachableRe(max(samples, 2))
+}

@@ -39,7 +39,7 @@ type solver interface {
 	// Mach number mach (see Map.ReynoldsRange).
 	reynoldsRange(mach float64) (lo, hi float64, ok bool)
 	// reachableRe is the facility's region of the Reynolds–Mach chart,
-	// sampled at about samples Mach numbers (see ReachableRe).
+	// sampled at about samples Mach numbers (see Map.ReachableRe).
 	reachableRe(samples int) []ReRange
 	// minScale is the smallest model scale that makes flight record r a
 	// full match (see MinScaleFullMatch); memo, when not nil, keeps what

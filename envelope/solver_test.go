@@ -114,3 +114,51 @@ func TestWithinTol(t *testing.T) {
 		}
 	}
 }
+
+// TestReachableReAgreesWithDetail checks the Reynolds–Mach region of each
+// gas facility against its solver: at a full-match point the achieved
+// model Reynolds number lies inside the range at its test Mach number, and
+// Map.ReachableRe gives a range at the sampled Mach numbers.
+func TestReachableReAgreesWithDetail(t *testing.T) {
+	_, maps := outDemoMaps(t)
+	const tol = 1e-6 // relative, interpolation-free: the range is recomputed at the test Mach number
+	checked := 0
+	for _, m := range maps {
+		if m.Facility.Medium == MediumWater {
+			continue
+		}
+		g := m.Grid
+		for i := 0; i < g.Rows(); i++ {
+			for j := 0; j < g.Cols(); j++ {
+				if m.At(i, j).Class != FullMatch {
+					continue
+				}
+				d, err := m.Detail(i, j)
+				if err != nil {
+					t.Fatal(err)
+				}
+				sv := m.sv.(*gasSolver)
+				c := sv.bounds(d.Mach)
+				top, ok := sv.best(&c)
+				hi := top.re
+				lo := sv.reAt(&c, sv.lim.P0Min, sv.lim.T0Max)
+				if !ok || d.Re > hi*(1+tol) || d.Re < lo*(1-tol) {
+					t.Errorf("%s (%d,%d): Re %g outside drawn range %g–%g at Mach %g", m.Facility.Name, i, j, d.Re, lo, hi, d.Mach)
+				}
+				checked++
+			}
+		}
+		if rr := m.ReachableRe(50); len(rr) == 0 {
+			t.Errorf("%s: no reachable range although it has full matches", m.Facility.Name)
+		} else {
+			for _, r := range rr {
+				if !(r.Lo >= 0 && r.Hi >= r.Lo && r.Hi > 0) {
+					t.Errorf("%s: range %+v, want 0 <= lo <= hi, hi > 0", m.Facility.Name, r)
+				}
+			}
+		}
+	}
+	if checked == 0 {
+		t.Fatal("no full-match gas points in the demo")
+	}
+}

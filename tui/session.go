@@ -276,7 +276,7 @@ func encodeSession(s Session) ([]byte, error) {
 	return append(data, '\n'), nil
 }
 
-// SaveSession writes s to path atomically with envelope.WriteFilePrivate
+// SaveSession writes s to path atomically with fileout.WriteFilePrivate
 // (a synced temporary file in the same folder, mode 0600, renamed over path),
 // so a crash never leaves a half-written session. It replaces
 // whatever is at path: the interface saves through a SessionFile instead,

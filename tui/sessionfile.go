@@ -11,7 +11,7 @@ import (
 	"strings"
 	"sync"
 
-	"likewind/envelope"
+	"likewind/envelope/fileout"
 )
 
 // ErrSessionInUse is wrapped by (*SessionFile).Save when another likewind
@@ -477,5 +477,5 @@ func expandHome(p string) string {
 // writeSession writes a session file atomically and makes it 0600 (it may
 // hold the marks of unreleased test plans).
 func writeSession(path string, data []byte, overwrite bool) error {
-	return envelope.WriteFilePrivate(path, data, overwrite)
+	return fileout.WriteFilePrivate(path, data, overwrite)
 }

@@ -12,6 +12,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope"
+	"likewind/envelope/fileout"
 )
 
 // maxDumpTries is how many numbered names the write key tries when a
@@ -106,7 +107,7 @@ func WriteDumpFile(dir string, in DumpInput, t time.Time) (string, error) {
 		if n > 1 {
 			path = fmt.Sprintf("%s-%d.txt", base, n)
 		}
-		err := envelope.WriteFileAtomic(path, []byte(text), false)
+		err := fileout.WriteFileAtomic(path, []byte(text), false)
 		if errors.Is(err, fs.ErrExist) {
 			continue
 		}

@@ -7,12 +7,12 @@ import (
 	"strings"
 	"testing"
 
-	"likewind/envelope"
+	"likewind/envelope/report"
 )
 
 func TestCoverageCommand(t *testing.T) {
 	e := outDemoEval(t)
-	want := envelope.NewCoverageReport(e)
+	want := report.NewCoverage(e)
 
 	code, out, errs := outCmd("coverage")
 	if code != 0 {
@@ -49,7 +49,7 @@ func TestCoverageCommand(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("coverage json exit %d: %s", code, errs)
 	}
-	var got envelope.CoverageReport
+	var got report.Coverage
 	if err := json.Unmarshal([]byte(out), &got); err != nil {
 		t.Fatalf("JSON read back: %v", err)
 	}

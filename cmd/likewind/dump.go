@@ -12,112 +12,92 @@ import (
 	"likewind/tui"
 )
 
+var dumpCommand = commandSpec{
+	name:      "dump",
+	usage:     "likewind dump [VEHICLE.toml FACILITIES.toml...] [-o FILE] [--force] [--facility NAME] [--layer NAME] [--plain|--color] [--customary] [--session FILE]",
+	facility:  `facility to show: name, unique part of a name, number, or "best" (default: the one the interface opens on, with the most full matches)`,
+	customary: "altitude in ft and airspeeds in kt",
+	session:   "apply this session file: what-if values, marks, facility, layer and units",
+	date:      "date written into the header, YYYY-MM-DD (default today)",
+}
+
 // runDump writes the envelope matrix of one facility and layer as text,
 // drawn by the interface's own matrix and legend renderer, under a header
 // that says what it shows.
 func runDump(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("dump", stderr)
-	var o outFlags
-	o.register(fs)
-	facility := fs.String("facility", "", `facility to show: name, unique part of a name, number, or "best" (default: the one the interface opens on, with the most full matches)`)
-	layer := fs.String("layer", "", "layer: class, regime, reynolds, q or mach (default class)")
-	plain := fs.Bool("plain", false, "no colour, even on a terminal")
-	color := fs.Bool("color", false, "ANSI colour, even into a file or pipe")
-	customary := fs.Bool("customary", false, "altitude in ft and airspeeds in kt")
-	session := fs.String("session", "", "apply this session file: what-if values, marks, facility, layer and units")
-	date := fs.String("date", "", "date written into the header, YYYY-MM-DD (default today)")
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: likewind dump [VEHICLE.toml FACILITIES.toml...] [-o FILE] [--force] [--facility NAME] [--layer NAME] [--plain|--color] [--customary] [--session FILE]")
-		fs.PrintDefaults()
-	}
-	files, code := parseArgs(fs, args, stderr)
-	if code >= 0 {
-		return code
-	}
-	if *plain && *color {
-		return usageFail(stderr, fmt.Errorf("dump: --plain and --color exclude each other"))
-	}
-	set := flagsSet(fs)
-	var lay tui.Layer
-	if set["layer"] {
-		l, err := parseLayer(*layer)
+	c := newCommand(dumpCommand, stdout, stderr)
+	layer := c.fs.String("layer", "", "layer: class, regime, reynolds, q or mach (default class)")
+	plain := c.fs.Bool("plain", false, "no colour, even on a terminal")
+	color := c.fs.Bool("color", false, "ANSI colour, even into a file or pipe")
+	return c.run(args, func() error {
+		if *plain && *color {
+			return c.usagef("--plain and --color exclude each other")
+		}
+		set := flagsSet(c.fs)
+		var lay tui.Layer
+		if set["layer"] {
+			l, err := parseLayer(*layer)
+			if err != nil {
+				return c.usagef("%w", err)
+			}
+			lay = l
+		}
+		if err := c.load(); err != nil {
+			return err
+		}
+		ev := c.ev
+		units := c.units()
+		// Without a choice, the facility the interface opens on.
+		fac := tui.StartFacility(ev.e.Maps)
+		if s := ev.session; s != nil {
+			// The session's choices, unless a flag overrides them.
+			if !set["layer"] && s.Layer != "" {
+				if l, err := tui.ParseLayer(s.Layer); err == nil {
+					lay = l
+				}
+			}
+			if !set["customary"] {
+				if u, err := tui.ParseUnits(s.Units); err == nil {
+					units = u
+				}
+			}
+			if !set["facility"] {
+				if s.BestOfAll {
+					fac = -1
+				} else if k := ev.e.Facility(s.Facility); k >= 0 {
+					fac = k
+				}
+			}
+		}
+		fac, err := c.pickFacility(set["facility"], fac, true)
 		if err != nil {
-			return usageFail(stderr, fmt.Errorf("dump: %w", err))
+			return err
 		}
-		lay = l
-	}
-	day, err := reportDate(*date)
-	if err != nil {
-		return usageFail(stderr, fmt.Errorf("dump: %w", err))
-	}
-	if code := o.precheck(stderr); code >= 0 {
-		return code
-	}
-	ev, code := evaluateInputs(files, *session, stderr)
-	if code >= 0 {
-		return code
-	}
-	units := tui.SI
-	if *customary {
-		units = tui.Customary
-	}
-	// Without a choice, the facility the interface opens on.
-	fac := tui.StartFacility(ev.e.Maps)
-	if s := ev.session; s != nil {
-		// The session's choices, unless a flag overrides them.
-		if !set["layer"] && s.Layer != "" {
-			if l, err := tui.ParseLayer(s.Layer); err == nil {
-				lay = l
-			}
-		}
-		if !set["customary"] {
-			if u, err := tui.ParseUnits(s.Units); err == nil {
-				units = u
-			}
-		}
-		if !set["facility"] {
-			if s.BestOfAll {
-				fac = -1
-			} else if k := ev.e.Facility(s.Facility); k >= 0 {
-				fac = k
-			}
-		}
-	}
-	if set["facility"] {
-		k, err := pickFacility(ev.e, *facility, true)
+		text, err := renderDump(ev, dumpView{fac: fac, layer: lay, units: units, date: c.day}, c.dumpStyles(*plain, *color))
 		if err != nil {
-			return usageFail(stderr, fmt.Errorf("dump: %w", err))
+			return c.errorf("%w", err)
 		}
-		fac = k
-	}
-	if fac >= 0 && ev.e.Maps[fac] == nil {
-		return fail(stderr, fmt.Errorf("dump: %s could not be evaluated: %w", ev.e.Facilities[fac].Name, ev.e.Errs[fac]))
-	}
+		return c.write(func(w io.Writer) error {
+			_, err := io.WriteString(w, text)
+			return err
+		})
+	})
+}
 
-	var st tui.Styles
+// dumpStyles are plain with --plain or into a file, ANSI colour with
+// --color, otherwise as standard output's terminal takes them.
+func (c *command) dumpStyles(plain, color bool) tui.Styles {
 	switch {
-	case *plain:
-		st = tui.PlainStyles()
-	case *color:
+	case plain:
+		return tui.PlainStyles()
+	case color:
 		r := lipgloss.NewRenderer(io.Discard)
 		r.SetColorProfile(termenv.TrueColor)
-		st = tui.NewStyles(r)
-	case !o.stdout():
-		st = tui.PlainStyles()
-	default:
-		st = tui.NewStyles(lipgloss.NewRenderer(stdout))
+		return tui.NewStyles(r)
+	case !c.out.stdout():
+		return tui.PlainStyles()
 	}
-	text, err := renderDump(ev, dumpView{fac: fac, layer: lay, units: units, date: day}, st)
-	if err != nil {
-		return fail(stderr, fmt.Errorf("dump: %w", err))
-	}
-	if err := o.write(stdout, func(w io.Writer) error {
-		_, err := io.WriteString(w, text)
-		return err
-	}); err != nil {
-		return fail(stderr, fmt.Errorf("dump: %w", err))
-	}
-	return 0
+	return tui.NewStyles(lipgloss.NewRenderer(c.stdout))
 }
 
 // flagsSet reports which flags were given on the command line.

@@ -10,7 +10,7 @@ import (
 	"strings"
 	"testing"
 
-	"likewind/envelope"
+	"likewind/envelope/report"
 )
 
 // outRel is the relative tolerance for numbers read back from the
@@ -76,7 +76,7 @@ func TestExportJSONFile(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var doc envelope.ExportDoc
+	var doc report.ExportDoc
 	if err := json.Unmarshal(b, &doc); err != nil {
 		t.Fatalf("JSON read back: %v", err)
 	}

@@ -13,6 +13,7 @@ import (
 	"unicode/utf8"
 
 	"likewind/envelope"
+	"likewind/envelope/report"
 	"likewind/tui"
 )
 
@@ -160,9 +161,9 @@ func hostileOutputs(t *testing.T, name, file string) map[string]string {
 		out[what] = b.String()
 		b.Reset()
 	}
-	must("export csv", envelope.WriteCSV(&b, e.Solved()))
-	must("export json", envelope.WriteJSON(&b, envelope.ExportInfo{Tool: "likewind"}, e.Solved()))
-	r := envelope.NewCoverageReport(e)
+	must("export csv", report.WriteExportCSV(&b, e.Solved()))
+	must("export json", report.WriteExportJSON(&b, report.ExportInfo{Tool: "likewind"}, e.Solved()))
+	r := report.NewCoverage(e)
 	must("coverage text", r.WriteText(&b))
 	must("coverage csv", r.WriteCSV(&b))
 	must("coverage json", r.WriteJSON(&b))
@@ -171,11 +172,11 @@ func hostileOutputs(t *testing.T, name, file string) map[string]string {
 		t.Fatal(err)
 	}
 	must("runs text", p.writeText(&b, tui.SI))
-	must("runs csv", p.writeCSV(&b))
+	must("runs csv", p.WriteCSV(&b))
 	must("runs json", p.writeJSON(&b))
-	for what, mk := range map[string]func() (*envelope.Chart, error){
-		"map svg":     func() (*envelope.Chart, error) { return envelope.MapChart(e, 0, false) },
-		"re-mach svg": func() (*envelope.Chart, error) { return envelope.ReMachChart(e, nil) },
+	for what, mk := range map[string]func() (*report.Chart, error){
+		"map svg":     func() (*report.Chart, error) { return report.MapChart(e, 0, false) },
+		"re-mach svg": func() (*report.Chart, error) { return report.ReMachChart(e, nil) },
 	} {
 		ch, err := mk()
 		if err != nil {
@@ -297,7 +298,7 @@ func TestHostileNamesShownEscaped(t *testing.T) {
 			t.Errorf("%s: %d lines with the hostile name, %d with a plain one", what, got, want)
 		}
 	}
-	var doc envelope.ExportDoc
+	var doc report.ExportDoc
 	if err := json.Unmarshal([]byte(out["export json"]), &doc); err != nil {
 		t.Fatal(err)
 	}

@@ -7,132 +7,142 @@ import (
 	"strings"
 
 	"likewind/envelope"
+	"likewind/envelope/fileout"
+	"likewind/envelope/report"
 )
+
+var plotCommand = commandSpec{
+	name:      "plot",
+	usage:     "likewind plot [VEHICLE.toml FACILITIES.toml...] -o FILE.png|FILE.svg|- [--format png|svg] [--chart map|re-mach|both] [--facility NAME] [--customary] [--force] [--session FILE]",
+	format:    "png or svg (default: from the -o extension; needed with -o -)",
+	facility:  `facility: name, unique part of a name, or number (default: map of the best of all, Reynolds–Mach chart of every facility)`,
+	customary: "map axes in ft and kt",
+	session:   sessionWhatIf,
+}
 
 // runPlot writes the altitude–speed class map and the Reynolds–Mach chart
 // as PNG or SVG pictures.
 func runPlot(args []string, stdout, stderr io.Writer) int {
-	fs := newFlags("plot", stderr)
-	var o outFlags
-	o.register(fs)
-	chart := fs.String("chart", "both", "map, re-mach, or both (both writes FILE-map.EXT and FILE-remach.EXT)")
-	pictureFormat := fs.String("format", "", "png or svg (default: from the -o extension; needed with -o -)")
-	facility := fs.String("facility", "", `facility: name, unique part of a name, or number (default: map of the best of all, Reynolds–Mach chart of every facility)`)
-	customary := fs.Bool("customary", false, "map axes in ft and kt")
-	session := fs.String("session", "", "apply the what-if values of this session file")
-	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: likewind plot [VEHICLE.toml FACILITIES.toml...] -o FILE.png|FILE.svg|- [--format png|svg] [--chart map|re-mach|both] [--facility NAME] [--customary] [--force] [--session FILE]")
-		fs.PrintDefaults()
+	c := newCommand(plotCommand, stdout, stderr)
+	chart := c.fs.String("chart", "both", "map, re-mach, or both (both writes FILE-map.EXT and FILE-remach.EXT)")
+	return c.run(args, func() error {
+		format, err := c.pictureFormat()
+		if err != nil {
+			return err
+		}
+		targets, err := c.plotTargets(*chart)
+		if err != nil {
+			return err
+		}
+		for _, t := range targets {
+			c.targets = append(c.targets, t.path)
+		}
+		if err := c.load(); err != nil {
+			return err
+		}
+		fac, err := c.pickFacility(c.facility != "", -1, true)
+		if err != nil {
+			return err
+		}
+		if len(c.ev.e.Solved()) == 0 {
+			return c.errorf("no facility could be evaluated")
+		}
+		// Render everything first: a failure then leaves no file at all.
+		set := make([]fileout.AtomicFile, len(targets))
+		for k, t := range targets {
+			b, err := renderChart(c.ev.e, t.chart, fac, c.customary, format)
+			if err != nil {
+				return c.errorf("%w", err)
+			}
+			set[k] = fileout.AtomicFile{Path: t.path, Data: b}
+		}
+		if c.out.path == "-" {
+			if _, err := c.stdout.Write(set[0].Data); err != nil {
+				return c.errorf("standard output: %w", err)
+			}
+			return nil
+		}
+		// Both pictures or neither.
+		if err := fileout.WriteFilesAtomic(set, c.out.force); err != nil {
+			return c.errorf("%w", err)
+		}
+		for _, t := range targets {
+			if _, err := fmt.Fprintln(c.stdout, "wrote", envelope.CleanText(t.path)); err != nil {
+				return c.errorf("the pictures are written, but standard output failed: %w", err)
+			}
+		}
+		return nil
+	})
+}
+
+// pictureFormat is png or svg, from --format or the -o name, which the
+// plot command needs.
+func (c *command) pictureFormat() (string, error) {
+	path := c.out.path
+	if path == "" {
+		return "", c.usagef("give the picture file with -o FILE.png or -o FILE.svg (or -o - --format png|svg for standard output)")
 	}
-	files, code := parseArgs(fs, args, stderr)
-	if code >= 0 {
-		return code
-	}
-	if o.path == "" {
-		return usageFail(stderr, fmt.Errorf("plot: give the picture file with -o FILE.png or -o FILE.svg (or -o - --format png|svg for standard output)"))
-	}
-	toStdout := o.path == "-"
-	ext := strings.ToLower(filepath.Ext(o.path))
-	format := strings.ToLower(*pictureFormat)
+	toStdout := path == "-"
+	ext := strings.ToLower(filepath.Ext(path))
+	format := strings.ToLower(c.format)
 	switch {
 	case format != "" && format != "png" && format != "svg":
-		return usageFail(stderr, fmt.Errorf("plot: --format %q: want png or svg", *pictureFormat))
+		return "", c.usagef("--format %q: want png or svg", c.format)
 	case toStdout && format == "":
-		return usageFail(stderr, fmt.Errorf("plot: -o - (standard output) needs --format png or --format svg"))
+		return "", c.usagef("-o - (standard output) needs --format png or --format svg")
 	case !toStdout && ext != ".png" && ext != ".svg":
-		return usageFail(stderr, fmt.Errorf("plot: -o %s: the name must end in .png or .svg", o.path))
+		return "", c.usagef("-o %s: the name must end in .png or .svg", path)
 	case !toStdout && format != "" && "."+format != ext:
-		return usageFail(stderr, fmt.Errorf("plot: --format %s does not match the name -o %s", format, o.path))
+		return "", c.usagef("--format %s does not match the name -o %s", format, path)
 	case format == "":
 		format = strings.TrimPrefix(ext, ".")
 	}
-	var targets []plotTarget
-	base := strings.TrimSuffix(o.path, filepath.Ext(o.path))
-	switch strings.ToLower(*chart) {
-	case "map":
-		targets = []plotTarget{{"map", o.path}}
-	case "re-mach", "remach":
-		targets = []plotTarget{{"re-mach", o.path}}
-	case "both":
-		if toStdout {
-			return usageFail(stderr, fmt.Errorf("plot: -o - takes one picture: give --chart map or --chart re-mach"))
-		}
-		targets = []plotTarget{{"map", base + "-map" + ext}, {"re-mach", base + "-remach" + ext}}
-	default:
-		return usageFail(stderr, fmt.Errorf("plot: --chart %q: want map, re-mach or both", *chart))
-	}
-	// Refuse before any work, so nothing is half done.
-	for _, t := range targets {
-		if t.path == "-" {
-			continue
-		}
-		if code := checkTarget(t.path, o.force, stderr); code >= 0 {
-			return code
-		}
-	}
-	ev, code := evaluateInputs(files, *session, stderr)
-	if code >= 0 {
-		return code
-	}
-	fac := -1
-	if *facility != "" {
-		k, err := pickFacility(ev.e, *facility, true)
-		if err != nil {
-			return usageFail(stderr, fmt.Errorf("plot: %w", err))
-		}
-		fac = k
-	}
-	if fac >= 0 && ev.e.Maps[fac] == nil {
-		return fail(stderr, fmt.Errorf("plot: %s could not be evaluated: %w", ev.e.Facilities[fac].Name, ev.e.Errs[fac]))
-	}
-	if len(ev.e.Solved()) == 0 {
-		return fail(stderr, fmt.Errorf("plot: no facility could be evaluated"))
-	}
-	// Render everything first: a failure then leaves no file at all.
-	outs := make([][]byte, len(targets))
-	for k, t := range targets {
-		var ch *envelope.Chart
-		var err error
-		if t.chart == "map" {
-			ch, err = envelope.MapChart(ev.e, fac, *customary)
-		} else {
-			var sel []int
-			if fac >= 0 {
-				sel = []int{fac}
-			}
-			ch, err = envelope.ReMachChart(ev.e, sel)
-		}
-		if err == nil {
-			outs[k], err = ch.Render(format)
-		}
-		if err != nil {
-			return fail(stderr, fmt.Errorf("plot: %w", err))
-		}
-	}
-	if toStdout {
-		if _, err := stdout.Write(outs[0]); err != nil {
-			return fail(stderr, fmt.Errorf("plot: standard output: %w", err))
-		}
-		return 0
-	}
-	// Both pictures or neither.
-	set := make([]envelope.AtomicFile, len(targets))
-	for k, t := range targets {
-		set[k] = envelope.AtomicFile{Path: t.path, Data: outs[k]}
-	}
-	if err := envelope.WriteFilesAtomic(set, o.force); err != nil {
-		return fail(stderr, fmt.Errorf("plot: %w", err))
-	}
-	for _, t := range targets {
-		if _, err := fmt.Fprintln(stdout, "wrote", envelope.CleanText(t.path)); err != nil {
-			return fail(stderr, fmt.Errorf("plot: the pictures are written, but standard output failed: %w", err))
-		}
-	}
-	return 0
+	return format, nil
 }
 
 // plotTarget is one picture to write.
 type plotTarget struct {
 	chart string // "map" or "re-mach"
 	path  string
+}
+
+// plotTargets are the pictures --chart asks for: one at -o FILE, or with
+// both FILE-map.EXT and FILE-remach.EXT.
+func (c *command) plotTargets(chart string) ([]plotTarget, error) {
+	path := c.out.path
+	ext := strings.ToLower(filepath.Ext(path))
+	base := strings.TrimSuffix(path, filepath.Ext(path))
+	switch strings.ToLower(chart) {
+	case "map":
+		return []plotTarget{{"map", path}}, nil
+	case "re-mach", "remach":
+		return []plotTarget{{"re-mach", path}}, nil
+	case "both":
+		if path == "-" {
+			return nil, c.usagef("-o - takes one picture: give --chart map or --chart re-mach")
+		}
+		return []plotTarget{{"map", base + "-map" + ext}, {"re-mach", base + "-remach" + ext}}, nil
+	}
+	return nil, c.usagef("--chart %q: want map, re-mach or both", chart)
+}
+
+// renderChart draws one chart of e as png or svg: the class map of
+// facility fac (-1 the best of all), or the Reynolds–Mach chart of fac
+// (-1 every facility).
+func renderChart(e *envelope.Evaluation, chart string, fac int, customary bool, format string) ([]byte, error) {
+	var ch *report.Chart
+	var err error
+	if chart == "map" {
+		ch, err = report.MapChart(e, fac, customary)
+	} else {
+		var sel []int
+		if fac >= 0 {
+			sel = []int{fac}
+		}
+		ch, err = report.ReMachChart(e, sel)
+	}
+	if err != nil {
+		return nil, err
+	}
+	return ch.Render(format)
 }

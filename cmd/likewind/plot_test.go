@@ -10,7 +10,7 @@ import (
 	"strings"
 	"testing"
 
-	"likewind/envelope"
+	"likewind/envelope/report"
 )
 
 func TestPlotBothPNG(t *testing.T) {
@@ -32,8 +32,8 @@ func TestPlotBothPNG(t *testing.T) {
 		if err != nil {
 			t.Fatalf("%s: %v", name, err)
 		}
-		want := int(envelope.ChartWidth.Dots(envelope.ChartDPI) + 0.5)
-		if img.Bounds().Dx() != want || img.Bounds().Dy() <= int(envelope.ChartHeight.Dots(envelope.ChartDPI)) {
+		want := int(report.ChartWidth.Dots(report.ChartDPI) + 0.5)
+		if img.Bounds().Dx() != want || img.Bounds().Dy() <= int(report.ChartHeight.Dots(report.ChartDPI)) {
 			t.Errorf("%s is %v, want %d px wide and taller than the plot area", name, img.Bounds().Size(), want)
 		}
 	}

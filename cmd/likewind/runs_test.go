@@ -11,6 +11,7 @@ import (
 	"testing"
 
 	"likewind/envelope"
+	"likewind/envelope/report"
 	"likewind/tui"
 )
 
@@ -20,11 +21,11 @@ type outRunsDoc struct {
 	Facilities                                                []struct {
 		Facility   string
 		Medium     string
-		Scale      envelope.Num `json:"model_scale"`
-		SetPoints  int          `json:"set_points"`
+		Scale      report.Num `json:"model_scale"`
+		SetPoints  int        `json:"set_points"`
 		Changes    struct{ T0, P0, Mach, Any int }
-		Runs       []runRecord
-		Unrunnable []runRecord
+		Runs       []report.RunRecord
+		Unrunnable []report.RunRecord
 	}
 }
 
@@ -42,10 +43,10 @@ func outRunsJSON(t *testing.T, args ...string) outRunsDoc {
 }
 
 // back rebuilds engine runs from records, to recount changes.
-func back(recs []runRecord) []envelope.Run {
-	var rs []envelope.Run
+func back(recs []report.RunRecord) []report.Run {
+	var rs []report.Run
 	for _, r := range recs {
-		run := envelope.Run{Mach: float64(r.TestMach), P0: float64(r.P0), T0: float64(r.T0), Speed: float64(r.TestSpeed)}
+		run := report.Run{Mach: float64(r.TestMach), P0: float64(r.P0), T0: float64(r.T0), Speed: float64(r.TestSpeed)}
 		if r.Medium == "water" {
 			run.Mach, run.P0, run.T0 = 0, float64(r.StaticPressure), float64(r.WaterTemperature)
 		}
@@ -67,13 +68,13 @@ func TestRunsMatched(t *testing.T) {
 	for _, f := range doc.Facilities {
 		k := e.Facility(f.Facility)
 		m := e.Maps[k]
-		want := envelope.DefaultRunPoints(m)
+		want := report.DefaultRunPoints(m)
 		if len(f.Runs) != len(want) || len(f.Unrunnable) != 0 {
 			t.Errorf("%s: %d runs, %d unrunnable; want %d and 0", f.Facility, len(f.Runs), len(f.Unrunnable), len(want))
 		}
 		total += len(f.Runs)
 		water := f.Medium == "water"
-		c := envelope.CountChanges(back(f.Runs), water)
+		c := report.CountChanges(back(f.Runs), water)
 		if c.T0 != f.Changes.T0 || c.P0 != f.Changes.P0 || c.Mach != f.Changes.Mach || c.Moved != f.Changes.Any {
 			t.Errorf("%s: changes %+v, recounted %+v", f.Facility, f.Changes, c)
 		}
@@ -85,7 +86,7 @@ func TestRunsMatched(t *testing.T) {
 				t.Fatalf("%s: first run numbered %d", f.Facility, r.Run)
 			case n > 0 && r.Run == f.Runs[n-1].Run:
 				p := f.Runs[n-1]
-				same := func(a, b envelope.Num) bool { return a == b || (!a.Valid() && !b.Valid()) }
+				same := func(a, b report.Num) bool { return a == b || (!a.Valid() && !b.Valid()) }
 				if !same(r.T0, p.T0) || !same(r.P0, p.P0) || !same(r.TestMach, p.TestMach) || !same(r.TestSpeed, p.TestSpeed) ||
 					!same(r.WaterTemperature, p.WaterTemperature) || r.T0Change || r.P0Change || r.MachChange {
 					t.Errorf("%s: flight points %d and %d of run %d differ in settings: %+v, %+v", f.Facility, n, n+1, r.Run, p, r)
@@ -113,7 +114,7 @@ func TestRunsMatched(t *testing.T) {
 					prev = float64(f.Runs[n-1].WaterTemperature)
 				}
 			}
-			if moved := n > 0 && math.Abs(t0-prev) >= envelope.RunT0Step; moved != r.T0Change {
+			if moved := n > 0 && math.Abs(t0-prev) >= report.RunT0Step; moved != r.T0Change {
 				t.Errorf("%s run %d: T0 %g after %g, change flag %v", f.Facility, r.Run, t0, prev, r.T0Change)
 			}
 		}
@@ -182,7 +183,7 @@ func TestRunsMarkedFromSession(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if strings.Join(rows[0], ",") != strings.Join(runCSVHeader, ",") {
+	if strings.Join(rows[0], ",") != strings.Join(report.RunColumns(), ",") {
 		t.Errorf("CSV header = %v", rows[0])
 	}
 	if got, want := len(rows)-1, len(marks)*len(e.Solved()); got != want {
@@ -248,7 +249,7 @@ func TestRunsMergeAndPlurals(t *testing.T) {
 	e := outDemoEval(t)
 	k := e.Facility("Harl Cove T2 pressurized transonic tunnel")
 	var mark [2]int
-	for _, p := range envelope.DefaultRunPoints(e.Maps[k]) {
+	for _, p := range report.DefaultRunPoints(e.Maps[k]) {
 		mark = [2]int{p.Row, p.Col}
 		break
 	}

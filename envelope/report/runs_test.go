@@ -1,17 +1,19 @@
-package envelope
+package report
 
 import (
 	"fmt"
 	"strings"
 	"testing"
+
+	"likewind/envelope"
 )
 
 // outRun builds a hand-made gas run.
 func outRun(row int, t0, p0, mach float64) Run {
-	return Run{GridPoint: GridPoint{Row: row}, T0: t0, P0: p0, Mach: mach, HasSettings: true, Class: FullMatch}
+	return Run{GridPoint: envelope.GridPoint{Row: row}, T0: t0, P0: p0, Mach: mach, HasSettings: true, Class: envelope.FullMatch}
 }
 
-func runNames(runs []Run, names map[GridPoint]string) string {
+func runNames(runs []Run, names map[envelope.GridPoint]string) string {
 	var b []string
 	for _, r := range runs {
 		b = append(b, names[r.GridPoint])
@@ -35,7 +37,7 @@ func TestOrderRunsGas(t *testing.T) {
 		{"E", 250, 2e5, 0.4},
 		{"F", 310, 1e5, 0.9},
 	}
-	names := map[GridPoint]string{}
+	names := map[envelope.GridPoint]string{}
 	var runs []Run
 	for k, r := range in {
 		run := outRun(k, r.t0, r.p0, r.mach)
@@ -63,7 +65,7 @@ func TestOrderRunsWater(t *testing.T) {
 	// Water: group by temperature, then static pressure, then speed
 	// ascending.
 	mk := func(row int, temp, speed float64) Run {
-		return Run{GridPoint: GridPoint{Row: row}, T0: temp, P0: 2e5, Speed: speed, HasSettings: true}
+		return Run{GridPoint: envelope.GridPoint{Row: row}, T0: temp, P0: 2e5, Speed: speed, HasSettings: true}
 	}
 	runs := []Run{mk(0, 308, 6), mk(1, 290, 9), mk(2, 308, 2), mk(3, 290, 3), mk(4, 308.5, 4)}
 	got := OrderRuns(runs, true)
@@ -102,14 +104,14 @@ func TestPlanRunsDemo(t *testing.T) {
 		}
 		tested++
 		// Add a duplicate and an outside point.
-		extra := append([]GridPoint{}, pts...)
+		extra := append([]envelope.GridPoint{}, pts...)
 		extra = append(extra, pts[0])
-		var outside GridPoint
+		var outside envelope.GridPoint
 		found := false
 		for i := 0; i < g.Rows() && !found; i++ {
 			for j := 0; j < g.Cols() && !found; j++ {
 				if !g.Inside(i, j) {
-					outside, found = GridPoint{i, j}, true
+					outside, found = envelope.GridPoint{Row: i, Col: j}, true
 				}
 			}
 		}
@@ -124,7 +126,7 @@ func TestPlanRunsDemo(t *testing.T) {
 		if len(rl.Unrunnable) != 1 || rl.Unrunnable[0].GridPoint != outside {
 			t.Errorf("%s: unrunnable = %+v, want the outside point %v", m.Facility.Name, rl.Unrunnable, outside)
 		}
-		water := m.Facility.Medium == MediumWater
+		water := m.Facility.Medium == envelope.MediumWater
 		if c := CountChanges(rl.Runs, water); c != rl.Changes {
 			t.Errorf("%s: Changes = %+v, CountChanges = %+v", m.Facility.Name, rl.Changes, c)
 		}
@@ -133,7 +135,7 @@ func TestPlanRunsDemo(t *testing.T) {
 		}
 		for k, r := range rl.Runs {
 			d, _ := m.Detail(r.Row, r.Col)
-			if r.T0 != d.T0 || r.P0 != d.P0 || r.Re != d.Re || r.Class != FullMatch {
+			if r.T0 != d.T0 || r.P0 != d.P0 || r.Re != d.Re || r.Class != envelope.FullMatch {
 				t.Fatalf("%s run %d = %+v, want the settings of Detail (T0 %g, p0 %g, Re %g)", m.Facility.Name, k, r, d.T0, d.P0, d.Re)
 			}
 			// T0 never falls back by a whole step along the list.
@@ -151,7 +153,7 @@ func TestPlanRunsDemo(t *testing.T) {
 	if tested == 0 {
 		t.Fatal("no demo facility has full-match points")
 	}
-	if _, err := PlanRuns(maps[0], []GridPoint{{Row: g.Rows(), Col: 0}}); err == nil {
+	if _, err := PlanRuns(maps[0], []envelope.GridPoint{{Row: g.Rows(), Col: 0}}); err == nil {
 		t.Error("PlanRuns(off-grid point) = nil error, want an error")
 	}
 }
@@ -168,57 +170,28 @@ func sortGridOrder(rs []Run) {
 	}
 }
 
-// outSecondDemoMaps solves every demo facility on the second demo vehicle
-// (Halcyra HA-1, low Mach numbers, many Mach-relaxed matches).
-func outSecondDemoMaps(t testing.TB) (*Grid, []*Map) {
-	t.Helper()
-	vs, err := DemoVehicles()
-	if err != nil || len(vs) < 2 {
-		t.Fatalf("DemoVehicles() = %d vehicles, %v", len(vs), err)
-	}
-	_, facs, err := Demo()
-	if err != nil {
-		t.Fatal(err)
-	}
-	v := vs[1]
-	s := DefaultSettings(v)
-	g, err := NewGrid(v, s)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var maps []*Map
-	for k := range facs {
-		m, err := Solve(g, &facs[k], s)
-		if err != nil {
-			t.Fatal(err)
-		}
-		maps = append(maps, m)
-	}
-	return g, maps
-}
-
 // TestDefaultRunPoints: without marks a run list holds every matched
 // point, Mach-relaxed ones included, for gas tunnels as for water.
 func TestDefaultRunPoints(t *testing.T) {
 	for _, demo := range []struct {
-		maps        func(testing.TB) (*Grid, []*Map)
+		maps        func(testing.TB) (*envelope.Grid, []*envelope.Map)
 		wantRelaxed bool // the demo has Mach-relaxed gas points
 	}{{outDemoMaps, false}, {outSecondDemoMaps, true}} {
 		g, maps := demo.maps(t)
 		relaxedGas := 0
 		for _, m := range maps {
-			got := map[GridPoint]bool{}
+			got := map[envelope.GridPoint]bool{}
 			for _, p := range DefaultRunPoints(m) {
 				got[p] = true
 			}
 			for i := 0; i < g.Rows(); i++ {
 				for j := 0; j < g.Cols(); j++ {
 					c := m.At(i, j).Class
-					if got[GridPoint{i, j}] != c.Matched() {
+					if got[envelope.GridPoint{Row: i, Col: j}] != c.Matched() {
 						t.Fatalf("%s: point (%d, %d) of class %v in the default run list: %v, want %v",
-							m.Facility.Name, i, j, c, got[GridPoint{i, j}], c.Matched())
+							m.Facility.Name, i, j, c, got[envelope.GridPoint{Row: i, Col: j}], c.Matched())
 					}
-					if c == MachRelaxed && m.Facility.Medium.IsGas() {
+					if c == envelope.MachRelaxed && m.Facility.Medium.IsGas() {
 						relaxedGas++
 					}
 				}
@@ -310,10 +283,10 @@ func TestPlanRunsMergesDemo(t *testing.T) {
 
 func ExampleOrderRuns() {
 	runs := []Run{
-		{GridPoint: GridPoint{Row: 0}, T0: 300, P0: 2e5, Mach: 0.8},
-		{GridPoint: GridPoint{Row: 1}, T0: 250, P0: 2e5, Mach: 0.7},
-		{GridPoint: GridPoint{Row: 2}, T0: 300, P0: 2e5, Mach: 0.5},
-		{GridPoint: GridPoint{Row: 3}, T0: 250, P0: 2e5, Mach: 0.4},
+		{GridPoint: envelope.GridPoint{Row: 0}, T0: 300, P0: 2e5, Mach: 0.8},
+		{GridPoint: envelope.GridPoint{Row: 1}, T0: 250, P0: 2e5, Mach: 0.7},
+		{GridPoint: envelope.GridPoint{Row: 2}, T0: 300, P0: 2e5, Mach: 0.5},
+		{GridPoint: envelope.GridPoint{Row: 3}, T0: 250, P0: 2e5, Mach: 0.4},
 	}
 	c := OrderRuns(runs, false)
 	for _, r := range runs {

@@ -1,67 +1,15 @@
-package envelope
+package report
 
 import (
-	"encoding/csv"
 	"encoding/json"
-	"errors"
 	"fmt"
 	"io"
 	"strconv"
 	"strings"
 	"unicode/utf8"
+
+	"likewind/envelope"
 )
-
-// Evaluation is a vehicle's grid with every facility solved on it. A
-// facility that cannot be solved (no model scale, say) has a nil map and
-// its error; the others stay usable.
-type Evaluation struct {
-	Grid       *Grid
-	Facilities []Facility
-	Settings   Settings
-	Maps       []*Map  // per facility, nil when Errs has the reason
-	Errs       []error // per facility
-}
-
-// Evaluate builds the grid of v and solves every facility on it.
-func Evaluate(v *Vehicle, facs []Facility, s Settings) (*Evaluation, error) {
-	g, err := NewGrid(v, s)
-	if err != nil {
-		return nil, err
-	}
-	e := &Evaluation{Grid: g, Facilities: facs, Settings: s,
-		Maps: make([]*Map, len(facs)), Errs: make([]error, len(facs))}
-	for k := range facs {
-		e.Maps[k], e.Errs[k] = Solve(g, &facs[k], s)
-	}
-	return e, nil
-}
-
-// Solved returns the maps that exist, in facility order.
-func (e *Evaluation) Solved() []*Map {
-	var out []*Map
-	for _, m := range e.Maps {
-		if m != nil {
-			out = append(out, m)
-		}
-	}
-	return out
-}
-
-// Err joins the errors of the facilities that could not be solved (nil
-// when every facility was).
-func (e *Evaluation) Err() error { return errors.Join(e.Errs...) }
-
-// Facility returns the index of the facility named name (case-insensitive,
-// surrounding space ignored), or -1.
-func (e *Evaluation) Facility(name string) int {
-	name = strings.TrimSpace(name)
-	for k, f := range e.Facilities {
-		if strings.EqualFold(f.Name, name) {
-			return k
-		}
-	}
-	return -1
-}
 
 // CoverageRow is one facility's line of the coverage report.
 type CoverageRow struct {
@@ -73,8 +21,11 @@ type CoverageRow struct {
 	Scale     Num    `json:"model_scale"`
 	ScaleRule string `json:"scale_rule"`
 	FitScale  Num    `json:"fit_scale"` // largest scale the section takes, null when unknown
+	// Inside is the number of points inside the envelope (the report's
+	// Inside, repeated on each CSV row).
+	Inside int `json:"-" csv:"inside_points"`
 
-	Counts [NumClasses]int `json:"-"`
+	Counts [envelope.NumClasses]int `json:"-"`
 	// Shares of inside points per class (0–1).
 	FullMatch   float64 `json:"full_match"`
 	ReShort     float64 `json:"reynolds_short"`
@@ -102,9 +53,9 @@ type CoverageRow struct {
 	TooLargePoints int   `json:"model_too_large_points"`
 }
 
-// CoverageReport is the facilities × match classes table of a vehicle's
+// Coverage is the facilities × match classes table of a vehicle's
 // envelope, the best-of-all shares and the union coverage.
-type CoverageReport struct {
+type Coverage struct {
 	Vehicle    string         `json:"vehicle"`
 	GridRows   int            `json:"grid_rows"`
 	GridCols   int            `json:"grid_cols"`
@@ -118,16 +69,16 @@ type CoverageReport struct {
 	SolvedCount int `json:"solved_facilities"`
 }
 
-// NewCoverageReport summarises an evaluation. Names pass through
+// NewCoverage summarises an evaluation. Names pass through
 // CleanText.
-func NewCoverageReport(e *Evaluation) CoverageReport {
+func NewCoverage(e *envelope.Evaluation) Coverage {
 	g := e.Grid
 	s := e.Settings
-	r := CoverageReport{
-		Vehicle: CleanText(g.Vehicle.Name), GridRows: g.Rows(), GridCols: g.Cols(), Inside: g.InsideCount(),
+	r := Coverage{
+		Vehicle: envelope.CleanText(g.Vehicle.Name), GridRows: g.Rows(), GridCols: g.Cols(), Inside: g.InsideCount(),
 		Settings: ExportSettings{ScaleOverride: na, DeltaT: Num(s.DeltaT), MachTol: Num(s.MachTol),
 			ReTol: Num(s.ReTol), CompressibilityMach: Num(s.CompressibilityMach)},
-		Caution:    PlanningNote,
+		Caution:    envelope.PlanningNote,
 		Facilities: []CoverageRow{},
 	}
 	if s.Scale > 0 {
@@ -135,12 +86,13 @@ func NewCoverageReport(e *Evaluation) CoverageReport {
 	}
 	for k := range e.Facilities {
 		f := &e.Facilities[k]
-		row := CoverageRow{Facility: CleanText(f.Name), Medium: f.Medium.String(), Scale: na, FitScale: na, MinScale: na}
+		row := CoverageRow{Facility: envelope.CleanText(f.Name), Medium: f.Medium.String(), Scale: na, FitScale: na, MinScale: na,
+			Inside: r.Inside}
 		m := e.Maps[k]
 		if m == nil {
 			row.Error = "not evaluated"
 			if e.Errs[k] != nil {
-				row.Error = CleanText(e.Errs[k].Error())
+				row.Error = envelope.CleanText(e.Errs[k].Error())
 			}
 			r.Facilities = append(r.Facilities, row)
 			continue
@@ -152,31 +104,33 @@ func NewCoverageReport(e *Evaluation) CoverageReport {
 		}
 		row.setShares(m.Shares())
 		row.setFit(m)
-		most, n := minScaleSurvey(g, f, s)
-		row.MachMatchable = n
-		if n > 0 {
-			row.MinScale = Num(most)
-			row.MinScaleCoversAll = n == g.InsideCount()
-			row.MinScaleFits = m.Fits(most)
+		ms := envelope.SurveyMinScale(g, f, s)
+		row.MachMatchable = ms.Points
+		if ms.Points > 0 {
+			row.MinScale = Num(ms.Scale)
+			row.MinScaleCoversAll = ms.Points == g.InsideCount()
+			row.MinScaleFits = m.Fits(ms.Scale)
 		}
 		r.Facilities = append(r.Facilities, row)
 	}
-	r.Best = CoverageRow{Facility: "best of all", Scale: na, FitScale: na, MinScale: na}
+	r.Best = CoverageRow{Facility: "best of all", Scale: na, FitScale: na, MinScale: na, Inside: r.Inside}
 	if solved := e.Solved(); len(solved) > 0 {
-		r.Best.setShares(BestShares(solved))
-		r.Union = UnionCoverage(solved)
+		r.Best.setShares(envelope.BestShares(solved))
+		r.Union = envelope.UnionCoverage(solved)
 	}
 	return r
 }
 
 // setFit records whether the map's model fits the section: the inside
-// points flagged too large, and whether there are none.
-func (row *CoverageRow) setFit(m *Map) {
-	if m.fit.low <= 0 && m.fit.high <= 0 {
+// points flagged too large, and whether there are none. Nothing is known
+// without a fit scale (no span or frontal area, or no section size):
+// FitScale is then 0 at every test Mach number.
+func (row *CoverageRow) setFit(m *envelope.Map) {
+	if m.FitScale <= 0 {
 		return
 	}
 	for k := range m.Results {
-		if c := m.Results[k].Class; c != Outside && m.Results[k].Flags.Has(FlagModelTooLarge) {
+		if c := m.Results[k].Class; c != envelope.Outside && m.Results[k].Flags.Has(envelope.FlagModelTooLarge) {
 			row.TooLargePoints++
 		}
 	}
@@ -184,12 +138,12 @@ func (row *CoverageRow) setFit(m *Map) {
 	row.ScaleFits = &fits
 }
 
-func (row *CoverageRow) setShares(sh Shares) {
+func (row *CoverageRow) setShares(sh envelope.Shares) {
 	row.Counts = sh.Count
-	row.FullMatch = sh.Share(FullMatch)
-	row.ReShort = sh.Share(ReShort)
-	row.MachRelaxed = sh.Share(MachRelaxed)
-	row.NoMatch = sh.Share(NoMatch)
+	row.FullMatch = sh.Share(envelope.FullMatch)
+	row.ReShort = sh.Share(envelope.ReShort)
+	row.MachRelaxed = sh.Share(envelope.MachRelaxed)
+	row.NoMatch = sh.Share(envelope.NoMatch)
 	row.Matched = sh.Matched()
 }
 
@@ -206,7 +160,7 @@ func g3(x Num) string {
 
 // WriteText writes the report as an aligned table for a terminal or a
 // review document.
-func (r CoverageReport) WriteText(w io.Writer) error {
+func (r Coverage) WriteText(w io.Writer) error {
 	var b strings.Builder
 	fmt.Fprintf(&b, "Coverage of %s: %d×%d grid, %d points inside the envelope\n", r.Vehicle, r.GridRows, r.GridCols, r.Inside)
 	st := r.Settings
@@ -217,8 +171,8 @@ func (r CoverageReport) WriteText(w io.Writer) error {
 	fmt.Fprintf(&b, "Match: Mach within %s, Reynolds number within %s, Mach relaxed below Mach %s; ΔT %s K; model scale %s\n\n",
 		st.MachTol.String(), pct(float64(st.ReTol)), st.CompressibilityMach.String(), st.DeltaT.String(), scale)
 
-	head := []string{"facility", "medium", "scale", FullMatch.String(), ReShort.String(), MachRelaxed.String(),
-		NoMatch.String(), "matched", "min scale", "fits"}
+	head := []string{"facility", "medium", "scale", envelope.FullMatch.String(), envelope.ReShort.String(), envelope.MachRelaxed.String(),
+		envelope.NoMatch.String(), "matched", "min scale", "fits"}
 	var rows [][]string
 	for _, row := range r.Facilities {
 		if row.Error != "" {
@@ -325,54 +279,42 @@ func wrapWords(s string, width int) string {
 	return b.String()
 }
 
-// coverageCSVHeader are the CSV columns of the coverage report.
-var coverageCSVHeader = []string{
-	"facility", "medium", "error", "model_scale", "scale_rule", "fit_scale", "inside_points",
-	"full_match", "reynolds_short", "mach_relaxed", "out_of_reach", "matched",
-	"min_scale_full_match", "mach_matchable_points", "min_scale_covers_envelope", "min_scale_fits_section",
-	"scale_fits_section", "model_too_large_points",
-}
+// coverageCSV is the coverage report's CSV column table, derived once
+// from CoverageRow's tags (never changed after initialisation).
+var coverageCSV = newCSVTable[CoverageRow]()
+
+// bestBlank are the CSV columns left empty on the best-of-all row: they
+// count or judge one facility's points and model.
+var bestBlank = []string{"mach_matchable_points", "min_scale_covers_envelope", "min_scale_fits_section", "model_too_large_points"}
 
 // WriteCSV writes one row per facility and a last row "best of all" whose
 // matched column is the union coverage. Shares are fractions of the inside
 // points (0–1).
-func (r CoverageReport) WriteCSV(w io.Writer) error {
-	cw := csv.NewWriter(w)
-	f := func(x float64) string { return strconv.FormatFloat(x, 'g', -1, 64) }
-	rec := func(row CoverageRow) []string {
-		return []string{row.Facility, row.Medium, row.Error, row.Scale.String(), row.ScaleRule, row.FitScale.String(),
-			strconv.Itoa(r.Inside), f(row.FullMatch), f(row.ReShort), f(row.MachRelaxed), f(row.NoMatch), f(row.Matched),
-			row.MinScale.String(), strconv.Itoa(row.MachMatchable), strconv.FormatBool(row.MinScaleCoversAll),
-			strconv.FormatBool(row.MinScaleFits), optBool(row.ScaleFits), strconv.Itoa(row.TooLargePoints)}
-	}
-	if err := cw.Write(coverageCSVHeader); err != nil {
+func (r Coverage) WriteCSV(w io.Writer) error {
+	cw, err := newCSVWriter(w, coverageCSV)
+	if err != nil {
 		return err
 	}
-	for _, row := range r.Facilities {
-		if err := cw.Write(rec(row)); err != nil {
+	for k := range r.Facilities {
+		if err := cw.write(&r.Facilities[k], nil); err != nil {
 			return err
 		}
 	}
-	best := rec(r.Best)
-	best[11] = f(r.Union)
-	best[13], best[14], best[15], best[17] = "", "", "", ""
-	if err := cw.Write(best); err != nil {
+	best := r.Best
+	best.Matched = r.Union
+	err = cw.write(&best, func(cells []string) {
+		for _, name := range bestBlank {
+			cells[coverageCSV.column(name)] = ""
+		}
+	})
+	if err != nil {
 		return err
 	}
-	cw.Flush()
-	return cw.Error()
-}
-
-// optBool is a CSV cell for a yes/no that may be unknown (empty).
-func optBool(b *bool) string {
-	if b == nil {
-		return ""
-	}
-	return strconv.FormatBool(*b)
+	return cw.flush()
 }
 
 // WriteJSON writes the report as one indented JSON object.
-func (r CoverageReport) WriteJSON(w io.Writer) error {
+func (r Coverage) WriteJSON(w io.Writer) error {
 	b, err := json.MarshalIndent(r, "", "  ")
 	if err != nil {
 		return err

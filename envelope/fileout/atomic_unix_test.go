@@ -1,6 +1,6 @@
 //go:build unix
 
-package envelope
+package fileout
 
 import (
 	"errors"

@@ -1,4 +1,4 @@
-package envelope
+package report
 
 import (
 	"bytes"
@@ -8,27 +8,60 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"likewind/envelope"
 )
 
 // outShareTol is the tolerance on shares that should sum to one.
 const outShareTol = 1e-12
 
-func outDemoEval(t testing.TB) *Evaluation {
+// outDemoEval evaluates every demo facility on the demo vehicle (invented
+// data).
+func outDemoEval(t testing.TB) *envelope.Evaluation { return outEvalVehicle(t, 0, nil) }
+
+// outEvalVehicle evaluates every demo facility on demo vehicle k (0 the
+// Corvane SX-3, 1 the Halcyra HA-1: low Mach numbers, many Mach-relaxed
+// matches), each of which must solve, with the default settings changed
+// by edit (when not nil).
+func outEvalVehicle(t testing.TB, k int, edit func(*envelope.Settings, []envelope.Facility)) *envelope.Evaluation {
 	t.Helper()
-	v, facs, err := Demo()
+	vs, err := envelope.DemoVehicles()
+	if err != nil || len(vs) <= k {
+		t.Fatalf("DemoVehicles() = %d vehicles, %v", len(vs), err)
+	}
+	_, facs, err := envelope.Demo()
 	if err != nil {
 		t.Fatal(err)
 	}
-	e, err := Evaluate(v, facs, DefaultSettings(v))
+	s := envelope.DefaultSettings(vs[k])
+	if edit != nil {
+		edit(&s, facs)
+	}
+	e, err := envelope.Evaluate(vs[k], facs, s)
 	if err != nil {
 		t.Fatalf("Evaluate = %v", err)
+	}
+	if err := e.Err(); err != nil {
+		t.Fatal(err)
 	}
 	return e
 }
 
+// outDemoMaps and outSecondDemoMaps are the grid and maps of the two demo
+// vehicles.
+func outDemoMaps(t testing.TB) (*envelope.Grid, []*envelope.Map) {
+	e := outEvalVehicle(t, 0, nil)
+	return e.Grid, e.Maps
+}
+
+func outSecondDemoMaps(t testing.TB) (*envelope.Grid, []*envelope.Map) {
+	e := outEvalVehicle(t, 1, nil)
+	return e.Grid, e.Maps
+}
+
 func TestCoverageReportShares(t *testing.T) {
 	e := outDemoEval(t)
-	r := NewCoverageReport(e)
+	r := NewCoverage(e)
 	if len(r.Facilities) != len(e.Facilities) {
 		t.Fatalf("rows = %d, want %d", len(r.Facilities), len(e.Facilities))
 	}
@@ -45,13 +78,13 @@ func TestCoverageReportShares(t *testing.T) {
 			t.Errorf("%s: shares sum to %g, want 1", row.Facility, sum)
 		}
 		sh := m.Shares()
-		if row.FullMatch != sh.Share(FullMatch) || row.Matched != sh.Matched() {
+		if row.FullMatch != sh.Share(envelope.FullMatch) || row.Matched != sh.Matched() {
 			t.Errorf("%s: full %g matched %g, want Map.Shares %g %g", row.Facility, row.FullMatch, row.Matched,
-				sh.Share(FullMatch), sh.Matched())
+				sh.Share(envelope.FullMatch), sh.Matched())
 		}
 	}
-	if r.Union != UnionCoverage(e.Solved()) {
-		t.Errorf("union = %g, want UnionCoverage %g", r.Union, UnionCoverage(e.Solved()))
+	if r.Union != envelope.UnionCoverage(e.Solved()) {
+		t.Errorf("union = %g, want UnionCoverage %g", r.Union, envelope.UnionCoverage(e.Solved()))
 	}
 	for _, row := range r.Facilities {
 		if r.Union+outShareTol < row.Matched {
@@ -65,11 +98,11 @@ func TestCoverageReportShares(t *testing.T) {
 // match, and at 2 % less at least one is not.
 func TestCoverageMinScale(t *testing.T) {
 	e := outDemoEval(t)
-	r := NewCoverageReport(e)
+	r := NewCoverage(e)
 	tested := 0
 	for k, row := range r.Facilities {
 		f := &e.Facilities[k]
-		if f.Medium == MediumWater {
+		if f.Medium == envelope.MediumWater {
 			if row.MinScale.Valid() {
 				t.Errorf("%s: min scale %v for water, want none", f.Name, float64(row.MinScale))
 			}
@@ -83,13 +116,13 @@ func TestCoverageMinScale(t *testing.T) {
 		full := func(scale float64) (n int) {
 			s := e.Settings
 			s.Scale = scale
-			m, err := Solve(g, f, s)
+			m, err := envelope.Solve(g, f, s)
 			if err != nil {
 				t.Fatal(err)
 			}
 			for i := 0; i < g.Rows(); i++ {
 				for j := 0; j < g.Cols(); j++ {
-					if _, ok := MinScaleFullMatch(g, f, e.Settings, i, j); ok && m.At(i, j).Class == FullMatch {
+					if _, ok := envelope.MinScaleFullMatch(g, f, e.Settings, i, j); ok && m.At(i, j).Class == envelope.FullMatch {
 						n++
 					}
 				}
@@ -111,7 +144,7 @@ func TestCoverageMinScale(t *testing.T) {
 
 func TestCoverageWriters(t *testing.T) {
 	e := outDemoEval(t)
-	r := NewCoverageReport(e)
+	r := NewCoverage(e)
 
 	var txt bytes.Buffer
 	if err := r.WriteText(&txt); err != nil {
@@ -123,7 +156,7 @@ func TestCoverageWriters(t *testing.T) {
 		}
 	}
 	flat := strings.Join(strings.Fields(txt.String()), " ")
-	for _, want := range []string{"best of all", "Union coverage", "Caution: " + PlanningNote} {
+	for _, want := range []string{"best of all", "Union coverage", "Caution: " + envelope.PlanningNote} {
 		if !strings.Contains(flat, want) {
 			t.Errorf("text report lacks %q", want)
 		}
@@ -158,7 +191,7 @@ func TestCoverageWriters(t *testing.T) {
 	if err := r.WriteJSON(&jb); err != nil {
 		t.Fatal(err)
 	}
-	var back CoverageReport
+	var back Coverage
 	if err := json.Unmarshal(jb.Bytes(), &back); err != nil {
 		t.Fatalf("coverage JSON read back: %v", err)
 	}
@@ -169,21 +202,21 @@ func TestCoverageWriters(t *testing.T) {
 }
 
 func TestCoverageUnsolvedFacility(t *testing.T) {
-	v, facs, err := Demo()
+	v, facs, err := envelope.Demo()
 	if err != nil {
 		t.Fatal(err)
 	}
 	bad := facs[0]
 	bad.Name = "no scale"
-	bad.Width, bad.Height, bad.Model = 0, 0, ModelSizing{}
-	e, err := Evaluate(v, append(facs[:1:1], bad), DefaultSettings(v))
+	bad.Width, bad.Height, bad.Model = 0, 0, envelope.ModelSizing{}
+	e, err := envelope.Evaluate(v, append(facs[:1:1], bad), envelope.DefaultSettings(v))
 	if err != nil {
 		t.Fatal(err)
 	}
 	if e.Maps[1] != nil || e.Errs[1] == nil {
 		t.Fatalf("facility without a scale solved: %v", e.Errs[1])
 	}
-	r := NewCoverageReport(e)
+	r := NewCoverage(e)
 	if r.Facilities[1].Error == "" || r.SolvedCount != 1 {
 		t.Errorf("unsolved row = %+v, solved %d; want an error and 1 solved", r.Facilities[1], r.SolvedCount)
 	}
@@ -196,6 +229,6 @@ func TestCoverageUnsolvedFacility(t *testing.T) {
 func BenchmarkCoverageReportDemo(b *testing.B) {
 	e := outDemoEval(b)
 	for b.Loop() {
-		_ = NewCoverageReport(e)
+		_ = NewCoverage(e)
 	}
 }

@@ -1,4 +1,4 @@
-package envelope
+package report
 
 import (
 	"bytes"
@@ -17,6 +17,7 @@ import (
 	"gonum.org/v1/plot/vg/vgsvg"
 
 	"likewind/atmos"
+	"likewind/envelope"
 )
 
 // Chart size and raster resolution. The legend is drawn under the plot
@@ -35,9 +36,9 @@ const reMachSamples = 240
 // class palette (Class.Colour) the interface and the dumps use. Points
 // outside the envelope are a light tint of the outside colour, so the grid
 // extent shows without competing with the classes.
-func classColor(c Class) color.Color {
+func classColor(c envelope.Class) color.Color {
 	r, g, b := c.RGB()
-	if c == Outside || int(c) >= NumClasses {
+	if c == envelope.Outside || int(c) >= envelope.NumClasses {
 		const keep = 0.12 // share of the outside colour left in the tint
 		tint := func(v uint8) uint8 { return uint8(math.Round(255 - keep*(255-float64(v)))) }
 		r, g, b = tint(r), tint(g), tint(b)
@@ -103,9 +104,9 @@ func newChart(title, x, y string) *Chart {
 	// Names in titles and labels come from files: the SVG writer escapes
 	// only XML's markup characters, and a control character makes the
 	// picture malformed XML.
-	p.Title.Text = CleanText(title)
-	p.X.Label.Text = CleanText(x)
-	p.Y.Label.Text = CleanText(y)
+	p.Title.Text = envelope.CleanText(title)
+	p.X.Label.Text = envelope.CleanText(x)
+	p.Y.Label.Text = envelope.CleanText(y)
 	p.Title.TextStyle.Font.Size = vg.Points(13)
 	p.X.Label.TextStyle.Font.Size = vg.Points(11)
 	p.Y.Label.TextStyle.Font.Size = vg.Points(11)
@@ -163,10 +164,10 @@ func (a chartAxes) speedLabel() string {
 // MapChart draws the altitude–speed map of the envelope coloured by the
 // match class of facility fac (an index into e.Facilities; -1 for the best
 // facility per point), with the envelope boundary and the limit lines.
-func MapChart(e *Evaluation, fac int, customary bool) (*Chart, error) {
+func MapChart(e *envelope.Evaluation, fac int, customary bool) (*Chart, error) {
 	g := e.Grid
 	v := g.Vehicle
-	var class func(i, j int) Class
+	var class func(i, j int) envelope.Class
 	what := "best of all facilities"
 	switch {
 	case fac < 0:
@@ -174,8 +175,8 @@ func MapChart(e *Evaluation, fac int, customary bool) (*Chart, error) {
 		if len(solved) == 0 {
 			return nil, errors.New("map chart: no facility could be evaluated")
 		}
-		_, best := Best(solved)
-		class = func(i, j int) Class { return best[g.Index(i, j)].Class }
+		_, best := envelope.Best(solved)
+		class = func(i, j int) envelope.Class { return best[g.Index(i, j)].Class }
 	case fac >= len(e.Facilities):
 		return nil, fmt.Errorf("map chart: facility %d of %d", fac+1, len(e.Facilities))
 	case e.Maps[fac] == nil:
@@ -183,7 +184,7 @@ func MapChart(e *Evaluation, fac int, customary bool) (*Chart, error) {
 	default:
 		m := e.Maps[fac]
 		what = fmt.Sprintf("%s, model scale %.3g", m.Facility.Name, m.Scale)
-		class = func(i, j int) Class { return m.At(i, j).Class }
+		class = func(i, j int) envelope.Class { return m.At(i, j).Class }
 	}
 	ax := chartAxes{customary: customary, kind: g.SpeedKind}
 	ch := newChart(fmt.Sprintf("%s: match class, %s", v.Name, what), ax.speedLabel(), ax.altLabel(v.AltitudeKind))
@@ -191,13 +192,13 @@ func MapChart(e *Evaluation, fac int, customary bool) (*Chart, error) {
 	cells := &classCells{
 		xs:    mapAxis(g.Speeds, ax.speed),
 		ys:    mapAxis(g.Alts, ax.alt),
-		class: func(i, j int) Class { return classIf(g, class, i, j) },
+		class: func(i, j int) envelope.Class { return classIf(g, class, i, j) },
 	}
 	ch.plot.Add(cells)
-	for _, c := range []Class{FullMatch, ReShort, MachRelaxed, NoMatch} {
+	for _, c := range []envelope.Class{envelope.FullMatch, envelope.ReShort, envelope.MachRelaxed, envelope.NoMatch} {
 		ch.legend.Add(c.String(), swatch{classColor(c)})
 	}
-	ch.legend.Add("grid point outside the envelope", swatch{classColor(Outside)})
+	ch.legend.Add("grid point outside the envelope", swatch{classColor(envelope.Outside)})
 
 	bnd, err := boundaryXY(g, ax)
 	if err != nil {
@@ -230,9 +231,9 @@ func MapChart(e *Evaluation, fac int, customary bool) (*Chart, error) {
 	return ch, nil
 }
 
-func classIf(g *Grid, class func(i, j int) Class, i, j int) Class {
+func classIf(g *envelope.Grid, class func(i, j int) envelope.Class, i, j int) envelope.Class {
 	if !g.Inside(i, j) {
-		return Outside
+		return envelope.Outside
 	}
 	return class(i, j)
 }
@@ -262,7 +263,7 @@ func mapAxis(pts []float64, conv func(float64) float64) []float64 {
 // a row into one rectangle.
 type classCells struct {
 	xs, ys []float64 // cell edges
-	class  func(i, j int) Class
+	class  func(i, j int) envelope.Class
 }
 
 func (cc *classCells) DataRange() (xmin, xmax, ymin, ymax float64) {
@@ -304,7 +305,7 @@ const boundaryEdgeSamples = 24
 // boundaryXY is the closed envelope boundary in chart units. Where the
 // grid's speed kind differs from the boundary's, each edge is sampled and
 // converted on the grid's day.
-func boundaryXY(g *Grid, ax chartAxes) (plotter.XYs, error) {
+func boundaryXY(g *envelope.Grid, ax chartAxes) (plotter.XYs, error) {
 	v := g.Vehicle
 	b := v.Boundary
 	var out plotter.XYs
@@ -331,7 +332,7 @@ func boundaryXY(g *Grid, ax chartAxes) (plotter.XYs, error) {
 
 // speedIn converts a speed of kind k at altitude h (on the grid's day)
 // into the grid's speed kind.
-func speedIn(g *Grid, h float64, k atmos.SpeedKind, sp float64) (float64, error) {
+func speedIn(g *envelope.Grid, h float64, k atmos.SpeedKind, sp float64) (float64, error) {
 	if k == g.SpeedKind {
 		return sp, nil
 	}
@@ -348,7 +349,7 @@ func speedIn(g *Grid, h float64, k atmos.SpeedKind, sp float64) (float64, error)
 
 // limitCurves returns the limit lines of the vehicle that are set, in
 // chart units, each sampled over the grid's altitude range.
-func limitCurves(g *Grid, ax chartAxes) []plotter.XYs {
+func limitCurves(g *envelope.Grid, ax chartAxes) []plotter.XYs {
 	v := g.Vehicle
 	l := v.Limits
 	lo, hi := g.Alts[0], g.Alts[len(g.Alts)-1]
@@ -400,28 +401,14 @@ func limitCurves(g *Grid, ax chartAxes) []plotter.XYs {
 	return out
 }
 
-// ReRange is the span of model Reynolds numbers a facility reaches at one
-// test Mach number with its model: from the lowest setting (P0Min at
-// T0Max) to the highest (ReMax of Detail), within every limit.
-type ReRange struct {
-	Mach   float64
-	Lo, Hi float64
-}
-
-// ReachableRe samples the Reynolds range of map m's facility over its Mach
-// range at the map's model scale (gas facilities). Mach numbers where no
-// setting exists are left out. For a water tunnel it returns the range at
-// flight Mach 0 and at the compressibility threshold, the band in which
-// it matches with Mach relaxed.
-func ReachableRe(m *Map, samples int) []ReRange {
-	if m.sv == nil {
-		return nil
-	}
-	out := m.sv.reachableRe(max(samples, 2))
+// reachableRe is the region of map m's facility on the Reynolds–Mach
+// chart (Map.ReachableRe). Where the facility sets no lower p0 limit the
+// region is drawn from three decades below its top, which a log axis can
+// show.
+func reachableRe(m *envelope.Map, samples int) []envelope.ReRange {
+	out := m.ReachableRe(samples)
 	for k := range out {
 		if !(out[k].Lo > 0) {
-			// No lower p0 limit: show three decades below the top, which
-			// a log axis can draw.
 			out[k].Lo = out[k].Hi / 1000
 		}
 	}
@@ -432,7 +419,7 @@ func ReachableRe(m *Map, samples int) []ReRange {
 // Reynolds number–Mach number chart, with each facility's reachable region
 // at its model scale. facs selects facilities by index (nil: all that
 // could be evaluated).
-func ReMachChart(e *Evaluation, facs []int) (*Chart, error) {
+func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 	g := e.Grid
 	v := g.Vehicle
 	if facs == nil {
@@ -475,10 +462,10 @@ func ReMachChart(e *Evaluation, facs []int) (*Chart, error) {
 			continue
 		}
 		m := e.Maps[k]
-		rr := ReachableRe(m, reMachSamples)
+		rr := reachableRe(m, reMachSamples)
 		col := facilityColor(k)
-		label := fmt.Sprintf("%s (scale %.3g)", CleanText(m.Facility.Name), m.Scale)
-		if m.Facility.Medium == MediumWater {
+		label := fmt.Sprintf("%s (scale %.3g)", envelope.CleanText(m.Facility.Name), m.Scale)
+		if m.Facility.Medium == envelope.MediumWater {
 			label += fmt.Sprintf(", Mach relaxed below %.2g", m.Settings.CompressibilityMach)
 		}
 		var first *plotter.Polygon
@@ -598,11 +585,11 @@ func (stepTicks) Ticks(lo, hi float64) []plot.Tick {
 
 // contiguousRuns splits ranges where the Mach step jumps (a gap where no
 // setting exists), so each run is drawn as one region.
-func contiguousRuns(rr []ReRange) [][]ReRange {
+func contiguousRuns(rr []envelope.ReRange) [][]envelope.ReRange {
 	if len(rr) == 0 {
 		return nil
 	}
-	var out [][]ReRange
+	var out [][]envelope.ReRange
 	start := 0
 	step := math.Inf(1)
 	if len(rr) > 1 {
@@ -622,7 +609,7 @@ func contiguousRuns(rr []ReRange) [][]ReRange {
 	return out
 }
 
-func refLengthWords(v *Vehicle) string {
+func refLengthWords(v *envelope.Vehicle) string {
 	name := v.RefLengthName
 	if name == "" {
 		name = "reference length"

@@ -1,4 +1,4 @@
-package envelope
+package fileout
 
 import (
 	"bufio"
@@ -10,6 +10,8 @@ import (
 	"os"
 	"path/filepath"
 	"strconv"
+
+	"likewind/envelope"
 )
 
 // WriteFileAtomic writes data to path so that path either keeps its old
@@ -78,11 +80,11 @@ func checkTarget(path string, overwrite bool) (fs.FileInfo, error) {
 	case errors.Is(err, fs.ErrNotExist):
 		return nil, nil
 	case err != nil:
-		return nil, fmt.Errorf("write %s: %w", CleanText(path), cleanPathError(err))
+		return nil, fmt.Errorf("write %s: %w", envelope.CleanText(path), cleanPathError(err))
 	case !fi.Mode().IsRegular():
-		return nil, fmt.Errorf("write %s: %s; outputs are written only over regular files, even with --force", CleanText(path), notRegular(fi.Mode()))
+		return nil, fmt.Errorf("write %s: %s; outputs are written only over regular files, even with --force", envelope.CleanText(path), notRegular(fi.Mode()))
 	case !overwrite:
-		return nil, fmt.Errorf("write %s: %w; use --force to replace it", CleanText(path), fs.ErrExist)
+		return nil, fmt.Errorf("write %s: %w; use --force to replace it", envelope.CleanText(path), fs.ErrExist)
 	}
 	return fi, nil
 }
@@ -136,7 +138,7 @@ func stage(path string, overwrite, private bool, write func(io.Writer) error) (*
 	if err != nil {
 		return nil, err
 	}
-	shown := CleanText(path)
+	shown := envelope.CleanText(path)
 	perm := fs.FileMode(0o666) // less the umask
 	if private {
 		perm = 0o600
@@ -144,7 +146,7 @@ func stage(path string, overwrite, private bool, write func(io.Writer) error) (*
 	dir := filepath.Dir(path)
 	tmp, err := createTemp(dir, filepath.Base(path), perm)
 	if err != nil {
-		return nil, fmt.Errorf("write %s: cannot create a file in %s: %w", shown, CleanText(dir), cleanPathError(err))
+		return nil, fmt.Errorf("write %s: cannot create a file in %s: %w", shown, envelope.CleanText(dir), cleanPathError(err))
 	}
 	name := tmp.Name()
 	fail := func(err error) (*staged, error) {
@@ -187,7 +189,7 @@ func (s *staged) discard() { os.Remove(s.tmp) }
 // overwrite, otherwise linked, which fails if path appeared meanwhile
 // where a rename would silently replace it. On failure nothing is left.
 func (s *staged) commit(overwrite bool) error {
-	shown := CleanText(s.path)
+	shown := envelope.CleanText(s.path)
 	if overwrite {
 		// Only a regular file is replaced, even if one was swapped in
 		// since the check.
@@ -329,6 +331,14 @@ func keepOld(path string) (string, error) {
 				return name, nil
 			}
 		}
-		return "", fmt.Errorf("write %s: cannot keep the old file to restore on failure: %w", CleanText(path), cleanPathError(err))
+		return "", fmt.Errorf("write %s: cannot keep the old file to restore on failure: %w", envelope.CleanText(path), cleanPathError(err))
 	}
+}
+
+// cleanPathError makes the path inside a *fs.PathError safe to print.
+func cleanPathError(err error) error {
+	if pe, ok := err.(*fs.PathError); ok {
+		return &fs.PathError{Op: pe.Op, Path: envelope.CleanText(pe.Path), Err: pe.Err}
+	}
+	return err
 }

@@ -1,9 +1,12 @@
-package envelope
+package report
 
 import (
 	"fmt"
 	"math"
 	"sort"
+
+	"likewind/atmos"
+	"likewind/envelope"
 )
 
 // Set-point resolution of a run list: two runs whose T0 (water:
@@ -24,15 +27,12 @@ const (
 // same limits agree to rounding; this only absorbs that rounding.
 const RunSameRel = 1e-9
 
-// GridPoint names a grid point by row (altitude) and column (speed).
-type GridPoint struct{ Row, Col int }
-
 // Run is one flight point of a run list: the flight condition it stands
 // for and the facility settings that reproduce it, all SI, full precision.
 // Flight points with the same set point form one run of the facility: they
 // are consecutive in the list and share SetPoint.
 type Run struct {
-	GridPoint
+	envelope.GridPoint
 	// SetPoint numbers the run (set point) this flight point belongs to,
 	// from 1 along the list (0 for a point that cannot be run).
 	SetPoint  int
@@ -44,9 +44,9 @@ type Run struct {
 	FlightQ    float64 // Pa
 	FlightRe   float64
 
-	Class Class
-	Limit Limit
-	Flags Flags
+	Class envelope.Class
+	Limit envelope.Limit
+	Flags envelope.Flags
 
 	// HasSettings is false when the facility has no setting for the
 	// point; such runs are listed apart (RunList.Unrunnable).
@@ -76,8 +76,10 @@ type Changes struct {
 // RunList is one facility's ordered run list.
 type RunList struct {
 	Facility string
-	Medium   Medium
+	Medium   envelope.Medium
 	Scale    float64
+	// SpeedKind is the kind of the grid speed of the runs (Run.GridSpeed).
+	SpeedKind atmos.SpeedKind
 	// Runs are the flight points in facility order: grouped by T0
 	// (ascending), within that by p0 (ascending), then by Mach number
 	// ascending (water: by temperature, then speed), so that the slow
@@ -96,13 +98,13 @@ type RunList struct {
 
 // FullMatchPoints lists the grid points where m is a full match, in grid
 // order.
-func FullMatchPoints(m *Map) []GridPoint {
-	var out []GridPoint
+func FullMatchPoints(m *envelope.Map) []envelope.GridPoint {
+	var out []envelope.GridPoint
 	g := m.Grid
 	for i := 0; i < g.Rows(); i++ {
 		for j := 0; j < g.Cols(); j++ {
-			if m.At(i, j).Class == FullMatch {
-				out = append(out, GridPoint{i, j})
+			if m.At(i, j).Class == envelope.FullMatch {
+				out = append(out, envelope.GridPoint{Row: i, Col: j})
 			}
 		}
 	}
@@ -113,13 +115,13 @@ func FullMatchPoints(m *Map) []GridPoint {
 // are marked: every matched point (full match or Mach relaxed, gas and
 // water alike; a water tunnel only matches with Mach relaxed), in grid
 // order.
-func DefaultRunPoints(m *Map) []GridPoint {
-	var out []GridPoint
+func DefaultRunPoints(m *envelope.Map) []envelope.GridPoint {
+	var out []envelope.GridPoint
 	g := m.Grid
 	for i := 0; i < g.Rows(); i++ {
 		for j := 0; j < g.Cols(); j++ {
 			if m.At(i, j).Class.Matched() {
-				out = append(out, GridPoint{i, j})
+				out = append(out, envelope.GridPoint{Row: i, Col: j})
 			}
 		}
 	}
@@ -128,10 +130,11 @@ func DefaultRunPoints(m *Map) []GridPoint {
 
 // PlanRuns builds the run list of facility map m for the given points
 // (duplicates are dropped) and orders it with OrderRuns.
-func PlanRuns(m *Map, points []GridPoint) (RunList, error) {
-	rl := RunList{Facility: CleanText(m.Facility.Name), Medium: m.Facility.Medium, Scale: m.Scale}
+func PlanRuns(m *envelope.Map, points []envelope.GridPoint) (RunList, error) {
+	rl := RunList{Facility: envelope.CleanText(m.Facility.Name), Medium: m.Facility.Medium, Scale: m.Scale,
+		SpeedKind: m.Grid.SpeedKind}
 	g := m.Grid
-	seen := map[GridPoint]bool{}
+	seen := map[envelope.GridPoint]bool{}
 	for _, p := range points {
 		if p.Row < 0 || p.Row >= g.Rows() || p.Col < 0 || p.Col >= g.Cols() {
 			return RunList{}, fmt.Errorf("run list %s: point (%d, %d) is not on the %d×%d grid",
@@ -168,7 +171,7 @@ func PlanRuns(m *Map, points []GridPoint) (RunList, error) {
 		}
 		return x.Col < y.Col
 	})
-	rl.Changes = OrderRuns(rl.Runs, rl.Medium == MediumWater)
+	rl.Changes = OrderRuns(rl.Runs, rl.Medium == envelope.MediumWater)
 	if n := len(rl.Runs); n > 0 {
 		rl.SetPoints = rl.Runs[n-1].SetPoint
 	}

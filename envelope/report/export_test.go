@@ -1,4 +1,4 @@
-package envelope
+package report
 
 import (
 	"bytes"
@@ -9,36 +9,14 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"likewind/envelope"
 )
 
 // outRelTol is the relative tolerance for values read back from an
 // export: they are written in shortest round-trip form, so they should
 // agree to rounding.
 const outRelTol = 1e-12
-
-// outDemoMaps solves every demo facility on the demo vehicle's grid
-// (invented data).
-func outDemoMaps(t testing.TB) (*Grid, []*Map) {
-	t.Helper()
-	v, facs, err := Demo()
-	if err != nil {
-		t.Fatalf("Demo() = %v", err)
-	}
-	s := DefaultSettings(v)
-	g, err := NewGrid(v, s)
-	if err != nil {
-		t.Fatalf("NewGrid = %v", err)
-	}
-	var maps []*Map
-	for k := range facs {
-		m, err := Solve(g, &facs[k], s)
-		if err != nil {
-			t.Fatalf("Solve(%s) = %v", facs[k].Name, err)
-		}
-		maps = append(maps, m)
-	}
-	return g, maps
-}
 
 func outClose(got, want, rel float64) bool {
 	if got == want {
@@ -63,7 +41,7 @@ func TestExportColumnsUnique(t *testing.T) {
 func TestWriteCSVReadBack(t *testing.T) {
 	g, maps := outDemoMaps(t)
 	var b bytes.Buffer
-	if err := WriteCSV(&b, maps); err != nil {
+	if err := WriteExportCSV(&b, maps); err != nil {
 		t.Fatalf("WriteCSV = %v", err)
 	}
 	rows, err := csv.NewReader(&b).ReadAll()
@@ -93,7 +71,7 @@ func TestWriteCSVReadBack(t *testing.T) {
 		}
 		return v
 	}
-	byName := map[string]*Map{}
+	byName := map[string]*envelope.Map{}
 	for _, m := range maps {
 		byName[m.Facility.Name] = m
 	}
@@ -142,7 +120,7 @@ func TestWriteCSVReadBack(t *testing.T) {
 			t.Errorf("%s (%d,%d) class = %q, want %q (Map.At)", m.Facility.Name, i, j, got, want)
 		}
 		classes[row[col["class"]]]++
-		if m.Facility.Medium == MediumWater {
+		if m.Facility.Medium == envelope.MediumWater {
 			if row[col["p0_pa"]] != "" || row[col["test_mach"]] != "" {
 				t.Errorf("water record has p0 %q, test Mach %q, want empty", row[col["p0_pa"]], row[col["test_mach"]])
 			}
@@ -202,7 +180,7 @@ func TestWriteJSONReadBack(t *testing.T) {
 	g, maps := outDemoMaps(t)
 	var b bytes.Buffer
 	info := ExportInfo{Tool: "likewind", Version: "test", Generated: "2001-02-03"}
-	if err := WriteJSON(&b, info, maps); err != nil {
+	if err := WriteExportJSON(&b, info, maps); err != nil {
 		t.Fatalf("WriteJSON = %v", err)
 	}
 	var doc ExportDoc
@@ -214,7 +192,7 @@ func TestWriteJSONReadBack(t *testing.T) {
 	if doc.ExportInfo != info {
 		t.Errorf("info = %+v, want %+v", doc.ExportInfo, info)
 	}
-	if doc.Caution != PlanningNote || doc.Units != "SI" {
+	if doc.Caution != envelope.PlanningNote || doc.Units != "SI" {
 		t.Errorf("caution %q, units %q: want the planning note and SI", doc.Caution, doc.Units)
 	}
 	if doc.Vehicle.InsidePoints != g.InsideCount() || doc.Vehicle.Rows != g.Rows() || doc.Vehicle.Cols != g.Cols() {
@@ -245,7 +223,7 @@ func TestWriteJSONReadBack(t *testing.T) {
 
 func TestWriteJSONEmpty(t *testing.T) {
 	var b bytes.Buffer
-	if err := WriteJSON(&b, ExportInfo{Tool: "likewind"}, nil); err != nil {
+	if err := WriteExportJSON(&b, ExportInfo{Tool: "likewind"}, nil); err != nil {
 		t.Fatal(err)
 	}
 	var doc ExportDoc
@@ -280,7 +258,7 @@ func BenchmarkWriteCSVDemo(b *testing.B) {
 	var buf bytes.Buffer
 	for b.Loop() {
 		buf.Reset()
-		if err := WriteCSV(&buf, maps); err != nil {
+		if err := WriteExportCSV(&buf, maps); err != nil {
 			b.Fatal(err)
 		}
 	}
@@ -328,30 +306,30 @@ func ExampleExportColumns() {
 // as the decimals they stand for (shortest round-trip form of tidy axis
 // values), for both demo vehicles: "0.3", "1828.8", "0.1125".
 func TestExportGridDecimals(t *testing.T) {
-	vs, err := DemoVehicles()
+	vs, err := envelope.DemoVehicles()
 	if err != nil {
 		t.Fatal(err)
 	}
-	_, facs, err := Demo()
+	_, facs, err := envelope.Demo()
 	if err != nil {
 		t.Fatal(err)
 	}
 	for _, v := range vs {
-		s := DefaultSettings(v)
-		g, err := NewGrid(v, s)
+		s := envelope.DefaultSettings(v)
+		g, err := envelope.NewGrid(v, s)
 		if err != nil {
 			t.Fatal(err)
 		}
-		var maps []*Map
+		var maps []*envelope.Map
 		for k := range facs {
-			m, err := Solve(g, &facs[k], s)
+			m, err := envelope.Solve(g, &facs[k], s)
 			if err != nil {
 				t.Fatal(err)
 			}
 			maps = append(maps, m)
 		}
 		var b bytes.Buffer
-		if err := WriteCSV(&b, maps); err != nil {
+		if err := WriteExportCSV(&b, maps); err != nil {
 			t.Fatal(err)
 		}
 		rows, err := csv.NewReader(&b).ReadAll()

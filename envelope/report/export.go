@@ -1,13 +1,13 @@
-package envelope
+package report
 
 import (
-	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"io"
 	"math"
-	"reflect"
 	"strconv"
+
+	"likewind/envelope"
 )
 
 // Num is a float64 that is written as null in JSON (and as an empty field
@@ -134,60 +134,17 @@ type ExportRecord struct {
 	Cavitation        Num `json:"cavitation_number"`
 }
 
-// exportCol is one CSV column: its name and the field it reads.
-type exportCol struct {
-	name  string
-	field int
-}
-
-// exportCols is the column table, derived once from ExportRecord's JSON
-// tags so that CSV columns and JSON keys cannot drift apart. It is never
-// changed after initialisation.
-var exportCols = func() []exportCol {
-	t := reflect.TypeFor[ExportRecord]()
-	cols := make([]exportCol, 0, t.NumField())
-	for k := 0; k < t.NumField(); k++ {
-		tag := t.Field(k).Tag.Get("json")
-		cols = append(cols, exportCol{name: tag, field: k})
-	}
-	return cols
-}()
+// exportCSV is the export's CSV column table, derived once from
+// ExportRecord's JSON tags (never changed after initialisation).
+var exportCSV = newCSVTable[ExportRecord]()
 
 // ExportColumns returns the CSV column names (and JSON record keys) in
 // order.
-func ExportColumns() []string {
-	out := make([]string, len(exportCols))
-	for k, c := range exportCols {
-		out[k] = c.name
-	}
-	return out
-}
-
-// csvRow formats r in column order.
-func (r *ExportRecord) csvRow(buf []string) []string {
-	v := reflect.ValueOf(r).Elem()
-	buf = buf[:0]
-	for _, c := range exportCols {
-		f := v.Field(c.field)
-		switch x := f.Interface().(type) {
-		case Num:
-			buf = append(buf, x.String())
-		case string:
-			buf = append(buf, x)
-		case int:
-			buf = append(buf, strconv.Itoa(x))
-		case bool:
-			buf = append(buf, strconv.FormatBool(x))
-		default:
-			buf = append(buf, fmt.Sprint(x))
-		}
-	}
-	return buf
-}
+func ExportColumns() []string { return exportCSV.header() }
 
 // NewExportRecord builds the record of inside point (i, j) of m from
 // Map.Detail (full precision).
-func NewExportRecord(m *Map, i, j int) (ExportRecord, error) {
+func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
 	d, err := m.Detail(i, j)
 	if err != nil {
 		return ExportRecord{}, fmt.Errorf("export %s point (%d, %d): %w", m.Facility.Name, i, j, err)
@@ -200,7 +157,7 @@ func NewExportRecord(m *Map, i, j int) (ExportRecord, error) {
 	st := fl.State
 	s := m.Settings
 	r := ExportRecord{
-		Facility: CleanText(m.Facility.Name),
+		Facility: envelope.CleanText(m.Facility.Name),
 		Medium:   m.Facility.Medium.String(),
 		Row:      i,
 		Col:      j,
@@ -259,7 +216,7 @@ func NewExportRecord(m *Map, i, j int) (ExportRecord, error) {
 	if !d.HasSettings {
 		return r, nil
 	}
-	water := d.Medium == MediumWater
+	water := d.Medium == envelope.MediumWater
 	if water {
 		r.WaterTemperature = Num(d.T0)
 		r.VapourPressure = Num(d.VapourPressure)
@@ -292,7 +249,7 @@ func NewExportRecord(m *Map, i, j int) (ExportRecord, error) {
 // EachRecord calls fn with the record of every inside point of every map,
 // map by map, rows from the lowest altitude up and columns from the
 // slowest. It stops at the first error.
-func EachRecord(maps []*Map, fn func(ExportRecord) error) error {
+func EachRecord(maps []*envelope.Map, fn func(ExportRecord) error) error {
 	for _, m := range maps {
 		g := m.Grid
 		for i := 0; i < g.Rows(); i++ {
@@ -313,23 +270,18 @@ func EachRecord(maps []*Map, fn func(ExportRecord) error) error {
 	return nil
 }
 
-// WriteCSV writes a header row of ExportColumns and one row per inside
+// WriteExportCSV writes a header row of ExportColumns and one row per inside
 // point per map.
-func WriteCSV(w io.Writer, maps []*Map) error {
-	cw := csv.NewWriter(w)
-	if err := cw.Write(ExportColumns()); err != nil {
-		return fmt.Errorf("csv: %w", err)
-	}
-	buf := make([]string, 0, len(exportCols))
-	err := EachRecord(maps, func(r ExportRecord) error {
-		buf = r.csvRow(buf)
-		return cw.Write(buf)
-	})
+func WriteExportCSV(w io.Writer, maps []*envelope.Map) error {
+	cw, err := newCSVWriter(w, exportCSV)
 	if err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
-	cw.Flush()
-	if err := cw.Error(); err != nil {
+	err = EachRecord(maps, func(r ExportRecord) error { return cw.write(&r, nil) })
+	if err != nil {
+		return fmt.Errorf("csv: %w", err)
+	}
+	if err := cw.flush(); err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
 	return nil
@@ -396,15 +348,15 @@ type ExportDoc struct {
 
 // NewExportHeader describes the maps (solved on one grid) for the JSON
 // export. Names and file names pass through CleanText.
-func NewExportHeader(info ExportInfo, maps []*Map) ExportHeader {
-	h := ExportHeader{ExportInfo: info, Caution: PlanningNote, Units: "SI", Facilities: []ExportFacility{}}
+func NewExportHeader(info ExportInfo, maps []*envelope.Map) ExportHeader {
+	h := ExportHeader{ExportInfo: info, Caution: envelope.PlanningNote, Units: "SI", Facilities: []ExportFacility{}}
 	if len(maps) == 0 {
 		return h
 	}
 	g := maps[0].Grid
 	v := g.Vehicle
 	h.Vehicle = ExportVehicle{
-		Name: CleanText(v.Name), Source: CleanText(v.Source), RefLength: Num(v.RefLength), RefLengthName: CleanText(v.RefLengthName),
+		Name: envelope.CleanText(v.Name), Source: envelope.CleanText(v.Source), RefLength: Num(v.RefLength), RefLengthName: envelope.CleanText(v.RefLengthName),
 		AltitudeKind: v.AltitudeKind.String(), GridSpeedKind: g.SpeedKind.String(),
 		Rows: g.Rows(), Cols: g.Cols(), InsidePoints: g.InsideCount(),
 	}
@@ -419,7 +371,7 @@ func NewExportHeader(info ExportInfo, maps []*Map) ExportHeader {
 	for _, m := range maps {
 		f := m.Facility
 		ef := ExportFacility{
-			Name: CleanText(f.Name), Class: CleanText(f.Class), Medium: f.Medium.String(), Source: CleanText(f.Source),
+			Name: envelope.CleanText(f.Name), Class: envelope.CleanText(f.Class), Medium: f.Medium.String(), Source: envelope.CleanText(f.Source),
 			Scale: Num(m.Scale), ScaleRule: m.ScaleRule, FitScale: na, FitRule: m.FitRule,
 			Records: m.Grid.InsideCount(),
 		}
@@ -431,10 +383,10 @@ func NewExportHeader(info ExportInfo, maps []*Map) ExportHeader {
 	return h
 }
 
-// WriteJSON writes one JSON object: the header fields of NewExportHeader
+// WriteExportJSON writes one JSON object: the header fields of NewExportHeader
 // and "records", an array with one object per inside point per map (one
 // per line, so large exports stream and diff well).
-func WriteJSON(w io.Writer, info ExportInfo, maps []*Map) error {
+func WriteExportJSON(w io.Writer, info ExportInfo, maps []*envelope.Map) error {
 	h := NewExportHeader(info, maps)
 	head, err := json.MarshalIndent(h, "", "  ")
 	if err != nil {

@@ -1,0 +1,56 @@
+package envelope
+
+import "testing"
+
+// outDemoMaps solves every demo facility on the demo vehicle's grid
+// (invented data).
+func outDemoMaps(t testing.TB) (*Grid, []*Map) {
+	t.Helper()
+	v, facs, err := Demo()
+	if err != nil {
+		t.Fatalf("Demo() = %v", err)
+	}
+	s := DefaultSettings(v)
+	g, err := NewGrid(v, s)
+	if err != nil {
+		t.Fatalf("NewGrid = %v", err)
+	}
+	var maps []*Map
+	for k := range facs {
+		m, err := Solve(g, &facs[k], s)
+		if err != nil {
+			t.Fatalf("Solve(%s) = %v", facs[k].Name, err)
+		}
+		maps = append(maps, m)
+	}
+	return g, maps
+}
+
+// outSecondDemoMaps solves every demo facility on the second demo vehicle
+// (Halcyra HA-1, low Mach numbers, many Mach-relaxed matches).
+func outSecondDemoMaps(t testing.TB) (*Grid, []*Map) {
+	t.Helper()
+	vs, err := DemoVehicles()
+	if err != nil || len(vs) < 2 {
+		t.Fatalf("DemoVehicles() = %d vehicles, %v", len(vs), err)
+	}
+	_, facs, err := Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	v := vs[1]
+	s := DefaultSettings(v)
+	g, err := NewGrid(v, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var maps []*Map
+	for k := range facs {
+		m, err := Solve(g, &facs[k], s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		maps = append(maps, m)
+	}
+	return g, maps
+}

@@ -1,0 +1,206 @@
+package report
+
+import (
+	"encoding/json"
+	"io"
+
+	"likewind/envelope"
+)
+
+// RunPlan is the run lists of the facilities of one evaluation, for one
+// set of test points.
+type RunPlan struct {
+	Vehicle string // passed through CleanText
+	// Marked says the points are marked test points; otherwise they are
+	// every matched point of each facility (DefaultRunPoints).
+	Marked bool
+	Lists  []RunList
+}
+
+// PlanAll builds the run list of facility sel of e, or of every facility
+// that could be evaluated when sel < 0: for the marked points, or without
+// marks for every matched point of each facility.
+func PlanAll(e *envelope.Evaluation, marks []envelope.GridPoint, sel int) (RunPlan, error) {
+	p := RunPlan{Vehicle: envelope.CleanText(e.Grid.Vehicle.Name), Marked: len(marks) > 0}
+	for k, m := range e.Maps {
+		if m == nil || (sel >= 0 && k != sel) {
+			continue
+		}
+		pts := marks
+		if !p.Marked {
+			pts = DefaultRunPoints(m)
+		}
+		rl, err := PlanRuns(m, pts)
+		if err != nil {
+			return RunPlan{}, err
+		}
+		p.Lists = append(p.Lists, rl)
+	}
+	return p, nil
+}
+
+// StepChanges says which settings move from run k-1 to run k of runs
+// (none for the first).
+func StepChanges(runs []Run, k int, water bool) Changes {
+	if k == 0 {
+		return Changes{}
+	}
+	return CountChanges(runs[k-1:k+1], water)
+}
+
+// RunRecord is one flight point of a run list as the CSV row and the JSON
+// object write it; all SI. Settings that do not apply are null (JSON) or
+// empty (CSV). The JSON keys are the CSV columns, in field order.
+type RunRecord struct {
+	Facility         string `json:"facility"`
+	Medium           string `json:"medium"`
+	Run              int    `json:"run"` // set point, 1-based (shared by its flight points); 0 for a point that cannot be run
+	Row              int    `json:"row"`
+	Col              int    `json:"col"`
+	Altitude         Num    `json:"altitude_m"`
+	GridSpeed        Num    `json:"grid_speed"`
+	GridSpeedKind    string `json:"grid_speed_kind"`
+	FlightMach       Num    `json:"flight_mach"`
+	FlightTAS        Num    `json:"flight_tas_m_s"`
+	FlightQ          Num    `json:"flight_q_pa"`
+	FlightRe         Num    `json:"flight_reynolds"`
+	Class            string `json:"class"`
+	Limit            string `json:"limit"`
+	Flags            string `json:"flags"`
+	TestMach         Num    `json:"test_mach"`
+	P0               Num    `json:"p0_pa"`
+	T0               Num    `json:"t0_k"`
+	WaterTemperature Num    `json:"water_temperature_k"`
+	StaticPressure   Num    `json:"static_pressure_pa"`
+	TestSpeed        Num    `json:"test_speed_m_s"`
+	TestQ            Num    `json:"test_q_pa"`
+	ModelRe          Num    `json:"model_reynolds"`
+	ReRatio          Num    `json:"reynolds_ratio"`
+	T0Change         bool   `json:"t0_change"`
+	P0Change         bool   `json:"p0_change"`
+	MachChange       bool   `json:"mach_change"`
+}
+
+// runCSV is the run list's CSV column table, derived once from
+// RunRecord's JSON tags (never changed after initialisation).
+var runCSV = newCSVTable[RunRecord]()
+
+// RunColumns returns the CSV column names (and JSON record keys) of a run
+// list in order.
+func RunColumns() []string { return runCSV.header() }
+
+// Records turns the run list into records: runs in order, then the points
+// that cannot be run.
+func (rl RunList) Records() (runs, unrunnable []RunRecord) {
+	water := rl.Medium == envelope.MediumWater
+	mk := func(r Run, n int) RunRecord {
+		rec := RunRecord{
+			Facility: rl.Facility, Medium: rl.Medium.String(), Run: n, Row: r.Row, Col: r.Col,
+			Altitude: Num(r.Altitude), GridSpeed: Num(r.GridSpeed), GridSpeedKind: rl.SpeedKind.String(),
+			FlightMach: Num(r.FlightMach), FlightTAS: Num(r.FlightTAS), FlightQ: Num(r.FlightQ),
+			FlightRe: Num(r.FlightRe), Class: r.Class.String(), Limit: r.Limit.String(), Flags: r.Flags.String(),
+			TestMach: na, P0: na, T0: na, WaterTemperature: na, StaticPressure: na,
+			TestSpeed: na, TestQ: na, ModelRe: na, ReRatio: na,
+		}
+		if !r.HasSettings {
+			return rec
+		}
+		if water {
+			rec.WaterTemperature, rec.StaticPressure = Num(r.T0), Num(r.P0)
+		} else {
+			rec.TestMach, rec.P0, rec.T0 = Num(r.Mach), Num(r.P0), Num(r.T0)
+		}
+		rec.TestSpeed, rec.TestQ = Num(r.Speed), Num(r.Q)
+		rec.ModelRe, rec.ReRatio = Num(r.Re), Num(r.ReRatio)
+		return rec
+	}
+	for k, r := range rl.Runs {
+		rec := mk(r, r.SetPoint)
+		c := StepChanges(rl.Runs, k, water)
+		rec.T0Change, rec.P0Change, rec.MachChange = c.T0 > 0, c.P0 > 0, c.Mach > 0
+		runs = append(runs, rec)
+	}
+	for _, r := range rl.Unrunnable {
+		unrunnable = append(unrunnable, mk(r, 0))
+	}
+	return runs, unrunnable
+}
+
+// WriteCSV writes a header row of RunColumns and one row per flight point
+// of every list: its runs in order, then the points it cannot run.
+func (p RunPlan) WriteCSV(w io.Writer) error {
+	cw, err := newCSVWriter(w, runCSV)
+	if err != nil {
+		return err
+	}
+	for _, rl := range p.Lists {
+		runs, un := rl.Records()
+		for _, rec := range append(runs, un...) {
+			if err := cw.write(&rec, nil); err != nil {
+				return err
+			}
+		}
+	}
+	return cw.flush()
+}
+
+// runsDoc is the JSON run list.
+type runsDoc struct {
+	ExportInfo
+	Caution    string         `json:"caution"`
+	Units      string         `json:"units"`
+	Vehicle    string         `json:"vehicle"`
+	Points     string         `json:"points"` // "marked" or "matched"
+	Facilities []runsFacility `json:"facilities"`
+}
+
+type runsFacility struct {
+	Facility   string      `json:"facility"`
+	Medium     string      `json:"medium"`
+	Scale      Num         `json:"model_scale"`
+	SetPoints  int         `json:"set_points"` // runs; each record of "runs" is one flight point
+	Changes    runChanges  `json:"changes"`
+	Runs       []RunRecord `json:"runs"`
+	Unrunnable []RunRecord `json:"unrunnable"`
+}
+
+type runChanges struct {
+	T0    int `json:"t0"`
+	P0    int `json:"p0"`
+	Mach  int `json:"mach"`
+	Moved int `json:"any"`
+}
+
+// WriteJSON writes the run lists as one indented JSON object: info, the
+// caution, the vehicle, which points ("marked" or "matched"), and per
+// facility its set points, change counts, runs and unrunnable points.
+func (p RunPlan) WriteJSON(w io.Writer, info ExportInfo) error {
+	doc := runsDoc{
+		ExportInfo: info,
+		Caution:    envelope.PlanningNote, Units: "SI", Vehicle: p.Vehicle,
+		Points: "matched", Facilities: []runsFacility{},
+	}
+	if p.Marked {
+		doc.Points = "marked"
+	}
+	for _, rl := range p.Lists {
+		runs, un := rl.Records()
+		if runs == nil {
+			runs = []RunRecord{}
+		}
+		if un == nil {
+			un = []RunRecord{}
+		}
+		c := rl.Changes
+		doc.Facilities = append(doc.Facilities, runsFacility{
+			Facility: rl.Facility, Medium: rl.Medium.String(), Scale: Num(rl.Scale), SetPoints: rl.SetPoints,
+			Changes: runChanges{T0: c.T0, P0: c.P0, Mach: c.Mach, Moved: c.Moved}, Runs: runs, Unrunnable: un,
+		})
+	}
+	b, err := json.MarshalIndent(doc, "", "  ")
+	if err != nil {
+		return err
+	}
+	_, err = w.Write(append(b, '\n'))
+	return err
+}
