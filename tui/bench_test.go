@@ -5,6 +5,8 @@ import (
 	"time"
 
 	tea "github.com/charmbracelet/bubbletea"
+
+	"likewind/envelope/units"
 )
 
 // bigDemo is the demo vehicle on a 400×400 grid.
@@ -93,7 +95,7 @@ func BenchmarkKeyToFrame(b *testing.B) {
 			m.fac = facilityNamed(b, m, fc)
 			p0 := m.facs[m.fac].PressureMax()
 			lower := max(0.9*p0, 0.5*(m.facs[m.fac].PressureMin()+p0)) // stays above P0Min
-			benchEdit(b, m, fieldP0Max, sig(lower/1000, 4)+" kPa", sig(p0/1000, 4)+" kPa")
+			benchEdit(b, m, fieldP0Max, units.Sig(lower/1000, 4)+" kPa", units.Sig(p0/1000, 4)+" kPa")
 		})
 	}
 	b.Run("deltaT", func(b *testing.B) { benchEdit(b, base, fieldDeltaT, "5 K", "0 K") })

@@ -9,6 +9,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope"
+	"likewind/envelope/units"
 )
 
 // detailsView is the details panel: the flight conditions of the point
@@ -113,7 +114,7 @@ type detailKey struct {
 	errs   string // why the shown facility has no map
 	i, j   int
 	marked bool
-	units  Units
+	units  units.System
 	width  int
 	wide   bool
 	st     *Styles
@@ -210,13 +211,13 @@ func (m Model) flightBlock(d *detailBlocks, pair pairFunc) (fd envelope.FlightDe
 	d.flight = append(d.flight,
 		pair("T", u.Temp(s.Temperature), "p", u.Pressure(s.Pressure)),
 		pair("ρ", u.Density(s.Density), "a", u.Speed(s.SpeedOfSound)),
-		pair("M", fixed(a.Mach, 3), "TAS", u.Speed(a.TAS)),
+		pair("M", units.Fixed(a.Mach, 3), "TAS", u.Speed(a.TAS)),
 		pair("EAS", u.Speed(a.EAS), "CAS", u.Speed(a.CAS)),
-		pair("q", u.Q(fd.Q), "Kn", expo(fd.Kn, 2)),
-		pair("Re", expo(fd.Re, 3), "unit Re", u.PerLength(fd.RePerM)),
+		pair("q", u.Q(fd.Q), "Kn", units.Expo(fd.Kn, 2)),
+		pair("Re", units.Expo(fd.Re, 3), "unit Re", u.PerLength(fd.RePerM)),
 		st.Label.Render("regime")+" "+fd.SpeedRegime.String()+", "+fd.Rarefaction.String(),
 	)
-	d.summary = fmt.Sprintf("%s M%s", u.Alt(g.Alts[m.curI]), fixed(a.Mach, 2))
+	d.summary = fmt.Sprintf("%s M%s", u.Alt(g.Alts[m.curI]), units.Fixed(a.Mach, 2))
 	if m.marks[g.Index(m.curI, m.curJ)] {
 		d.flight[0] += " " + st.HelpKey.Render("[test point]")
 	}
@@ -301,13 +302,13 @@ func (m Model) settingLines(d *detailBlocks, det *envelope.Detail, fac *envelope
 	} else if fac.Medium.IsGas() {
 		d.facility = append(d.facility,
 			pair("p0", u.Stagnation(det.P0), "T0", u.Temp(det.T0)),
-			pair("M", fixed(det.Mach, 3), "V", u.Speed(det.V)),
+			pair("M", units.Fixed(det.Mach, 3), "V", u.Speed(det.V)),
 		)
 		d.summary += " | p0 " + u.Stagnation(det.P0) + " T0 " + u.Temp(det.T0)
 	} else {
 		d.facility = append(d.facility,
 			pair("V", u.Speed(det.V), "water", u.Temp(det.T0)),
-			pair("p", u.Pressure(det.P), "σ", fixed(det.Cavitation, 2)),
+			pair("p", u.Pressure(det.P), "σ", units.Fixed(det.Cavitation, 2)),
 		)
 		d.summary += " | V " + u.Speed(det.V) + " water " + u.Temp(det.T0)
 	}
@@ -318,13 +319,13 @@ func (m Model) settingLines(d *detailBlocks, det *envelope.Detail, fac *envelope
 		}
 		d.facility = append(d.facility,
 			qLine,
-			pair("Re", expo(det.Re, 3), "ratio", fixed(det.ReRatio, 3)),
+			pair("Re", units.Expo(det.Re, 3), "ratio", units.Fixed(det.ReRatio, 3)),
 		)
 		if det.Class == envelope.ReShort {
 			d.facility = append(d.facility, st.Label.Render("ΔCf")+" "+skinFrictionNote(*det))
 		}
 	}
-	d.facility = append(d.facility, pair("scale", sig(det.Scale, 3), "model", u.Length(det.ModelLength)))
+	d.facility = append(d.facility, pair("scale", units.Sig(det.Scale, 3), "model", u.Length(det.ModelLength)))
 	if det.HasSettings && det.Class.Matched() {
 		// Which of the settings that reach the target was taken.
 		d.facility = append(d.facility, st.Label.Render("rule")+" "+envelope.OperatingRule(fac.Medium))

@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"likewind/envelope"
+	"likewind/envelope/units"
 )
 
 // DumpInput is everything a text dump of one view shows: the evaluated
@@ -33,7 +34,7 @@ type DumpInput struct {
 	// Facility is the facility shown, or -1 for the best of all.
 	Facility int
 	Layer    Layer
-	Units    Units
+	Units    units.System
 	// Marks are the marked test points.
 	Marks []envelope.GridPoint
 }

@@ -9,6 +9,7 @@ import (
 
 	"likewind/atmos"
 	"likewind/envelope"
+	"likewind/envelope/units"
 )
 
 // The what-if fields. Each value a user can change without editing files
@@ -94,7 +95,7 @@ type fieldDef struct {
 	validate func(s envelope.Settings, v float64) error
 	// show writes the value in the units u; water is set for a limit of
 	// a water facility.
-	show func(u Units, v float64, water bool) string
+	show func(u units.System, v float64, water bool) string
 }
 
 // fieldWord is a word a field takes for a value, and what it means.
@@ -112,7 +113,7 @@ var fieldTable = [fieldCount]fieldDef{
 		get:   func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.Scale },
 		set:   func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.Scale = v },
 		read:  envelope.ParseModelScale, bound: envelope.ModelScaleBound,
-		show: func(_ Units, v float64, _ bool) string { return scaleText(v) },
+		show: func(_ units.System, v float64, _ bool) string { return scaleText(v) },
 	},
 	fieldDeltaT: {
 		label: "ΔT of day", short: "ΔT", name: "ΔT", key: "delta_t_K",
@@ -121,21 +122,21 @@ var fieldTable = [fieldCount]fieldDef{
 		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.DeltaT },
 		set:  func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.DeltaT = v },
 		read: envelope.ParseDeltaT, bound: envelope.DeltaTBound, siUnit: "K",
-		show: func(u Units, v float64, _ bool) string { return u.DeltaT(v) },
+		show: func(u units.System, v float64, _ bool) string { return u.DeltaT(v) },
 	},
 	fieldMachTol: {
 		label: "Mach tolerance", short: "Mach tol", name: "Mach tolerance", key: "mach_tol",
 		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.MachTol },
 		set:  func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.MachTol = v },
 		read: envelope.ParseMachTol, bound: envelope.MachTolBound,
-		show: func(_ Units, v float64, _ bool) string { return sig(v, 3) },
+		show: func(_ units.System, v float64, _ bool) string { return units.Sig(v, 3) },
 	},
 	fieldReTol: {
 		label: "Re tolerance", short: "Re tol", name: "Reynolds tolerance", key: "re_tol",
 		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.ReTol },
 		set:  func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.ReTol = v },
 		read: envelope.ParseReTol, bound: envelope.ReTolBound,
-		show: func(_ Units, v float64, _ bool) string { return sig(v*100, 3) + " %" },
+		show: func(_ units.System, v float64, _ bool) string { return units.Sig(v*100, 3) + " %" },
 	},
 	fieldCompMach: {
 		label: "compressibility M", name: "compressibility Mach", key: "compressibility_mach",
@@ -154,7 +155,7 @@ var fieldTable = [fieldCount]fieldDef{
 			}
 			return nil
 		},
-		show: func(_ Units, v float64, _ bool) string { return sig(v, 3) },
+		show: func(_ units.System, v float64, _ bool) string { return units.Sig(v, 3) },
 	},
 	fieldP0Max: {
 		label: "p0 max", waterLabel: "max static p", name: "p0 max", key: "p0_max_Pa",
@@ -163,7 +164,7 @@ var fieldTable = [fieldCount]fieldDef{
 		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.PressureMax() },
 		set:   func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.SetPressureMax(v) },
 		limit: envelope.CheckP0Max,
-		show: func(u Units, v float64, water bool) string {
+		show: func(u units.System, v float64, water bool) string {
 			if water {
 				return u.Pressure(v)
 			}
@@ -177,7 +178,7 @@ var fieldTable = [fieldCount]fieldDef{
 		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.TemperatureMin() },
 		set:   func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.SetTemperatureMin(v) },
 		limit: envelope.CheckT0Min,
-		show:  func(u Units, v float64, _ bool) string { return u.Temp(v) },
+		show:  func(u units.System, v float64, _ bool) string { return u.Temp(v) },
 	},
 	fieldQMax: {
 		label: "q max", name: "q max", key: "q_max_Pa",
@@ -189,7 +190,7 @@ var fieldTable = [fieldCount]fieldDef{
 		limit: func(_ *envelope.Facility, found string, v float64) (float64, error) {
 			return envelope.CheckQMax(found, v)
 		},
-		show: func(u Units, v float64, _ bool) string { return qText(u, v) },
+		show: func(u units.System, v float64, _ bool) string { return qText(u, v) },
 	},
 }
 
@@ -219,19 +220,19 @@ func (f field) headerLabel(water bool) string {
 
 // bareUnit is the unit assumed when a number is typed without one, in the
 // current unit system ("" for dimensionless fields).
-func (f field) bareUnit(u Units) string {
-	if u == Customary {
+func (f field) bareUnit(u units.System) string {
+	if u == units.Customary {
 		return f.def().bareCustomary
 	}
 	return f.def().bareSI
 }
 
 // show writes a value of the field in the units u.
-func (f field) show(u Units, v float64, water bool) string { return f.def().show(u, v, water) }
+func (f field) show(u units.System, v float64, water bool) string { return f.def().show(u, v, water) }
 
 // editText is the text the input line starts with for the value v: what
 // show writes, in a form the field reads back (its word, degF for °F).
-func (f field) editText(u Units, v float64, water bool) string {
+func (f field) editText(u units.System, v float64, water bool) string {
 	if w, ok := f.wordFor(v); ok {
 		return w.word
 	}
@@ -281,7 +282,7 @@ const maxEntry = 1024
 // refused, not read as either. The facility limits (p0 max, T0 min, q max)
 // are checked against fac, the facility they are for, as its file's ranges
 // are.
-func parseField(f field, text string, u Units, fac *envelope.Facility) (float64, error) {
+func parseField(f field, text string, u units.System, fac *envelope.Facility) (float64, error) {
 	d := f.def()
 	fail := func(err error) (float64, error) { return 0, fmt.Errorf("%s: %w", f.label(isWater(fac)), err) }
 	t := strings.TrimSpace(text)
@@ -364,7 +365,7 @@ func validateField(f field, s envelope.Settings, v float64) error {
 // other settings. It holds copies of what it needs, so it stays valid as
 // the model is copied.
 type fieldReader struct {
-	units Units
+	units units.System
 	fac   *envelope.Facility // the chosen facility, nil for none (its slice is never changed in place)
 	set   envelope.Settings
 }

@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"likewind/envelope"
+	"likewind/envelope/units"
 )
 
 // oldSessionFile is a session file as the interface wrote it before the
@@ -142,7 +143,7 @@ func TestFieldTableRows(t *testing.T) {
 				on = fac
 			}
 			want := d.get(&s, fac)
-			for _, u := range []Units{SI, Customary} {
+			for _, u := range []units.System{units.SI, units.Customary} {
 				text := f.editText(u, want, isWater(fac))
 				got, err := parseField(f, text, u, on)
 				if err != nil {

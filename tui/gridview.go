@@ -6,6 +6,7 @@ import (
 
 	"likewind/atmos"
 	"likewind/envelope"
+	"likewind/envelope/units"
 )
 
 // GridView is one way of looking at an evaluated grid: which facility,
@@ -27,7 +28,7 @@ type GridView struct {
 	BestRes []envelope.Result
 
 	Layer Layer
-	Units Units
+	Units units.System
 	// FullNames puts each facility's whole name beside its letter in the
 	// legend, instead of the first word of it.
 	FullNames bool

@@ -6,6 +6,8 @@ import (
 	"testing"
 
 	"github.com/charmbracelet/x/ansi"
+
+	"likewind/envelope/units"
 )
 
 // testMatrix is a small synthetic grid: rows altitudes 0..rows-1 km,
@@ -17,7 +19,7 @@ func testMatrix(rows, cols int) MatrixInput {
 		in.AltLabels = append(in.AltLabels, fmt.Sprint(i*1000))
 	}
 	for j := 0; j < cols; j++ {
-		in.SpeedLabel = append(in.SpeedLabel, machLabel(0.1*float64(j+1)))
+		in.SpeedLabel = append(in.SpeedLabel, units.MachLabel(0.1*float64(j+1)))
 	}
 	in.Cell = func(i, j int) Cell {
 		return Cell{Inside: j >= i, Level: (i + j) % 4, Marked: i == 1 && j == 3}
@@ -184,7 +186,7 @@ func TestLevelBins(t *testing.T) {
 	}
 }
 
-func TestParseLayerAndUnits(t *testing.T) {
+func TestParseLayer(t *testing.T) {
 	for _, l := range Layers() {
 		got, err := ParseLayer(l.String())
 		if err != nil || got != l {
@@ -193,14 +195,6 @@ func TestParseLayerAndUnits(t *testing.T) {
 	}
 	if _, err := ParseLayer("colour"); err == nil {
 		t.Errorf("ParseLayer(colour) = nil error")
-	}
-	for _, u := range []Units{SI, Customary} {
-		if got, err := ParseUnits(u.String()); err != nil || got != u {
-			t.Errorf("ParseUnits(%q) = %v, %v", u.String(), got, err)
-		}
-	}
-	if _, err := ParseUnits("cubits"); err == nil {
-		t.Errorf("ParseUnits(cubits) = nil error")
 	}
 }
 
@@ -213,17 +207,6 @@ func FuzzParseLayer(f *testing.F) {
 		l, err := ParseLayer(s)
 		if err == nil && !strings.EqualFold(l.String(), s) {
 			t.Errorf("ParseLayer(%q) = %v", s, l)
-		}
-	})
-}
-
-func FuzzParseUnits(f *testing.F) {
-	f.Add("SI")
-	f.Add("customary")
-	f.Fuzz(func(t *testing.T, s string) {
-		u, err := ParseUnits(s)
-		if err == nil && u != SI && u != Customary {
-			t.Errorf("ParseUnits(%q) = %v", s, u)
 		}
 	})
 }

@@ -10,6 +10,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope"
+	"likewind/envelope/units"
 )
 
 // Screen size limits.
@@ -118,7 +119,7 @@ type Model struct {
 	pendingFac int
 
 	layer   Layer
-	units   Units
+	units   units.System
 	fac     int // chosen facility, -1 = best of all
 	lastFac int // facility to return to from best of all
 	curI    int // cursor altitude index (0 = lowest)

@@ -7,6 +7,8 @@ import (
 
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/x/exp/teatest"
+
+	"likewind/envelope/units"
 )
 
 // TestProgramEndToEnd runs the model in a real Bubble Tea program: keys
@@ -41,8 +43,8 @@ func TestProgramEndToEnd(t *testing.T) {
 	waitFor("Unsaved changes")
 	tm.Type("y")
 	final := tm.FinalModel(t, teatest.WithFinalTimeout(5*time.Second)).(Model)
-	if final.layer != LayerRegime || final.units != Customary {
-		t.Errorf("final layer/units = %v/%v, want %v/%v", final.layer, final.units, LayerRegime, Customary)
+	if final.layer != LayerRegime || final.units != units.Customary {
+		t.Errorf("final layer/units = %v/%v, want %v/%v", final.layer, final.units, LayerRegime, units.Customary)
 	}
 	k := final.fac
 	if k != 2 {

@@ -12,6 +12,8 @@ import (
 	"time"
 
 	tea "github.com/charmbracelet/bubbletea"
+
+	"likewind/envelope/units"
 )
 
 func TestSessionRoundTripFile(t *testing.T) {
@@ -21,7 +23,7 @@ func TestSessionRoundTripFile(t *testing.T) {
 		Hash:      "sha256:abc",
 		Facility:  "Tunnel",
 		Layer:     LayerQ.String(),
-		Units:     Customary.String(),
+		Units:     units.Customary.String(),
 		WhatIf:    WhatIf{Values: map[string]float64{"scale": 0.05, "delta_t_K": -10}, Facilities: map[string]FacilityWhatIf{"Tunnel": {"p0_max_Pa": 3e5, "q_max_Pa": 0}}},
 		Marks:     []Point{{Altitude: 1000, Speed: 0.8}, {Altitude: 2000, Speed: 0.9}},
 		Cursor:    &Point{Altitude: 1000, Speed: 0.8},
@@ -172,7 +174,7 @@ func TestNewRefusesForeignSession(t *testing.T) {
 	if !m.statusErr || !strings.Contains(m.status, "session not restored") {
 		t.Errorf("status = %q, want a refusal", m.status)
 	}
-	if m.layer != LayerClass || m.units != SI {
+	if m.layer != LayerClass || m.units != units.SI {
 		t.Errorf("a foreign session was applied: layer %v units %v", m.layer, m.units)
 	}
 	if !strings.Contains(m.View(), "session not restored") {
@@ -229,8 +231,8 @@ func TestRunWritesSessionWhenCancelled(t *testing.T) {
 	if err != nil {
 		t.Fatalf("session not written on cancel: %v", err)
 	}
-	if s.Units != Customary.String() {
-		t.Errorf("saved units %q, want the change %q", s.Units, Customary)
+	if s.Units != units.Customary.String() {
+		t.Errorf("saved units %q, want the change %q", s.Units, units.Customary)
 	}
 	if r := m.SaveReport(); len(r) != 1 || r[0] != "session saved to "+path {
 		t.Errorf("report = %q, want the one save", r)

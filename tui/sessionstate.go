@@ -5,6 +5,8 @@ import (
 	"math"
 	"sort"
 	"strings"
+
+	"likewind/envelope/units"
 )
 
 // Session returns the state worth keeping: what-if values changed from the
@@ -90,7 +92,7 @@ func (m *Model) applySession(s Session) string {
 	} else if s.Layer != "" {
 		notes = append(notes, err.Error())
 	}
-	if u, err := ParseUnits(s.Units); err == nil {
+	if u, err := units.Parse(s.Units); err == nil {
 		m.units = u
 	} else {
 		notes = append(notes, err.Error())

@@ -10,6 +10,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope"
+	"likewind/envelope/units"
 )
 
 // TestUpdateKeys checks the effect of every main-screen key.
@@ -90,7 +91,7 @@ func TestUpdateKeys(t *testing.T) {
 			}
 		}},
 		{"u toggles units", nil, []string{"u"}, func(t *testing.T, b, a Model, _ bool) {
-			if a.units != Customary {
+			if a.units != units.Customary {
 				t.Errorf("units = %v, want customary", a.units)
 			}
 			if !strings.Contains(a.View(), "altitude ft") {
@@ -546,7 +547,7 @@ func TestInputLineLimit(t *testing.T) {
 		if s == "" {
 			return nil
 		}
-		_, err := parseField(fieldMachTol, s, SI, nil)
+		_, err := parseField(fieldMachTol, s, units.SI, nil)
 		return err
 	})
 	l, _ = l.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("2")})

@@ -8,6 +8,7 @@ import (
 	"github.com/charmbracelet/x/ansi"
 
 	"likewind/envelope"
+	"likewind/envelope/units"
 )
 
 // matrixView draws the matrix in its frame.
@@ -434,7 +435,7 @@ func (m Model) pickerRows() []pickerRow {
 			r.err = m.res.errs[k].Error()
 		}
 		if k < len(m.res.maps) && m.res.maps[k] != nil {
-			r.info += ", scale " + sig(m.res.maps[k].Scale, 3) + " (" + m.res.maps[k].ScaleRule + ")"
+			r.info += ", scale " + units.Sig(m.res.maps[k].Scale, 3) + " (" + m.res.maps[k].ScaleRule + ")"
 		}
 		rows = append(rows, r)
 	}
@@ -524,12 +525,12 @@ func facilityOrigin(f envelope.Facility) string {
 
 func scaleText(s float64) string {
 	if s > 0 {
-		return sig(s, 4)
+		return units.Sig(s, 4)
 	}
 	return "facility sizing"
 }
 
-func qText(u Units, q float64) string {
+func qText(u units.System, q float64) string {
 	if q > 0 {
 		return u.Q(q)
 	}

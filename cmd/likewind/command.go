@@ -14,6 +14,7 @@ import (
 
 	"likewind/envelope"
 	"likewind/envelope/fileout"
+	"likewind/envelope/units"
 	"likewind/tui"
 )
 
@@ -208,11 +209,11 @@ func (c *command) pickFacility(given bool, def int, allowBest bool) (int, error)
 }
 
 // units is SI, or customary with --customary.
-func (c *command) units() tui.Units {
+func (c *command) units() units.System {
 	if c.customary {
-		return tui.Customary
+		return units.Customary
 	}
-	return tui.SI
+	return units.SI
 }
 
 // write sends the output to -o FILE atomically, or to standard output.

@@ -9,6 +9,7 @@ import (
 	"github.com/charmbracelet/lipgloss"
 	"github.com/muesli/termenv"
 
+	"likewind/envelope/units"
 	"likewind/tui"
 )
 
@@ -46,7 +47,7 @@ func runDump(args []string, stdout, stderr io.Writer) int {
 			return err
 		}
 		ev := c.ev
-		units := c.units()
+		sys := c.units()
 		// Without a choice, the facility the interface opens on.
 		fac := tui.StartFacility(ev.e.Maps)
 		if s := ev.session; s != nil {
@@ -57,8 +58,8 @@ func runDump(args []string, stdout, stderr io.Writer) int {
 				}
 			}
 			if !set["customary"] {
-				if u, err := tui.ParseUnits(s.Units); err == nil {
-					units = u
+				if u, err := units.Parse(s.Units); err == nil {
+					sys = u
 				}
 			}
 			if !set["facility"] {
@@ -73,7 +74,7 @@ func runDump(args []string, stdout, stderr io.Writer) int {
 		if err != nil {
 			return err
 		}
-		text, err := renderDump(ev, dumpView{fac: fac, layer: lay, units: units, date: c.day}, c.dumpStyles(*plain, *color))
+		text, err := renderDump(ev, dumpView{fac: fac, layer: lay, units: sys, date: c.day}, c.dumpStyles(*plain, *color))
 		if err != nil {
 			return c.errorf("%w", err)
 		}
@@ -132,7 +133,7 @@ func parseLayer(s string) (tui.Layer, error) {
 type dumpView struct {
 	fac   int // facility index, -1 best of all
 	layer tui.Layer
-	units tui.Units
+	units units.System
 	date  string
 }
 

@@ -14,6 +14,7 @@ import (
 	"github.com/charmbracelet/x/ansi"
 
 	"likewind/envelope"
+	"likewind/envelope/units"
 	"likewind/tui"
 )
 
@@ -55,7 +56,7 @@ func outDemoSession(t *testing.T, marks [][2]int, w tui.WhatIf, facility string)
 	e := outDemoEval(t)
 	s := tui.Session{
 		Version: tui.SessionVersion, Hash: tui.DataHash(v, facs),
-		Facility: facility, Layer: tui.LayerClass.String(), Units: tui.SI.String(), WhatIf: w,
+		Facility: facility, Layer: tui.LayerClass.String(), Units: units.SI.String(), WhatIf: w,
 	}
 	for _, m := range marks {
 		s.Marks = append(s.Marks, tui.Point{Altitude: e.Grid.Alts[m[0]], Speed: e.Grid.Speeds[m[1]]})
@@ -293,7 +294,7 @@ func TestDumpWithUnevaluatedFacility(t *testing.T) {
 	e.Maps[0], e.Errs[0] = nil, errors.New("no model scale")
 	ev := &evaluated{e: e}
 	for _, layer := range tui.Layers() {
-		out, err := renderDump(ev, dumpView{fac: -1, layer: layer, units: tui.SI, date: "2025-01-01"}, tui.PlainStyles())
+		out, err := renderDump(ev, dumpView{fac: -1, layer: layer, units: units.SI, date: "2025-01-01"}, tui.PlainStyles())
 		if err != nil {
 			t.Fatalf("layer %v: %v", layer, err)
 		}
@@ -302,7 +303,7 @@ func TestDumpWithUnevaluatedFacility(t *testing.T) {
 		}
 	}
 	e.Maps = make([]*envelope.Map, len(e.Maps))
-	out, err := renderDump(ev, dumpView{fac: -1, layer: tui.LayerClass, units: tui.SI, date: "2025-01-01"}, tui.PlainStyles())
+	out, err := renderDump(ev, dumpView{fac: -1, layer: tui.LayerClass, units: units.SI, date: "2025-01-01"}, tui.PlainStyles())
 	if err != nil {
 		t.Fatal(err)
 	}

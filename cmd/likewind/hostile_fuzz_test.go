@@ -14,6 +14,7 @@ import (
 
 	"likewind/envelope"
 	"likewind/envelope/report"
+	"likewind/envelope/units"
 	"likewind/tui"
 )
 
@@ -171,7 +172,7 @@ func hostileOutputs(t *testing.T, name, file string) map[string]string {
 	if err != nil {
 		t.Fatal(err)
 	}
-	must("runs text", p.writeText(&b, tui.SI))
+	must("runs text", p.writeText(&b, units.SI))
 	must("runs csv", p.WriteCSV(&b))
 	must("runs json", p.writeJSON(&b))
 	for what, mk := range map[string]func() (*report.Chart, error){

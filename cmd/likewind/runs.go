@@ -9,6 +9,7 @@ import (
 	"likewind/atmos"
 	"likewind/envelope"
 	"likewind/envelope/report"
+	"likewind/envelope/units"
 	"likewind/tui"
 )
 
@@ -103,7 +104,7 @@ func runCount(rl report.RunList) string {
 }
 
 // writeText writes the run lists as aligned tables under a header.
-func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
+func (p *runPlan) writeText(w io.Writer, u units.System) error {
 	var b strings.Builder
 	g := p.ev.e.Grid
 	fmt.Fprintf(&b, "likewind %s run list, %s\n", version, p.date)
@@ -128,7 +129,7 @@ func (p *runPlan) writeText(w io.Writer, u tui.Units) error {
 // runText formats run lists in SI units (kPa, K, m/s) or customary ones
 // (psi for p0 and static pressure, psf for q, °F, ft/s).
 type runText struct {
-	u          tui.Units
+	u          units.System
 	speedTitle string
 	speedLabel func(float64) string
 	// unit labels of altitude, pressure, dynamic pressure, temperature
@@ -136,16 +137,16 @@ type runText struct {
 	altU, pU, qU, tU, vU string
 }
 
-func newRunText(u tui.Units, kind atmos.SpeedKind) runText {
+func newRunText(u units.System, kind atmos.SpeedKind) runText {
 	t := runText{u: u, altU: u.AltUnit(), pU: "kPa", qU: "kPa", tU: "K", vU: "m/s"}
 	t.speedTitle, t.speedLabel = u.SpeedAxis(kind)
-	if u == tui.Customary {
+	if u == units.Customary {
 		t.pU, t.qU, t.tU, t.vU = "psi", "psf", "°F", "ft/s"
 	}
 	return t
 }
 
-func (t runText) customary() bool { return t.u == tui.Customary }
+func (t runText) customary() bool { return t.u == units.Customary }
 
 // p is a stagnation or static pressure.
 func (t runText) p(x float64) string {

@@ -12,6 +12,7 @@ import (
 
 	"likewind/envelope"
 	"likewind/envelope/report"
+	"likewind/envelope/units"
 	"likewind/tui"
 )
 
@@ -318,7 +319,7 @@ func TestRunsMachRelaxedGas(t *testing.T) {
 	}
 	// Marked: two relaxed points of each gas facility that has them.
 	s := tui.Session{Version: tui.SessionVersion, Hash: tui.DataHash(in.vehicle, in.facilities),
-		Layer: tui.LayerClass.String(), Units: tui.SI.String()}
+		Layer: tui.LayerClass.String(), Units: units.SI.String()}
 	want := map[string]map[[2]int]bool{}
 	marked := map[[2]int]bool{}
 	for name, pts := range relaxed {

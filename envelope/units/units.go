@@ -1,4 +1,4 @@
-package tui
+package units
 
 import (
 	"fmt"
@@ -10,27 +10,27 @@ import (
 	"likewind/envelope"
 )
 
-// Units is the display unit system. Values are SI inside; conversion
+// System is the display unit system. Values are SI inside; conversion
 // happens only here, at display time.
-type Units uint8
+type System uint8
 
 const (
 	// SI shows m, m/s, K, kPa (Pa below 1 kPa), kg/m³.
-	SI Units = iota
+	SI System = iota
 	// Customary shows ft, kt, °F, psf (psi for stagnation pressure),
 	// slug/ft³.
 	Customary
 )
 
-func (u Units) String() string {
+func (u System) String() string {
 	if u == Customary {
 		return "customary"
 	}
 	return "SI"
 }
 
-// ParseUnits is the inverse of Units.String.
-func ParseUnits(s string) (Units, error) {
+// Parse is the inverse of System.String.
+func Parse(s string) (System, error) {
 	switch strings.ToLower(strings.TrimSpace(s)) {
 	case "si", "":
 		return SI, nil
@@ -41,16 +41,16 @@ func ParseUnits(s string) (Units, error) {
 }
 
 // Toggle returns the other unit system.
-func (u Units) Toggle() Units {
+func (u System) Toggle() System {
 	if u == Customary {
 		return SI
 	}
 	return Customary
 }
 
-// sig formats v with n significant digits, without exponent between 1e-3
+// Sig formats v with n significant digits, without exponent between 1e-3
 // and 1e6, and with a short exponent ("3.10e7") outside that range.
-func sig(v float64, n int) string {
+func Sig(v float64, n int) string {
 	switch {
 	case math.IsNaN(v):
 		return "n/a"
@@ -63,7 +63,7 @@ func sig(v float64, n int) string {
 	}
 	a := math.Abs(v)
 	if a >= 1e6 || a < 1e-3 {
-		return expo(v, n)
+		return Expo(v, n)
 	}
 	e := int(math.Floor(math.Log10(a)))
 	dec := max(n-1-e, 0)
@@ -74,9 +74,9 @@ func sig(v float64, n int) string {
 	return s
 }
 
-// expo formats v as mantissa and exponent with n significant digits:
+// Expo formats v as mantissa and exponent with n significant digits:
 // "3.10e7", "1.2e-8".
-func expo(v float64, n int) string {
+func Expo(v float64, n int) string {
 	s := strconv.FormatFloat(v, 'e', max(n-1, 0), 64)
 	mant, exp, ok := strings.Cut(s, "e")
 	if !ok {
@@ -93,10 +93,10 @@ func expo(v float64, n int) string {
 	return mant + "e" + exp
 }
 
-// fixed formats v with d decimals ("n/a" for NaN).
-func fixed(v float64, d int) string {
+// Fixed formats v with d decimals ("n/a" for NaN).
+func Fixed(v float64, d int) string {
 	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return sig(v, 3)
+		return Sig(v, 3)
 	}
 	s := strconv.FormatFloat(v, 'f', d, 64)
 	if strings.TrimLeft(s, "-0.") == "" {
@@ -106,7 +106,7 @@ func fixed(v float64, d int) string {
 }
 
 // AltUnit names the altitude unit.
-func (u Units) AltUnit() string {
+func (u System) AltUnit() string {
 	if u == Customary {
 		return "ft"
 	}
@@ -114,7 +114,7 @@ func (u Units) AltUnit() string {
 }
 
 // AltValue converts an altitude in m to display units.
-func (u Units) AltValue(m float64) float64 {
+func (u System) AltValue(m float64) float64 {
 	if u == Customary {
 		return m / atmos.Foot
 	}
@@ -122,21 +122,21 @@ func (u Units) AltValue(m float64) float64 {
 }
 
 // AltLabel is an altitude axis label: whole units, no unit name.
-func (u Units) AltLabel(m float64) string { return fixed(u.AltValue(m), 0) }
+func (u System) AltLabel(m float64) string { return Fixed(u.AltValue(m), 0) }
 
 // Alt formats an altitude with its unit.
-func (u Units) Alt(m float64) string { return fixed(u.AltValue(m), 0) + " " + u.AltUnit() }
+func (u System) Alt(m float64) string { return Fixed(u.AltValue(m), 0) + " " + u.AltUnit() }
 
 // Length formats a length (model span, mean free path...).
-func (u Units) Length(m float64) string {
+func (u System) Length(m float64) string {
 	if u == Customary {
-		return sig(m/atmos.Foot, 3) + " ft"
+		return Sig(m/atmos.Foot, 3) + " ft"
 	}
-	return sig(m, 3) + " m"
+	return Sig(m, 3) + " m"
 }
 
 // SpeedUnit names the speed unit.
-func (u Units) SpeedUnit() string {
+func (u System) SpeedUnit() string {
 	if u == Customary {
 		return "kt"
 	}
@@ -144,7 +144,7 @@ func (u Units) SpeedUnit() string {
 }
 
 // SpeedValue converts m/s to display units.
-func (u Units) SpeedValue(v float64) float64 {
+func (u System) SpeedValue(v float64) float64 {
 	if u == Customary {
 		return v / atmos.Knot
 	}
@@ -152,25 +152,25 @@ func (u Units) SpeedValue(v float64) float64 {
 }
 
 // Speed formats a speed with its unit.
-func (u Units) Speed(v float64) string {
-	return fixed(u.SpeedValue(v), 1) + " " + u.SpeedUnit()
+func (u System) Speed(v float64) string {
+	return Fixed(u.SpeedValue(v), 1) + " " + u.SpeedUnit()
 }
 
 // Temp formats an absolute temperature.
-func (u Units) Temp(k float64) string {
+func (u System) Temp(k float64) string {
 	if u == Customary {
-		return fixed(k*9/5-459.67, 1) + " °F"
+		return Fixed(k*9/5-459.67, 1) + " °F"
 	}
-	return fixed(k, 1) + " K"
+	return Fixed(k, 1) + " K"
 }
 
 // DeltaT formats a temperature offset with its sign.
-func (u Units) DeltaT(k float64) string {
+func (u System) DeltaT(k float64) string {
 	v, unit := k, "K"
 	if u == Customary {
 		v, unit = k*9/5, "°F"
 	}
-	s := fixed(v, 1)
+	s := Fixed(v, 1)
 	if v >= 0 && !strings.HasPrefix(s, "-") {
 		s = "+" + s
 	}
@@ -178,62 +178,62 @@ func (u Units) DeltaT(k float64) string {
 }
 
 // Pressure formats a static pressure: kPa (Pa below 1 kPa) or psf.
-func (u Units) Pressure(p float64) string {
+func (u System) Pressure(p float64) string {
 	if u == Customary {
-		return sig(p/atmos.PSF, 4) + " psf"
+		return Sig(p/atmos.PSF, 4) + " psf"
 	}
 	if math.Abs(p) < 1000 {
-		return sig(p, 4) + " Pa"
+		return Sig(p, 4) + " Pa"
 	}
-	return sig(p/1000, 4) + " kPa"
+	return Sig(p/1000, 4) + " kPa"
 }
 
 // Q formats a dynamic pressure (same units as Pressure).
-func (u Units) Q(q float64) string { return u.Pressure(q) }
+func (u System) Q(q float64) string { return u.Pressure(q) }
 
 // Stagnation formats a stagnation or vessel pressure: kPa or psi.
-func (u Units) Stagnation(p float64) string {
+func (u System) Stagnation(p float64) string {
 	if u == Customary {
-		return sig(p/atmos.PSI, 4) + " psi"
+		return Sig(p/atmos.PSI, 4) + " psi"
 	}
-	return sig(p/1000, 4) + " kPa"
+	return Sig(p/1000, 4) + " kPa"
 }
 
 // Density formats a density.
-func (u Units) Density(rho float64) string {
+func (u System) Density(rho float64) string {
 	if u == Customary {
-		return sig(rho/atmos.SlugPerCubicFoot, 4) + " slug/ft³"
+		return Sig(rho/atmos.SlugPerCubicFoot, 4) + " slug/ft³"
 	}
-	return sig(rho, 4) + " kg/m³"
+	return Sig(rho, 4) + " kg/m³"
 }
 
 // PerLength formats a quantity per unit length (unit Reynolds number).
-func (u Units) PerLength(x float64) string {
+func (u System) PerLength(x float64) string {
 	if u == Customary {
-		return expo(x*atmos.Foot, 3) + " /ft"
+		return Expo(x*atmos.Foot, 3) + " /ft"
 	}
-	return expo(x, 3) + " /m"
+	return Expo(x, 3) + " /m"
 }
 
 // SpeedAxis returns the axis title and a label formatter for a speed axis
 // of the given kind (Mach is unitless; the others are speeds).
-func (u Units) SpeedAxis(kind atmos.SpeedKind) (title string, label func(v float64) string) {
+func (u System) SpeedAxis(kind atmos.SpeedKind) (title string, label func(v float64) string) {
 	if kind == atmos.Mach {
-		return "Mach", func(v float64) string { return machLabel(v) }
+		return "Mach", func(v float64) string { return MachLabel(v) }
 	}
 	return kind.String() + " " + u.SpeedUnit(), func(v float64) string {
-		return fixed(u.SpeedValue(v), 0)
+		return Fixed(u.SpeedValue(v), 0)
 	}
 }
 
-// machLabel prints a Mach number with two decimals below 10 and one above.
-func machLabel(m float64) string {
+// MachLabel prints a Mach number with two decimals below 10 and one above.
+func MachLabel(m float64) string {
 	if math.Abs(m) >= 10 {
-		return fixed(m, 1)
+		return Fixed(m, 1)
 	}
-	return fixed(m, 2)
+	return Fixed(m, 2)
 }
 
-// Units writes the quantities of the facility cautions too, so cautions
-// read in the units the rest of the panel shows.
-var _ envelope.QuantityFormat = Units(0)
+// A System writes the quantities of the facility cautions too, so cautions
+// read in the units the rest of a screen or dump shows.
+var _ envelope.QuantityFormat = System(0)
