@@ -7,6 +7,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 )
 
 // bigDemo is the demo vehicle on a 400×400 grid.
@@ -95,15 +96,15 @@ func BenchmarkKeyToFrame(b *testing.B) {
 			m.fac = facilityNamed(b, m, fc)
 			p0 := m.facs[m.fac].PressureMax()
 			lower := max(0.9*p0, 0.5*(m.facs[m.fac].PressureMin()+p0)) // stays above P0Min
-			benchEdit(b, m, fieldP0Max, units.Sig(lower/1000, 4)+" kPa", units.Sig(p0/1000, 4)+" kPa")
+			benchEdit(b, m, whatif.P0Max, units.Sig(lower/1000, 4)+" kPa", units.Sig(p0/1000, 4)+" kPa")
 		})
 	}
-	b.Run("deltaT", func(b *testing.B) { benchEdit(b, base, fieldDeltaT, "5 K", "0 K") })
+	b.Run("deltaT", func(b *testing.B) { benchEdit(b, base, whatif.DeltaT, "5 K", "0 K") })
 }
 
 // benchEdit times enter on the what-if line of field f, holding each of
 // values in turn, to the finished frame (the line is opened untimed).
-func benchEdit(b *testing.B, m Model, f field, values ...string) {
+func benchEdit(b *testing.B, m Model, f whatif.Field, values ...string) {
 	m.mode = modeEdit
 	m.editor.sel = int(f)
 	m.relayout() // the editor's rows and reader for the chosen facility

@@ -4,6 +4,8 @@ import (
 	"github.com/charmbracelet/bubbles/help"
 	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
+
+	"likewind/envelope/whatif"
 )
 
 // component is the shape of the panels the root composes (the facility
@@ -34,7 +36,7 @@ type (
 	// fieldAppliedMsg: the editor read value (SI) for field, parsed and
 	// checked; the root applies it and recomputes.
 	fieldAppliedMsg struct {
-		field field
+		field whatif.Field
 		value float64
 	}
 	// panelClosedMsg: back to the matrix.

@@ -6,6 +6,8 @@ import (
 
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/x/ansi"
+
+	"likewind/envelope/whatif"
 )
 
 // reportOf runs a component's command and returns its report (nil for
@@ -54,7 +56,7 @@ func TestEditorReportsAppliedField(t *testing.T) {
 	m.fac = facilityNamed(t, m, "Kellen Fold")
 	m, _ = press(m, "e")
 	e := m.editor
-	e.sel = int(fieldP0Max)
+	e.sel = int(whatif.P0Max)
 	e, _ = e.Update(keyMsg("enter"))
 	if !e.editing || e.input.Value() != "450.0 kPa" {
 		t.Fatalf("enter on p0 max: editing %v, line %q; want the line open on the value", e.editing, e.input.Value())
@@ -64,7 +66,7 @@ func TestEditorReportsAppliedField(t *testing.T) {
 		e, _ = e.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{r}})
 	}
 	e2, cmd := e.Update(keyMsg("enter"))
-	if got, want := reportOf(cmd), (fieldAppliedMsg{field: fieldP0Max, value: 3e5}); got != want || e2.editing {
+	if got, want := reportOf(cmd), (fieldAppliedMsg{field: whatif.P0Max, value: 3e5}); got != want || e2.editing {
 		t.Errorf("enter on 3 bar reports %#v (editing %v), want %#v with the line closed", got, e2.editing, want)
 	}
 	e, _ = e.Update(keyMsg("ctrl+u"))
@@ -75,7 +77,7 @@ func TestEditorReportsAppliedField(t *testing.T) {
 	}
 	// The editor's reader checks the value against the other settings:
 	// the compressibility threshold stays below the subsonic bound.
-	e.sel = int(fieldCompMach)
+	e.sel = int(whatif.CompMach)
 	e.begin("0.85")
 	if _, cmd := e.Update(keyMsg("enter")); cmd != nil {
 		t.Errorf("compressibility 0.85 reported %#v, want a refusal", reportOf(cmd))
@@ -124,7 +126,7 @@ func TestViewDrawsStoredDetails(t *testing.T) {
 		// Results that arrive replace the details too: a facility edit
 		// changes the answer at the point.
 		m.details.blocks.facility = []string{mark}
-		m = edit(t, m, fieldScale, "0.2")
+		m = edit(t, m, whatif.Scale, "0.2")
 		if strings.Contains(strings.Join(m.details.blocks.facility, "\n"), mark) {
 			t.Errorf("%d×%d: details not computed again when results arrived", size.w, size.h)
 		}
@@ -162,7 +164,7 @@ func TestEditorRefusalShownWhole(t *testing.T) {
 	for _, size := range []struct{ w, h int }{{80, 24}, {120, 40}} {
 		m := newDemo(t, size.w, size.h)
 		m.fac = facilityNamed(t, m, "Kellen Fold")
-		m = edit(t, m, fieldP0Max, "1 bar")
+		m = edit(t, m, whatif.P0Max, "1 bar")
 		want := m.editor.err
 		if !strings.Contains(want, "not below the facility's minimum 120000 Pa") {
 			t.Fatalf("%d×%d: refusal %q", size.w, size.h, want)

@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"likewind/envelope"
+	"likewind/envelope/whatif"
 )
 
 // The details grade a Reynolds shortfall by its skin-friction effect.
@@ -72,7 +73,7 @@ func TestDetailsStateOperatingRule(t *testing.T) {
 			m.fac = facilityNamed(t, m, name)
 			// A larger model than the facilities' own, so that the water
 			// tunnel matches somewhere too.
-			m = edit(t, m, fieldScale, "0.2")
+			m = edit(t, m, whatif.Scale, "0.2")
 			m, _ = press(m, "esc")
 			mp := m.res.maps[m.fac]
 			for p, r := range mp.Results {

@@ -5,6 +5,10 @@ import (
 
 	"github.com/charmbracelet/bubbles/key"
 	tea "github.com/charmbracelet/bubbletea"
+
+	"likewind/envelope"
+	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 )
 
 // editorRow is one line of the what-if list as the root describes it.
@@ -37,6 +41,25 @@ type editor struct {
 	lineW   int
 }
 
+// fieldReader reads the text typed for a field as the editor applies it:
+// in the current units, for the chosen facility, then checked against the
+// other settings. It holds copies of what it needs, so it stays valid as
+// the model is copied.
+type fieldReader struct {
+	units units.System
+	fac   *envelope.Facility // the chosen facility, nil for none (its slice is never changed in place)
+	set   envelope.Settings
+}
+
+// read parses text for field f and checks it.
+func (r fieldReader) read(f whatif.Field, text string) (float64, error) {
+	v, err := f.Parse(text, r.units, r.fac)
+	if err == nil {
+		err = f.Validate(r.set, v)
+	}
+	return v, err
+}
+
 func newEditor(f frame) editor {
 	return editor{frame: f}
 }
@@ -64,7 +87,7 @@ func (e editor) title() string {
 func (e *editor) SetLineWidth(w int) { e.lineW = max(w, 0) }
 
 // field is the field under the pointer.
-func (e editor) field() field { return field(e.sel) }
+func (e editor) field() whatif.Field { return whatif.Field(e.sel) }
 
 // begin opens the input line for the field under the pointer, holding
 // text, with the field's parser as its Validate hook.
@@ -72,7 +95,7 @@ func (e *editor) begin(text string) {
 	f, r := e.field(), e.reader
 	e.editing = true
 	e.err = ""
-	e.input = newInputLine(e.keys, f.label(isWater(r.fac))+" > ", text, maxEntry, func(s string) error {
+	e.input = newInputLine(e.keys, f.Label(whatif.IsWater(r.fac))+" > ", text, whatif.MaxEntry, func(s string) error {
 		_, err := r.read(f, s)
 		return err
 	})
@@ -113,12 +136,12 @@ func (e editor) Update(msg tea.Msg) (editor, tea.Cmd) {
 		default:
 			e.input, _ = e.input.Update(k)
 			if r := e.input.Refused(); r != "" {
-				e.err = e.field().label(isWater(e.reader.fac)) + ": " + r
+				e.err = e.field().Label(whatif.IsWater(e.reader.fac)) + ": " + r
 			}
 		}
 		return e, nil
 	}
-	if sel, cmd, ok := listKey(k, keys, keys.Edit, e.sel, int(fieldCount)); ok {
+	if sel, cmd, ok := listKey(k, keys, keys.Edit, e.sel, int(whatif.FieldCount)); ok {
 		if sel != e.sel {
 			e.sel, e.err = sel, ""
 		}

@@ -6,6 +6,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope"
+	"likewind/envelope/whatif"
 )
 
 // The user's changes: marks, what-if values from the editor, restoring
@@ -161,25 +162,24 @@ func (m *Model) fieldReader() fieldReader {
 // there) and recomputes what it changes: the grid for a flight-side
 // setting, every facility for another setting, the chosen facility for
 // one of its limits.
-func (m *Model) applyField(f field, v float64) tea.Cmd {
-	d := f.def()
-	if d.facility && (m.fac < 0 || m.fac >= len(m.facs)) {
+func (m *Model) applyField(f whatif.Field, v float64) tea.Cmd {
+	if f.Facility() && (m.fac < 0 || m.fac >= len(m.facs)) {
 		return nil // the editor opens no limit without a facility
 	}
 	// The state before the edit, for undo.
-	before := undoStep{what: "what-if " + f.label(d.facility && isWater(&m.facs[m.fac])), whatIf: true, set: m.set, facs: m.facs, marks: m.marks}
+	before := undoStep{what: "what-if " + f.Label(f.Facility() && whatif.IsWater(&m.facs[m.fac])), whatIf: true, set: m.set, facs: m.facs, marks: m.marks}
 	kind := recomputeSolve
 	switch {
-	case d.facility:
+	case f.Facility():
 		facs := append([]envelope.Facility(nil), m.facs...)
-		d.set(nil, &facs[m.fac], v)
+		f.Set(nil, &facs[m.fac], v)
 		m.facs = facs
 		kind = recomputeOneFac
-	case d.grid:
-		d.set(&m.set, nil, v)
+	case f.Grid():
+		f.Set(&m.set, nil, v)
 		kind = recomputeGrid
 	default:
-		d.set(&m.set, nil, v)
+		f.Set(&m.set, nil, v)
 	}
 	m.pushStep(before)
 	return m.recompute(kind)

@@ -7,6 +7,8 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/x/ansi"
 	"github.com/charmbracelet/x/exp/golden"
+
+	"likewind/envelope/whatif"
 )
 
 // goldenStates are the screens kept as golden files, colour disabled.
@@ -49,8 +51,8 @@ func goldenStates(t *testing.T) []struct {
 		{"editing", keys("e", "down", "down", "down", "down", "down", "enter", "ctrl+u", "3", " ", "b", "a", "r")},
 		{"edited", func(w, h int) Model {
 			m := start(w, h)
-			m = edit(t, m, fieldP0Max, "3 bar")
-			m = edit(t, m, fieldDeltaT, "10 K")
+			m = edit(t, m, whatif.P0Max, "3 bar")
+			m = edit(t, m, whatif.DeltaT, "10 K")
 			m, _ = press(m, "esc")
 			return m
 		}},

@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"likewind/envelope"
+	"likewind/envelope/whatif"
 )
 
 // cursorOnInside puts the cursor on the first inside point of the grid.
@@ -34,7 +35,7 @@ func TestModelTooLargeShownOnScreen(t *testing.T) {
 		if strings.Contains(m.View(), "too large") {
 			t.Fatalf("%v: the files' scale 1/40 is shown as too large", size)
 		}
-		m = edit(t, m, fieldScale, "1/2")
+		m = edit(t, m, whatif.Scale, "1/2")
 		if m.editor.err != "" {
 			t.Fatalf("edit error %q", m.editor.err)
 		}
@@ -51,7 +52,7 @@ func TestModelTooLargeShownOnScreen(t *testing.T) {
 
 	v, facs := demoData(t)
 	half := 0.5
-	s := &Session{Version: SessionVersion, Hash: DataHash(v, facs), WhatIf: WhatIf{Values: map[string]float64{"scale": half}}}
+	s := &Session{Version: SessionVersion, Hash: DataHash(v, facs), WhatIf: whatif.Changes{Values: map[string]float64{"scale": half}}}
 	m := newDemo(t, 160, 48, func(o *Options) { o.Session = s })
 	if m.set.Scale != 0.5 {
 		t.Fatalf("session scale not applied: %g (status %q)", m.set.Scale, m.status)

@@ -9,6 +9,7 @@ import (
 	"github.com/charmbracelet/x/exp/teatest"
 
 	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 )
 
 // TestProgramEndToEnd runs the model in a real Bubble Tea program: keys
@@ -30,7 +31,7 @@ func TestProgramEndToEnd(t *testing.T) {
 	waitFor("altitude ft")
 	// A what-if edit: the recompute runs as a command inside the program.
 	tm.Type("]]e")
-	for range int(fieldP0Max) {
+	for range int(whatif.P0Max) {
 		tm.Send(tea.KeyMsg{Type: tea.KeyDown})
 	}
 	tm.Send(tea.KeyMsg{Type: tea.KeyEnter})

@@ -7,6 +7,8 @@ import (
 	"fmt"
 
 	tea "github.com/charmbracelet/bubbletea"
+
+	"likewind/envelope/whatif"
 )
 
 // Quitting and saving: the quit question, the save key, the outcome of a
@@ -60,7 +62,7 @@ func sessionState(s Session) string {
 // workState is the work in a session: what-if values and marks.
 func workState(s Session) string {
 	b, _ := json.Marshal(struct {
-		W WhatIf
+		W whatif.Changes
 		M []Point
 	}{s.WhatIf, s.Marks})
 	return string(b)

@@ -10,10 +10,10 @@ import (
 	"io/fs"
 	"os"
 	"slices"
-	"strconv"
 	"strings"
 
 	"likewind/envelope"
+	"likewind/envelope/whatif"
 )
 
 // SessionVersion is the version written into session files.
@@ -34,146 +34,9 @@ type Session struct {
 	Layer     string `json:"layer"`
 	Units     string `json:"units"`
 
-	WhatIf WhatIf  `json:"what_if"`
-	Marks  []Point `json:"marks,omitempty"`
-	Cursor *Point  `json:"cursor,omitempty"`
-}
-
-// WhatIf holds the values changed from the files, in SI, under their
-// session keys (the what-if field table, fields.go): Values the settings
-// ("scale", "delta_t_K", "mach_tol", "re_tol", "compressibility_mach"),
-// Facilities each facility's changed limits by facility name. A key that
-// is missing is unchanged.
-type WhatIf struct {
-	Values     map[string]float64
-	Facilities map[string]FacilityWhatIf
-}
-
-// FacilityWhatIf holds a facility's changed limits (SI) under their
-// session keys ("p0_max_Pa", "t0_min_K", "q_max_Pa").
-type FacilityWhatIf map[string]float64
-
-// MarshalJSON writes the settings in the table's order, then
-// "facilities" (by name) when any facility has a change.
-func (w WhatIf) MarshalJSON() ([]byte, error) {
-	if _, err := json.Marshal(w.Values); err != nil { // NaN, ±Inf
-		return nil, err
-	}
-	var b bytes.Buffer
-	b.WriteByte('{')
-	n := writeFieldValues(&b, w.Values, false)
-	if len(w.Facilities) > 0 {
-		if n > 0 {
-			b.WriteByte(',')
-		}
-		facs, err := json.Marshal(w.Facilities)
-		if err != nil {
-			return nil, err
-		}
-		b.WriteString(`"facilities":`)
-		b.Write(facs)
-	}
-	b.WriteByte('}')
-	return b.Bytes(), nil
-}
-
-// MarshalJSON writes the limits in the table's order.
-func (f FacilityWhatIf) MarshalJSON() ([]byte, error) {
-	if _, err := json.Marshal(map[string]float64(f)); err != nil { // NaN, ±Inf
-		return nil, err
-	}
-	var b bytes.Buffer
-	b.WriteByte('{')
-	writeFieldValues(&b, f, true)
-	b.WriteByte('}')
-	return b.Bytes(), nil
-}
-
-// writeFieldValues writes the values of the settings (facility false) or
-// facility limits held in vals as JSON members, in the table's order, and
-// returns how many it wrote. Keys that are not in the table are left out.
-func writeFieldValues(b *bytes.Buffer, vals map[string]float64, facility bool) int {
-	n := 0
-	for f := range fieldCount {
-		d := f.def()
-		v, ok := vals[d.key]
-		if d.facility != facility || !ok {
-			continue
-		}
-		if n > 0 {
-			b.WriteByte(',')
-		}
-		num, _ := json.Marshal(v) // checked by the caller
-		b.WriteString(strconv.Quote(d.key) + ":")
-		b.Write(num)
-		n++
-	}
-	return n
-}
-
-// UnmarshalJSON reads the settings' keys and "facilities"; any other key
-// is refused, as in the rest of the session file. A null value is
-// unchanged.
-func (w *WhatIf) UnmarshalJSON(data []byte) error {
-	var raw map[string]json.RawMessage
-	if err := json.Unmarshal(data, &raw); err != nil {
-		return err
-	}
-	*w = WhatIf{}
-	for k, v := range raw {
-		if strings.EqualFold(k, "facilities") {
-			if err := json.Unmarshal(v, &w.Facilities); err != nil {
-				return err
-			}
-			continue
-		}
-		f, ok := fieldByKey(k, false)
-		if !ok {
-			return fmt.Errorf("unknown what-if field %q (expected %s or facilities)", k, fieldKeys(false))
-		}
-		if err := readFieldValue(&w.Values, f, v); err != nil {
-			return err
-		}
-	}
-	return nil
-}
-
-// UnmarshalJSON reads a facility's limits; any other key is refused.
-func (f *FacilityWhatIf) UnmarshalJSON(data []byte) error {
-	var raw map[string]json.RawMessage
-	if err := json.Unmarshal(data, &raw); err != nil {
-		return err
-	}
-	*f = nil
-	vals := map[string]float64(*f)
-	for k, v := range raw {
-		fl, ok := fieldByKey(k, true)
-		if !ok {
-			return fmt.Errorf("unknown facility what-if field %q (expected %s)", k, fieldKeys(true))
-		}
-		if err := readFieldValue(&vals, fl, v); err != nil {
-			return err
-		}
-	}
-	*f = vals
-	return nil
-}
-
-// readFieldValue decodes the number data of field f into *vals under the
-// field's key (null: nothing).
-func readFieldValue(vals *map[string]float64, f field, data json.RawMessage) error {
-	var v *float64
-	if err := json.Unmarshal(data, &v); err != nil {
-		return fmt.Errorf("what-if %s: %w", f.def().key, err)
-	}
-	if v == nil {
-		return nil
-	}
-	if *vals == nil {
-		*vals = map[string]float64{}
-	}
-	(*vals)[f.def().key] = *v
-	return nil
+	WhatIf whatif.Changes `json:"what_if"`
+	Marks  []Point        `json:"marks,omitempty"`
+	Cursor *Point         `json:"cursor,omitempty"`
 }
 
 // Point is a grid point by its altitude (m, as the grid holds it) and its
@@ -293,4 +156,58 @@ func SaveSession(path string, s Session) error {
 		return fmt.Errorf("save session: %w", err)
 	}
 	return nil
+}
+
+// SnapPoint finds the grid point of a saved point: the altitude and speed
+// each within half a grid step of an axis value. It reports false when
+// the point is no longer on the grid (the grid or ΔT changed).
+func SnapPoint(g *envelope.Grid, p Point) (envelope.GridPoint, bool) {
+	if g == nil {
+		return envelope.GridPoint{}, false
+	}
+	i, ok1 := nearestIndex(g.Alts, p.Altitude)
+	j, ok2 := nearestIndex(g.Speeds, p.Speed)
+	if !ok1 || !ok2 {
+		return envelope.GridPoint{}, false
+	}
+	return envelope.GridPoint{Row: i, Col: j}, true
+}
+
+// SnapMarks puts saved marks on the grid with SnapPoint, in their saved
+// order without repeats, and counts those no longer on the grid.
+func SnapMarks(g *envelope.Grid, pts []Point) (marks []envelope.GridPoint, lost int) {
+	seen := map[envelope.GridPoint]bool{}
+	for _, p := range pts {
+		gp, ok := SnapPoint(g, p)
+		if !ok {
+			lost++
+			continue
+		}
+		if !seen[gp] {
+			seen[gp] = true
+			marks = append(marks, gp)
+		}
+	}
+	return marks, lost
+}
+
+// CheckSessionInputs accepts a session saved for the same data as the
+// input files (their content hash, HashFiles) or as the loaded vehicle
+// and facilities (DataHash: the built-in demo, or a session hashed that
+// way). It returns CheckSession's reason otherwise.
+func CheckSessionInputs(s Session, files []string, v *envelope.Vehicle, facs []envelope.Facility) error {
+	var hashes []string
+	if len(files) > 0 {
+		if h, err := HashFiles(files...); err == nil {
+			hashes = append(hashes, h)
+		}
+	}
+	hashes = append(hashes, DataHash(v, facs))
+	var err error
+	for _, h := range hashes {
+		if err = CheckSession(s, files, h); err == nil {
+			return nil
+		}
+	}
+	return err
 }

@@ -14,6 +14,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 )
 
 func TestSessionRoundTripFile(t *testing.T) {
@@ -24,7 +25,7 @@ func TestSessionRoundTripFile(t *testing.T) {
 		Facility:  "Tunnel",
 		Layer:     LayerQ.String(),
 		Units:     units.Customary.String(),
-		WhatIf:    WhatIf{Values: map[string]float64{"scale": 0.05, "delta_t_K": -10}, Facilities: map[string]FacilityWhatIf{"Tunnel": {"p0_max_Pa": 3e5, "q_max_Pa": 0}}},
+		WhatIf:    whatif.Changes{Values: map[string]float64{"scale": 0.05, "delta_t_K": -10}, Facilities: map[string]whatif.FacilityChanges{"Tunnel": {"p0_max_Pa": 3e5, "q_max_Pa": 0}}},
 		Marks:     []Point{{Altitude: 1000, Speed: 0.8}, {Altitude: 2000, Speed: 0.9}},
 		Cursor:    &Point{Altitude: 1000, Speed: 0.8},
 		BestOfAll: false,
@@ -124,9 +125,9 @@ func TestModelSessionRoundTrip(t *testing.T) {
 	m := newDemo(t, 80, 24)
 	k := facilityNamed(t, m, "Harl Cove")
 	m.fac = k
-	m = edit(t, m, fieldP0Max, "3 bar")
-	m = edit(t, m, fieldScale, "0.3")
-	m = edit(t, m, fieldReTol, "5 %")
+	m = edit(t, m, whatif.P0Max, "3 bar")
+	m = edit(t, m, whatif.Scale, "0.3")
+	m = edit(t, m, whatif.ReTol, "5 %")
 	m, _ = press(m, "esc", "M", "tab", "tab", "u", "up", "left")
 	s := m.Session()
 	if s.Facility != m.facs[k].Name || s.BestOfAll {

@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 )
 
 // Session returns the state worth keeping: what-if values changed from the
@@ -24,7 +25,7 @@ func (m Model) Session() Session {
 	} else {
 		s.BestOfAll = true
 	}
-	s.WhatIf = m.whatIf()
+	s.WhatIf = whatif.Diff(m.set, m.fileSet, m.facs, m.fileFacs)
 	g := m.res.grid
 	if g != nil && g.Cols() > 0 {
 		idx := make([]int, 0, len(m.marks))
@@ -45,42 +46,6 @@ func (m Model) Session() Session {
 		}
 	}
 	return s
-}
-
-// whatIf lists the what-if values that differ from the files, by their
-// session keys.
-func (m Model) whatIf() WhatIf {
-	var w WhatIf
-	put := func(vals *map[string]float64, f field, v float64) {
-		if *vals == nil {
-			*vals = map[string]float64{}
-		}
-		(*vals)[f.def().key] = v
-	}
-	for f := range fieldCount {
-		if d := f.def(); !d.facility {
-			if now := d.get(&m.set, nil); now != d.get(&m.fileSet, nil) {
-				put(&w.Values, f, now)
-			}
-		}
-	}
-	for k := range min(len(m.facs), len(m.fileFacs)) {
-		var fw map[string]float64
-		for f := range fieldCount {
-			if d := f.def(); d.facility {
-				if now := d.get(nil, &m.facs[k]); now != d.get(nil, &m.fileFacs[k]) {
-					put(&fw, f, now)
-				}
-			}
-		}
-		if fw != nil {
-			if w.Facilities == nil {
-				w.Facilities = map[string]FacilityWhatIf{}
-			}
-			w.Facilities[m.facs[k].Name] = fw
-		}
-	}
-	return w
 }
 
 // applySession takes over the session's choices and what-if values (before
@@ -106,7 +71,7 @@ func (m *Model) applySession(s Session) string {
 	}
 	// Unknown facilities and values that are not numbers are left out
 	// and named on the status line.
-	if _, err := ApplyWhatIf(s.WhatIf, &m.set, m.facs); err != nil {
+	if _, err := whatif.Apply(s.WhatIf, &m.set, m.facs); err != nil {
 		for _, line := range strings.Split(err.Error(), "\n") {
 			notes = append(notes, line+" ignored")
 		}

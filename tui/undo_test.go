@@ -3,6 +3,8 @@ package tui
 import (
 	"strings"
 	"testing"
+
+	"likewind/envelope/whatif"
 )
 
 // Item 17: R (file values) and X (clear marks) act at once; U puts back
@@ -11,8 +13,8 @@ func TestUndoRestoreAndClear(t *testing.T) {
 	m := newDemo(t, 100, 30)
 	k := facilityNamed(t, m, "Harl Cove")
 	m.fac = k
-	m = edit(t, m, fieldScale, "0.3")
-	m = edit(t, m, fieldP0Max, "3 bar")
+	m = edit(t, m, whatif.Scale, "0.3")
+	m = edit(t, m, whatif.P0Max, "3 bar")
 	m, _ = press(m, "esc", "M")
 	edited, editedFac, marks := m.set, m.facs[k], len(m.marks)
 	if marks == 0 || len(m.changes()) != 2 {
@@ -64,7 +66,7 @@ func TestUndoRestoreAndClear(t *testing.T) {
 	if len(m.changes()) != 0 {
 		t.Fatalf("nothing to restore expected")
 	}
-	m = edit(t, m, fieldScale, "0.25")
+	m = edit(t, m, whatif.Scale, "0.25")
 	m, _ = press(m, "R", "U")
 	if m.mode != modeEdit || m.set.Scale != 0.25 {
 		t.Errorf("U in the what-if list: mode %v scale %g, want the list and 0.25", m.mode, m.set.Scale)

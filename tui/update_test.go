@@ -11,6 +11,7 @@ import (
 
 	"likewind/envelope"
 	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 )
 
 // TestUpdateKeys checks the effect of every main-screen key.
@@ -236,20 +237,20 @@ func TestUpdateKeys(t *testing.T) {
 }
 
 // edit opens the editor on field f, types text and applies it.
-func edit(t *testing.T, m Model, f field, text string) Model {
+func edit(t *testing.T, m Model, f whatif.Field, text string) Model {
 	t.Helper()
 	if m.mode != modeEdit {
 		m, _ = press(m, "e")
 	}
 	for n := 0; m.editor.sel != int(f); n++ {
-		if n > int(fieldCount) || m.mode != modeEdit {
-			t.Fatalf("cannot reach field %v in the editor", f.label(false))
+		if n > int(whatif.FieldCount) || m.mode != modeEdit {
+			t.Fatalf("cannot reach field %v in the editor", f.Label(false))
 		}
 		m, _ = press(m, "down")
 	}
 	m, _ = press(m, "enter")
 	if !m.editor.editing {
-		t.Fatalf("input line did not open for %v (err %q)", f.label(false), m.editor.err)
+		t.Fatalf("input line did not open for %v (err %q)", f.Label(false), m.editor.err)
 	}
 	m, _ = press(m, "ctrl+u")
 	m = typeText(m, text)
@@ -262,7 +263,7 @@ func TestWhatIfFacilityEditResolvesOnlyThatFacility(t *testing.T) {
 	k := facilityNamed(t, m, "Harl Cove")
 	m.fac = k
 	before := m
-	m = edit(t, m, fieldP0Max, "3 bar")
+	m = edit(t, m, whatif.P0Max, "3 bar")
 	if m.editor.err != "" {
 		t.Fatalf("edit error %q", m.editor.err)
 	}
@@ -304,7 +305,7 @@ func TestWhatIfFacilityEditResolvesOnlyThatFacility(t *testing.T) {
 func TestWhatIfDeltaTRebuildsGrid(t *testing.T) {
 	m := newDemo(t, 80, 24)
 	before := m
-	m = edit(t, m, fieldDeltaT, "-150 degC")
+	m = edit(t, m, whatif.DeltaT, "-150 degC")
 	if m.editor.err == "" {
 		t.Errorf("ΔT of -150 K accepted; want a range error")
 	}
@@ -326,7 +327,7 @@ func TestWhatIfT0MinTakesUnits(t *testing.T) {
 	m := newDemo(t, 80, 24)
 	k := facilityNamed(t, m, "Kellen Fold")
 	m.fac = k
-	m = edit(t, m, fieldT0Min, "-150 degC")
+	m = edit(t, m, whatif.T0Min, "-150 degC")
 	if m.editor.err != "" {
 		t.Fatalf("edit error %q", m.editor.err)
 	}
@@ -343,7 +344,7 @@ func TestWhatIfLongEntryTakenWhole(t *testing.T) {
 	k := facilityNamed(t, m, "Harl Cove")
 	m.fac = k
 	long := "1000." + strings.Repeat("0", 60) + " psi"
-	m = edit(t, m, fieldP0Max, long)
+	m = edit(t, m, whatif.P0Max, long)
 	if m.editor.err != "" {
 		t.Fatalf("edit error %q", m.editor.err)
 	}
@@ -355,12 +356,12 @@ func TestWhatIfLongEntryTakenWhole(t *testing.T) {
 	// as it is typed, the line holds what it took, and nothing is applied.
 	before := m.facs[k].PressureMax()
 	m, _ = press(m, "enter", "ctrl+u")
-	m = typeText(m, "3"+strings.Repeat("0", maxEntry)+" Pa")
+	m = typeText(m, "3"+strings.Repeat("0", whatif.MaxEntry)+" Pa")
 	if !strings.Contains(m.editor.err, "p0 max: the entry would be 1025 characters long, expected at most 1024") || !m.editor.editing {
 		t.Errorf("over-long entry: err %q editing %v, want a refusal naming the length with the line open", m.editor.err, m.editor.editing)
 	}
-	if got := m.editor.input.Value(); utf8.RuneCountInString(got) != maxEntry {
-		t.Errorf("input line holds %d characters, want the %d taken", utf8.RuneCountInString(got), maxEntry)
+	if got := m.editor.input.Value(); utf8.RuneCountInString(got) != whatif.MaxEntry {
+		t.Errorf("input line holds %d characters, want the %d taken", utf8.RuneCountInString(got), whatif.MaxEntry)
 	}
 	m, _ = press(m, "enter")
 	if m.facs[k].PressureMax() != before || m.editor.err == "" || !m.editor.editing {
@@ -373,23 +374,23 @@ func TestWhatIfLongEntryTakenWhole(t *testing.T) {
 func TestWhatIfScaleFormsAndBounds(t *testing.T) {
 	m := newDemo(t, 80, 24)
 	for _, text := range []string{"1/20", "1:20", "5 %", "0.05"} {
-		m = edit(t, m, fieldScale, text)
+		m = edit(t, m, whatif.Scale, text)
 		if m.editor.err != "" || m.set.Scale != 0.05 {
 			t.Errorf("scale %q: err %q, scale %g; want 0.05", text, m.editor.err, m.set.Scale)
 		}
 		m, _ = press(m, "esc")
 	}
-	m = edit(t, m, fieldScale, "0")
+	m = edit(t, m, whatif.Scale, "0")
 	if !strings.Contains(m.editor.err, `"fit"`) || m.set.Scale != 0.05 {
 		t.Errorf("scale 0: err %q, scale %g; want a refusal naming the word fit, scale kept", m.editor.err, m.set.Scale)
 	}
 	m, _ = press(m, "esc")
-	m = edit(t, m, fieldScale, "fit")
+	m = edit(t, m, whatif.Scale, "fit")
 	if m.editor.err != "" || m.set.Scale != 0 {
 		t.Errorf("scale fit: err %q, scale %g; want each facility's own sizing (0)", m.editor.err, m.set.Scale)
 	}
 	m, _ = press(m, "esc")
-	m = edit(t, m, fieldDeltaT, "70 K")
+	m = edit(t, m, whatif.DeltaT, "70 K")
 	if !strings.Contains(m.editor.err, "±60 K") || m.set.DeltaT != 0 {
 		t.Errorf("ΔT 70 K: err %q, ΔT %g; want the files' ±60 K bound", m.editor.err, m.set.DeltaT)
 	}
@@ -398,7 +399,7 @@ func TestWhatIfScaleFormsAndBounds(t *testing.T) {
 func TestWhatIfBadInputKeepsEditing(t *testing.T) {
 	m := newDemo(t, 80, 24)
 	before := m
-	m = edit(t, m, fieldMachTol, "fast")
+	m = edit(t, m, whatif.MachTol, "fast")
 	if m.editor.err == "" || !m.editor.editing {
 		t.Errorf("err %q editing %v, want an error with the line still open", m.editor.err, m.editor.editing)
 	}
@@ -484,7 +485,7 @@ func TestResizeReflows(t *testing.T) {
 
 func TestInputLineEditing(t *testing.T) {
 	k := DefaultKeyMap()
-	l := newInputLine(&k, "> ", "", maxEntry, nil)
+	l := newInputLine(&k, "> ", "", whatif.MaxEntry, nil)
 	send := func(msgs ...tea.KeyMsg) {
 		for _, msg := range msgs {
 			l, _ = l.Update(msg)
@@ -547,7 +548,7 @@ func TestInputLineLimit(t *testing.T) {
 		if s == "" {
 			return nil
 		}
-		_, err := parseField(fieldMachTol, s, units.SI, nil)
+		_, err := whatif.MachTol.Parse(s, units.SI, nil)
 		return err
 	})
 	l, _ = l.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune("2")})
@@ -630,18 +631,18 @@ func TestStartsOnBestCoveredFacility(t *testing.T) {
 func TestWhatIfOriginNamed(t *testing.T) {
 	m := newDemo(t, 120, 40)
 	m.fac = facilityNamed(t, m, "Kellen Fold")
-	m = edit(t, m, fieldMachTol, "0.02")
-	m = edit(t, m, fieldDeltaT, "5 K")
-	m = edit(t, m, fieldP0Max, "3 bar")
+	m = edit(t, m, whatif.MachTol, "0.02")
+	m = edit(t, m, whatif.DeltaT, "5 K")
+	m = edit(t, m, whatif.P0Max, "3 bar")
 	rows := m.editorRows()
-	want := map[field]string{
-		fieldMachTol: "built-in 0.0100",
-		fieldDeltaT:  "demo vehicle +0.0 K",
-		fieldP0Max:   "demo facility 450.0 kPa",
+	want := map[whatif.Field]string{
+		whatif.MachTol: "built-in 0.0100",
+		whatif.DeltaT:  "demo vehicle +0.0 K",
+		whatif.P0Max:   "demo facility 450.0 kPa",
 	}
 	for f, w := range want {
 		if rows[f].origin != w {
-			t.Errorf("%s: origin %q, want %q", f.label(false), rows[f].origin, w)
+			t.Errorf("%s: origin %q, want %q", f.Label(false), rows[f].origin, w)
 		}
 	}
 	screen := m.View()
@@ -661,7 +662,7 @@ func TestWhatIfOriginNamed(t *testing.T) {
 	m.fileFacs = append([]envelope.Facility(nil), m.fileFacs...)
 	m.fileFacs[m.fac].Source = "facilities.toml"
 	rows = m.editorRows()
-	if rows[fieldDeltaT].origin != "vehicle file +0.0 K" || rows[fieldP0Max].origin != "facility file 450.0 kPa" {
-		t.Errorf("origins from files: %q, %q", rows[fieldDeltaT].origin, rows[fieldP0Max].origin)
+	if rows[whatif.DeltaT].origin != "vehicle file +0.0 K" || rows[whatif.P0Max].origin != "facility file 450.0 kPa" {
+		t.Errorf("origins from files: %q, %q", rows[whatif.DeltaT].origin, rows[whatif.P0Max].origin)
 	}
 }

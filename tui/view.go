@@ -9,6 +9,7 @@ import (
 
 	"likewind/envelope"
 	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 )
 
 // matrixView draws the matrix in its frame.
@@ -457,28 +458,26 @@ type change struct {
 func (m Model) changes() []change {
 	u := m.units
 	var out []change
-	for f := range fieldCount {
-		d := f.def()
-		if d.facility {
+	for f := range whatif.FieldCount {
+		if f.Facility() {
 			continue
 		}
-		now, file := d.get(&m.set, nil), d.get(&m.fileSet, nil)
+		now, file := f.Get(&m.set, nil), f.Get(&m.fileSet, nil)
 		if now != file {
-			out = append(out, change{label: f.headerLabel(false), now: f.show(u, now, false),
-				origin: m.originText(f, -1) + " " + f.show(u, file, false), fac: -1})
+			out = append(out, change{label: f.HeaderLabel(false), now: f.Show(u, now, false),
+				origin: m.originText(f, -1) + " " + f.Show(u, file, false), fac: -1})
 		}
 	}
 	for k := range min(len(m.facs), len(m.fileFacs)) {
-		water := isWater(&m.facs[k])
-		for f := range fieldCount {
-			d := f.def()
-			if !d.facility {
+		water := whatif.IsWater(&m.facs[k])
+		for f := range whatif.FieldCount {
+			if !f.Facility() {
 				continue
 			}
-			now, file := d.get(nil, &m.facs[k]), d.get(nil, &m.fileFacs[k])
+			now, file := f.Get(nil, &m.facs[k]), f.Get(nil, &m.fileFacs[k])
 			if now != file {
-				out = append(out, change{label: f.headerLabel(water), now: f.show(u, now, water),
-					origin: m.originText(f, k) + " " + f.show(u, file, water), fac: k})
+				out = append(out, change{label: f.HeaderLabel(water), now: f.Show(u, now, water),
+					origin: m.originText(f, k) + " " + f.Show(u, file, water), fac: k})
 			}
 		}
 	}
@@ -487,11 +486,11 @@ func (m Model) changes() []change {
 
 // originText says where the starting value of field f comes from (fac:
 // the facility of a limit).
-func (m Model) originText(f field, fac int) string {
-	switch f.def().origin {
-	case fromVehicle:
+func (m Model) originText(f whatif.Field, fac int) string {
+	switch f.Origin() {
+	case whatif.FromVehicle:
 		return m.vehicleOrigin()
-	case fromFacility:
+	case whatif.FromFacility:
 		return facilityOrigin(m.fileFacs[fac])
 	}
 	return m.settingsOrigin()
@@ -523,40 +522,25 @@ func facilityOrigin(f envelope.Facility) string {
 	return "facility file"
 }
 
-func scaleText(s float64) string {
-	if s > 0 {
-		return units.Sig(s, 4)
-	}
-	return "facility sizing"
-}
-
-func qText(u units.System, q float64) string {
-	if q > 0 {
-		return u.Q(q)
-	}
-	return "none"
-}
-
 // editorRows describes every what-if field in the current units.
 func (m Model) editorRows() []editorRow {
 	u := m.units
-	rows := make([]editorRow, fieldCount)
+	rows := make([]editorRow, whatif.FieldCount)
 	var now, file *envelope.Facility
 	if m.fac >= 0 && m.fac < len(m.facs) {
 		now, file = &m.facs[m.fac], &m.fileFacs[m.fac]
 	}
-	water := isWater(now)
-	for f := range fieldCount {
-		d := f.def()
-		r := editorRow{label: f.label(water), enabled: !d.facility || now != nil}
+	water := whatif.IsWater(now)
+	for f := range whatif.FieldCount {
+		r := editorRow{label: f.Label(water), enabled: !f.Facility() || now != nil}
 		if !r.enabled {
 			r.note = "choose a facility"
 			rows[f] = r
 			continue
 		}
-		v, was := d.get(&m.set, now), d.get(&m.fileSet, file)
-		r.value, r.start, r.changed = f.show(u, v, water), f.editText(u, v, water), v != was
-		r.origin = m.originText(f, m.fac) + " " + f.show(u, was, water)
+		v, was := f.Get(&m.set, now), f.Get(&m.fileSet, file)
+		r.value, r.start, r.changed = f.Show(u, v, water), f.EditText(u, v, water), v != was
+		r.origin = m.originText(f, m.fac) + " " + f.Show(u, was, water)
 		rows[f] = r
 	}
 	return rows

@@ -13,6 +13,7 @@ import (
 
 	"likewind/envelope"
 	"likewind/envelope/fileout"
+	"likewind/envelope/whatif"
 )
 
 // maxDumpTries is how many numbered names the write key tries when a
@@ -54,7 +55,7 @@ func (m Model) DumpInput() (DumpInput, error) {
 	// what-if values applied to the files' values.
 	set := m.fileSet
 	facs := append([]envelope.Facility(nil), m.fileFacs...)
-	changed, err := ApplyWhatIf(m.Session().WhatIf, &set, facs)
+	changed, err := whatif.Apply(m.Session().WhatIf, &set, facs)
 	if err != nil {
 		return DumpInput{}, err
 	}

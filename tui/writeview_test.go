@@ -10,6 +10,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 )
 
 // dumpClock is a fixed clock that counts its calls.
@@ -46,7 +47,7 @@ func TestWriteViewKey(t *testing.T) {
 	m.fac = facilityNamed(t, m, "Kellen Fold")
 	m.curI = gridIndex(m.res.grid.Alts, 9144)
 	m.curJ = gridIndex(m.res.grid.Speeds, 0.85)
-	m = edit(t, m, fieldDeltaT, "10 K")
+	m = edit(t, m, whatif.DeltaT, "10 K")
 	m, _ = press(m, "esc", "space", "tab", "tab", "u")
 	if m.busy || len(m.marks) != 1 || m.layer != LayerReynolds || m.units != units.Customary {
 		t.Fatalf("state before writing: busy %v, %d marks, layer %v, units %v", m.busy, len(m.marks), m.layer, m.units)

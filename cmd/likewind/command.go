@@ -15,6 +15,7 @@ import (
 	"likewind/envelope"
 	"likewind/envelope/fileout"
 	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 	"likewind/tui"
 )
 
@@ -327,7 +328,7 @@ func evaluateInputs(files []string, sessionPath string, stderr io.Writer) (*eval
 			return nil, fmt.Errorf("session %s: %w", sessionPath, err)
 		}
 		ev.session = &sess
-		ev.changed, err = tui.ApplyWhatIf(sess.WhatIf, &s, facs)
+		ev.changed, err = whatif.Apply(sess.WhatIf, &s, facs)
 		if err != nil {
 			return nil, fmt.Errorf("session %s: %w", sessionPath, err)
 		}

@@ -15,6 +15,7 @@ import (
 
 	"likewind/envelope"
 	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 	"likewind/tui"
 )
 
@@ -47,7 +48,7 @@ func outDemoEval(t *testing.T) *envelope.Evaluation {
 
 // outDemoSession writes a session for the demo data with the given marks
 // (grid row, column) and what-if values, and returns its path.
-func outDemoSession(t *testing.T, marks [][2]int, w tui.WhatIf, facility string) string {
+func outDemoSession(t *testing.T, marks [][2]int, w whatif.Changes, facility string) string {
 	t.Helper()
 	v, facs, err := envelope.Demo()
 	if err != nil {
@@ -91,7 +92,7 @@ func checkGolden(t *testing.T, name, got string) {
 
 func TestDumpGolden(t *testing.T) {
 	sess := outDemoSession(t, [][2]int{{10, 12}, {20, 20}, {20, 21}, {5, 8}},
-		tui.WhatIf{Values: map[string]float64{"delta_t_K": 10}}, "Kellen Fold cryogenic transonic tunnel")
+		whatif.Changes{Values: map[string]float64{"delta_t_K": 10}}, "Kellen Fold cryogenic transonic tunnel")
 	cases := []struct {
 		golden string
 		args   []string

@@ -13,6 +13,7 @@ import (
 	"likewind/envelope"
 	"likewind/envelope/report"
 	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 	"likewind/tui"
 )
 
@@ -143,7 +144,7 @@ func TestRunsMarkedFromSession(t *testing.T) {
 		t.Fatal("test assumes the sea-level fastest point is outside")
 	}
 	marks = append(marks, outside)
-	sess := outDemoSession(t, marks, tui.WhatIf{}, "")
+	sess := outDemoSession(t, marks, whatif.Changes{}, "")
 	doc := outRunsJSON(t, "--session", sess)
 	if doc.Points != "marked" {
 		t.Errorf("points = %q, want marked", doc.Points)
@@ -203,9 +204,9 @@ func TestApplyWhatIf(t *testing.T) {
 		t.Fatal(err)
 	}
 	s := envelope.DefaultSettings(v)
-	w := tui.WhatIf{Values: map[string]float64{"scale": 0.05, "compressibility_mach": 0.25},
-		Facilities: map[string]tui.FacilityWhatIf{facs[1].Name: {"p0_max_Pa": 6e5}}}
-	changed, err := tui.ApplyWhatIf(w, &s, facs)
+	w := whatif.Changes{Values: map[string]float64{"scale": 0.05, "compressibility_mach": 0.25},
+		Facilities: map[string]whatif.FacilityChanges{facs[1].Name: {"p0_max_Pa": 6e5}}}
+	changed, err := whatif.Apply(w, &s, facs)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -215,8 +216,8 @@ func TestApplyWhatIf(t *testing.T) {
 	if len(changed) != 3 {
 		t.Errorf("changed = %v, want 3 entries", changed)
 	}
-	w = tui.WhatIf{Facilities: map[string]tui.FacilityWhatIf{"No such tunnel": {"q_max_Pa": 1}}}
-	if _, err := tui.ApplyWhatIf(w, &s, facs); err == nil {
+	w = whatif.Changes{Facilities: map[string]whatif.FacilityChanges{"No such tunnel": {"q_max_Pa": 1}}}
+	if _, err := whatif.Apply(w, &s, facs); err == nil {
 		t.Error("what-if for an unknown facility accepted")
 	}
 }
@@ -255,7 +256,7 @@ func TestRunsMergeAndPlurals(t *testing.T) {
 		break
 	}
 	outside := [2]int{0, e.Grid.Cols() - 1}
-	sess := outDemoSession(t, [][2]int{mark, outside}, tui.WhatIf{}, "")
+	sess := outDemoSession(t, [][2]int{mark, outside}, whatif.Changes{}, "")
 	code, out, errs = outCmd("runs", "--session", sess, "--facility", "Harl Cove")
 	if code != 0 {
 		t.Fatalf("runs exit %d: %s", code, errs)

@@ -1,13 +1,16 @@
 package tui
 
 import (
+	"errors"
 	"math"
+	"path/filepath"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
 
 	"likewind/envelope"
-	"likewind/envelope/units"
+	"likewind/envelope/whatif"
 )
 
 // oldSessionFile is a session file as the interface wrote it before the
@@ -57,9 +60,9 @@ const oldSessionFile = `{
 func TestSessionFileFormatUnchanged(t *testing.T) {
 	want := Session{
 		Version: 1, Inputs: []string{"v.toml", "f.toml"}, Hash: "sha256:abc", Facility: "Tunnel B", Layer: "class", Units: "SI",
-		WhatIf: WhatIf{
+		WhatIf: whatif.Changes{
 			Values: map[string]float64{"scale": 0.05, "delta_t_K": -10, "mach_tol": 0.02, "re_tol": 0.05, "compressibility_mach": 0.25},
-			Facilities: map[string]FacilityWhatIf{
+			Facilities: map[string]whatif.FacilityChanges{
 				"Tunnel A": {"q_max_Pa": 5e4},
 				"Tunnel B": {"p0_max_Pa": 3e5, "t0_min_K": 120, "q_max_Pa": 0},
 			},
@@ -113,79 +116,48 @@ func TestSessionWhatIfKeys(t *testing.T) {
 	}
 }
 
-// Every row of the field table is whole, and what the editor starts the
-// input line with reads back as the value shown, in both unit systems.
-func TestFieldTableRows(t *testing.T) {
-	v, facs := demoData(t)
-	keys := map[string]bool{}
-	seenLimit := false
-	for f := range fieldCount {
-		d := f.def()
-		if d.label == "" || d.name == "" || d.key == "" || d.get == nil || d.set == nil || d.show == nil {
-			t.Errorf("field %d: row incomplete: %+v", f, d)
-		}
-		if d.facility && d.limit == nil || !d.facility && (d.read == nil || d.bound == nil) {
-			t.Errorf("%s: no parser or bound", d.label)
-		}
-		if keys[d.key] {
-			t.Errorf("%s: session key %q used twice", d.label, d.key)
-		}
-		keys[d.key] = true
-		if seenLimit && !d.facility {
-			t.Errorf("%s: the editor lists the settings before the facility limits", d.label)
-		}
-		seenLimit = seenLimit || d.facility
-		for k := range facs {
-			s := envelope.DefaultSettings(v)
-			fac := &facs[k]
-			var on *envelope.Facility
-			if d.facility {
-				on = fac
-			}
-			want := d.get(&s, fac)
-			for _, u := range []units.System{units.SI, units.Customary} {
-				text := f.editText(u, want, isWater(fac))
-				got, err := parseField(f, text, u, on)
-				if err != nil {
-					t.Errorf("%s of %s: the start text %q is refused: %v", d.label, fac.Name, text, err)
-					continue
-				}
-				// The text is rounded as shown: within its last digit.
-				if math.Abs(got-want) > 5e-3*math.Abs(want)+1e-9 {
-					t.Errorf("%s of %s: %q reads %g, want %g", d.label, fac.Name, text, got, want)
-				}
-			}
-			if !d.facility {
-				break
-			}
-		}
+func TestSnapMarks(t *testing.T) {
+	m := newDemo(t, 80, 24)
+	g := m.res.grid
+	if g.Rows() < 3 || g.Cols() < 3 {
+		t.Fatalf("demo grid %d×%d too small", g.Rows(), g.Cols())
 	}
-	// The session keys of today's files (see oldSessionFile).
-	for _, k := range []string{"scale", "delta_t_K", "mach_tol", "re_tol", "compressibility_mach", "p0_max_Pa", "t0_min_K", "q_max_Pa"} {
-		if !keys[k] {
-			t.Errorf("session key %q is no field's: old session files would not load", k)
-		}
+	dAlt := g.Alts[1] - g.Alts[0]
+	dSpd := g.Speeds[1] - g.Speeds[0]
+	pts := []Point{
+		{Altitude: g.Alts[1] + 0.4*dAlt, Speed: g.Speeds[2] - 0.4*dSpd}, // snaps to (1,2)
+		{Altitude: g.Alts[1], Speed: g.Speeds[2]},                       // repeat
+		{Altitude: g.Alts[0] - 0.6*dAlt, Speed: g.Speeds[0]},            // below the grid
+		{Altitude: math.NaN(), Speed: g.Speeds[0]},
+		{Altitude: g.Alts[2], Speed: g.Speeds[1]},
+	}
+	marks, lost := SnapMarks(g, pts)
+	want := []envelope.GridPoint{{Row: 1, Col: 2}, {Row: 2, Col: 1}}
+	if !slices.Equal(marks, want) || lost != 2 {
+		t.Errorf("SnapMarks = %v, %d lost; want %v, 2 lost", marks, lost, want)
+	}
+	if _, ok := SnapPoint(nil, pts[0]); ok {
+		t.Error("SnapPoint on no grid reported a point")
 	}
 }
 
-// A hand-edited session cannot bring in a compressibility threshold the
-// editor refuses: at or above the subsonic bound of the regime classes
-// (Mach 0.8 by default, common practice), which would leave the regimes
-// out of order.
-func TestApplyWhatIfCompressibilityBelowSubsonic(t *testing.T) {
+func TestCheckSessionInputs(t *testing.T) {
 	v, facs := demoData(t)
-	s := envelope.DefaultSettings(v)
-	before := s
-	changed, err := ApplyWhatIf(WhatIf{Values: map[string]float64{"compressibility_mach": 0.9}}, &s, facs)
-	if err == nil || !strings.Contains(err.Error(), "below the subsonic bound 0.80") {
-		t.Errorf("ApplyWhatIf(compressibility 0.9) error = %v, want the subsonic bound named", err)
+	s := Session{Version: SessionVersion, Hash: DataHash(v, facs)}
+	if err := CheckSessionInputs(s, nil, v, facs); err != nil {
+		t.Errorf("CheckSessionInputs(demo session) = %v, want nil", err)
 	}
-	if len(changed) != 0 || s != before {
-		t.Errorf("ApplyWhatIf applied %q: settings %+v", changed, s)
+	files := []string{filepath.Join("..", "testdata", "corvane-sx3.toml"), filepath.Join("..", "testdata", "facilities.toml")}
+	h, err := HashFiles(files...)
+	if err != nil {
+		t.Fatal(err)
 	}
-	// Set in code, a key that names no field is named too.
-	_, err = ApplyWhatIf(WhatIf{Values: map[string]float64{"scael": 0.1}}, &s, facs)
-	if err == nil || !strings.Contains(err.Error(), `unknown value "scael"`) {
-		t.Errorf("ApplyWhatIf(unknown key) error = %v", err)
+	s.Hash = h
+	if err := CheckSessionInputs(s, files, v, facs); err != nil {
+		t.Errorf("CheckSessionInputs(file-hash session) = %v, want nil", err)
+	}
+	s.Hash = "sha256:other"
+	if err := CheckSessionInputs(s, files, v, facs); !errors.Is(err, ErrSessionMismatch) {
+		t.Errorf("CheckSessionInputs(other data) = %v, want ErrSessionMismatch", err)
 	}
 }

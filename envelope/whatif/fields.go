@@ -1,4 +1,4 @@
-package tui
+package whatif
 
 import (
 	"errors"
@@ -12,41 +12,36 @@ import (
 	"likewind/envelope/units"
 )
 
-// The what-if fields. Each value a user can change without editing files
-// is one row of fieldTable: the editor lists, reads and applies it, the
-// header lists its change, the session file stores it under its key and a
-// restored session is checked by it. Adding a field is one row here (and,
-// when it is new engine state, its envelope.Settings or Facility field).
+// Field names a what-if field: a row of the field table.
+type Field int
 
-// field names a row of fieldTable.
-type field int
-
-// The rows, in the order the editor lists them: the settings, then the
+// The fields, in the order the editor lists them: the settings, then the
 // limits of the chosen facility.
 const (
-	fieldScale field = iota
-	fieldDeltaT
-	fieldMachTol
-	fieldReTol
-	fieldCompMach
-	fieldP0Max
-	fieldT0Min
-	fieldQMax
+	Scale Field = iota
+	DeltaT
+	MachTol
+	ReTol
+	CompMach
+	P0Max
+	T0Min
+	QMax
 
-	fieldCount
+	// FieldCount is the number of fields: range over it for each in order.
+	FieldCount
 )
 
-// origin is where a field's starting value comes from.
-type origin uint8
+// Origin is where a field's starting value comes from.
+type Origin uint8
 
 const (
-	fromSettings origin = iota // the built-in defaults, or the settings the caller gave
-	fromVehicle                // the vehicle (its file, or the demo)
-	fromFacility               // the facility (its file, or the demo)
+	FromSettings Origin = iota // the built-in defaults, or the settings the caller gave
+	FromVehicle                // the vehicle (its file, or the demo)
+	FromFacility               // the facility (its file, or the demo)
 )
 
-// fieldDef declares one what-if field.
-type fieldDef struct {
+// row declares one what-if field.
+type row struct {
 	// label names the field in the editor, in its errors and, for a
 	// facility limit, in the header; waterLabel replaces it for a water
 	// facility, which bounds static pressure and water temperature.
@@ -61,7 +56,7 @@ type fieldDef struct {
 	// facility marks a limit of the chosen facility; the others are
 	// settings of the whole evaluation.
 	facility bool
-	origin   origin
+	origin   Origin
 	// grid marks a value of the flight side: a change rebuilds the grid.
 	// Other settings re-solve every facility, a limit only its facility.
 	grid bool
@@ -105,9 +100,14 @@ type fieldWord struct {
 	means string
 }
 
-// fieldTable is every what-if field, indexed by field.
-var fieldTable = [fieldCount]fieldDef{
-	fieldScale: {
+// table is every what-if field, indexed by Field. Each value a user can
+// change without editing files is one row: the editor lists, reads and
+// applies it, the header lists its change, the session file stores it
+// under its key and a restored session is checked by it. Adding a field is
+// one row here (and, when it is new engine state, its envelope.Settings or
+// Facility field).
+var table = [FieldCount]row{
+	Scale: {
 		label: "model scale", name: "model scale", key: "scale",
 		words: []fieldWord{{word: "fit", value: 0, means: "each facility's own sizing"}},
 		get:   func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.Scale },
@@ -115,30 +115,30 @@ var fieldTable = [fieldCount]fieldDef{
 		read:  envelope.ParseModelScale, bound: envelope.ModelScaleBound,
 		show: func(_ units.System, v float64, _ bool) string { return scaleText(v) },
 	},
-	fieldDeltaT: {
+	DeltaT: {
 		label: "ΔT of day", short: "ΔT", name: "ΔT", key: "delta_t_K",
-		origin: fromVehicle, grid: true,
+		origin: FromVehicle, grid: true,
 		dim: atmos.TemperatureDelta, bareSI: "K", bareCustomary: "degF",
 		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.DeltaT },
 		set:  func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.DeltaT = v },
 		read: envelope.ParseDeltaT, bound: envelope.DeltaTBound, siUnit: "K",
 		show: func(u units.System, v float64, _ bool) string { return u.DeltaT(v) },
 	},
-	fieldMachTol: {
+	MachTol: {
 		label: "Mach tolerance", short: "Mach tol", name: "Mach tolerance", key: "mach_tol",
 		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.MachTol },
 		set:  func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.MachTol = v },
 		read: envelope.ParseMachTol, bound: envelope.MachTolBound,
 		show: func(_ units.System, v float64, _ bool) string { return units.Sig(v, 3) },
 	},
-	fieldReTol: {
+	ReTol: {
 		label: "Re tolerance", short: "Re tol", name: "Reynolds tolerance", key: "re_tol",
 		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.ReTol },
 		set:  func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.ReTol = v },
 		read: envelope.ParseReTol, bound: envelope.ReTolBound,
 		show: func(_ units.System, v float64, _ bool) string { return units.Sig(v*100, 3) + " %" },
 	},
-	fieldCompMach: {
+	CompMach: {
 		label: "compressibility M", name: "compressibility Mach", key: "compressibility_mach",
 		grid: true,
 		get:  func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.CompressibilityMach },
@@ -157,9 +157,9 @@ var fieldTable = [fieldCount]fieldDef{
 		},
 		show: func(_ units.System, v float64, _ bool) string { return units.Sig(v, 3) },
 	},
-	fieldP0Max: {
+	P0Max: {
 		label: "p0 max", waterLabel: "max static p", name: "p0 max", key: "p0_max_Pa",
-		facility: true, origin: fromFacility,
+		facility: true, origin: FromFacility,
 		dim: atmos.Pressure, bareSI: "kPa", bareCustomary: "psi",
 		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.PressureMax() },
 		set:   func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.SetPressureMax(v) },
@@ -171,18 +171,18 @@ var fieldTable = [fieldCount]fieldDef{
 			return u.Stagnation(v)
 		},
 	},
-	fieldT0Min: {
+	T0Min: {
 		label: "T0 min", waterLabel: "min water T", name: "T0 min", key: "t0_min_K",
-		facility: true, origin: fromFacility,
+		facility: true, origin: FromFacility,
 		dim: atmos.Temperature, bareSI: "K", bareCustomary: "degF",
 		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.TemperatureMin() },
 		set:   func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.SetTemperatureMin(v) },
 		limit: envelope.CheckT0Min,
 		show:  func(u units.System, v float64, _ bool) string { return u.Temp(v) },
 	},
-	fieldQMax: {
+	QMax: {
 		label: "q max", name: "q max", key: "q_max_Pa",
-		facility: true, origin: fromFacility,
+		facility: true, origin: FromFacility,
 		dim: atmos.Pressure, bareSI: "kPa", bareCustomary: "psf",
 		words: []fieldWord{{word: "none", value: 0, means: "no limit"}},
 		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.QMax },
@@ -194,54 +194,96 @@ var fieldTable = [fieldCount]fieldDef{
 	},
 }
 
-// def is the field's row of fieldTable.
-func (f field) def() *fieldDef { return &fieldTable[f] }
+// scaleText shows a model scale; 0 is each facility's own sizing.
+func scaleText(s float64) string {
+	if s > 0 {
+		return units.Sig(s, 4)
+	}
+	return "facility sizing"
+}
 
-// facilityField reports whether the field belongs to the chosen facility.
-func (f field) facilityField() bool { return f.def().facility }
+// qText shows a q max; 0 is no limit.
+func qText(u units.System, q float64) string {
+	if q > 0 {
+		return u.Q(q)
+	}
+	return "none"
+}
 
-// label names the field; water facilities bound static pressure and water
+// row is the field's row of the table.
+func (f Field) row() *row { return &table[f] }
+
+// Key is the field's key in the session file (its value is stored in SI).
+func (f Field) Key() string { return f.row().key }
+
+// Name is how a restored session names the change, in the dump header and
+// in its errors ("Mach tolerance"; a facility limit is prefixed with the
+// facility's name: "<facility> p0 max").
+func (f Field) Name() string { return f.row().name }
+
+// Facility reports whether the field is a limit of one facility; the
+// others are settings of the whole evaluation.
+func (f Field) Facility() bool { return f.row().facility }
+
+// Grid reports whether the field is a value of the flight side: a change
+// rebuilds the grid. A change of another setting re-solves every facility,
+// a change of a limit only its facility.
+func (f Field) Grid() bool { return f.row().grid }
+
+// Origin is where the field's starting value comes from.
+func (f Field) Origin() Origin { return f.row().origin }
+
+// Get reads the field's value (SI): a setting from s, a limit from fac,
+// the facility it belongs to (the other may be nil).
+func (f Field) Get(s *envelope.Settings, fac *envelope.Facility) float64 { return f.row().get(s, fac) }
+
+// Set writes the field's value (SI) into s or fac. It does not check it:
+// read a value with Parse or Check first.
+func (f Field) Set(s *envelope.Settings, fac *envelope.Facility, v float64) { f.row().set(s, fac, v) }
+
+// Label names the field; water facilities bound static pressure and water
 // temperature instead of p0 and T0.
-func (f field) label(water bool) string {
-	d := f.def()
+func (f Field) Label(water bool) string {
+	d := f.row()
 	if water && d.waterLabel != "" {
 		return d.waterLabel
 	}
 	return d.label
 }
 
-// headerLabel is the field's name in the header's what-if list.
-func (f field) headerLabel(water bool) string {
-	if d := f.def(); d.short != "" {
+// HeaderLabel is the field's name in the header's what-if list.
+func (f Field) HeaderLabel(water bool) string {
+	if d := f.row(); d.short != "" {
 		return d.short
 	}
-	return f.label(water)
+	return f.Label(water)
 }
 
-// bareUnit is the unit assumed when a number is typed without one, in the
-// current unit system ("" for dimensionless fields).
-func (f field) bareUnit(u units.System) string {
+// BareUnit is the unit assumed when a number is typed without one, in the
+// unit system u ("" for dimensionless fields).
+func (f Field) BareUnit(u units.System) string {
 	if u == units.Customary {
-		return f.def().bareCustomary
+		return f.row().bareCustomary
 	}
-	return f.def().bareSI
+	return f.row().bareSI
 }
 
-// show writes a value of the field in the units u.
-func (f field) show(u units.System, v float64, water bool) string { return f.def().show(u, v, water) }
+// Show writes a value of the field in the units u; water is set for a
+// limit of a water facility.
+func (f Field) Show(u units.System, v float64, water bool) string { return f.row().show(u, v, water) }
 
-// editText is the text the input line starts with for the value v: what
-// show writes, in a form the field reads back (its word, degF for °F).
-func (f field) editText(u units.System, v float64, water bool) string {
+// EditText is the text an input line starts with for the value v: what
+// Show writes, in a form Parse reads back (the field's word, degF for °F).
+func (f Field) EditText(u units.System, v float64, water bool) string {
 	if w, ok := f.wordFor(v); ok {
 		return w.word
 	}
-	return strings.ReplaceAll(f.show(u, v, water), "°F", "degF")
+	return strings.ReplaceAll(f.Show(u, v, water), "°F", "degF")
 }
 
 // wordFor is the word the field takes for the value v, if any.
-func (f field) wordFor(v float64) (fieldWord, bool) {
-	for _, w := range f.def().words {
+func (f Field) wordFor(v float64) (fieldWord, bool) {
+	for _, w := range f.row().words {
 		if w.value == v {
 			return w, true
 		}
@@ -251,9 +293,9 @@ func (f field) wordFor(v float64) (fieldWord, bool) {
 
 // wordHint is what an out-of-range refusal adds about the field's words
 // ("" for none): `or the word "fit" for each facility's own sizing`.
-func (f field) wordHint() string {
+func (f Field) wordHint() string {
 	var parts []string
-	for _, w := range f.def().words {
+	for _, w := range f.row().words {
 		parts = append(parts, fmt.Sprintf("%q for %s", w.word, w.means))
 	}
 	switch len(parts) {
@@ -265,32 +307,32 @@ func (f field) wordHint() string {
 	return "or one of the words " + strings.Join(parts, ", ")
 }
 
-// isWater reports whether fac is a water facility (false for nil).
-func isWater(fac *envelope.Facility) bool { return fac != nil && fac.Medium == envelope.MediumWater }
+// IsWater reports whether fac is a water facility (false for nil).
+func IsWater(fac *envelope.Facility) bool { return fac != nil && fac.Medium == envelope.MediumWater }
 
-// maxEntry is the longest text the input line takes for a value, in
+// MaxEntry is the longest text the input line takes for a value, in
 // characters: far beyond any value written out in full, yet a paste of a
 // whole file is refused with a message rather than parsed.
-const maxEntry = 1024
+const MaxEntry = 1024
 
-// parseField reads the text typed for field f, with the parsers and bounds
+// Parse reads the text typed for the field, with the parsers and bounds
 // the files and the command line use (envelope/bounds.go). A bare number
-// takes the field's unit in the current unit system. The model scale
+// takes the field's unit in the unit system u. The model scale
 // takes the forms a file takes ("0.05", "1/20", "1:20", "5 %") or the word
 // "fit" for each facility's own sizing; q max takes a pressure or the word
 // "none". Both words return 0, as the settings store them; a typed 0 is
 // refused, not read as either. The facility limits (p0 max, T0 min, q max)
 // are checked against fac, the facility they are for, as its file's ranges
 // are.
-func parseField(f field, text string, u units.System, fac *envelope.Facility) (float64, error) {
-	d := f.def()
-	fail := func(err error) (float64, error) { return 0, fmt.Errorf("%s: %w", f.label(isWater(fac)), err) }
+func (f Field) Parse(text string, u units.System, fac *envelope.Facility) (float64, error) {
+	d := f.row()
+	fail := func(err error) (float64, error) { return 0, fmt.Errorf("%s: %w", f.Label(IsWater(fac)), err) }
 	t := strings.TrimSpace(text)
 	if t == "" {
 		return fail(errors.New("empty value"))
 	}
-	if n := utf8.RuneCountInString(t); n > maxEntry {
-		return fail(fmt.Errorf("the entry is %d characters long, expected at most %d", n, maxEntry))
+	if n := utf8.RuneCountInString(t); n > MaxEntry {
+		return fail(fmt.Errorf("the entry is %d characters long, expected at most %d", n, MaxEntry))
 	}
 	for _, w := range d.words {
 		if strings.EqualFold(t, w.word) {
@@ -300,7 +342,7 @@ func parseField(f field, text string, u units.System, fac *envelope.Facility) (f
 	if d.facility && fac == nil {
 		return fail(errors.New("choose a facility first"))
 	}
-	if unit := f.bareUnit(u); unit != "" {
+	if unit := f.BareUnit(u); unit != "" {
 		if _, err := strconv.ParseFloat(t, 64); err == nil {
 			t += " " + unit
 		}
@@ -324,12 +366,12 @@ func parseField(f field, text string, u units.System, fac *envelope.Facility) (f
 	return v, nil
 }
 
-// checkField refuses a stored value (a session's, in SI) that the editor
-// would refuse typed: the same bounds, with 0 meaning each facility's own
+// Check refuses a stored value (a session's, in SI) that Parse would
+// refuse typed: the same bounds, with 0 meaning each facility's own
 // sizing for the scale and no limit for q max, as the settings store them.
 // fac is the facility a limit is for (nil for the other fields).
-func checkField(f field, v float64, fac *envelope.Facility) (float64, error) {
-	d := f.def()
+func (f Field) Check(v float64, fac *envelope.Facility) (float64, error) {
+	d := f.row()
 	var err error
 	_, isWord := f.wordFor(v)
 	switch {
@@ -347,55 +389,37 @@ func checkField(f field, v float64, fac *envelope.Facility) (float64, error) {
 		err = d.bound().Check(found, v)
 	}
 	if err != nil {
-		return 0, fmt.Errorf("%s: %w", f.label(isWater(fac)), err)
+		return 0, fmt.Errorf("%s: %w", f.Label(IsWater(fac)), err)
 	}
 	return v, nil
 }
 
-// validateField refuses a value of f that the settings s rule out.
-func validateField(f field, s envelope.Settings, v float64) error {
-	if d := f.def(); d.validate != nil {
+// Validate refuses a value of the field that the settings s rule out.
+func (f Field) Validate(s envelope.Settings, v float64) error {
+	if d := f.row(); d.validate != nil {
 		return d.validate(s, v)
 	}
 	return nil
 }
 
-// fieldReader reads the text typed for a field as the editor applies it:
-// in the current units, for the chosen facility, then checked against the
-// other settings. It holds copies of what it needs, so it stays valid as
-// the model is copied.
-type fieldReader struct {
-	units units.System
-	fac   *envelope.Facility // the chosen facility, nil for none (its slice is never changed in place)
-	set   envelope.Settings
-}
-
-// read parses text for field f and checks it.
-func (r fieldReader) read(f field, text string) (float64, error) {
-	v, err := parseField(f, text, r.units, r.fac)
-	if err == nil {
-		err = validateField(f, r.set, v)
-	}
-	return v, err
-}
-
-// fieldByKey is the field stored under a session key, matched as
-// encoding/json matches struct keys (case folded); ok is false for none.
-func fieldByKey(key string, facility bool) (field, bool) {
-	for f := range fieldCount {
-		if d := f.def(); d.facility == facility && strings.EqualFold(d.key, key) {
+// ByKey is the field stored under a session key, among the settings
+// (facility false) or the facility limits, matched as encoding/json
+// matches struct keys (case folded); ok is false for none.
+func ByKey(key string, facility bool) (Field, bool) {
+	for f := range FieldCount {
+		if d := f.row(); d.facility == facility && strings.EqualFold(d.key, key) {
 			return f, true
 		}
 	}
 	return 0, false
 }
 
-// fieldKeys lists the session keys of the settings (facility false) or of
-// the facility limits, for error messages.
-func fieldKeys(facility bool) string {
+// Keys lists the session keys of the settings (facility false) or of the
+// facility limits, for error messages: "p0_max_Pa, t0_min_K, q_max_Pa".
+func Keys(facility bool) string {
 	var keys []string
-	for f := range fieldCount {
-		if d := f.def(); d.facility == facility {
+	for f := range FieldCount {
+		if d := f.row(); d.facility == facility {
 			keys = append(keys, d.key)
 		}
 	}
