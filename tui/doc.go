@@ -7,11 +7,12 @@
 // Tea.
 //
 // New builds the root model and Run runs it; the session is kept through
-// SessionFile. The root composes components (picker, what-if editor,
-// details, save-as question; see component.go) that own their keys and
-// report what the user chose; the keys are in one KeyMap and the styles
-// in one Styles. Each what-if value is one row of the field table in
-// fields.go, which the editor, the header and the session file all use.
+// a session.File (envelope/session). The root composes components
+// (picker, what-if editor, details, save-as question; see component.go)
+// that own their keys and report what the user chose; the keys are in one
+// KeyMap and the styles in one Styles. Each what-if value is one row of
+// the field table of envelope/whatif, which the editor, the header and
+// the session file all use; values are shown in an envelope/units system.
 // Recomputes run in commands and return typed messages; View draws
 // stored state.
 //

@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"likewind/envelope"
+	"likewind/envelope/session"
 	"likewind/envelope/units"
 )
 
@@ -28,7 +29,7 @@ type DumpInput struct {
 	// Settings are the settings the maps were solved with.
 	Settings envelope.Settings
 	// Changed lists the what-if values that differ from the files, as
-	// ApplyWhatIf names them.
+	// whatif.Apply names them.
 	Changed []string
 
 	// Facility is the facility shown, or -1 for the best of all.
@@ -99,7 +100,7 @@ func dumpHeader(in DumpInput) string {
 		fmt.Fprintf(&b, "%-9s %s\n", k, fmt.Sprintf(format, a...))
 	}
 	fmt.Fprintf(&b, "likewind %s matrix dump, %s\n", in.Version, in.Date)
-	line("vehicle", "%s (%s)", envelope.CleanText(veh.Name), nameList(in.Sources))
+	line("vehicle", "%s (%s)", envelope.CleanText(veh.Name), session.InputNames(in.Sources))
 	if in.Facility < 0 {
 		line("facility", "best of all: per point the facility with the best class, by the letter beside each cell (none where out of reach)")
 		for k, f := range in.Facilities {

@@ -10,6 +10,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope"
+	"likewind/envelope/session"
 	"likewind/envelope/units"
 )
 
@@ -37,14 +38,15 @@ type Options struct {
 	Settings *envelope.Settings
 
 	// Inputs are the input file names recorded in the session (empty for
-	// the built-in demo) and InputHash their content hash (HashFiles);
-	// an empty InputHash uses DataHash of the loaded data.
+	// the built-in demo) and InputHash their content hash
+	// (session.HashFiles); an empty InputHash uses session.DataHash of the
+	// loaded data.
 	Inputs    []string
 	InputHash string
 
 	// SessionFile is the session file the save key and Run write, with
-	// its lock (OpenSessionFile); nil means SessionPath.
-	SessionFile *SessionFile
+	// its lock (session.Open); nil means SessionPath.
+	SessionFile *session.File
 	// SessionPath is used when SessionFile is nil: New reads it without a
 	// lock, Run opens it with one. Empty (and no SessionFile) means no
 	// session file.
@@ -53,7 +55,7 @@ type Options struct {
 	// other input files is refused with a message on the status line.
 	// When the session file holds a session and none is restored, that
 	// session is kept beside under a numbered name before the first save.
-	Session *Session
+	Session *session.Session
 	// SessionNote is shown on the status line at start (e.g. where the
 	// session goes when the usual file could not be used).
 	SessionNote string
@@ -146,9 +148,9 @@ type Model struct {
 	// in step with it (restored, or the files' values, or last saved), and
 	// whether a session on disk that was not restored must be kept beside
 	// before the first save.
-	store       *SessionFile
+	store       *session.File
 	sessionPath string
-	saved       Session
+	saved       session.Session
 	keepOld     bool
 	readOnly    bool         // another likewind holds the session file
 	holder      string       // which one
@@ -173,7 +175,7 @@ func New(opts Options) Model {
 	var notes statusNotes
 	restored := false
 	if opts.Session != nil {
-		if err := CheckSession(*opts.Session, m.inputs, m.hash); err != nil {
+		if err := session.Check(*opts.Session, m.inputs, m.hash); err != nil {
 			notes.add("session not restored: "+err.Error(), true)
 		} else {
 			notes.lines = append(notes.lines, m.applySession(*opts.Session))
@@ -261,7 +263,7 @@ func newModel(opts Options) Model {
 	}
 	m.set = m.fileSet
 	if m.hash == "" {
-		m.hash = DataHash(opts.Vehicle, opts.Facilities)
+		m.hash = session.DataHash(opts.Vehicle, opts.Facilities)
 	}
 	if len(m.facs) == 0 {
 		m.fac = -1
@@ -270,7 +272,7 @@ func newModel(opts Options) Model {
 	if m.store == nil && opts.SessionPath != "" {
 		// Opening without a lock only reads: it cannot fail but on an
 		// empty path.
-		m.store, _ = openSessionFile(opts.SessionPath, m.inputs, m.hash, false)
+		m.store, _ = session.OpenUnlocked(opts.SessionPath, m.inputs, m.hash)
 	}
 	if m.store != nil {
 		m.sessionPath = m.store.Path()
@@ -361,9 +363,9 @@ type (
 	// save was to end the program, and the file name the user typed
 	// (save-as).
 	savedMsg struct {
-		res   SaveResult
+		res   session.SaveResult
 		err   error
-		state Session
+		state session.Session
 		quit  bool
 		typed string
 	}

@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"likewind/envelope"
+	"likewind/envelope/session"
 	"likewind/envelope/whatif"
 )
 
@@ -52,7 +53,7 @@ func TestModelTooLargeShownOnScreen(t *testing.T) {
 
 	v, facs := demoData(t)
 	half := 0.5
-	s := &Session{Version: SessionVersion, Hash: DataHash(v, facs), WhatIf: whatif.Changes{Values: map[string]float64{"scale": half}}}
+	s := &session.Session{Version: session.Version, Hash: session.DataHash(v, facs), WhatIf: whatif.Changes{Values: map[string]float64{"scale": half}}}
 	m := newDemo(t, 160, 48, func(o *Options) { o.Session = s })
 	if m.set.Scale != 0.5 {
 		t.Fatalf("session scale not applied: %g (status %q)", m.set.Scale, m.status)

@@ -8,6 +8,7 @@ import (
 
 	tea "github.com/charmbracelet/bubbletea"
 
+	"likewind/envelope/session"
 	"likewind/envelope/whatif"
 )
 
@@ -53,17 +54,17 @@ func (m *Model) askQuit() tea.Cmd {
 
 // sessionState is the part of a session whose change is worth a write:
 // all of it but the cursor (moving alone never rewrites a session).
-func sessionState(s Session) string {
-	s.Cursor, s.Version = nil, SessionVersion
+func sessionState(s session.Session) string {
+	s.Cursor, s.Version = nil, session.Version
 	b, _ := json.Marshal(s) // numbers and strings: cannot fail
 	return string(b)
 }
 
 // workState is the work in a session: what-if values and marks.
-func workState(s Session) string {
+func workState(s session.Session) string {
 	b, _ := json.Marshal(struct {
 		W whatif.Changes
-		M []Point
+		M []session.Point
 	}{s.WhatIf, s.Marks})
 	return string(b)
 }
@@ -123,7 +124,7 @@ func (m *Model) onSaved(msg savedMsg) tea.Cmd {
 }
 
 // noteSaved records a successful save.
-func (m *Model) noteSaved(res SaveResult, state Session) {
+func (m *Model) noteSaved(res session.SaveResult, state session.Session) {
 	m.saved, m.keepOld = state, false
 	m.sessionPath, m.readOnly, m.holder = res.Path, false, ""
 	line := "session saved to " + res.Path
@@ -171,9 +172,9 @@ func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Mode
 	if opts.SessionFile == nil && opts.SessionPath != "" {
 		hash := opts.InputHash
 		if hash == "" {
-			hash = DataHash(opts.Vehicle, opts.Facilities)
+			hash = session.DataHash(opts.Vehicle, opts.Facilities)
 		}
-		sf, err := OpenSessionFile(opts.SessionPath, opts.Inputs, hash)
+		sf, err := session.Open(opts.SessionPath, opts.Inputs, hash)
 		if err != nil {
 			return New(opts), err
 		}
@@ -188,7 +189,7 @@ func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Mode
 	}
 	if m.WantsSave() {
 		s := m.Session()
-		var res SaveResult
+		var res session.SaveResult
 		var serr error
 		if m.readOnly {
 			res, serr = m.store.SaveBeside(s)

@@ -13,113 +13,10 @@ import (
 
 	tea "github.com/charmbracelet/bubbletea"
 
+	"likewind/envelope/session"
 	"likewind/envelope/units"
 	"likewind/envelope/whatif"
 )
-
-func TestSessionRoundTripFile(t *testing.T) {
-	want := Session{
-		Version:   SessionVersion,
-		Inputs:    []string{"a.toml", "b.toml"},
-		Hash:      "sha256:abc",
-		Facility:  "Tunnel",
-		Layer:     LayerQ.String(),
-		Units:     units.Customary.String(),
-		WhatIf:    whatif.Changes{Values: map[string]float64{"scale": 0.05, "delta_t_K": -10}, Facilities: map[string]whatif.FacilityChanges{"Tunnel": {"p0_max_Pa": 3e5, "q_max_Pa": 0}}},
-		Marks:     []Point{{Altitude: 1000, Speed: 0.8}, {Altitude: 2000, Speed: 0.9}},
-		Cursor:    &Point{Altitude: 1000, Speed: 0.8},
-		BestOfAll: false,
-	}
-	dir := t.TempDir()
-	path := filepath.Join(dir, "session.json")
-	if err := SaveSession(path, want); err != nil {
-		t.Fatal(err)
-	}
-	got, err := LoadSession(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if !reflect.DeepEqual(got, want) {
-		t.Errorf("LoadSession = %+v, want %+v", got, want)
-	}
-	// Overwrite, and no temporary file is left behind.
-	want.Marks = nil
-	if err := SaveSession(path, want); err != nil {
-		t.Fatal(err)
-	}
-	entries, _ := os.ReadDir(dir)
-	if len(entries) != 1 {
-		var names []string
-		for _, e := range entries {
-			names = append(names, e.Name())
-		}
-		t.Errorf("files in the session folder = %v, want only session.json", names)
-	}
-}
-
-func TestSaveSessionErrors(t *testing.T) {
-	if err := SaveSession("", Session{}); err == nil {
-		t.Errorf("SaveSession(\"\") = nil, want an error")
-	}
-	bad := filepath.Join(t.TempDir(), "missing", "s.json")
-	if err := SaveSession(bad, Session{}); err == nil || !strings.Contains(err.Error(), "save session") {
-		t.Errorf("SaveSession into a missing folder = %v, want a wrapped error", err)
-	}
-}
-
-func TestLoadSessionRefusesBadFiles(t *testing.T) {
-	dir := t.TempDir()
-	cases := map[string]string{
-		"not json":      "{version: 1",
-		"wrong version": `{"version": 99, "inputs": [], "hash": "", "layer": "", "units": "SI", "what_if": {}}`,
-		"unknown field": `{"version": 1, "colour": "red"}`,
-	}
-	for name, body := range cases {
-		p := filepath.Join(dir, strings.ReplaceAll(name, " ", "_")+".json")
-		if err := os.WriteFile(p, []byte(body), 0o600); err != nil {
-			t.Fatal(err)
-		}
-		if _, err := LoadSession(p); err == nil {
-			t.Errorf("%s: LoadSession = nil error, want a refusal", name)
-		}
-	}
-	if _, err := LoadSession(filepath.Join(dir, "none.json")); err == nil {
-		t.Errorf("missing file: LoadSession = nil error")
-	}
-}
-
-func TestCheckSessionRefusesOtherFiles(t *testing.T) {
-	s := Session{Version: SessionVersion, Inputs: []string{"old.toml"}, Hash: "sha256:1"}
-	if err := CheckSession(s, []string{"old.toml"}, "sha256:1"); err != nil {
-		t.Errorf("same hash: %v", err)
-	}
-	err := CheckSession(s, []string{"new.toml"}, "sha256:2")
-	if !errors.Is(err, ErrSessionMismatch) {
-		t.Fatalf("other hash: err = %v, want ErrSessionMismatch", err)
-	}
-	if !strings.Contains(err.Error(), "old.toml") || !strings.Contains(err.Error(), "new.toml") {
-		t.Errorf("message %q does not name both file sets", err)
-	}
-}
-
-func TestHashFiles(t *testing.T) {
-	dir := t.TempDir()
-	a, b := filepath.Join(dir, "a"), filepath.Join(dir, "b")
-	os.WriteFile(a, []byte("x = 1\n"), 0o600)
-	os.WriteFile(b, []byte("x = 2\n"), 0o600)
-	ha, err := HashFiles(a)
-	if err != nil {
-		t.Fatal(err)
-	}
-	hb, _ := HashFiles(b)
-	ha2, _ := HashFiles(a)
-	if ha == hb || ha != ha2 {
-		t.Errorf("HashFiles: a %s, b %s, a again %s; want a≠b and a stable", ha, hb, ha2)
-	}
-	if _, err := HashFiles(filepath.Join(dir, "none")); err == nil {
-		t.Errorf("HashFiles of a missing file = nil error")
-	}
-}
 
 func TestModelSessionRoundTrip(t *testing.T) {
 	m := newDemo(t, 80, 24)
@@ -138,10 +35,10 @@ func TestModelSessionRoundTrip(t *testing.T) {
 	}
 
 	path := filepath.Join(t.TempDir(), "s.json")
-	if err := SaveSession(path, s); err != nil {
+	if err := session.Save(path, s); err != nil {
 		t.Fatal(err)
 	}
-	loaded, err := LoadSession(path)
+	loaded, err := session.Load(path)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -170,7 +67,7 @@ func TestModelSessionRoundTrip(t *testing.T) {
 }
 
 func TestNewRefusesForeignSession(t *testing.T) {
-	s := Session{Version: SessionVersion, Inputs: []string{"other.toml"}, Hash: "sha256:other", Layer: LayerMach.String(), Units: "customary"}
+	s := session.Session{Version: session.Version, Inputs: []string{"other.toml"}, Hash: "sha256:other", Layer: LayerMach.String(), Units: "customary"}
 	m := newDemo(t, 80, 24, func(o *Options) { o.Session = &s })
 	if !m.statusErr || !strings.Contains(m.status, "session not restored") {
 		t.Errorf("status = %q, want a refusal", m.status)
@@ -228,7 +125,7 @@ func TestRunWritesSessionWhenCancelled(t *testing.T) {
 	if err == nil || !errors.Is(err, tea.ErrProgramKilled) {
 		t.Errorf("Run error = %v, want ErrProgramKilled", err)
 	}
-	s, err := LoadSession(path)
+	s, err := session.Load(path)
 	if err != nil {
 		t.Fatalf("session not written on cancel: %v", err)
 	}
@@ -256,7 +153,7 @@ func TestRunWithoutChangesWritesNothing(t *testing.T) {
 
 	for _, c := range []struct {
 		name    string
-		session *Session
+		session *session.Session
 	}{{"declined (--fresh, or n at the prompt)", nil}, {"restored", &saved}} {
 		opts := Options{Vehicle: v, Facilities: facs, SessionPath: path, Session: c.session}
 		// Quit with q, and also cancel without a key.
@@ -279,7 +176,7 @@ func TestRunWithoutChangesWritesNothing(t *testing.T) {
 
 // savedDemoSession saves a session of the demo with n marks at path and
 // returns it.
-func savedDemoSession(t *testing.T, path string, n int) Session {
+func savedDemoSession(t *testing.T, path string, n int) session.Session {
 	t.Helper()
 	m := newDemo(t, 80, 24)
 	for k := 0; k < n; k++ {
@@ -289,7 +186,7 @@ func savedDemoSession(t *testing.T, path string, n int) Session {
 	if len(s.Marks) != n {
 		t.Fatalf("demo session has %d marks, want %d", len(s.Marks), n)
 	}
-	if err := SaveSession(path, s); err != nil {
+	if err := session.Save(path, s); err != nil {
 		t.Fatal(err)
 	}
 	return s

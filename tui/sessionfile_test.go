@@ -5,97 +5,18 @@ import (
 	"errors"
 	"os"
 	"path/filepath"
-	"strconv"
 	"strings"
 	"testing"
 
 	tea "github.com/charmbracelet/bubbletea"
+
+	"likewind/envelope/session"
 )
 
 // demoHashOf is the input hash New uses for the demo without files.
 func demoHashOf(t *testing.T) string {
 	v, facs := demoData(t)
-	return DataHash(v, facs)
-}
-
-// Item 3: two holders of one session file. The first holds the lock; the
-// second opens read-only, names the holder and cannot save there; after
-// the first closes, the lock file is gone and a new opener gets the lock.
-func TestSessionFileSecondHolderIsReadOnly(t *testing.T) {
-	dir := t.TempDir()
-	path := filepath.Join(dir, "s.json")
-	hash := demoHashOf(t)
-	a, err := OpenSessionFile(path, nil, hash)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if ro, _ := a.ReadOnly(); ro || a.LockError() != nil {
-		t.Fatalf("first holder: read-only %v, lock error %v; want the lock", ro, a.LockError())
-	}
-	b, err := OpenSessionFile(path, nil, hash)
-	if err != nil {
-		t.Fatal(err)
-	}
-	ro, holder := b.ReadOnly()
-	if !ro || holder != "pid "+strconv.Itoa(os.Getpid()) {
-		t.Fatalf("second holder: read-only %v holder %q, want read-only held by pid %d", ro, holder, os.Getpid())
-	}
-	s := Session{Hash: hash, Layer: "match class", Units: "SI"}
-	if _, err := b.Save(s, false); !errors.Is(err, ErrSessionInUse) {
-		t.Errorf("read-only Save = %v, want ErrSessionInUse", err)
-	}
-	if _, err := os.Stat(path); err == nil {
-		t.Errorf("the read-only holder wrote the session file")
-	}
-	// The read-only one saves beside, under its own lock.
-	res, err := b.SaveBeside(s)
-	if err != nil || res.Path != filepath.Join(dir, "s.1.json") || !strings.Contains(res.Note, "in use by another likewind") {
-		t.Errorf("SaveBeside = %+v, %v; want s.1.json and a note", res, err)
-	}
-	if _, err := a.Save(s, false); err != nil {
-		t.Errorf("the lock holder cannot save: %v", err)
-	}
-	a.Close()
-	b.Close()
-	if _, err := os.Stat(path + ".lock"); err == nil {
-		t.Errorf("lock file left after Close")
-	}
-	c, _ := OpenSessionFile(path, nil, hash)
-	defer c.Close()
-	if ro, _ := c.ReadOnly(); ro {
-		t.Errorf("after both closed, a new opener is read-only")
-	}
-}
-
-// Item 3: a save re-reads the file; when another program wrote it since,
-// the session goes beside it and the other's file is left alone.
-func TestSessionFileChangedOnDiskSavesBeside(t *testing.T) {
-	dir := t.TempDir()
-	path := filepath.Join(dir, "s.json")
-	hash := demoHashOf(t)
-	f, _ := OpenSessionFile(path, nil, hash)
-	defer f.Close()
-	s := Session{Hash: hash, Layer: "match class", Units: "SI"}
-	if _, err := f.Save(s, false); err != nil {
-		t.Fatal(err)
-	}
-	theirs := Session{Hash: hash, Layer: "match class", Units: "SI", Marks: []Point{{Altitude: 1, Speed: 2}}}
-	if err := SaveSession(path, theirs); err != nil { // another program, without the lock
-		t.Fatal(err)
-	}
-	before, _ := os.ReadFile(path)
-	s.Units = "customary"
-	res, err := f.Save(s, false)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if res.Path != filepath.Join(dir, "s.1.json") || !strings.Contains(res.Note, "changed on disk") || f.Path() != res.Path {
-		t.Errorf("Save = %+v (path now %s); want s.1.json with a note", res, f.Path())
-	}
-	after, _ := os.ReadFile(path)
-	if string(after) != string(before) {
-		t.Errorf("the file another program wrote was replaced")
-	}
+	return session.DataHash(v, facs)
 }
 
 // Item 1 (model side): a session path holding something that is not a
@@ -120,28 +41,8 @@ func TestSessionFileNeverWritesOverRefusedFile(t *testing.T) {
 	if m.sessionPath != want || !strings.Contains(m.status, want) {
 		t.Errorf("session path %s, status %q; want it saved to %s and said", m.sessionPath, m.status, want)
 	}
-	if _, err := LoadSession(want); err != nil {
+	if _, err := session.Load(want); err != nil {
 		t.Errorf("beside: %v", err)
-	}
-}
-
-// Session files are 0600; the lock file too.
-func TestSessionFileMode(t *testing.T) {
-	dir := t.TempDir()
-	path := filepath.Join(dir, "s.json")
-	f, _ := OpenSessionFile(path, nil, "h")
-	defer f.Close()
-	if _, err := f.Save(Session{Hash: "h"}, false); err != nil {
-		t.Fatal(err)
-	}
-	for _, p := range []string{path, path + ".lock"} {
-		fi, err := os.Stat(p)
-		if err != nil {
-			t.Fatal(err)
-		}
-		if fi.Mode().Perm() != 0o600 {
-			t.Errorf("%s mode %v, want 0600", filepath.Base(p), fi.Mode().Perm())
-		}
 	}
 }
 
@@ -170,11 +71,11 @@ func TestDeclinedSessionKeptBeside(t *testing.T) {
 		t.Fatalf("save and quit did not quit: %s", m.status)
 	}
 	kept := filepath.Join(dir, "s.1.json")
-	k, err := LoadSession(kept)
+	k, err := session.Load(kept)
 	if err != nil || len(k.Marks) != len(old.Marks) {
 		t.Fatalf("kept session %+v, %v; want the old %d marks", k, err, len(old.Marks))
 	}
-	now, _ := LoadSession(path)
+	now, _ := session.Load(path)
 	if len(now.Marks) != 1 {
 		t.Errorf("new session has %d marks, want 1", len(now.Marks))
 	}
@@ -227,7 +128,7 @@ func TestFailedSaveKeepsInterfaceOpen(t *testing.T) {
 	if !quit {
 		t.Fatalf("saving to %s did not quit: mode %v status %q reason %q", target, m.mode, m.status, m.saveAs.reason)
 	}
-	if s, err := LoadSession(target); err != nil || len(s.Marks) != 1 {
+	if s, err := session.Load(target); err != nil || len(s.Marks) != 1 {
 		t.Errorf("saved to another file: %+v, %v", s, err)
 	}
 	// An existing file is refused, and the question stays.
@@ -262,9 +163,9 @@ func TestReadOnlyInterfaceSavesElsewhere(t *testing.T) {
 	dir := t.TempDir()
 	path := filepath.Join(dir, "s.json")
 	hash := demoHashOf(t)
-	first, _ := OpenSessionFile(path, nil, hash)
+	first, _ := session.Open(path, nil, hash)
 	defer first.Close()
-	second, _ := OpenSessionFile(path, nil, hash)
+	second, _ := session.Open(path, nil, hash)
 	defer second.Close()
 	m := newDemo(t, 80, 24, func(o *Options) { o.SessionFile = second })
 	if !strings.Contains(strings.SplitN(m.View(), "\n", 2)[0], "read-only session") || !strings.Contains(m.status, "open in another likewind") {
@@ -285,7 +186,7 @@ func TestReadOnlyInterfaceSavesElsewhere(t *testing.T) {
 	if _, err := os.Stat(path); err == nil {
 		t.Errorf("the read-only interface wrote the held session file")
 	}
-	if _, err := LoadSession(filepath.Join(dir, "s.1.json")); err != nil {
+	if _, err := session.Load(filepath.Join(dir, "s.1.json")); err != nil {
 		t.Error(err)
 	}
 }

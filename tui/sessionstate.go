@@ -2,19 +2,19 @@ package tui
 
 import (
 	"fmt"
-	"math"
 	"sort"
 	"strings"
 
+	"likewind/envelope/session"
 	"likewind/envelope/units"
 	"likewind/envelope/whatif"
 )
 
 // Session returns the state worth keeping: what-if values changed from the
 // files, marks, the chosen facility, layer, units and cursor.
-func (m Model) Session() Session {
-	s := Session{
-		Version: SessionVersion,
+func (m Model) Session() session.Session {
+	s := session.Session{
+		Version: session.Version,
 		Inputs:  append([]string(nil), m.inputs...),
 		Hash:    m.hash,
 		Layer:   m.layer.String(),
@@ -38,11 +38,11 @@ func (m Model) Session() Session {
 		for _, k := range idx {
 			i, j := k/g.Cols(), k%g.Cols()
 			if i < g.Rows() {
-				s.Marks = append(s.Marks, Point{Altitude: g.Alts[i], Speed: g.Speeds[j]})
+				s.Marks = append(s.Marks, session.Point{Altitude: g.Alts[i], Speed: g.Speeds[j]})
 			}
 		}
 		if m.curI < g.Rows() && m.curJ < g.Cols() {
-			s.Cursor = &Point{Altitude: g.Alts[m.curI], Speed: g.Speeds[m.curJ]}
+			s.Cursor = &session.Point{Altitude: g.Alts[m.curI], Speed: g.Speeds[m.curJ]}
 		}
 	}
 	return s
@@ -50,7 +50,7 @@ func (m Model) Session() Session {
 
 // applySession takes over the session's choices and what-if values (before
 // the first evaluation). It returns a status message.
-func (m *Model) applySession(s Session) string {
+func (m *Model) applySession(s session.Session) string {
 	var notes []string
 	if l, err := ParseLayer(s.Layer); err == nil {
 		m.layer = l
@@ -94,12 +94,12 @@ func (m *Model) facilityIndex(name string) int {
 
 // restoreSessionPoints puts back marks and the cursor on the evaluated
 // grid, matching each point to the grid point within half a step.
-func (m *Model) restoreSessionPoints(s Session) {
+func (m *Model) restoreSessionPoints(s session.Session) {
 	g := m.res.grid
 	if g == nil {
 		return
 	}
-	snapped, lost := SnapMarks(g, s.Marks)
+	snapped, lost := session.SnapMarks(g, s.Marks)
 	marks := make(map[int]bool, len(snapped))
 	for _, p := range snapped {
 		marks[g.Index(p.Row, p.Col)] = true
@@ -107,36 +107,11 @@ func (m *Model) restoreSessionPoints(s Session) {
 	m.marks = marks
 	m.curI, m.curJ = m.startPoint()
 	if s.Cursor != nil {
-		if p, ok := SnapPoint(g, *s.Cursor); ok {
+		if p, ok := session.SnapPoint(g, *s.Cursor); ok {
 			m.curI, m.curJ = p.Row, p.Col
 		}
 	}
 	if lost > 0 && m.status == "" {
 		m.status = fmt.Sprintf("%d marks no longer on the grid were dropped", lost)
 	}
-}
-
-// nearestIndex finds the axis value within half a step of v.
-func nearestIndex(axis []float64, v float64) (int, bool) {
-	if len(axis) == 0 || math.IsNaN(v) {
-		return 0, false
-	}
-	k := sort.SearchFloat64s(axis, v)
-	best, bd := -1, math.Inf(1)
-	for _, c := range []int{k - 1, k} {
-		if c >= 0 && c < len(axis) {
-			if d := math.Abs(axis[c] - v); d < bd {
-				best, bd = c, d
-			}
-		}
-	}
-	step := 0.0
-	if len(axis) > 1 {
-		step = math.Abs(axis[len(axis)-1]-axis[0]) / float64(len(axis)-1)
-	}
-	tol := math.Max(step/2, 1e-9*math.Max(1, math.Abs(v)))
-	if best < 0 || bd > tol {
-		return 0, false
-	}
-	return best, true
 }

@@ -10,6 +10,7 @@ import (
 	tea "github.com/charmbracelet/bubbletea"
 
 	"likewind/envelope"
+	"likewind/envelope/session"
 	"likewind/envelope/units"
 	"likewind/envelope/whatif"
 )
@@ -435,7 +436,7 @@ func TestSaveKeyWritesSession(t *testing.T) {
 	if m.hasUnsaved() {
 		t.Errorf("still unsaved after s")
 	}
-	s, err := LoadSession(path)
+	s, err := session.Load(path)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -462,7 +463,7 @@ func TestQuitQuestionOffersSave(t *testing.T) {
 	if !quit || m.WantsSave() {
 		t.Errorf("s at the question: quit %v wantsSave %v, want quit with nothing left to save", quit, m.WantsSave())
 	}
-	s, err := LoadSession(path)
+	s, err := session.Load(path)
 	if err != nil || len(s.Marks) != 1 {
 		t.Errorf("saved session %+v, %v; want the one mark", s, err)
 	}

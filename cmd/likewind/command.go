@@ -14,9 +14,9 @@ import (
 
 	"likewind/envelope"
 	"likewind/envelope/fileout"
+	"likewind/envelope/session"
 	"likewind/envelope/units"
 	"likewind/envelope/whatif"
-	"likewind/tui"
 )
 
 // ---- Shared by the output commands (dump, export, plot, coverage, runs).
@@ -299,7 +299,7 @@ func reportDate(s string) (string, error) {
 type evaluated struct {
 	in      inputs
 	e       *envelope.Evaluation
-	session *tui.Session // nil without --session
+	session *session.Session // nil without --session
 	marks   []envelope.GridPoint
 	// lostMarks counts session marks that no longer fall on the grid.
 	lostMarks int
@@ -320,11 +320,11 @@ func evaluateInputs(files []string, sessionPath string, stderr io.Writer) (*eval
 	s := envelope.DefaultSettings(in.vehicle)
 	facs := append([]envelope.Facility(nil), in.facilities...)
 	if sessionPath != "" {
-		sess, err := tui.LoadSession(sessionPath)
+		sess, err := session.Load(sessionPath)
 		if err != nil {
 			return nil, err
 		}
-		if err := tui.CheckSessionInputs(sess, in.files, in.vehicle, in.facilities); err != nil {
+		if err := session.CheckInputs(sess, in.files, in.vehicle, in.facilities); err != nil {
 			return nil, fmt.Errorf("session %s: %w", sessionPath, err)
 		}
 		ev.session = &sess
@@ -344,7 +344,7 @@ func evaluateInputs(files []string, sessionPath string, stderr io.Writer) (*eval
 		}
 	}
 	if ev.session != nil {
-		ev.marks, ev.lostMarks = tui.SnapMarks(e.Grid, ev.session.Marks)
+		ev.marks, ev.lostMarks = session.SnapMarks(e.Grid, ev.session.Marks)
 		if ev.lostMarks > 0 {
 			fmt.Fprintf(stderr, "likewind: warning: %d marked point(s) of the session are no longer on the grid\n", ev.lostMarks)
 		}

@@ -14,6 +14,7 @@ import (
 	"github.com/charmbracelet/x/ansi"
 
 	"likewind/envelope"
+	"likewind/envelope/session"
 	"likewind/envelope/units"
 	"likewind/envelope/whatif"
 	"likewind/tui"
@@ -55,15 +56,15 @@ func outDemoSession(t *testing.T, marks [][2]int, w whatif.Changes, facility str
 		t.Fatal(err)
 	}
 	e := outDemoEval(t)
-	s := tui.Session{
-		Version: tui.SessionVersion, Hash: tui.DataHash(v, facs),
+	s := session.Session{
+		Version: session.Version, Hash: session.DataHash(v, facs),
 		Facility: facility, Layer: tui.LayerClass.String(), Units: units.SI.String(), WhatIf: w,
 	}
 	for _, m := range marks {
-		s.Marks = append(s.Marks, tui.Point{Altitude: e.Grid.Alts[m[0]], Speed: e.Grid.Speeds[m[1]]})
+		s.Marks = append(s.Marks, session.Point{Altitude: e.Grid.Alts[m[0]], Speed: e.Grid.Speeds[m[1]]})
 	}
 	p := filepath.Join(t.TempDir(), "session.json")
-	if err := tui.SaveSession(p, s); err != nil {
+	if err := session.Save(p, s); err != nil {
 		t.Fatal(err)
 	}
 	return p
@@ -277,8 +278,8 @@ func TestOutputCommandsBadFiles(t *testing.T) {
 
 func TestSessionForOtherData(t *testing.T) {
 	p := filepath.Join(t.TempDir(), "s.json")
-	s := tui.Session{Version: tui.SessionVersion, Hash: "sha256:not-this-data", Layer: "match class", Units: "SI"}
-	if err := tui.SaveSession(p, s); err != nil {
+	s := session.Session{Version: session.Version, Hash: "sha256:not-this-data", Layer: "match class", Units: "SI"}
+	if err := session.Save(p, s); err != nil {
 		t.Fatal(err)
 	}
 	code, _, errs := outCmd("runs", "--session", p)
@@ -404,7 +405,7 @@ func TestInterfaceWriteEqualsDump(t *testing.T) {
 			}
 
 			sess := filepath.Join(t.TempDir(), "session.json")
-			if err := tui.SaveSession(sess, m.Session()); err != nil {
+			if err := session.Save(sess, m.Session()); err != nil {
 				t.Fatal(err)
 			}
 			code, want, errs := outCmd("dump", "--plain", "--date", day.Format(time.DateOnly), "--session", sess)

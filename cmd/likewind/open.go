@@ -19,6 +19,7 @@ import (
 	"github.com/charmbracelet/lipgloss"
 	"github.com/mattn/go-isatty"
 
+	"likewind/envelope/session"
 	"likewind/tui"
 )
 
@@ -33,7 +34,7 @@ type openOptions struct {
 func parseOpenFlags(args []string, stderr io.Writer) (openOptions, error) {
 	fs := flag.NewFlagSet("likewind", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	session := fs.String("session", "", "session file to save to and restore from (default: one per set of input files in the user state folder)")
+	sessionPath := fs.String("session", "", "session file to save to and restore from (default: one per set of input files in the user state folder)")
 	restore := fs.Bool("restore", false, "restore the saved session without asking")
 	fresh := fs.Bool("fresh", false, "start from the files' values and ignore a saved session")
 	fs.Usage = func() { printUsage(stderr); fmt.Fprintln(stderr, "\ninterface options:"); fs.PrintDefaults() }
@@ -56,7 +57,7 @@ func parseOpenFlags(args []string, stderr io.Writer) (openOptions, error) {
 	if *restore && *fresh {
 		return openOptions{}, usagef("give at most one of --restore and --fresh")
 	}
-	return openOptions{files: files, sessionPath: *session, restore: *restore, fresh: *fresh}, nil
+	return openOptions{files: files, sessionPath: *sessionPath, restore: *restore, fresh: *fresh}, nil
 }
 
 // runOpen opens the interactive interface on the given files or the demo.
@@ -80,9 +81,9 @@ func runOpen(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return 1
 	}
 
-	hash := tui.DataHash(in.vehicle, in.facilities)
+	hash := session.DataHash(in.vehicle, in.facilities)
 	if len(in.files) > 0 {
-		if hash, err = tui.HashFiles(in.files...); err != nil {
+		if hash, err = session.HashFiles(in.files...); err != nil {
 			fmt.Fprintln(stderr, "likewind:", err)
 			return 1
 		}
@@ -91,10 +92,10 @@ func runOpen(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	// The session file: the one given, which must be a session of these
 	// inputs (or not exist yet), or the default one per set of inputs.
 	// Either is locked while the interface runs.
-	var sf *tui.SessionFile
+	var sf *session.File
 	var note string
 	if o.sessionPath != "" {
-		sf, err = tui.OpenSessionFile(o.sessionPath, in.files, hash)
+		sf, err = session.Open(o.sessionPath, in.files, hash)
 		if err != nil {
 			fmt.Fprintln(stderr, "likewind:", err)
 			return 1
@@ -199,7 +200,7 @@ func defaultSessionPath(hash string) (string, error) {
 // there cannot be used (not a session of these inputs), keeps it and uses
 // the first numbered name beside it that is free or holds a session of
 // these inputs. note says so, for the screen.
-func openDefaultSession(path string, files []string, hash string) (*tui.SessionFile, string, error) {
+func openDefaultSession(path string, files []string, hash string) (*session.File, string, error) {
 	var refused []string
 	for n := 0; n < 100; n++ {
 		p := path
@@ -207,7 +208,7 @@ func openDefaultSession(path string, files []string, hash string) (*tui.SessionF
 			ext := filepath.Ext(path)
 			p = fmt.Sprintf("%s.%d%s", strings.TrimSuffix(path, ext), n, ext)
 		}
-		sf, err := tui.OpenSessionFile(p, files, hash)
+		sf, err := session.Open(p, files, hash)
 		if err != nil {
 			return nil, "", err
 		}
@@ -229,16 +230,16 @@ func openDefaultSession(path string, files []string, hash string) (*tui.SessionF
 // whether to restore it (or restores it at once with --restore). Not
 // restoring keeps it: it is moved beside under a numbered name before this
 // session is first saved.
-func offerSession(sf *tui.SessionFile, restore bool, stdin io.Reader, stderr io.Writer) (tui.Session, bool) {
+func offerSession(sf *session.File, restore bool, stdin io.Reader, stderr io.Writer) (session.Session, bool) {
 	s, ok := sf.Found()
 	if !ok {
-		return tui.Session{}, false
+		return session.Session{}, false
 	}
 	if restore {
 		return s, true
 	}
 	if !isTerminal(stdin) {
-		return tui.Session{}, false
+		return session.Session{}, false
 	}
 	fmt.Fprintf(stderr, "A saved session for these files exists (%s): %d marked point(s).\n"+
 		"Restore it? [Y/n] (n starts from the files' values and keeps the saved session) ", sf.Path(), len(s.Marks))

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"likewind/tui"
+	"likewind/envelope/session"
 )
 
 // copyFile copies src into dir and returns the copy's path.
@@ -46,8 +46,8 @@ func TestOpenRefusesUnusableSessionFile(t *testing.T) {
 	tomlData, _ := os.ReadFile(toml)
 
 	other := filepath.Join(dir, "other.json")
-	if err := tui.SaveSession(other, tui.Session{Inputs: []string{"someone-else.toml"}, Hash: "sha256:other",
-		Layer: "match class", Units: "SI", Marks: []tui.Point{{Altitude: 1000, Speed: 0.5}}}); err != nil {
+	if err := session.Save(other, session.Session{Inputs: []string{"someone-else.toml"}, Hash: "sha256:other",
+		Layer: "match class", Units: "SI", Marks: []session.Point{{Altitude: 1000, Speed: 0.5}}}); err != nil {
 		t.Fatal(err)
 	}
 	otherData, _ := os.ReadFile(other)
@@ -107,8 +107,8 @@ func TestOpenWithoutTerminalWritesNoSession(t *testing.T) {
 		t.Fatalf("dump of the demo failed")
 	}
 	hash := demoHash(t)
-	if err := tui.SaveSession(saved, tui.Session{Hash: hash, Layer: "match class", Units: "SI",
-		Marks: []tui.Point{{Altitude: 0, Speed: 0.3}}}); err != nil {
+	if err := session.Save(saved, session.Session{Hash: hash, Layer: "match class", Units: "SI",
+		Marks: []session.Point{{Altitude: 0, Speed: 0.3}}}); err != nil {
 		t.Fatal(err)
 	}
 	data, _ := os.ReadFile(saved)
@@ -132,7 +132,7 @@ func demoHash(t *testing.T) string {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return tui.DataHash(in.vehicle, in.facilities)
+	return session.DataHash(in.vehicle, in.facilities)
 }
 
 // Item 1, default path: a file at the default session path that is not a
@@ -163,7 +163,7 @@ func TestDefaultSessionUnusableKeptBeside(t *testing.T) {
 	if sf.Path() != beside || !strings.Contains(note, def) || !strings.Contains(note, beside) {
 		t.Errorf("path %s note %q; want %s and a note naming both files", sf.Path(), note, beside)
 	}
-	if _, err := sf.Save(tui.Session{Hash: hash, Layer: "match class", Units: "SI"}, false); err != nil {
+	if _, err := sf.Save(session.Session{Hash: hash, Layer: "match class", Units: "SI"}, false); err != nil {
 		t.Fatal(err)
 	}
 	sf.Close()

@@ -12,6 +12,7 @@ import (
 
 	"likewind/envelope"
 	"likewind/envelope/report"
+	"likewind/envelope/session"
 	"likewind/envelope/units"
 	"likewind/envelope/whatif"
 	"likewind/tui"
@@ -319,7 +320,7 @@ func TestRunsMachRelaxedGas(t *testing.T) {
 		}
 	}
 	// Marked: two relaxed points of each gas facility that has them.
-	s := tui.Session{Version: tui.SessionVersion, Hash: tui.DataHash(in.vehicle, in.facilities),
+	s := session.Session{Version: session.Version, Hash: session.DataHash(in.vehicle, in.facilities),
 		Layer: tui.LayerClass.String(), Units: units.SI.String()}
 	want := map[string]map[[2]int]bool{}
 	marked := map[[2]int]bool{}
@@ -329,12 +330,12 @@ func TestRunsMachRelaxedGas(t *testing.T) {
 			want[name][p] = true
 			if !marked[p] {
 				marked[p] = true
-				s.Marks = append(s.Marks, tui.Point{Altitude: e.Grid.Alts[p[0]], Speed: e.Grid.Speeds[p[1]]})
+				s.Marks = append(s.Marks, session.Point{Altitude: e.Grid.Alts[p[0]], Speed: e.Grid.Speeds[p[1]]})
 			}
 		}
 	}
 	p := filepath.Join(t.TempDir(), "session.json")
-	if err := tui.SaveSession(p, s); err != nil {
+	if err := session.Save(p, s); err != nil {
 		t.Fatal(err)
 	}
 	doc := outRunsJSON(t, append([]string{"--session", p}, files...)...)

@@ -12,7 +12,7 @@ import (
 	"testing"
 	"time"
 
-	"likewind/tui"
+	"likewind/envelope/session"
 )
 
 // Bounds of the signal test: generous, since a loaded machine may be slow
@@ -49,12 +49,12 @@ func (s *sigTmux) tmux(args ...string) *exec.Cmd {
 	return exec.Command("tmux", append([]string{"-S", s.socket}, args...)...)
 }
 
-func startSigTmux(t *testing.T, state, bin, session string) *sigTmux {
+func startSigTmux(t *testing.T, state, bin, sessPath string) *sigTmux {
 	t.Helper()
 	name := fmt.Sprintf("likewind-signal-%d-%d", os.Getpid(), time.Now().UnixNano())
 	s := &sigTmux{t: t, name: name, socket: filepath.Join(t.TempDir(), "tmux.sock")}
 	cmd := s.tmux("new-session", "-d", "-s", name, "-x", "100", "-y", "32",
-		"sh", "-c", signalWrapper+"; sleep 60", "sh", state, bin, session)
+		"sh", "-c", signalWrapper+"; sleep 60", "sh", state, bin, sessPath)
 	cmd.Env = append(os.Environ(), "TERM=xterm-256color")
 	if out, err := cmd.CombinedOutput(); err != nil {
 		t.Fatalf("tmux new-session: %v\n%s", err, out)
@@ -189,8 +189,8 @@ func TestSignalSavesSession(t *testing.T) {
 		for round := 1; round <= signalRounds; round++ {
 			t.Run(fmt.Sprintf("%s/%d", sig, round), func(t *testing.T) {
 				state := t.TempDir()
-				session := filepath.Join(t.TempDir(), "signal-session.json")
-				s := startSigTmux(t, state, bin, session)
+				sessPath := filepath.Join(t.TempDir(), "signal-session.json")
+				s := startSigTmux(t, state, bin, sessPath)
 				s.waitScreen("likewind |")
 				s.change()
 				time.Sleep(signalIdle)
@@ -201,17 +201,17 @@ func TestSignalSavesSession(t *testing.T) {
 				if code := s.waitExit(); code != 0 {
 					t.Errorf("after %v likewind exited with status %d, want 0; screen:\n%s", sig, code, s.screen())
 				}
-				if scr := s.screen(); !strings.Contains(scr, "session saved to "+session) {
-					t.Errorf("after %v the terminal lacks %q; screen:\n%s", sig, "session saved to "+session, scr)
+				if scr := s.screen(); !strings.Contains(scr, "session saved to "+sessPath) {
+					t.Errorf("after %v the terminal lacks %q; screen:\n%s", sig, "session saved to "+sessPath, scr)
 				}
-				got, err := tui.LoadSession(session)
+				got, err := session.Load(sessPath)
 				if err != nil {
 					t.Fatalf("after %v: %v", sig, err)
 				}
-				if got.Version != tui.SessionVersion || got.Hash == "" || got.Layer == "" || got.Units != "customary" {
-					t.Errorf("after %v the session is %+v, want version %d with the data hash and layer", sig, got, tui.SessionVersion)
+				if got.Version != session.Version || got.Hash == "" || got.Layer == "" || got.Units != "customary" {
+					t.Errorf("after %v the session is %+v, want version %d with the data hash and layer", sig, got, session.Version)
 				}
-				entries, err := os.ReadDir(filepath.Dir(session))
+				entries, err := os.ReadDir(filepath.Dir(sessPath))
 				if err != nil {
 					t.Fatal(err)
 				}
@@ -233,8 +233,8 @@ func TestSignalSavesSession(t *testing.T) {
 // unnoticed.
 func TestSignalSaveFailureReported(t *testing.T) {
 	bin := buildSignalBinary(t)
-	session := filepath.Join(t.TempDir(), "no-such-folder", "signal-session.json")
-	s := startSigTmux(t, t.TempDir(), bin, session)
+	sessPath := filepath.Join(t.TempDir(), "no-such-folder", "signal-session.json")
+	s := startSigTmux(t, t.TempDir(), bin, sessPath)
 	s.waitScreen("likewind |")
 	s.change()
 	time.Sleep(signalIdle)
@@ -252,7 +252,7 @@ func TestSignalSaveFailureReported(t *testing.T) {
 	if !strings.Contains(scr, "save session") {
 		t.Errorf("after a failed save the terminal does not say why; screen:\n%s", scr)
 	}
-	if _, err := os.Stat(session); err == nil {
-		t.Errorf("session file %s exists", session)
+	if _, err := os.Stat(sessPath); err == nil {
+		t.Errorf("session file %s exists", sessPath)
 	}
 }

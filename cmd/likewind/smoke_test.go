@@ -9,7 +9,7 @@ import (
 	"testing"
 	"time"
 
-	"likewind/tui"
+	"likewind/envelope/session"
 )
 
 // smokeTmux drives the built binary in a real terminal (tmux) the way a
@@ -105,8 +105,8 @@ func buildLikewind(t *testing.T) string {
 func TestTerminalSmoke(t *testing.T) {
 	bin := buildLikewind(t)
 	dir := t.TempDir()
-	session := filepath.Join(dir, "smoke-session.json")
-	s := newSmokeTmux(t, 120, 40, "env", "XDG_STATE_HOME="+dir, bin, "--fresh", "--session", session)
+	sessPath := filepath.Join(dir, "smoke-session.json")
+	s := newSmokeTmux(t, 120, 40, "env", "XDG_STATE_HOME="+dir, bin, "--fresh", "--session", sessPath)
 
 	first := s.waitFor("likewind |")
 	if !strings.Contains(first, "match class") {
@@ -158,7 +158,7 @@ func TestTerminalSmoke(t *testing.T) {
 	if s.alive() {
 		t.Fatalf("likewind still running after quit; screen:\n%s", s.screen())
 	}
-	data, err := os.ReadFile(session)
+	data, err := os.ReadFile(sessPath)
 	if err != nil {
 		t.Fatalf("session file not written on quit: %v", err)
 	}
@@ -173,10 +173,10 @@ func TestTerminalSmoke(t *testing.T) {
 func TestTerminalTwoInstances(t *testing.T) {
 	bin := buildLikewind(t)
 	dir := t.TempDir()
-	session := filepath.Join(dir, "shared.json")
-	a := newSmokeTmux(t, 120, 40, "env", "XDG_STATE_HOME="+dir, bin, "--session", session)
+	sessPath := filepath.Join(dir, "shared.json")
+	a := newSmokeTmux(t, 120, 40, "env", "XDG_STATE_HOME="+dir, bin, "--session", sessPath)
 	a.waitFor("likewind |")
-	b := newSmokeTmux(t, 120, 40, "env", "XDG_STATE_HOME="+dir, bin, "--fresh", "--session", session)
+	b := newSmokeTmux(t, 120, 40, "env", "XDG_STATE_HOME="+dir, bin, "--fresh", "--session", sessPath)
 	b.waitFor("read-only session")
 
 	// The second: mark, quit; saving asks for another file.
@@ -190,7 +190,7 @@ func TestTerminalTwoInstances(t *testing.T) {
 	if _, err := os.Stat(beside); err != nil {
 		t.Errorf("the second interface's session is not beside: %v", err)
 	}
-	if _, err := os.Stat(session); err == nil {
+	if _, err := os.Stat(sessPath); err == nil {
 		t.Errorf("the read-only interface wrote the shared session file")
 	}
 
@@ -199,18 +199,18 @@ func TestTerminalTwoInstances(t *testing.T) {
 	a.waitFor("Unsaved")
 	a.keys("s")
 	waitGone(t, a)
-	got, err := tui.LoadSession(session)
+	got, err := session.Load(sessPath)
 	if err != nil {
 		t.Fatalf("the first interface did not save: %v", err)
 	}
 	if len(got.Marks) != 2 {
 		t.Errorf("shared session holds %d marks, want the first interface's 2", len(got.Marks))
 	}
-	other, err := tui.LoadSession(beside)
+	other, err := session.Load(beside)
 	if err != nil || len(other.Marks) != 1 {
 		t.Errorf("the second interface's session: %d marks, %v; want its 1", len(other.Marks), err)
 	}
-	if _, err := os.Stat(session + ".lock"); err == nil {
+	if _, err := os.Stat(sessPath + ".lock"); err == nil {
 		t.Errorf("lock file left after both ended")
 	}
 }

@@ -56,7 +56,7 @@ func TestFieldTableRows(t *testing.T) {
 			}
 		}
 	}
-	// The session keys of today's files (see oldSessionFile).
+	// The session keys of today's files (see oldSessionFile in envelope/session).
 	for _, k := range []string{"scale", "delta_t_K", "mach_tol", "re_tol", "compressibility_mach", "p0_max_Pa", "t0_min_K", "q_max_Pa"} {
 		if !keys[k] {
 			t.Errorf("session key %q is no field's: old session files would not load", k)

@@ -1,15 +1,10 @@
-package tui
+package session
 
 import (
-	"errors"
-	"math"
-	"path/filepath"
 	"reflect"
-	"slices"
 	"strings"
 	"testing"
 
-	"likewind/envelope"
 	"likewind/envelope/whatif"
 )
 
@@ -70,14 +65,14 @@ func TestSessionFileFormatUnchanged(t *testing.T) {
 		Marks:  []Point{{Altitude: 1000, Speed: 0.8}},
 		Cursor: &Point{Altitude: 1000, Speed: 0.8},
 	}
-	got, err := parseSession([]byte(oldSessionFile))
+	got, err := parse([]byte(oldSessionFile))
 	if err != nil {
 		t.Fatalf("an old session file no longer loads: %v", err)
 	}
 	if !reflect.DeepEqual(got, want) {
 		t.Errorf("old session file read as\n%+v\nwant\n%+v", got, want)
 	}
-	b, err := encodeSession(want)
+	b, err := encode(want)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -85,7 +80,7 @@ func TestSessionFileFormatUnchanged(t *testing.T) {
 		t.Errorf("session written as\n%s\nwant the old bytes\n%s", b, oldSessionFile)
 	}
 	// No what-if value: an empty object, as before.
-	b, _ = encodeSession(Session{Version: 1, Layer: "class", Units: "SI"})
+	b, _ = encode(Session{Version: 1, Layer: "class", Units: "SI"})
 	if !strings.Contains(string(b), `"what_if": {}`) {
 		t.Errorf("empty what-if written as\n%s", b)
 	}
@@ -102,62 +97,16 @@ func TestSessionWhatIfKeys(t *testing.T) {
 		{`{"facilities": {"T": {"p0_max": 1}}}`, `unknown facility what-if field "p0_max" (expected p0_max_Pa, t0_min_K, q_max_Pa)`},
 		{`{"scale": "big"}`, "what-if scale: json: cannot unmarshal string"},
 	} {
-		_, err := parseSession([]byte(head + c.what + "}"))
+		_, err := parse([]byte(head + c.what + "}"))
 		if err == nil || !strings.Contains(err.Error(), c.want) {
 			t.Errorf("what_if %s: error %v, want one containing %q", c.what, err, c.want)
 		}
 	}
-	s, err := parseSession([]byte(head + `{"scale": null, "Delta_T_K": 5, "facilities": {"T": {"q_max_Pa": null}}}}`))
+	s, err := parse([]byte(head + `{"scale": null, "Delta_T_K": 5, "facilities": {"T": {"q_max_Pa": null}}}}`))
 	if err != nil {
 		t.Fatal(err)
 	}
 	if !reflect.DeepEqual(s.WhatIf.Values, map[string]float64{"delta_t_K": 5}) || len(s.WhatIf.Facilities["T"]) != 0 {
 		t.Errorf("what-if read as %+v, want only ΔT 5 K", s.WhatIf)
-	}
-}
-
-func TestSnapMarks(t *testing.T) {
-	m := newDemo(t, 80, 24)
-	g := m.res.grid
-	if g.Rows() < 3 || g.Cols() < 3 {
-		t.Fatalf("demo grid %d×%d too small", g.Rows(), g.Cols())
-	}
-	dAlt := g.Alts[1] - g.Alts[0]
-	dSpd := g.Speeds[1] - g.Speeds[0]
-	pts := []Point{
-		{Altitude: g.Alts[1] + 0.4*dAlt, Speed: g.Speeds[2] - 0.4*dSpd}, // snaps to (1,2)
-		{Altitude: g.Alts[1], Speed: g.Speeds[2]},                       // repeat
-		{Altitude: g.Alts[0] - 0.6*dAlt, Speed: g.Speeds[0]},            // below the grid
-		{Altitude: math.NaN(), Speed: g.Speeds[0]},
-		{Altitude: g.Alts[2], Speed: g.Speeds[1]},
-	}
-	marks, lost := SnapMarks(g, pts)
-	want := []envelope.GridPoint{{Row: 1, Col: 2}, {Row: 2, Col: 1}}
-	if !slices.Equal(marks, want) || lost != 2 {
-		t.Errorf("SnapMarks = %v, %d lost; want %v, 2 lost", marks, lost, want)
-	}
-	if _, ok := SnapPoint(nil, pts[0]); ok {
-		t.Error("SnapPoint on no grid reported a point")
-	}
-}
-
-func TestCheckSessionInputs(t *testing.T) {
-	v, facs := demoData(t)
-	s := Session{Version: SessionVersion, Hash: DataHash(v, facs)}
-	if err := CheckSessionInputs(s, nil, v, facs); err != nil {
-		t.Errorf("CheckSessionInputs(demo session) = %v, want nil", err)
-	}
-	files := []string{filepath.Join("..", "testdata", "corvane-sx3.toml"), filepath.Join("..", "testdata", "facilities.toml")}
-	h, err := HashFiles(files...)
-	if err != nil {
-		t.Fatal(err)
-	}
-	s.Hash = h
-	if err := CheckSessionInputs(s, files, v, facs); err != nil {
-		t.Errorf("CheckSessionInputs(file-hash session) = %v, want nil", err)
-	}
-	s.Hash = "sha256:other"
-	if err := CheckSessionInputs(s, files, v, facs); !errors.Is(err, ErrSessionMismatch) {
-		t.Errorf("CheckSessionInputs(other data) = %v, want ErrSessionMismatch", err)
 	}
 }

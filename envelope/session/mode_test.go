@@ -1,6 +1,6 @@
 //go:build unix
 
-package tui
+package session
 
 import (
 	"os"
@@ -15,7 +15,7 @@ func TestSessionFileIsPrivate(t *testing.T) {
 	old := syscall.Umask(0o002)
 	defer syscall.Umask(old)
 	p := filepath.Join(t.TempDir(), "s.json")
-	if err := SaveSession(p, Session{Layer: "class", Units: "SI"}); err != nil {
+	if err := Save(p, Session{Layer: "class", Units: "SI"}); err != nil {
 		t.Fatal(err)
 	}
 	if fi, err := os.Stat(p); err != nil || fi.Mode().Perm() != 0o600 {

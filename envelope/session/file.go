@@ -1,4 +1,4 @@
-package tui
+package session
 
 import (
 	"bytes"
@@ -14,10 +14,9 @@ import (
 	"likewind/envelope/fileout"
 )
 
-// ErrSessionInUse is wrapped by (*SessionFile).Save when another likewind
-// holds the session file's lock: this interface then saves only to another
-// file.
-var ErrSessionInUse = errors.New("session file is in use by another likewind")
+// ErrInUse is wrapped by (*File).Save when another likewind holds the
+// session file's lock: this interface then saves only to another file.
+var ErrInUse = errors.New("session file is in use by another likewind")
 
 // errLockHeld is tryLock's answer when another open file holds the lock.
 var errLockHeld = errors.New("lock held by another process")
@@ -26,7 +25,7 @@ var errLockHeld = errors.New("lock held by another process")
 // few kilobytes; anything far larger is not one.
 const maxSessionBytes = 16 << 20
 
-// SessionFile is the session file an interface reads and saves: its path,
+// File is the session file an interface reads and saves: its path,
 // the advisory lock held on it while the interface runs, and what the
 // file held when it was last read or written, so that a save never writes
 // over something it did not read.
@@ -37,8 +36,8 @@ const maxSessionBytes = 16 << 20
 // opens read-only and saves only to another file. The lock file holds the
 // holder's process id and is removed when the lock is released.
 //
-// A SessionFile is safe for use from several goroutines.
-type SessionFile struct {
+// A File is safe for use from several goroutines.
+type File struct {
 	mu sync.Mutex
 
 	path     string
@@ -55,20 +54,27 @@ type SessionFile struct {
 	found   *Session // the session read at open, when usable
 }
 
-// OpenSessionFile takes the lock on the session file at path and reads
-// what is there for the given inputs (names and content hash). It fails
-// only when path is empty; a file that cannot be used is reported by
-// Refused, a lock held elsewhere by ReadOnly, a lock that could not be
-// taken by LockError. Close releases the lock.
-func OpenSessionFile(path string, inputs []string, hash string) (*SessionFile, error) {
-	return openSessionFile(path, inputs, hash, true)
+// Open takes the lock on the session file at path and reads what is there
+// for the given inputs (names and content hash). It fails only when path
+// is empty; a file that cannot be used is reported by Refused, a lock held
+// elsewhere by ReadOnly, a lock that could not be taken by LockError.
+// Close releases the lock.
+func Open(path string, inputs []string, hash string) (*File, error) {
+	return open(path, inputs, hash, true)
 }
 
-func openSessionFile(path string, inputs []string, hash string, lock bool) (*SessionFile, error) {
+// OpenUnlocked reads the session file at path as Open does, without
+// taking its lock (an interface model built without Run, tests). A save
+// through it still never writes over what it did not read.
+func OpenUnlocked(path string, inputs []string, hash string) (*File, error) {
+	return open(path, inputs, hash, false)
+}
+
+func open(path string, inputs []string, hash string, lock bool) (*File, error) {
 	if path == "" {
 		return nil, errors.New("session: no session file given")
 	}
-	f := &SessionFile{path: path}
+	f := &File{path: path}
 	if lock {
 		lf, holder, err := takeLock(path)
 		switch {
@@ -86,18 +92,18 @@ func openSessionFile(path string, inputs []string, hash string, lock bool) (*Ses
 	case err != nil:
 		f.refused = err
 	case exists && len(data) > 0:
-		s, perr := parseSession(data)
+		s, perr := parse(data)
 		if perr != nil {
 			f.refused = fmt.Errorf("is not a likewind session file (%v)", perr)
 			break
 		}
-		if cerr := CheckSession(s, inputs, hash); cerr != nil {
-			if !errors.Is(cerr, ErrSessionMismatch) {
+		if cerr := Check(s, inputs, hash); cerr != nil {
+			if !errors.Is(cerr, ErrMismatch) {
 				f.refused = cerr
-			} else if nameList(s.Inputs) == nameList(inputs) {
-				f.refused = fmt.Errorf("was saved for other contents of the input files %s (they changed since)", nameList(inputs))
+			} else if InputNames(s.Inputs) == InputNames(inputs) {
+				f.refused = fmt.Errorf("was saved for other contents of the input files %s (they changed since)", InputNames(inputs))
 			} else {
-				f.refused = fmt.Errorf("was saved for other input files (%s, not %s)", nameList(s.Inputs), nameList(inputs))
+				f.refused = fmt.Errorf("was saved for other input files (%s, not %s)", InputNames(s.Inputs), InputNames(inputs))
 			}
 			break
 		}
@@ -196,8 +202,8 @@ func releaseLock(lf *os.File) {
 	lf.Close()
 }
 
-// Close releases the lock. The SessionFile must not be used afterwards.
-func (f *SessionFile) Close() error {
+// Close releases the lock. The File must not be used afterwards.
+func (f *File) Close() error {
 	if f == nil {
 		return nil
 	}
@@ -210,14 +216,14 @@ func (f *SessionFile) Close() error {
 
 // Path is the file the session is saved to now (it moves when a save had
 // to go beside the original, or to a file the user named).
-func (f *SessionFile) Path() string {
+func (f *File) Path() string {
 	f.mu.Lock()
 	defer f.mu.Unlock()
 	return f.path
 }
 
 // ReadOnly reports whether another likewind holds the lock, and which.
-func (f *SessionFile) ReadOnly() (bool, string) {
+func (f *File) ReadOnly() (bool, string) {
 	f.mu.Lock()
 	defer f.mu.Unlock()
 	return f.readOnly, f.holder
@@ -225,7 +231,7 @@ func (f *SessionFile) ReadOnly() (bool, string) {
 
 // LockError is why no lock could be taken on a file no one else holds
 // (e.g. a read-only folder), or nil.
-func (f *SessionFile) LockError() error {
+func (f *File) LockError() error {
 	f.mu.Lock()
 	defer f.mu.Unlock()
 	return f.lockErr
@@ -234,14 +240,14 @@ func (f *SessionFile) LockError() error {
 // Refused is why the file found at open cannot be used as a session for
 // these inputs (it is then never written over), or nil when there was no
 // file or a usable session.
-func (f *SessionFile) Refused() error {
+func (f *File) Refused() error {
 	f.mu.Lock()
 	defer f.mu.Unlock()
 	return f.refused
 }
 
 // Found is the usable session read at open.
-func (f *SessionFile) Found() (Session, bool) {
+func (f *File) Found() (Session, bool) {
 	f.mu.Lock()
 	defer f.mu.Unlock()
 	if f.found == nil {
@@ -269,13 +275,13 @@ type SaveResult struct {
 // session on disk was not restored), an existing session is first kept
 // beside under a numbered name. A save without change writes nothing.
 // Session files are written 0600.
-func (f *SessionFile) Save(s Session, keepOld bool) (SaveResult, error) {
+func (f *File) Save(s Session, keepOld bool) (SaveResult, error) {
 	f.mu.Lock()
 	defer f.mu.Unlock()
 	if f.readOnly {
-		return SaveResult{Path: f.path}, fmt.Errorf("save session: %s: %w (%s); this likewind can save only to another file", f.path, ErrSessionInUse, f.holder)
+		return SaveResult{Path: f.path}, fmt.Errorf("save session: %s: %w (%s); this likewind can save only to another file", f.path, ErrInUse, f.holder)
 	}
-	data, err := encodeSession(s)
+	data, err := encode(s)
 	if err != nil {
 		return SaveResult{Path: f.path}, err
 	}
@@ -308,7 +314,7 @@ func (f *SessionFile) Save(s Session, keepOld bool) (SaveResult, error) {
 
 // divert writes data to a new numbered file beside the session file, which
 // is left as it is, and makes that the session file. The caller holds mu.
-func (f *SessionFile) divert(data []byte, reason string) (SaveResult, error) {
+func (f *File) divert(data []byte, reason string) (SaveResult, error) {
 	sib, err := freeSibling(f.path)
 	if err != nil {
 		return SaveResult{Path: f.path}, fmt.Errorf("save session: %s; %w", reason, err)
@@ -323,7 +329,7 @@ func (f *SessionFile) divert(data []byte, reason string) (SaveResult, error) {
 // and makes it the session file, taking its lock. It refuses a path that
 // exists: a file likewind did not read as this session is never written
 // over.
-func (f *SessionFile) SaveAs(path string, s Session) (SaveResult, error) {
+func (f *File) SaveAs(path string, s Session) (SaveResult, error) {
 	path = expandHome(strings.TrimSpace(path))
 	if path == "" {
 		return SaveResult{}, errors.New("save session: no file name given")
@@ -335,7 +341,7 @@ func (f *SessionFile) SaveAs(path string, s Session) (SaveResult, error) {
 	} else if !errors.Is(err, fs.ErrNotExist) {
 		return SaveResult{Path: f.path}, fmt.Errorf("save session: %s: %w", path, err)
 	}
-	data, err := encodeSession(s)
+	data, err := encode(s)
 	if err != nil {
 		return SaveResult{Path: f.path}, err
 	}
@@ -348,10 +354,10 @@ func (f *SessionFile) SaveAs(path string, s Session) (SaveResult, error) {
 // SaveBeside writes s to a new numbered file beside the session file and
 // makes that the session file: what a read-only interface does when it
 // must save without asking (a hang-up).
-func (f *SessionFile) SaveBeside(s Session) (SaveResult, error) {
+func (f *File) SaveBeside(s Session) (SaveResult, error) {
 	f.mu.Lock()
 	defer f.mu.Unlock()
-	data, err := encodeSession(s)
+	data, err := encode(s)
 	if err != nil {
 		return SaveResult{Path: f.path}, err
 	}
@@ -373,10 +379,10 @@ func (f *SessionFile) SaveBeside(s Session) (SaveResult, error) {
 // switchTo takes the lock on the new file path, writes data there (never
 // over an existing file) and makes it the session file, releasing the old
 // lock. The caller holds mu.
-func (f *SessionFile) switchTo(path string, data []byte) error {
+func (f *File) switchTo(path string, data []byte) error {
 	lf, holder, lockErr := takeLock(path)
 	if errors.Is(lockErr, errLockHeld) {
-		return fmt.Errorf("%s: %w (%s)", path, ErrSessionInUse, holder)
+		return fmt.Errorf("%s: %w (%s)", path, ErrInUse, holder)
 	}
 	// Without a lock file (a folder that refuses it) the write below says
 	// what is wrong; a written file is kept even so.
@@ -394,7 +400,7 @@ func (f *SessionFile) switchTo(path string, data []byte) error {
 // Suggest is a file name to offer for saving elsewhere: a free numbered
 // name beside the session file, or, when that folder is the trouble
 // (elsewhere), a free name in dir.
-func (f *SessionFile) Suggest(dir string, elsewhere bool) string {
+func (f *File) Suggest(dir string, elsewhere bool) string {
 	f.mu.Lock()
 	path := f.path
 	f.mu.Unlock()
