@@ -139,6 +139,6 @@ func dumpHeader(in DumpInput) string {
 		grid += fmt.Sprintf(", %d marked", len(in.Marks))
 	}
 	line("grid", "%s", grid)
-	line("caution", "%s", SafetyNote)
+	line("caution", "%s", envelope.SafetyNote)
 	return b.String()
 }

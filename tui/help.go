@@ -3,14 +3,11 @@ package tui
 import (
 	"strings"
 
+	"likewind/envelope"
+
 	"github.com/charmbracelet/bubbles/help"
 	"github.com/charmbracelet/bubbles/key"
 )
-
-// SafetyNote is shown on the help screen.
-const SafetyNote = "Results are planning estimates. Pressure vessels, cryogenic nitrogen " +
-	"and model loads need the facility's own procedures, local codes and " +
-	"licensed engineering practice."
 
 // ClassHelp defines the match classes on the help screen.
 const ClassHelp = "full match = Mach within tolerance and Reynolds number at least (1 - tol) of flight; " +
@@ -71,7 +68,7 @@ func (v helpView) Overlay() string {
 	classes := para("Classes:", ClassHelp)
 	whatIf := para("What-if:", "values take units (3 bar, 45 psi, -150 degC, 10 K); scale 1/20, 1:20, 5%"+
 		" or fit; q max none; R restores the files' values, U undoes.")
-	caution := wrapLines(v.st.Caution.Render("CAUTION")+" "+SafetyNote, w, "")
+	caution := wrapLines(v.st.Caution.Render("CAUTION")+" "+envelope.SafetyNote, w, "")
 	heading := []string{v.st.Section.Render("Keys")}
 	blank := []string{""}
 	hint := []string{v.st.Faint.Render("? or esc closes this screen")}

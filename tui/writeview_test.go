@@ -9,6 +9,7 @@ import (
 
 	tea "github.com/charmbracelet/bubbletea"
 
+	"likewind/envelope"
 	"likewind/envelope/units"
 	"likewind/envelope/whatif"
 )
@@ -104,7 +105,7 @@ func TestWriteViewKey(t *testing.T) {
 		"changed by the session: ΔT",
 		"units     customary",
 		", 1 marked",
-		"caution   " + SafetyNote,
+		"caution   " + envelope.SafetyNote,
 	} {
 		if !strings.Contains(want, part) {
 			t.Errorf("dump lacks %q:\n%s", part, want)

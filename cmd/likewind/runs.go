@@ -10,7 +10,6 @@ import (
 	"likewind/envelope"
 	"likewind/envelope/report"
 	"likewind/envelope/units"
-	"likewind/tui"
 )
 
 var runsCommand = commandSpec{
@@ -117,7 +116,7 @@ func (p *runPlan) writeText(w io.Writer, u units.System) error {
 	fmt.Fprintf(&b, "%-9s grouped by T0, then p0, then Mach number ascending (water: temperature, static pressure, speed);\n"+
 		"%-9s a setting counts as changed when it moves by %g K, %g %% of p0, %g in Mach or %g m/s\n",
 		"order", "", report.RunT0Step, 100*report.RunP0Frac, report.RunMachStep, report.RunSpeedStep)
-	fmt.Fprintf(&b, "%-9s %s\n", "caution", tui.SafetyNote)
+	fmt.Fprintf(&b, "%-9s %s\n", "caution", envelope.SafetyNote)
 	t := newRunText(u, g.SpeedKind)
 	for _, rl := range p.Lists {
 		t.writeList(&b, rl)
