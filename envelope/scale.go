@@ -129,12 +129,29 @@ func (m *Map) sizeFlag(mach float64) Flags {
 // ok is false when the point is outside the envelope, the facility cannot
 // run the flight Mach number (within MachTol), no setting exists there, or
 // the medium is a liquid (no Mach match).
+//
+// Where the balance is checked (loads.go), the model of that scale must
+// also carry the load at that setting: the balance caps q at
+// q_load ∝ 1/scale² (1/scale³ for the moment), and where the cap lies
+// below the setting's q no model is a full match (ok false). A larger
+// model does not help there: with q held at the cap p0 falls as
+// 1/scale², and Re ∝ scale·p0 falls with it (where the saturation line
+// lets T0 fall too, Re falls more slowly, about as scale^-0.6, but
+// falls). This is judged at the Mach number of the best setting.
 func MinScaleFullMatch(g *Grid, f *Facility, s Settings, i, j int) (float64, bool) {
 	sv, ok := scaleOneSolver(g, f, s)
 	if !ok {
 		return 0, false
 	}
-	return sv.minScale(&g.points[g.Index(i, j)], nil)
+	sol := sv.minScale(&g.points[g.Index(i, j)], nil)
+	return sol.scale, sol.ok && carries(newLoadModel(g.Vehicle, f), sol)
+}
+
+// carries reports whether the balance of loads takes the model of the
+// scale of sol at its setting (true where the balance is not checked).
+func carries(loads loadModel, sol minScaleSol) bool {
+	qc := loads.qCap(sol.scale)
+	return !(qc > 0) || sol.q <= qc*(1+solveSlack)
 }
 
 // scaleOneSolver is the solver of facility f for a full-scale model (its
@@ -170,10 +187,11 @@ func minScaleSurvey(g *Grid, f *Facility, s Settings) (most float64, n int) {
 	if !ok {
 		return 0, 0
 	}
-	memo := map[float64]float64{}
+	memo := map[float64]scaleOne{}
+	loads := newLoadModel(g.Vehicle, f)
 	for k := range g.points {
-		if sc, ok := sv.minScale(&g.points[k], memo); ok {
-			most = math.Max(most, sc)
+		if sol := sv.minScale(&g.points[k], memo); sol.ok && carries(loads, sol) {
+			most = math.Max(most, sol.scale)
 			n++
 		}
 	}

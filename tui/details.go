@@ -146,7 +146,7 @@ func (m Model) detailBlocks(w int) detailBlocks {
 	d.facility = append(d.facility, pair("scale", sig(det.Scale, 3), "model", u.Length(det.ModelLength)))
 	if det.HasSettings && det.Class.Matched() {
 		// Which of the settings that reach the target was taken.
-		d.facility = append(d.facility, st.Label.Render("rule")+" "+envelope.OperatingRule(fac.Medium))
+		d.facility = append(d.facility, st.Label.Render("rule")+" "+det.Rule.Describe(fac.Medium, u))
 	}
 
 	// The cautions by name, for panels without room for the full texts,
