@@ -529,6 +529,12 @@ func (sv *gasSolver) coldest(c *gasBounds, target float64) (gasHit, Limit) {
 	}
 	h := gasHit{t0: atLeast(atMost(T/c.tau, sv.lim.T0Max), c.t0lo)}
 	h.p0 = atLeast(atMost(sv.linePressure(c, target, T)/c.pi, c.p0hi), c.p0lo)
+	switch lim {
+	case c.tLim:
+		h.t0 = c.t0lo // exactly T0 min (or the static floor), not T0·τ/τ
+	case sv.limP0Lo:
+		h.p0 = c.p0lo
+	}
 	h.re = sv.reAt(c, h.p0, h.t0)
 	return h, lim
 }

@@ -197,3 +197,161 @@ func minScaleSurvey(g *Grid, f *Facility, s Settings) (most float64, n int) {
 	}
 	return most, n
 }
+
+// ScaleWindow is the range of model scales over which a point is a full
+// match in a facility with its balance: from the smallest scale whose
+// best setting reaches the flight Reynolds number (within ReTol) to the
+// largest at which a setting that does still keeps the model load within
+// the balance capacity.
+type ScaleWindow struct {
+	// Min is MinScaleFullMatch without the balance; MinOK says whether
+	// the facility can Mach-match the point at all.
+	Min   float64
+	MinOK bool
+	// Max is the largest scale the balance takes at the point: the load
+	// at the least-load setting that makes it a full match (the coldest
+	// end of the matching line for (1 − ReTol) of the flight Reynolds
+	// number, which every rule's setting loads at least as much) reaches
+	// the capacity there. +Inf where the balance is not checked; 0 where
+	// not even a model of scale Min is carried (no model is a full match
+	// within the balance).
+	Max float64
+}
+
+// Open reports whether some scale makes the point a full match within the
+// balance: Min ≤ Max.
+func (w ScaleWindow) Open() bool { return w.MinOK && w.Max > 0 && w.Min <= w.Max*(1+1e-9) }
+
+// Scale search of ScaleWindowAt: the load at the least-load setting grows
+// with scale (about as scale¹: q falls as 1/scale where T0 stays at its
+// floor, load = C·q·A·scale²; as scale^0.8 where the saturation line lets
+// T0 fall; as scale² where p0 is at its minimum), so its root is found by
+// regula falsi (Illinois) on the logarithms, at most scaleIter steps, to
+// scaleTol relative.
+const (
+	scaleIter = 100
+	scaleTol  = 1e-10
+)
+
+// ScaleWindowAt is the scale window of point (i, j) in facility f with
+// settings s (judged at the Mach number a match is tried at, the flight
+// Mach number held within the facility range). ok is false when the point
+// is outside the envelope or f or s is not valid, and for a water tunnel,
+// which never makes a full match.
+func ScaleWindowAt(g *Grid, f *Facility, s Settings, i, j int) (ScaleWindow, bool) {
+	sv, ok := scaleOneSolver(g, f, s)
+	if !ok || f.Medium == MediumWater {
+		return ScaleWindow{}, false
+	}
+	r := &g.points[g.Index(i, j)]
+	if r.excl != InEnvelope {
+		return ScaleWindow{}, false
+	}
+	return scaleWindow(sv, g.Vehicle.RefLength, newLoadModel(g.Vehicle, f), r, s.ReTol, nil), true
+}
+
+// scaleWindow is the scale window of flight record r with solver sv
+// (whose model length it changes; L1 is the full-scale length).
+func scaleWindow(sv solver, L1 float64, loads loadModel, r *flightRec, reTol float64, memo map[float64]scaleOne) ScaleWindow {
+	sv.setModelLength(L1)
+	sol := sv.minScale(r, memo)
+	w := ScaleWindow{Min: sol.scale, MinOK: sol.ok, Max: math.Inf(1)}
+	if !sol.ok {
+		w.Max = 0
+		return w
+	}
+	if !loads.checks() {
+		return w
+	}
+	need := (1 - reTol) * r.re
+	// share is the load at the least-load full-match setting over the
+	// capacity, at scale sc (at Min the one setting is minScale's).
+	share := func(sc float64) float64 {
+		sv.setModelLength(sc * L1)
+		q, ok := sv.matchQ(r.mach, need)
+		if !ok || sc <= sol.scale {
+			q = sol.q
+		}
+		return q / loads.qCap(sc)
+	}
+	lo := sol.scale
+	slo := share(lo)
+	if slo > 1+solveSlack {
+		w.Max = 0
+		return w
+	}
+	hi, shi := lo, slo
+	for k := 0; shi <= 1 && k < 200; k++ {
+		lo, slo = hi, shi
+		hi *= 2
+		shi = share(hi)
+	}
+	if shi <= 1 {
+		return w // no capacity reached within 2^200 of Min: not checked in effect
+	}
+	fl, fh := math.Log(slo), math.Log(shi)
+	x0, x1 := math.Log(lo), math.Log(hi)
+	side := 0
+	for it := 0; it < scaleIter && x1-x0 > scaleTol; it++ {
+		x := x1 - fh*(x1-x0)/(fh-fl)
+		if !(x > x0 && x < x1) {
+			x = 0.5 * (x0 + x1)
+		}
+		fm := math.Log(share(math.Exp(x)))
+		if fm <= 0 {
+			x0, fl = x, fm
+			if side == -1 {
+				fh /= 2
+			}
+			side = -1
+		} else {
+			x1, fh = x, fm
+			if side == 1 {
+				fl /= 2
+			}
+			side = 1
+		}
+	}
+	w.Max = math.Exp(x0) // the carried side
+	return w
+}
+
+// BalanceScale is the largest model scale that facility f's balance takes
+// at every inside point whose scale window is open (the smallest
+// ScaleWindow.Max over them), for sizing a model to the balance as
+// FitScale sizes it to the section. Closed counts the points the facility
+// could Mach-match whose window is shut (no model is a full match there
+// within the balance), Open those whose window is open. Max is +Inf where
+// the balance is not checked, and for a water tunnel.
+type BalanceScale struct {
+	Max          float64
+	Open, Closed int
+}
+
+// BalanceScaleEnvelope is the BalanceScale of facility f over grid g with
+// settings s (one window search per inside point: for surveys and the
+// scale study, not the per-frame solve).
+func BalanceScaleEnvelope(g *Grid, f *Facility, s Settings) BalanceScale {
+	out := BalanceScale{Max: math.Inf(1)}
+	loads := newLoadModel(g.Vehicle, f)
+	sv, ok := scaleOneSolver(g, f, s)
+	if !ok || f.Medium == MediumWater || !loads.checks() {
+		return out
+	}
+	memo := map[float64]scaleOne{}
+	for k := range g.points {
+		r := &g.points[k]
+		if r.excl != InEnvelope {
+			continue
+		}
+		w := scaleWindow(sv, g.Vehicle.RefLength, loads, r, s.ReTol, memo)
+		switch {
+		case w.Open():
+			out.Open++
+			out.Max = math.Min(out.Max, w.Max)
+		case w.MinOK:
+			out.Closed++
+		}
+	}
+	return out
+}
