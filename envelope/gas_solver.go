@@ -1045,8 +1045,11 @@ func (sv *gasSolver) bestNearMach(mf, mm float64) scaleOne {
 }
 
 // matchQ: the cold end of the matching line at the Mach number a match is
-// tried at (held within the facility range, matching flight within
-// MachTol), under the facility's own limits (the balance cap aside).
+// tried at (flight held within the facility range) and at the ends of the
+// Mach tolerance band, the lowest of them (a full match may lie anywhere
+// in the band, and along it q at the cold end changes monotonically, as
+// about M·T²/(T+S) of the static temperature), under the facility's own
+// limits (the balance cap aside).
 func (sv *gasSolver) matchQ(mf, target float64) (float64, bool) {
 	fs := sv.free()
 	if fs.qLoad > 0 {
@@ -1058,12 +1061,20 @@ func (sv *gasSolver) matchQ(mf, target float64) (float64, bool) {
 	if !withinTol(mm, mf, fs.mTol) {
 		return 0, false
 	}
-	c := fs.bounds(mm)
-	if _, ok := fs.tryHit(&c, target); !ok {
-		return 0, false
+	ms := [3]float64{mm, mm, mm}
+	if lo, hi, ok := fs.machBand(mf); ok {
+		ms[1], ms[2] = lo, hi
 	}
-	h, _ := fs.coldest(&c, target)
-	return 0.5 * fs.gamma * h.p0 * c.pi * c.M * c.M, true
+	q, found := math.Inf(1), false
+	for _, M := range ms {
+		c := fs.bounds(M)
+		if _, ok := fs.tryHit(&c, target); !ok {
+			continue
+		}
+		h, _ := fs.coldest(&c, target)
+		q, found = math.Min(q, 0.5*fs.gamma*h.p0*c.pi*c.M*c.M), true
+	}
+	return q, found
 }
 
 func peakMach(f *Facility) float64 {

@@ -172,8 +172,9 @@ func scaleOneSolver(g *Grid, f *Facility, s Settings) (solver, bool) {
 // MinScaleEnvelope is the smallest model scale at which every inside point
 // that facility f can run at flight Mach number becomes a full match (the
 // largest per-point MinScaleFullMatch). ok is false when some inside point
-// cannot be Mach-matched at any scale, or no point can; the scale returned
-// then still covers the points that can (0 when none can).
+// cannot be Mach-matched at any scale (or, with load data, not within the
+// balance), or no point can; the scale returned then still covers the
+// points that can (0 when none can).
 func MinScaleEnvelope(g *Grid, f *Facility, s Settings) (float64, bool) {
 	most, n := minScaleSurvey(g, f, s)
 	return most, n > 0 && n == g.InsideCount()
@@ -234,8 +235,10 @@ const (
 )
 
 // ScaleWindowAt is the scale window of point (i, j) in facility f with
-// settings s (judged at the Mach number a match is tried at, the flight
-// Mach number held within the facility range). ok is false when the point
+// settings s (the load judged at the Mach number a match is tried at, the
+// flight Mach number held within the facility range, and at the ends of
+// the Mach tolerance band, where Solve may also find the match). ok is
+// false when the point
 // is outside the envelope or f or s is not valid, and for a water tunnel,
 // which never makes a full match.
 func ScaleWindowAt(g *Grid, f *Facility, s Settings, i, j int) (ScaleWindow, bool) {
