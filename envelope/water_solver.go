@@ -352,12 +352,27 @@ func (sv *waterSolver) matchingSet(target float64) MatchingSet {
 		wl = LimitSpeedRange
 		if over {
 			// Even the coldest water at the lowest speed overshoots: the
-			// one setting that comes nearest.
+			// one setting that comes nearest (warmer where the coldest
+			// breaks the dynamic-pressure cap, as solveInto takes it).
+			if v := sv.lim.SpeedMin; sv.qCap > 0 && 0.5*warm.Density*v*v > sv.qCap {
+				warm = sv.coldestWithinQ(warm, v)
+			}
 			ms.Re, ms.ReLimit = sv.lim.SpeedMin*sv.L/warm.KinematicViscosity, LimitSpeedRange
 			ms.Cold = sv.setEnd(warm, sv.lim.SpeedMin, sv.limT)
 			ms.Warm = sv.setEnd(warm, sv.lim.SpeedMin, LimitSpeedRange)
 			return ms
 		}
+	}
+	if vw := re * warm.KinematicViscosity / sv.L; sv.qCap > 0 && 0.5*warm.Density*vw*vw > sv.qCap {
+		// The cooled water at the lowest speed breaks the dynamic-pressure
+		// cap, and every colder setting of the line more so: the one
+		// setting is the one solveInto takes, warmer water that keeps
+		// the cap and overshoots flight.
+		w := sv.coldestWithinQ(warm, sv.lim.SpeedMin)
+		ms.Re, ms.ReLimit = sv.lim.SpeedMin*sv.L/w.KinematicViscosity, sv.qCapLim
+		ms.Cold = sv.setEnd(w, sv.lim.SpeedMin, sv.qCapLim)
+		ms.Warm = sv.setEnd(w, sv.lim.SpeedMin, LimitSpeedRange)
+		return ms
 	}
 	ms.Warm = sv.setEnd(warm, re*warm.KinematicViscosity/sv.L, wl)
 	// The cold end: the coldest water, unless its speed breaks the speed
