@@ -569,6 +569,13 @@ func TestPropertyRulesRandom(t *testing.T) {
 		warm := solveOne(t, c, s)
 		s.Rule = OperatingRule{Kind: RuleLeastLoad}
 		cold := solveOne(t, c, s)
+		check := func(s Settings) {
+			t.Helper()
+			cc := c
+			cc.settings = s
+			checkSolveCase(t, cc) // FuzzSolve's invariants under the rule
+		}
+		check(s)
 		if warm.Class != cold.Class {
 			t.Fatalf("least load class %v, standard %v\n%s", cold.Class, warm.Class, caseText(c))
 		}
@@ -586,6 +593,7 @@ func TestPropertyRulesRandom(t *testing.T) {
 			if d := solveOne(t, c, s); d.HasSettings && d.T0 != T {
 				t.Errorf("fixed T0 %g: T0 %g (%v)\n%s", T, d.T0, d.Class, caseText(c))
 			}
+			check(s)
 		}
 		if lo, hi, ok := gasQRange(&c.f); ok {
 			if c.f.QMax > 0 {
@@ -596,6 +604,7 @@ func TestPropertyRulesRandom(t *testing.T) {
 				if d := solveOne(t, c, s); d.HasSettings && !sameRel(d.Q, s.Rule.Q, 1e-7) {
 					t.Errorf("fixed q %g: q %g (%v)\n%s", s.Rule.Q, d.Q, d.Class, caseText(c))
 				}
+				check(s)
 			}
 		}
 	}
