@@ -193,7 +193,11 @@ type RuleError struct {
 }
 
 func (e *RuleError) Error() string {
-	return "operating rule " + e.Field + ": found " + e.Found + ", expected " + e.Expected
+	what := "operating rule"
+	if e.Field != "rule" {
+		what += " " + e.Field
+	}
+	return what + ": found " + e.Found + ", expected " + e.Expected
 }
 
 // CheckRuleKind checks that rule kind k suits facility f: a gas rule on a
