@@ -325,3 +325,35 @@ func checked(b Bound, found, unit string, v float64) (float64, error) {
 	}
 	return v, nil
 }
+
+// LoadCoefficientBound bounds a vehicle's largest normal-force or
+// pitching-moment coefficient: above 0, and at most MaxLoadCoefficient, a
+// plausibility bound far above what a body or wing reaches on its own
+// reference area (an absurd value is more likely a typing slip).
+func LoadCoefficientBound() Bound {
+	return Bound{Lo: 0, LoOpen: true, Hi: MaxLoadCoefficient,
+		Expected: fmt.Sprintf("a load coefficient above 0 and at most %g", MaxLoadCoefficient)}
+}
+
+// BalanceForceBound and BalanceMomentBound bound a balance's capacity.
+func BalanceForceBound() Bound {
+	return Bound{Lo: 0, LoOpen: true, Hi: MaxBalanceForce,
+		Expected: fmt.Sprintf("a force above 0 and at most %g N", MaxBalanceForce)}
+}
+
+// BalanceMomentBound: see BalanceForceBound.
+func BalanceMomentBound() Bound {
+	return Bound{Lo: 0, LoOpen: true, Hi: MaxBalanceMoment,
+		Expected: fmt.Sprintf("a moment above 0 and at most %g N·m", MaxBalanceMoment)}
+}
+
+// Plausibility bounds of load data (not physical limits: values beyond
+// them are refused as more likely a slip of unit or digit).
+const (
+	MaxLoadCoefficient = 50.0
+	MaxBalanceForce    = 1e7 // N (1 MN is already a very large balance)
+	MaxBalanceMoment   = 1e7 // N·m
+)
+
+// MaxArea bounds a load reference area, m² (a square kilometre).
+const MaxArea = 1e6

@@ -62,6 +62,10 @@ func Cautions(d *Detail, f *Facility, u QuantityFormat) []string {
 		add("Model too large for the section: scale %.3g is above %.3g, the largest it takes (%s); "+
 			"wall interference and blockage make these results unreliable.", d.Scale, d.SectionFit, d.SectionFitRule)
 	}
+	if d.Flags.Has(FlagLoadNearLimit) {
+		add("Model load %.0f %% of the balance capacity (normal force %.4g N, pitching moment %.4g N·m at the largest load coefficients): "+
+			"a planning estimate; check model, sting and balance with their own ratings.", 100*d.Load.Share, d.Load.NormalForce, d.Load.PitchMoment)
+	}
 	if d.Flags.Has(FlagLowCavitation) {
 		add("Cavitation number %.2f: cavitation on the model is likely.", d.Cavitation)
 	}

@@ -291,7 +291,7 @@ func (sv *gasSolver) relaxAt(b *gasBounds, target float64) gasPick {
 	top, _ := sv.best(b)
 	g := gasPick{c: *b, gasSetting: gasSetting{p0: h.p0, t0: h.t0, re: h.re, lim: top.lim}, reMax: top.re, over: h.over}
 	if g.over {
-		g.lim = sideLimits{LimitP0Min, LimitT0Max}
+		g.lim = sideLimits{sv.limP0Lo, sv.limT0Hi}
 	}
 	return g
 }

@@ -17,13 +17,31 @@ const solveSlack = 1e-9
 // number the limits (p0 and T0 ranges, dynamic pressure, static
 // temperature, saturation line, unit Reynolds number) are solved jointly in
 // (p0, T0) in closed form. Of the settings that reach the flight Reynolds
-// number the warmest T0 is taken, then the lowest p0. The searches over
-// Mach number are in gas_search.go.
+// number the operating rule picks one (rule.go): by default the warmest
+// T0, then the lowest p0. The searches over Mach number are in
+// gas_search.go.
 type gasSolver struct {
-	lim       GasLimits
+	// lim are the facility's limits (fac) with the rule's fixed T0, if
+	// any, as both ends of the T0 range.
+	lim, fac  GasLimits
 	qMax      float64 // Pa (0: none)
 	maxRePerM float64 // unit Reynolds cap, 1/m (0: none)
 	reg       atmos.Regimes
+
+	rule OperatingRule // in force, never RuleDefault
+	// leastLoad: the rule takes the coldest end of the matching line;
+	// fixedQ (Pa, 0: none): the rule holds q, and so p0 at each Mach number.
+	leastLoad bool
+	fixedQ    float64
+	// limT0Lo, limT0Hi and limP0Lo name what bounds T0 from below and
+	// above and p0 from below: the facility's limits, or the rule's fixed
+	// value.
+	limT0Lo, limT0Hi, limP0Lo Limit
+	// qLoad is the dynamic pressure at which the model reaches the
+	// balance capacity (0: not checked); qCap, the lower of it and qMax,
+	// caps p0 at each Mach number, and qCapLim names it.
+	qLoad, qCap float64
+	qCapLim     Limit
 
 	mTol, reTol float64
 	compMach    float64 // below it Mach number may be relaxed
@@ -43,8 +61,9 @@ type gasSolver struct {
 	peakTau, peakPi         float64
 }
 
-// newGasSolver checks the gas limits of f and prepares its solver for gas.
-func newGasSolver(f *Facility, gas atmos.Gas, s Settings, reg atmos.Regimes) (*gasSolver, error) {
+// newGasSolver checks the gas limits of f and prepares its solver for gas
+// under operating rule r (checked by the caller).
+func newGasSolver(f *Facility, gas atmos.Gas, s Settings, reg atmos.Regimes, r OperatingRule) (*gasSolver, error) {
 	g := f.Gas
 	if err := checkNonNegative([]namedValue{{"Mach min", g.MachMin}, {"Mach max", g.MachMax},
 		{"p0 min", g.P0Min}, {"p0 max", g.P0Max}, {"T0 min", g.T0Min}, {"T0 max", g.T0Max},
@@ -63,9 +82,14 @@ func newGasSolver(f *Facility, gas atmos.Gas, s Settings, reg atmos.Regimes) (*g
 	}
 	sv := &gasSolver{
 		lim:       g,
+		fac:       g,
 		qMax:      f.QMax,
 		maxRePerM: f.MaxReynoldsPerM,
 		reg:       reg,
+		rule:      r,
+		limT0Lo:   LimitT0Min,
+		limT0Hi:   LimitT0Max,
+		limP0Lo:   LimitP0Min,
 		mTol:      s.MachTol,
 		reTol:     s.ReTol,
 		compMach:  s.CompressibilityMach,
@@ -81,7 +105,42 @@ func newGasSolver(f *Facility, gas atmos.Gas, s Settings, reg atmos.Regimes) (*g
 	sv.beta, sv.suth = gas.Sutherland()
 	sv.peakTau = 1 / (1 + 0.5*(sv.gamma-1)*sv.peakM*sv.peakM)
 	sv.peakPi = sv.pressureRatio(sv.peakTau)
+	switch r.Kind {
+	case RuleLeastLoad:
+		sv.leastLoad = true
+	case RuleFixedTemperature:
+		sv.lim.T0Min, sv.lim.T0Max = r.Temperature, r.Temperature
+		sv.limT0Lo, sv.limT0Hi = LimitRuleTemperature, LimitRuleTemperature
+	case RuleFixedQ:
+		sv.fixedQ = r.Q
+		sv.limP0Lo = LimitRuleQ
+	}
+	sv.setLoadCap(0)
 	return sv, nil
+}
+
+// setLoadCap sets the dynamic pressure at which the model reaches the
+// balance capacity (0: not checked).
+func (sv *gasSolver) setLoadCap(q float64) {
+	sv.qLoad = q
+	sv.qCap, sv.qCapLim = sv.qMax, LimitQMax
+	if q > 0 && (sv.qCap == 0 || q < sv.qCap) {
+		sv.qCap, sv.qCapLim = q, LimitBalanceLoad
+	}
+}
+
+// free is the solver of the same facility and model under the standard
+// rule and the facility's own limits: the matching set, the Reynolds
+// sweep and the balance scale ask what the facility can do, whatever the
+// rule picks.
+func (sv *gasSolver) free() *gasSolver {
+	if sv.rule.Kind == RuleWarmest {
+		return sv
+	}
+	f := *sv
+	f.lim, f.rule, f.leastLoad, f.fixedQ = f.fac, OperatingRule{Kind: RuleWarmest}, false, 0
+	f.limT0Lo, f.limT0Hi, f.limP0Lo = LimitT0Min, LimitT0Max, LimitP0Min
+	return &f
 }
 
 // fitMach: the model is sized for the highest inside flight Mach number,
@@ -230,19 +289,22 @@ type gasBounds struct {
 	condOn     bool
 	p0hi       float64 // highest usable p0
 	pLim       Limit   // what sets p0hi
+	p0lo       float64 // lowest usable p0: P0Min, or a fixed-q rule's p0
 	t0lo       float64 // lowest T0 from T0Min and the static-T floor
 	tLim       Limit   // what sets t0lo
 }
 
 // bounds evaluates the limits at Mach number M jointly, in closed form:
 //
-//	p0 ≤ P0Max, p0 ≤ 2·QMax/(γM²π(M))                   (dynamic pressure)
+//	p0 ≤ P0Max, p0 ≤ 2·qCap/(γM²π(M))      (dynamic pressure, balance load)
 //	T0 ≥ T0Min, T0 ≥ MinStaticT/τ(M)                     (static temperature)
 //	T0·τ(M) ≥ Tsat(p0·π(M))  ⇔  p0 ≤ psat(T0·τ)/π(M)     (saturation line)
 //	T0 ≤ T0Max, p0 ≥ P0Min.
 //
 // The saturation constraint couples p0 and T0: at T0Max it caps p0, and
-// at p0hi it sets a floor on T0 (resolved in best, only when needed).
+// at p0hi it sets a floor on T0 (resolved in best, only when needed). A
+// fixed-q rule holds p0 at 2·q/(γM²π(M)): both ends of the p0 range, when
+// that lies within them.
 func (sv *gasSolver) bounds(M float64) gasBounds {
 	g, lim := sv.gamma, &sv.lim
 	c := gasBounds{M: M}
@@ -251,12 +313,12 @@ func (sv *gasSolver) bounds(M float64) gasBounds {
 	c.k = M * sv.reCoef
 	c.condOn = sv.condFlag || (sv.drySupersonic && M >= 1)
 	c.p0hi, c.pLim = lim.P0Max, LimitP0Max
-	if sv.qMax > 0 && M > 0 {
-		if pq := 2 * sv.qMax / (g * M * M * c.pi); pq < c.p0hi {
-			c.p0hi, c.pLim = pq, LimitQMax
+	if sv.qCap > 0 && M > 0 {
+		if pq := 2 * sv.qCap / (g * M * M * c.pi); pq < c.p0hi {
+			c.p0hi, c.pLim = pq, sv.qCapLim
 		}
 	}
-	c.t0lo, c.tLim = lim.T0Min, LimitT0Min
+	c.t0lo, c.tLim = lim.T0Min, sv.limT0Lo
 	if lim.MinStaticT > 0 {
 		if t := lim.MinStaticT / c.tau; t > c.t0lo {
 			c.t0lo, c.tLim = t, LimitStaticT
@@ -271,7 +333,21 @@ func (sv *gasSolver) bounds(M float64) gasBounds {
 			c.p0hi, c.pLim = pc, LimitCondensation
 		}
 	}
-	if c.p0hi < lim.P0Min {
+	c.p0lo = lim.P0Min
+	if sv.fixedQ > 0 {
+		pq := 2 * sv.fixedQ / (g * M * M * c.pi)
+		switch {
+		case !(pq <= c.p0hi*(1+solveSlack)):
+			c.why = c.pLim
+			return c
+		case pq < lim.P0Min*(1-solveSlack):
+			c.why = LimitP0Min
+			return c
+		}
+		pq = min(max(pq, lim.P0Min), c.p0hi)
+		c.p0lo, c.p0hi, c.pLim = pq, pq, LimitRuleQ
+	}
+	if c.p0hi < c.p0lo {
 		c.why = c.pLim
 		return c
 	}
@@ -341,6 +417,11 @@ type gasHit struct {
 // at p0hi, so p0 stays bounded by what bounds p0hi (q max, say) and the cap
 // bounds T0 from below; only where T0 reaches T0Max does p0 come down, and
 // then the cap bounds p0 and T0Max the temperature.
+//
+// Under the least-load rule the cap is met at the coldest end of the line
+// of settings that give it (coldest): the cap bounds p0 there, and what
+// bounds the cold end bounds T0 (or, where that is the lowest p0, the
+// other way round).
 func (sv *gasSolver) best(c *gasBounds) (gasSetting, bool) {
 	s := gasSetting{p0: c.p0hi, lim: sideLimits{p: c.pLim}}
 	s.t0, s.lim.t = sv.floorT0(c, s.p0)
@@ -351,9 +432,18 @@ func (sv *gasSolver) best(c *gasBounds) (gasSetting, bool) {
 			if h.over {
 				return gasSetting{lim: sideLimits{LimitRePerM, s.lim.t}}, false
 			}
+			if sv.leastLoad {
+				cold, lim := sv.coldest(c, reCap)
+				s.p0, s.t0, s.re = cold.p0, cold.t0, cold.re
+				s.lim = sideLimits{LimitRePerM, lim}
+				if lim == sv.limP0Lo {
+					s.lim = sideLimits{lim, LimitRePerM}
+				}
+				return s, true
+			}
 			s.p0, s.t0, s.re = h.p0, h.t0, h.re
 			if s.p0 < c.p0hi*(1-solveSlack) {
-				s.lim = sideLimits{LimitRePerM, LimitT0Max}
+				s.lim = sideLimits{LimitRePerM, sv.limT0Hi}
 			} else {
 				s.lim.t = LimitRePerM
 			}
@@ -377,8 +467,11 @@ func (sv *gasSolver) hit(c *gasBounds, target, tFloor float64) gasHit {
 	s.t0 = atLeast(atMost(T/c.tau, sv.lim.T0Max), tFloor)
 	T = s.t0 * c.tau
 	s.p0 = atMost(target*T*T/(c.k*c.pi*(T+sv.suth)), c.p0hi)
-	if s.p0 < sv.lim.P0Min {
-		s.p0, s.over = sv.lim.P0Min, true
+	if s.p0 < c.p0lo {
+		// Under a fixed-q rule p0lo is p0hi, and the p0 that meets the
+		// target there may come out a rounding below it.
+		s.over = sv.fixedQ == 0 || s.p0 < c.p0lo*(1-solveSlack)
+		s.p0 = c.p0lo
 	}
 	s.re = sv.reAt(c, s.p0, s.t0)
 	return s
@@ -387,8 +480,120 @@ func (sv *gasSolver) hit(c *gasBounds, target, tFloor float64) gasHit {
 // warmestStatic is the static temperature at which p0hi on bounds c gives
 // Reynolds number target (the quadratic of hit).
 func (sv *gasSolver) warmestStatic(c *gasBounds, target float64) float64 {
-	a := c.k * c.p0hi * c.pi / target
+	return sv.staticFor(c, c.p0hi, target)
+}
+
+// staticFor is the static temperature at which stagnation pressure p0 on
+// bounds c gives Reynolds number target (the quadratic of hit).
+func (sv *gasSolver) staticFor(c *gasBounds, p0, target float64) float64 {
+	a := c.k * p0 * c.pi / target
 	return 0.5 * (a + math.Sqrt(a*a+4*a*sv.suth))
+}
+
+// linePressure is the static pressure at which static temperature T on
+// bounds c gives Reynolds number target: the matching line,
+// p = target·T²/(k·(T+S)), which rises with T.
+func (sv *gasSolver) linePressure(c *gasBounds, target, T float64) float64 {
+	return target * T * T / (c.k * (T + sv.suth))
+}
+
+// coldest is the least-load setting for target on bounds c, where tryHit
+// has found target reachable: the coldest T0 on the matching line, where
+// p0, and with it q = ½γM²·π·p0, is lowest (p0 rises with T0 along the
+// line), with the limit that bounds it there:
+//
+//	T0 ≥ t0lo (T0Min, or the static-temperature floor),
+//	p0 ≥ p0lo, i.e. T ≥ the static temperature at which p0lo gives target,
+//	p ≤ psat(T) (saturation line: p rises with T along the line far more
+//	    slowly than psat, so the line crosses it once; see saturationCrossing).
+//
+// Where even p0lo at T0Max overshoots it is that corner, with over set.
+func (sv *gasSolver) coldest(c *gasBounds, target float64) (gasHit, Limit) {
+	tHi := sv.lim.T0Max * c.tau
+	T, lim := c.t0lo*c.tau, c.tLim
+	if tp := sv.staticFor(c, c.p0lo, target); tp > T {
+		T, lim = tp, sv.limP0Lo
+	}
+	if T > tHi {
+		h := gasHit{p0: c.p0lo, t0: sv.lim.T0Max, over: true}
+		h.re = sv.reAt(c, h.p0, h.t0)
+		return h, sv.limP0Lo
+	}
+	tw := atMost(sv.warmestStatic(c, target), tHi)
+	if T > tw {
+		// Only by rounding: the line is empty. The warm end stands in.
+		return sv.hit(c, target, c.t0lo), lim
+	}
+	if c.condOn && sv.gas.ExceedsVapourPressure(sv.linePressure(c, target, T), T) {
+		T, lim = sv.saturationCrossing(c, target, T, tw), LimitCondensation
+	}
+	h := gasHit{t0: atLeast(atMost(T/c.tau, sv.lim.T0Max), c.t0lo)}
+	h.p0 = atLeast(atMost(sv.linePressure(c, target, T)/c.pi, c.p0hi), c.p0lo)
+	switch lim {
+	case c.tLim:
+		h.t0 = c.t0lo // exactly T0 min (or the static floor), not T0·τ/τ
+	case sv.limP0Lo:
+		h.p0 = c.p0lo
+	}
+	h.re = sv.reAt(c, h.p0, h.t0)
+	return h, lim
+}
+
+// satIter caps the root search of saturationCrossing; it stops earlier
+// once the bracket is narrower than satTol relative.
+const (
+	satIter = 100
+	satTol  = 1e-12
+)
+
+// saturationCrossing is the static temperature at which the matching line
+// of target on bounds c meets the saturation line, between lo (liquid
+// side) and hi (vapour side): the root of
+//
+//	f(T) = ln p_line(T) − ln psat(T),
+//
+// which falls with T (d ln psat/d ln T = L/(R·T), about 8 for nitrogen
+// near 80 K by the Clausius–Clapeyron relation — from memory — against at
+// most 2 for the line), by regula falsi with the Illinois modification:
+// a few steps, at most satIter, to satTol. It returns the vapour-side
+// end of the final bracket.
+func (sv *gasSolver) saturationCrossing(c *gasBounds, target, lo, hi float64) float64 {
+	if tc := sv.tcrit; hi > tc {
+		// Above the top of the saturation line nothing condenses.
+		if sv.gas.ExceedsVapourPressure(sv.linePressure(c, target, tc), tc) {
+			return math.Nextafter(tc, math.Inf(1))
+		}
+		hi = tc
+	}
+	f := func(T float64) float64 {
+		return math.Log(sv.linePressure(c, target, T)) - math.Log(sv.gas.SaturationPressure(T))
+	}
+	flo, fhi := f(lo), f(hi)
+	side := 0
+	for it := 0; it < satIter && hi-lo > satTol*hi; it++ {
+		T := hi - fhi*(hi-lo)/(fhi-flo)
+		if !(T > lo && T < hi) {
+			T = 0.5 * (lo + hi)
+		}
+		fm := f(T)
+		if fm > 0 {
+			lo, flo = T, fm
+			if side == -1 {
+				fhi /= 2
+			}
+			side = -1
+		} else {
+			hi, fhi = T, fm
+			if side == 1 {
+				flo /= 2
+			}
+			side = 1
+		}
+	}
+	for k := 0; k < 4 && sv.gas.ExceedsVapourPressure(sv.linePressure(c, target, hi), hi); k++ {
+		hi *= 1 + satTol // onto the vapour side by the comparison the rest uses
+	}
+	return hi
 }
 
 // tryHit reaches target on bounds c if it can, without resolving the
@@ -408,7 +613,12 @@ func (sv *gasSolver) tryHit(c *gasBounds, target float64) (gasHit, bool) {
 	if c.condOn && sv.gas.ExceedsVapourPressure(c.p0hi*c.pi, tw*c.tau) {
 		return gasHit{}, false
 	}
-	h := sv.hit(c, target, c.t0lo)
+	var h gasHit
+	if sv.leastLoad {
+		h, _ = sv.coldest(c, target)
+	} else {
+		h = sv.hit(c, target, c.t0lo)
+	}
 	if h.over && sv.maxRePerM > 0 && h.re > sv.maxRePerM*sv.L*(1+solveSlack) {
 		// Even the lowest setting (P0Min at the warmest T0) breaks the
 		// unit-Reynolds cap: nothing runs at this Mach number.
@@ -418,10 +628,12 @@ func (sv *gasSolver) tryHit(c *gasBounds, target float64) (gasHit, bool) {
 }
 
 // bindingLimit picks the one limit to report when both sides bind, in the
-// order unit Reynolds, dynamic pressure, condensation, static temperature,
-// maximum p0, minimum T0.
+// order unit Reynolds, dynamic pressure, balance load, condensation,
+// static temperature, maximum p0, minimum T0, then the values an operating
+// rule fixes.
 func bindingLimit(pl, tl Limit) Limit {
-	for _, l := range [...]Limit{LimitRePerM, LimitQMax, LimitCondensation, LimitStaticT, LimitP0Max, LimitT0Min} {
+	for _, l := range [...]Limit{LimitRePerM, LimitQMax, LimitBalanceLoad, LimitCondensation, LimitStaticT,
+		LimitP0Max, LimitT0Min, LimitRuleQ, LimitRuleTemperature} {
 		if pl == l || tl == l {
 			return l
 		}
@@ -528,7 +740,7 @@ func (sv *gasSolver) fullMatch(ps *pointSol, at *atMatch, mm, mf, tFlight float6
 		if h.over {
 			// Overshoot only happens at T0Max: the settings cannot come
 			// down further on either side.
-			ps.limit, ps.pLim, ps.tLim = LimitP0Min, LimitP0Min, LimitT0Max
+			ps.limit, ps.pLim, ps.tLim = sv.limP0Lo, sv.limP0Lo, sv.limT0Hi
 		}
 		return true
 	}
@@ -570,7 +782,7 @@ func (sv *gasSolver) useSearched(ps *pointSol, g *gasPick, mf, tFlight float64) 
 	if g.re >= ps.reFlight*(1-solveSlack) {
 		ps.limit = LimitNone
 		if g.over {
-			ps.limit = LimitP0Min
+			ps.limit = sv.limP0Lo
 		}
 	}
 }
@@ -648,16 +860,80 @@ func (sv *gasSolver) fillSetting(s *fillMemo, c *gasBounds, p0, t0 float64) {
 	if sv.qMax > 0 && s.q >= NearLimitFraction*sv.qMax {
 		fl |= FlagQNearLimit
 	}
+	if sv.qLoad > 0 && s.q >= NearLimitFraction*sv.qLoad {
+		fl |= FlagLoadNearLimit
+	}
 	s.flags = fl
+}
+
+// matchingSet is the matching set at test Mach number M for flight
+// Reynolds number target (see MatchingSet), on the limits of sv (the
+// free solver: the facility's own limits under the standard rule).
+func (sv *gasSolver) matchingSet(M, target float64) MatchingSet {
+	c := sv.bounds(M)
+	if !c.ok {
+		return MatchingSet{}
+	}
+	ms := MatchingSet{OK: true, Mach: M, Re: target}
+	if h, ok := sv.tryHit(&c, target); ok {
+		if h.over {
+			ms.Re, ms.ReLimit = h.re, sv.limP0Lo
+			ms.Cold = sv.setEnd(&c, h.p0, h.t0, sv.limP0Lo)
+			ms.Warm = sv.setEnd(&c, h.p0, h.t0, sv.limT0Hi)
+			return ms
+		}
+		cold, lim := sv.coldest(&c, target)
+		ms.Cold = sv.setEnd(&c, cold.p0, cold.t0, lim)
+		ms.Warm = sv.warmEnd(&c, h)
+		return ms
+	}
+	top, ok := sv.best(&c)
+	if !ok {
+		return MatchingSet{}
+	}
+	ms.Re = top.re
+	if top.lim.p == LimitRePerM || top.lim.t == LimitRePerM {
+		// The unit-Reynolds cap holds the best below flight: every setting
+		// on the cap's line gives it.
+		ms.ReLimit = LimitRePerM
+		floor, _ := sv.floorT0(&c, c.p0hi)
+		cold, lim := sv.coldest(&c, top.re)
+		ms.Cold = sv.setEnd(&c, cold.p0, cold.t0, lim)
+		ms.Warm = sv.warmEnd(&c, sv.hit(&c, top.re, floor))
+		return ms
+	}
+	ms.ReLimit = bindingLimit(top.lim.p, top.lim.t)
+	ms.Cold = sv.setEnd(&c, top.p0, top.t0, top.lim.t)
+	ms.Warm = sv.setEnd(&c, top.p0, top.t0, top.lim.p)
+	return ms
+}
+
+// warmEnd is the warm end of a matching line at setting h (hit): bounded
+// by T0Max where it reaches it, else by what bounds p0 there.
+func (sv *gasSolver) warmEnd(c *gasBounds, h gasHit) SetEnd {
+	lim := c.pLim
+	if h.t0 >= sv.lim.T0Max*(1-solveSlack) && h.p0 < c.p0hi*(1-solveSlack) {
+		lim = sv.limT0Hi
+	}
+	return sv.setEnd(c, h.p0, h.t0, lim)
+}
+
+// setEnd is the end of a matching set at (p0, t0) on bounds c.
+func (sv *gasSolver) setEnd(c *gasBounds, p0, t0 float64, lim Limit) SetEnd {
+	T := t0 * c.tau
+	return SetEnd{P0: p0, T0: t0, V: c.M * math.Sqrt(sv.gamma*sv.rgas*T),
+		Q: 0.5 * sv.gamma * p0 * c.pi * c.M * c.M, Limit: lim}
 }
 
 func (sv *gasSolver) addDetail(d *Detail, ps *pointSol) {
 	if !ps.has {
 		return
 	}
-	c := sv.bounds(ps.mach)
-	d.ReSweepMin, d.ReSweepMax = sv.sweep(&c, ps.p0)
+	fs := sv.free()
+	c := fs.bounds(ps.mach)
+	d.ReSweepMin, d.ReSweepMax = fs.sweep(&c, ps.p0)
 	d.MinT0Condensation = sv.gas.SaturationTemperature(ps.p) / c.tau
+	d.Set = fs.matchingSet(ps.mach, ps.reFlight)
 }
 
 // sweep is the Reynolds range at the Mach number of c and stagnation
@@ -693,7 +969,7 @@ func (sv *gasSolver) rangeAt(M float64) (lo, hi float64, ok bool) {
 	if !ok {
 		return 0, 0, false
 	}
-	lo = sv.reAt(&c, sv.lim.P0Min, sv.lim.T0Max)
+	lo = sv.reAt(&c, c.p0lo, sv.lim.T0Max)
 	if sv.maxRePerM > 0 {
 		lo = min(lo, sv.maxRePerM*sv.L)
 	}
@@ -721,45 +997,84 @@ func (sv *gasSolver) reachableRe(samples int) []ReRange {
 // number is proportional to scale, so the smallest scale is
 // (1 − ReTol)·Re_flight over the best Reynolds number at scale 1 (the
 // solver's model length is the full-scale length). memo, when not nil,
-// keeps the scale-1 Reynolds number per flight Mach number.
-func (sv *gasSolver) minScale(r *flightRec, memo map[float64]float64) (float64, bool) {
+// keeps the scale-1 best per flight Mach number.
+func (sv *gasSolver) minScale(r *flightRec, memo map[float64]scaleOne) minScaleSol {
 	if r.excl != InEnvelope {
-		return 0, false
+		return minScaleSol{}
 	}
 	mf := r.mach
 	mm := sv.matchMach(mf)
 	if !withinTol(mm, mf, sv.mTol) {
-		return 0, false
+		return minScaleSol{}
 	}
-	re1, seen := memo[mf]
+	one, seen := memo[mf]
 	if !seen {
-		re1 = sv.bestNearMach(mf, mm)
+		one = sv.bestNearMach(mf, mm)
 		if memo != nil {
-			memo[mf] = re1
+			memo[mf] = one
 		}
 	}
-	if !(re1 > 0) {
-		return 0, false
+	if !(one.re > 0) {
+		return minScaleSol{}
 	}
-	return (1 - sv.reTol) * r.re / re1, true
+	return minScaleSol{scale: (1 - sv.reTol) * r.re / one.re, q: one.q, ok: true}
 }
 
-// bestNearMach is the highest best-setting Reynolds number at facility
-// Mach numbers within MachTol of flight Mach number mf (mm: mf held within
-// the facility range), 0 when none is usable.
-func (sv *gasSolver) bestNearMach(mf, mm float64) float64 {
-	var re1 float64
+// bestNearMach is the highest best setting at facility Mach numbers
+// within MachTol of flight Mach number mf (mm: mf held within the facility
+// range): its Reynolds number (0 when none is usable) and dynamic
+// pressure.
+func (sv *gasSolver) bestNearMach(mf, mm float64) scaleOne {
+	var one scaleOne
+	take := func(c *gasBounds, s gasSetting) {
+		if s.re > one.re {
+			one = scaleOne{re: s.re, q: 0.5 * sv.gamma * s.p0 * c.pi * c.M * c.M}
+		}
+	}
 	if c := sv.bounds(mm); c.ok {
 		if top, ok := sv.best(&c); ok {
-			re1 = top.re
+			take(&c, top)
 		}
 	}
 	if lo, hi, ok := sv.machBand(mf); ok {
 		if top, ok := sv.maxOver(lo, hi); ok {
-			re1 = math.Max(re1, top.re)
+			take(&top.c, top.gasSetting)
 		}
 	}
-	return re1
+	return one
+}
+
+// matchQ: the cold end of the matching line at the Mach number a match is
+// tried at (flight held within the facility range) and at the ends of the
+// Mach tolerance band, the lowest of them (a full match may lie anywhere
+// in the band, and along it q at the cold end changes monotonically, as
+// about M·T²/(T+S) of the static temperature), under the facility's own
+// limits (the balance cap aside).
+func (sv *gasSolver) matchQ(mf, target float64) (float64, bool) {
+	fs := sv.free()
+	if fs.qLoad > 0 {
+		c := *fs
+		c.setLoadCap(0)
+		fs = &c
+	}
+	mm := fs.matchMach(mf)
+	if !withinTol(mm, mf, fs.mTol) {
+		return 0, false
+	}
+	ms := [3]float64{mm, mm, mm}
+	if lo, hi, ok := fs.machBand(mf); ok {
+		ms[1], ms[2] = lo, hi
+	}
+	q, found := math.Inf(1), false
+	for _, M := range ms {
+		c := fs.bounds(M)
+		if _, ok := fs.tryHit(&c, target); !ok {
+			continue
+		}
+		h, _ := fs.coldest(&c, target)
+		q, found = math.Min(q, 0.5*fs.gamma*h.p0*c.pi*c.M*c.M), true
+	}
+	return q, found
 }
 
 func peakMach(f *Facility) float64 {

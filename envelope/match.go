@@ -107,37 +107,43 @@ type Limit uint8
 // speed range is LimitSpeedRange and the water temperature range
 // LimitWaterTemp.
 const (
-	LimitNone           Limit = iota
-	LimitMachRange            // flight Mach outside the facility Mach range
-	LimitIncompressible       // Mach number too high for a liquid (or to relax Mach)
-	LimitSpeedRange           // water speed range
-	LimitP0Max                // maximum stagnation pressure
-	LimitP0Min                // minimum stagnation pressure
-	LimitT0Min                // minimum stagnation temperature
-	LimitT0Max                // maximum stagnation temperature
-	LimitQMax                 // test-section dynamic pressure limit
-	LimitCondensation         // saturation line of the test gas
-	LimitStaticT              // minimum test-section static temperature
-	LimitRePerM               // maximum unit Reynolds number
-	LimitWaterTemp            // water temperature range
+	LimitNone            Limit = iota
+	LimitMachRange             // flight Mach outside the facility Mach range
+	LimitIncompressible        // Mach number too high for a liquid (or to relax Mach)
+	LimitSpeedRange            // water speed range
+	LimitP0Max                 // maximum stagnation pressure
+	LimitP0Min                 // minimum stagnation pressure
+	LimitT0Min                 // minimum stagnation temperature
+	LimitT0Max                 // maximum stagnation temperature
+	LimitQMax                  // test-section dynamic pressure limit
+	LimitCondensation          // saturation line of the test gas
+	LimitStaticT               // minimum test-section static temperature
+	LimitRePerM                // maximum unit Reynolds number
+	LimitWaterTemp             // water temperature range
+	LimitBalanceLoad           // balance and sting capacity (Facility.Balance)
+	LimitRuleTemperature       // the temperature a fixed-temperature rule holds
+	LimitRuleQ                 // the dynamic pressure a fixed-q rule holds
 
-	numLimits = int(LimitWaterTemp) + 1
+	numLimits = int(LimitRuleQ) + 1
 )
 
 var limitNames = [...]string{
-	LimitNone:           "none",
-	LimitMachRange:      "facility Mach range",
-	LimitIncompressible: "Mach (incompressible medium)",
-	LimitSpeedRange:     "facility speed range",
-	LimitP0Max:          "maximum p0",
-	LimitP0Min:          "minimum p0",
-	LimitT0Min:          "minimum T0",
-	LimitT0Max:          "maximum T0",
-	LimitQMax:           "dynamic-pressure limit",
-	LimitCondensation:   "condensation",
-	LimitStaticT:        "minimum static temperature",
-	LimitRePerM:         "unit Reynolds limit",
-	LimitWaterTemp:      "water temperature range",
+	LimitNone:            "none",
+	LimitMachRange:       "facility Mach range",
+	LimitIncompressible:  "Mach (incompressible medium)",
+	LimitSpeedRange:      "facility speed range",
+	LimitP0Max:           "maximum p0",
+	LimitP0Min:           "minimum p0",
+	LimitT0Min:           "minimum T0",
+	LimitT0Max:           "maximum T0",
+	LimitQMax:            "dynamic-pressure limit",
+	LimitCondensation:    "condensation",
+	LimitStaticT:         "minimum static temperature",
+	LimitRePerM:          "unit Reynolds limit",
+	LimitWaterTemp:       "water temperature range",
+	LimitBalanceLoad:     "balance load",
+	LimitRuleTemperature: "fixed temperature of the rule",
+	LimitRuleQ:           "fixed q of the rule",
 }
 
 // String returns the limit in plain words, e.g. "dynamic-pressure limit".
@@ -180,6 +186,9 @@ const (
 	// or a session's) is above the largest the test section takes by the
 	// span and blockage rules at the point's test Mach number (FitScale).
 	FlagModelTooLarge
+	// FlagLoadNearLimit: the model load (Load.Share) is within the top
+	// NearLimitFraction of the balance capacity.
+	FlagLoadNearLimit
 )
 
 // Caution thresholds (common practice; planning values, not facility
@@ -203,7 +212,7 @@ const (
 	// oxygen-deficiency hazard from nitrogen), K.
 	CryogenicT0 = 200.0
 	// NearLimitFraction: settings at or above this share of a facility
-	// maximum (p0, q) are flagged.
+	// maximum (p0, q, balance load) are flagged.
 	NearLimitFraction = 0.9
 	// LowCavitationNumber: below this water cavitation number cavitation
 	// on the model is likely (the magnitude of a typical minimum pressure
@@ -214,7 +223,7 @@ const (
 var flagNames = [...]string{
 	"condensation warning", "enthalpy short", "real-gas caution", "cryogenic",
 	"high p0", "q near limit", "Reynolds over", "low cavitation number",
-	"model too large for the section",
+	"model too large for the section", "load near balance capacity",
 }
 
 // String lists the set flags, comma separated ("" when none).

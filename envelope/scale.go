@@ -129,12 +129,29 @@ func (m *Map) sizeFlag(mach float64) Flags {
 // ok is false when the point is outside the envelope, the facility cannot
 // run the flight Mach number (within MachTol), no setting exists there, or
 // the medium is a liquid (no Mach match).
+//
+// Where the balance is checked (loads.go), the model of that scale must
+// also carry the load at that setting: the balance caps q at
+// q_load ∝ 1/scale² (1/scale³ for the moment), and where the cap lies
+// below the setting's q no model is a full match (ok false). A larger
+// model does not help there: with q held at the cap p0 falls as
+// 1/scale², and Re ∝ scale·p0 falls with it (where the saturation line
+// lets T0 fall too, Re falls more slowly, about as scale^-0.6, but
+// falls). This is judged at the Mach number of the best setting.
 func MinScaleFullMatch(g *Grid, f *Facility, s Settings, i, j int) (float64, bool) {
 	sv, ok := scaleOneSolver(g, f, s)
 	if !ok {
 		return 0, false
 	}
-	return sv.minScale(&g.points[g.Index(i, j)], nil)
+	sol := sv.minScale(&g.points[g.Index(i, j)], nil)
+	return sol.scale, sol.ok && carries(newLoadModel(g.Vehicle, f), sol)
+}
+
+// carries reports whether the balance of loads takes the model of the
+// scale of sol at its setting (true where the balance is not checked).
+func carries(loads loadModel, sol minScaleSol) bool {
+	qc := loads.qCap(sol.scale)
+	return !(qc > 0) || sol.q <= qc*(1+solveSlack)
 }
 
 // scaleOneSolver is the solver of facility f for a full-scale model (its
@@ -155,8 +172,9 @@ func scaleOneSolver(g *Grid, f *Facility, s Settings) (solver, bool) {
 // MinScaleEnvelope is the smallest model scale at which every inside point
 // that facility f can run at flight Mach number becomes a full match (the
 // largest per-point MinScaleFullMatch). ok is false when some inside point
-// cannot be Mach-matched at any scale, or no point can; the scale returned
-// then still covers the points that can (0 when none can).
+// cannot be Mach-matched at any scale (or, with load data, not within the
+// balance), or no point can; the scale returned then still covers the
+// points that can (0 when none can).
 func MinScaleEnvelope(g *Grid, f *Facility, s Settings) (float64, bool) {
 	ms := SurveyMinScale(g, f, s)
 	return ms.Scale, ms.Points > 0 && ms.Points == g.InsideCount()
@@ -180,12 +198,173 @@ func SurveyMinScale(g *Grid, f *Facility, s Settings) MinScaleSurvey {
 	if !ok {
 		return ms
 	}
-	memo := map[float64]float64{}
+	memo := map[float64]scaleOne{}
+	loads := newLoadModel(g.Vehicle, f)
 	for k := range g.points {
-		if sc, ok := sv.minScale(&g.points[k], memo); ok {
-			ms.Scale = math.Max(ms.Scale, sc)
+		if sol := sv.minScale(&g.points[k], memo); sol.ok && carries(loads, sol) {
+			ms.Scale = math.Max(ms.Scale, sol.scale)
 			ms.Points++
 		}
 	}
 	return ms
+}
+
+// ScaleWindow is the range of model scales over which a point is a full
+// match in a facility with its balance: from the smallest scale whose
+// best setting reaches the flight Reynolds number (within ReTol) to the
+// largest at which a setting that does still keeps the model load within
+// the balance capacity.
+type ScaleWindow struct {
+	// Min is MinScaleFullMatch without the balance; MinOK says whether
+	// the facility can Mach-match the point at all.
+	Min   float64
+	MinOK bool
+	// Max is the largest scale the balance takes at the point: the load
+	// at the least-load setting that makes it a full match (the coldest
+	// end of the matching line for (1 − ReTol) of the flight Reynolds
+	// number, which every rule's setting loads at least as much) reaches
+	// the capacity there. +Inf where the balance is not checked; 0 where
+	// not even a model of scale Min is carried (no model is a full match
+	// within the balance).
+	Max float64
+}
+
+// Open reports whether some scale makes the point a full match within the
+// balance: Min ≤ Max.
+func (w ScaleWindow) Open() bool { return w.MinOK && w.Max > 0 && w.Min <= w.Max*(1+1e-9) }
+
+// Scale search of ScaleWindowAt: the load at the least-load setting grows
+// with scale (about as scale¹: q falls as 1/scale where T0 stays at its
+// floor, load = C·q·A·scale²; as scale^0.8 where the saturation line lets
+// T0 fall; as scale² where p0 is at its minimum), so its root is found by
+// regula falsi (Illinois) on the logarithms, at most scaleIter steps, to
+// scaleTol relative.
+const (
+	scaleIter = 100
+	scaleTol  = 1e-10
+)
+
+// ScaleWindowAt is the scale window of point (i, j) in facility f with
+// settings s (the load judged at the Mach number a match is tried at, the
+// flight Mach number held within the facility range, and at the ends of
+// the Mach tolerance band, where Solve may also find the match). ok is
+// false when the point
+// is outside the envelope or f or s is not valid, and for a water tunnel,
+// which never makes a full match.
+func ScaleWindowAt(g *Grid, f *Facility, s Settings, i, j int) (ScaleWindow, bool) {
+	sv, ok := scaleOneSolver(g, f, s)
+	if !ok || f.Medium == MediumWater {
+		return ScaleWindow{}, false
+	}
+	r := &g.points[g.Index(i, j)]
+	if r.excl != InEnvelope {
+		return ScaleWindow{}, false
+	}
+	return scaleWindow(sv, g.Vehicle.RefLength, newLoadModel(g.Vehicle, f), r, s.ReTol, nil), true
+}
+
+// scaleWindow is the scale window of flight record r with solver sv
+// (whose model length it changes; L1 is the full-scale length).
+func scaleWindow(sv solver, L1 float64, loads loadModel, r *flightRec, reTol float64, memo map[float64]scaleOne) ScaleWindow {
+	sv.setModelLength(L1)
+	sol := sv.minScale(r, memo)
+	w := ScaleWindow{Min: sol.scale, MinOK: sol.ok, Max: math.Inf(1)}
+	if !sol.ok {
+		w.Max = 0
+		return w
+	}
+	if !loads.checks() {
+		return w
+	}
+	need := (1 - reTol) * r.re
+	// share is the load at the least-load full-match setting over the
+	// capacity, at scale sc (at Min the one setting is minScale's).
+	share := func(sc float64) float64 {
+		sv.setModelLength(sc * L1)
+		q, ok := sv.matchQ(r.mach, need)
+		if !ok || sc <= sol.scale {
+			q = sol.q
+		}
+		return q / loads.qCap(sc)
+	}
+	lo := sol.scale
+	slo := share(lo)
+	if slo > 1+solveSlack {
+		w.Max = 0
+		return w
+	}
+	hi, shi := lo, slo
+	for k := 0; shi <= 1 && k < 200; k++ {
+		lo, slo = hi, shi
+		hi *= 2
+		shi = share(hi)
+	}
+	if shi <= 1 {
+		return w // no capacity reached within 2^200 of Min: not checked in effect
+	}
+	fl, fh := math.Log(slo), math.Log(shi)
+	x0, x1 := math.Log(lo), math.Log(hi)
+	side := 0
+	for it := 0; it < scaleIter && x1-x0 > scaleTol; it++ {
+		x := x1 - fh*(x1-x0)/(fh-fl)
+		if !(x > x0 && x < x1) {
+			x = 0.5 * (x0 + x1)
+		}
+		fm := math.Log(share(math.Exp(x)))
+		if fm <= 0 {
+			x0, fl = x, fm
+			if side == -1 {
+				fh /= 2
+			}
+			side = -1
+		} else {
+			x1, fh = x, fm
+			if side == 1 {
+				fl /= 2
+			}
+			side = 1
+		}
+	}
+	w.Max = math.Exp(x0) // the carried side
+	return w
+}
+
+// BalanceScale is the largest model scale that facility f's balance takes
+// at every inside point whose scale window is open (the smallest
+// ScaleWindow.Max over them), for sizing a model to the balance as
+// FitScale sizes it to the section. Closed counts the points the facility
+// could Mach-match whose window is shut (no model is a full match there
+// within the balance), Open those whose window is open. Max is +Inf where
+// the balance is not checked, and for a water tunnel.
+type BalanceScale struct {
+	Max          float64
+	Open, Closed int
+}
+
+// BalanceScaleEnvelope is the BalanceScale of facility f over grid g with
+// settings s (one window search per inside point: for surveys and the
+// scale study, not the per-frame solve).
+func BalanceScaleEnvelope(g *Grid, f *Facility, s Settings) BalanceScale {
+	out := BalanceScale{Max: math.Inf(1)}
+	loads := newLoadModel(g.Vehicle, f)
+	sv, ok := scaleOneSolver(g, f, s)
+	if !ok || f.Medium == MediumWater || !loads.checks() {
+		return out
+	}
+	memo := map[float64]scaleOne{}
+	for k := range g.points {
+		r := &g.points[k]
+		if r.excl != InEnvelope {
+			continue
+		}
+		w := scaleWindow(sv, g.Vehicle.RefLength, loads, r, s.ReTol, memo)
+		switch {
+		case w.Open():
+			out.Open++
+			out.Max = math.Min(out.Max, w.Max)
+		case w.MinOK:
+			out.Closed++
+		}
+	}
+	return out
 }

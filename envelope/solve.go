@@ -30,6 +30,15 @@ type Map struct {
 	FitRule  string
 	fit      sectionFit // fit scales by test Mach number, for FlagModelTooLarge
 
+	// Rule is the operating rule the map was solved under (RuleInForce).
+	Rule OperatingRule
+	// LoadQ is the test-section dynamic pressure at which the model of
+	// this scale reaches the balance capacity (0: the balance is not
+	// checked: no capacity, or no load coefficient for it); it caps q like
+	// q max.
+	LoadQ float64
+	loads loadModel
+
 	Results []Result
 
 	sv solver
@@ -56,6 +65,8 @@ type Detail struct {
 
 	Scale       float64 // model scale
 	ModelLength float64 // model reference length, m
+	// Rule is the operating rule that picked the setting.
+	Rule OperatingRule
 
 	// Settings. Gas: stagnation pressure P0 (Pa) and temperature T0 (K).
 	// Water: P0 is the test-section static pressure, T0 the water
@@ -92,6 +103,15 @@ type Detail struct {
 	VapourPressure float64 // water, Pa
 	Cavitation     float64 // water cavitation number (p − pv)/(½ρV²)
 
+	// Set is the matching set at the test Mach number: every setting that
+	// gives the same Reynolds number as the best the facility does there
+	// (the flight Reynolds number where it reaches it), with what bounds
+	// each end.
+	Set MatchingSet
+	// Load is the model load at the setting, with its share of the
+	// balance capacity (zero without load data).
+	Load Load
+
 	Cautions []string
 	// SectionFit is the largest model scale the section takes at the test
 	// Mach number, and SectionFitRule the rule that sets it; both are set
@@ -111,13 +131,19 @@ type Detail struct {
 // number from Sutherland's law, so for each Mach number the limits (p0 and
 // T0 ranges, dynamic pressure, static temperature, saturation line, unit
 // Reynolds number) are solved jointly in (p0, T0) in closed form. Of the
-// settings that reach the flight Reynolds number the warmest T0 is taken,
-// then the lowest p0. Water facilities (waterSolver): warmest water
-// (lowest viscosity), then the lowest speed.
+// settings that reach the flight Reynolds number the operating rule in
+// force (RuleInForce: s.Rule, else the facility's) picks one: by default
+// the warmest T0, then the lowest p0. Water facilities (waterSolver):
+// by default the warmest water (lowest viscosity), then the lowest speed.
+//
+// Where the vehicle gives load coefficients and the facility a balance
+// capacity, the balance caps the test-section dynamic pressure at LoadQ
+// (loads.go), a constraint like q max that binds as LimitBalanceLoad.
 //
 // The day (DeltaT) and regime thresholds are the grid's; of s, Solve uses
-// the scale override and the tolerances. The model scale is s.Scale if set,
-// else the facility's Model.Scale, else the largest that fits (FitScale).
+// the scale override, the tolerances and the rule. The model scale is
+// s.Scale if set, else the facility's Model.Scale, else the largest that
+// fits (FitScale).
 func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	if g == nil || f == nil {
 		return nil, errors.New("solve: need a grid and a facility")
@@ -129,7 +155,7 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	if err != nil {
 		return nil, fmt.Errorf("solve %q: %w", f.Name, err)
 	}
-	m := &Map{Grid: g, Facility: f, Settings: s, sv: sv}
+	m := &Map{Grid: g, Facility: f, Settings: s, sv: sv, Rule: RuleInForce(f, s), loads: newLoadModel(g.Vehicle, f)}
 	m.FitScale, m.FitRule = FitScale(g.Vehicle, f, sv.fitMach(g.maxMach))
 	switch {
 	case s.Scale > 0:
@@ -143,6 +169,8 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	}
 	m.fit = newSectionFit(g.Vehicle, f)
 	sv.setModelLength(m.Scale * g.Vehicle.RefLength)
+	m.LoadQ = m.loads.qCap(m.Scale)
+	sv.setLoadCap(m.LoadQ)
 	m.Results = make([]Result, len(g.points))
 	cols := len(g.Speeds)
 	// Points are independent: blocks of rows are solved side by side, each
@@ -190,6 +218,7 @@ func (m *Map) Detail(i, j int) (Detail, error) {
 		Medium:      m.Facility.Medium,
 		Scale:       m.Scale,
 		ModelLength: m.Scale * m.Grid.Vehicle.RefLength,
+		Rule:        m.Rule,
 		FlightT0:    fd.T0,
 	}
 	if !fd.Inside {
@@ -208,6 +237,9 @@ func (m *Map) Detail(i, j int) (Detail, error) {
 		d.RePerM = ps.rho * ps.v / ps.mu
 	}
 	m.sv.addDetail(&d, &ps)
+	if ps.has && m.loads.forcePerQ+m.loads.momentPerQ > 0 {
+		d.Load = m.loads.at(ps.q, m.Scale)
+	}
 	sm := m.sizeMach(r.mach, ps.has, ps.mach)
 	d.Flags |= m.sizeFlag(sm)
 	if d.Flags.Has(FlagModelTooLarge) {
@@ -215,6 +247,18 @@ func (m *Map) Detail(i, j int) (Detail, error) {
 	}
 	d.Cautions = cautions(&d, m.Facility)
 	return d, nil
+}
+
+// LoadShare is the model load of result r as a share of the balance
+// capacity (the larger of normal force and pitching moment over theirs),
+// 0 where the balance is not checked or r has no setting. The load is
+// proportional to q at a given scale, so it is r.Q over LoadQ: a layer can
+// be drawn from the stored results without another solve.
+func (m *Map) LoadShare(r Result) float64 {
+	if !(m.LoadQ > 0) || r.Class == Outside {
+		return 0
+	}
+	return float64(r.Q) / m.LoadQ
 }
 
 // ReynoldsRange is the span of model Reynolds numbers the map's gas

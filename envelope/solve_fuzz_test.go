@@ -192,6 +192,9 @@ func checkSolveCase(t *testing.T, c solveCase) {
 		t.Fatalf("generated facility is not valid: %v\n%+v", err, fac)
 	}
 	fac = back[0]
+	// The rule and the balance are the engine's (the file keys for them
+	// may not be written yet): carried over as they are.
+	fac.Rule, fac.Balance = c.f.Rule, c.f.Balance
 	v := onePointVehicle(c.alt, c.mf, c.refLen)
 	g, err := NewGrid(v, c.settings)
 	if err != nil {
@@ -304,6 +307,31 @@ func checkSolveCase(t *testing.T, c solveCase) {
 		}
 	default:
 		t.Fatalf("class %v for a point inside the envelope%s", d.Class, ctx())
+	}
+	// The matching set: each end within the facility's limits, giving the
+	// set's Reynolds number, the cold end no warmer, slower-loaded than the
+	// warm; the standard rule's setting is its warm end where it reaches
+	// flight directly.
+	if set := d.Set; set.OK {
+		for _, e := range []SetEnd{set.Cold, set.Warm} {
+			if lo, hi := fac.PressureMin(), fac.PressureMax(); !within(e.P0, lo, hi) {
+				t.Fatalf("set end p0 %g outside %g–%g%s", e.P0, lo, hi, ctx())
+			}
+			if lo, hi := fac.TemperatureMin(), fac.TemperatureMax(); !within(e.T0, lo, hi) {
+				t.Fatalf("set end T0 %g outside %g–%g%s", e.T0, lo, hi, ctx())
+			}
+			if fac.QMax > 0 && e.Q > fac.QMax*(1+fuzzSlack) {
+				t.Fatalf("set end q %g above q max %g%s", e.Q, fac.QMax, ctx())
+			}
+		}
+		if set.Cold.T0 > set.Warm.T0*(1+fuzzSlack) || (!water && set.Cold.Q > set.Warm.Q*(1+fuzzSlack)) {
+			t.Fatalf("set cold end %+v above warm end %+v%s", set.Cold, set.Warm, ctx())
+		}
+		if RuleInForce(&fac, c.settings).Kind == RuleWarmest &&
+			d.Limit == LimitNone && set.ReLimit == LimitNone && d.Class.Matched() && set.Mach == d.Mach &&
+			!(within(d.T0, set.Warm.T0, set.Warm.T0) && within(d.P0, set.Warm.P0, set.Warm.P0)) {
+			t.Fatalf("setting p0 %g T0 %g, set's warm end %+v%s", d.P0, d.T0, set.Warm, ctx())
+		}
 	}
 	if len(d.Cautions) == 0 || d.Cautions[0] != PlanningNote {
 		t.Fatalf("cautions %q, want the planning note first%s", d.Cautions, ctx())

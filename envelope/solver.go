@@ -19,6 +19,10 @@ type solver interface {
 	// setModelLength fixes the model reference length, m. It is called
 	// once, before any other method but fitMach.
 	setModelLength(L float64)
+	// setLoadCap sets the dynamic pressure at which the model reaches the
+	// balance capacity (0: not checked), a cap on q like q max; called
+	// with setModelLength.
+	setLoadCap(q float64)
 
 	// rowSolver returns a function that solves the inside points of rows
 	// i0..i1-1 of m into m.Results and counts them per class. It keeps
@@ -31,9 +35,16 @@ type solver interface {
 	// the skin-friction difference).
 	solve(mf, reF, tFlight float64, detail bool) pointSol
 	// addDetail adds to d what the medium tells about the answer ps: the
-	// Reynolds sweep at the chosen dynamic pressure, and the condensation
-	// floor (gas) or the vapour pressure and cavitation number (water).
+	// matching set, the Reynolds sweep at the chosen dynamic pressure, and
+	// the condensation floor (gas) or the vapour pressure and cavitation
+	// number (water).
 	addDetail(d *Detail, ps *pointSol)
+	// matchQ is the lowest test-section dynamic pressure of a setting that
+	// reaches Reynolds number target at flight Mach number mf (gas: at
+	// the Mach number a match is tried at; water: below the
+	// compressibility threshold), under the facility's own limits without
+	// the balance cap; ok is false where no setting reaches it.
+	matchQ(mf, target float64) (q float64, ok bool)
 
 	// reynoldsRange is the span of model Reynolds numbers reached at test
 	// Mach number mach (see Map.ReynoldsRange).
@@ -42,26 +53,51 @@ type solver interface {
 	// sampled at about samples Mach numbers (see Map.ReachableRe).
 	reachableRe(samples int) []ReRange
 	// minScale is the smallest model scale that makes flight record r a
-	// full match (see MinScaleFullMatch); memo, when not nil, keeps what
-	// depends on the flight Mach number alone.
-	minScale(r *flightRec, memo map[float64]float64) (float64, bool)
+	// full match (see MinScaleFullMatch), without the balance cap; memo,
+	// when not nil, keeps what depends on the flight Mach number alone.
+	minScale(r *flightRec, memo map[float64]scaleOne) minScaleSol
+}
+
+// scaleOne is the best setting at a flight Mach number for a full-scale
+// model: its Reynolds number and dynamic pressure.
+type scaleOne struct{ re, q float64 }
+
+// minScaleSol is the smallest model scale that makes a point a full match
+// (ok false: none does), with the dynamic pressure of the best setting
+// that sets it (the same at every scale: the best setting's unit Reynolds
+// number does not depend on scale), for the balance check.
+type minScaleSol struct {
+	scale, q float64
+	ok       bool
 }
 
 // newSolver checks facility f and returns the solver of its medium, with
 // the tolerances of s and the regime thresholds reg. A gas is looked up by
 // name (atmos.GasByName), so a gas added there needs nothing here.
+//
+// The solver runs under the operating rule in force (RuleInForce), which
+// must suit the facility (CheckRule).
 func newSolver(f *Facility, s Settings, reg atmos.Regimes) (solver, error) {
 	if err := checkFacility(f); err != nil {
 		return nil, err
 	}
+	var gas atmos.Gas
+	if f.Medium != MediumWater {
+		var err error
+		if gas, err = atmos.GasByName(string(f.Medium)); err != nil {
+			return nil, fmt.Errorf("medium %q: want %s", string(f.Medium), mediumWanted())
+		}
+	}
+	r := RuleInForce(f, s)
+	if r.Kind != RuleWarmest {
+		if err := CheckRule(r, f); err != nil {
+			return nil, err
+		}
+	}
 	if f.Medium == MediumWater {
-		return newWaterSolver(f, s)
+		return newWaterSolver(f, s, r)
 	}
-	gas, err := atmos.GasByName(string(f.Medium))
-	if err != nil {
-		return nil, fmt.Errorf("medium %q: want %s", string(f.Medium), mediumWanted())
-	}
-	return newGasSolver(f, gas, s, reg)
+	return newGasSolver(f, gas, s, reg, r)
 }
 
 // pointSol is the full-precision answer for one point.
@@ -125,7 +161,8 @@ func checkSettings(s Settings) error {
 // the limits of its medium.
 func checkFacility(f *Facility) error {
 	return checkNonNegative([]namedValue{{"q max", f.QMax},
-		{"max unit Reynolds number", f.MaxReynoldsPerM}, {"model scale", f.Model.Scale}})
+		{"max unit Reynolds number", f.MaxReynoldsPerM}, {"model scale", f.Model.Scale},
+		{"balance normal force", f.Balance.MaxNormalForce}, {"balance pitching moment", f.Balance.MaxPitchMoment}})
 }
 
 // namedValue is a facility limit with the name an error gives it.

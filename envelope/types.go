@@ -21,6 +21,9 @@ type Vehicle struct {
 	RefArea       float64 // m²
 	Span          float64 // m, full-scale span (for the model-span rule)
 	FrontalArea   float64 // m², full-scale frontal area (for the blockage rule)
+	// Loads is the optional load data for planning balance loads
+	// (loads.go).
+	Loads ModelLoads
 
 	// Boundary is the closed envelope outline, in order, in (altitude,
 	// speed) with speeds of kind BoundaryKind. The last vertex joins the
@@ -104,6 +107,12 @@ type Facility struct {
 
 	Width, Height float64 // m, test section
 	Model         ModelSizing
+
+	// Rule picks the setting where many reach the target (rule.go); the
+	// zero value is the standard rule, RuleWarmest.
+	Rule OperatingRule
+	// Balance is the optional balance and sting capacity (loads.go).
+	Balance BalanceLimits
 }
 
 // GasLimits are the operating limits of a gas facility.
@@ -195,6 +204,11 @@ type Settings struct {
 	// CompressibilityMach is the flight Mach below which Mach may be
 	// relaxed to match Reynolds number (common practice 0.3).
 	CompressibilityMach float64
+
+	// Rule overrides every facility's operating rule when its Kind is not
+	// RuleDefault (see RuleInForce); Solve refuses a rule that does not
+	// suit a facility (CheckRule).
+	Rule OperatingRule
 
 	Regimes atmos.Regimes
 }

@@ -20,20 +20,33 @@ const (
 // waterSolver answers the points of a water facility. Mach number is not
 // matched in a liquid: only flight Mach numbers below the compressibility
 // threshold are tried, and matched with Mach relaxed. Water properties are
-// taken at the test-section static pressure (IAPWS-IF97 region 1).
+// taken at the test-section static pressure (IAPWS-IF97 region 1). Of
+// the settings that reach the target the operating rule picks one: the
+// warmest water, then the lowest speed (the standard rule), or the speed
+// that matches at a fixed water temperature.
 type waterSolver struct {
-	lim       WaterLimits
+	// lim are the facility's limits (fac) with the rule's fixed water
+	// temperature, if any, as both ends of the temperature range.
+	lim, fac  WaterLimits
 	qMax      float64 // Pa (0: none)
 	maxRePerM float64 // unit Reynolds cap, 1/m (0: none)
-	reTol     float64
-	compMach  float64          // flight Mach numbers below it are tried
-	L         float64          // model reference length, m
-	pStatic   float64          // test-section static pressure, Pa
-	hot, cold atmos.WaterState // at the warmest and the coldest water
+	rule      OperatingRule
+	limT      Limit // what bounds the water temperature (range or rule)
+	// qLoad is the dynamic pressure at which the model reaches the
+	// balance capacity (0: not checked); qCap, the lower of it and qMax,
+	// caps the speed, and qCapLim names it.
+	qLoad, qCap float64
+	qCapLim     Limit
+	reTol       float64
+	compMach    float64          // flight Mach numbers below it are tried
+	L           float64          // model reference length, m
+	pStatic     float64          // test-section static pressure, Pa
+	hot, cold   atmos.WaterState // at the warmest and the coldest water
 }
 
-// newWaterSolver checks the water limits of f and prepares its solver.
-func newWaterSolver(f *Facility, s Settings) (*waterSolver, error) {
+// newWaterSolver checks the water limits of f and prepares its solver
+// under operating rule r (checked by the caller).
+func newWaterSolver(f *Facility, s Settings, r OperatingRule) (*waterSolver, error) {
 	w := f.Water
 	if err := checkNonNegative([]namedValue{{"speed min", w.SpeedMin}, {"speed max", w.SpeedMax},
 		{"static pressure min", w.PMin}, {"static pressure max", w.PMax},
@@ -51,8 +64,11 @@ func newWaterSolver(f *Facility, s Settings) (*waterSolver, error) {
 	}
 	sv := &waterSolver{
 		lim:       w,
+		fac:       w,
 		qMax:      f.QMax,
 		maxRePerM: f.MaxReynoldsPerM,
+		rule:      r,
+		limT:      LimitWaterTemp,
 		reTol:     s.ReTol,
 		compMach:  s.CompressibilityMach,
 		pStatic:   w.PMax,
@@ -60,9 +76,36 @@ func newWaterSolver(f *Facility, s Settings) (*waterSolver, error) {
 	if !(w.PMax > 0) {
 		sv.pStatic = math.Max(w.PMin, atmos.SeaLevelPressure)
 	}
-	sv.hot, _ = sv.waterAt(w.TMax) // range checked above
-	sv.cold, _ = sv.waterAt(w.TMin)
+	if r.Kind == RuleFixedTemperature {
+		sv.lim.TMin, sv.lim.TMax, sv.limT = r.Temperature, r.Temperature, LimitRuleTemperature
+	}
+	sv.hot, _ = sv.waterAt(sv.lim.TMax) // range checked above and by CheckRule
+	sv.cold, _ = sv.waterAt(sv.lim.TMin)
+	sv.setLoadCap(0)
 	return sv, nil
+}
+
+// setLoadCap sets the dynamic pressure at which the model reaches the
+// balance capacity (0: not checked).
+func (sv *waterSolver) setLoadCap(q float64) {
+	sv.qLoad = q
+	sv.qCap, sv.qCapLim = sv.qMax, LimitQMax
+	if q > 0 && (sv.qCap == 0 || q < sv.qCap) {
+		sv.qCap, sv.qCapLim = q, LimitBalanceLoad
+	}
+}
+
+// free is the solver of the same facility and model under the standard
+// rule and the facility's own temperature range (see gasSolver.free).
+func (sv *waterSolver) free() *waterSolver {
+	if sv.rule.Kind == RuleWarmest {
+		return sv
+	}
+	f := *sv
+	f.lim, f.rule, f.limT = f.fac, OperatingRule{Kind: RuleWarmest}, LimitWaterTemp
+	f.hot, _ = f.waterAt(f.lim.TMax)
+	f.cold, _ = f.waterAt(f.lim.TMin)
+	return &f
 }
 
 // fitMach: a water model is sized at low speed.
@@ -146,10 +189,10 @@ func (sv *waterSolver) solveInto(ps *pointSol, mf float64) {
 			if w, over = sv.coolFor(V, target); over {
 				ps.limit = LimitSpeedRange
 			}
-			if sv.qMax > 0 && 0.5*w.Density*V*V > sv.qMax {
+			if sv.qCap > 0 && 0.5*w.Density*V*V > sv.qCap {
 				// Colder water is denser: at this speed it would break the
 				// dynamic-pressure limit, which the warmest water keeps.
-				w, ps.limit = sv.coldestWithinQ(w, V), LimitQMax
+				w, ps.limit = sv.coldestWithinQ(w, V), sv.qCapLim
 			}
 		}
 	case reMax >= need:
@@ -157,7 +200,7 @@ func (sv *waterSolver) solveInto(ps *pointSol, mf float64) {
 	default:
 		ps.class, ps.limit, V = NoMatch, vl, vcap
 	}
-	ps.pLim, ps.tLim = vl, LimitWaterTemp
+	ps.pLim, ps.tLim = vl, sv.limT
 	ps.has = true
 	ps.t0, ps.t = w.Temperature, w.Temperature
 	ps.p0, ps.p = sv.pStatic, sv.pStatic
@@ -173,17 +216,20 @@ func (sv *waterSolver) solveInto(ps *pointSol, mf float64) {
 	if sv.qMax > 0 && ps.q >= NearLimitFraction*sv.qMax {
 		ps.flags |= FlagQNearLimit
 	}
+	if sv.qLoad > 0 && ps.q >= NearLimitFraction*sv.qLoad {
+		ps.flags |= FlagLoadNearLimit
+	}
 }
 
 // speedCap is the highest usable speed in the warmest water, with the
-// limit that sets it: the speed range, the dynamic pressure or the unit
-// Reynolds cap.
+// limit that sets it: the speed range, the dynamic pressure (q max or the
+// balance load) or the unit Reynolds cap.
 func (sv *waterSolver) speedCap() (float64, Limit) {
 	w := sv.hot
 	vcap, vl := sv.lim.SpeedMax, LimitSpeedRange
-	if sv.qMax > 0 {
-		if vq := math.Sqrt(2 * sv.qMax / w.Density); vq < vcap {
-			vcap, vl = vq, LimitQMax
+	if sv.qCap > 0 {
+		if vq := math.Sqrt(2 * sv.qCap / w.Density); vq < vcap {
+			vcap, vl = vq, sv.qCapLim
 		}
 	}
 	if sv.maxRePerM > 0 {
@@ -206,7 +252,7 @@ func (sv *waterSolver) coldestWithinQ(cold atmos.WaterState, V float64) atmos.Wa
 		if err != nil {
 			break
 		}
-		if 0.5*w.Density*V*V > sv.qMax {
+		if 0.5*w.Density*V*V > sv.qCap {
 			lo = w.Temperature
 		} else {
 			hi, keep = w.Temperature, w
@@ -265,8 +311,112 @@ func (sv *waterSolver) coolFor(V, target float64) (atmos.WaterState, bool) {
 func (sv *waterSolver) addDetail(d *Detail, ps *pointSol) {
 	d.VapourPressure, d.Cavitation = ps.pv, ps.sigma
 	if ps.has {
-		d.ReSweepMin, d.ReSweepMax = sv.sweep(ps.q)
+		fs := sv.free()
+		d.ReSweepMin, d.ReSweepMax = fs.sweep(ps.q)
+		d.Set = fs.matchingSet(ps.reFlight)
 	}
+}
+
+// matchingSet is the matching set for flight Reynolds number target (see
+// MatchingSet), on the limits of sv (the free solver). Along the line
+// V(T) = target·ν(T)/L the speed falls as the water warms, and with it
+// q = ½ρV² (μ²/ρ falls), so the warm end is bounded by the warmest water
+// or the lowest speed, the cold end by the coldest water, the highest
+// speed or the dynamic-pressure cap (q max, balance load). The unit
+// Reynolds number V/ν is the same all along: the cap admits the whole line
+// or none of it, and then holds the set on its own line.
+func (sv *waterSolver) matchingSet(target float64) MatchingSet {
+	vcap, vl := sv.speedCap()
+	if vcap < sv.lim.SpeedMin || !(sv.L > 0) {
+		return MatchingSet{}
+	}
+	ms := MatchingSet{OK: true, Re: target}
+	re := target
+	if sv.maxRePerM > 0 && re > sv.maxRePerM*sv.L {
+		re, ms.ReLimit = sv.maxRePerM*sv.L, LimitRePerM
+	}
+	if vw := re * sv.hot.KinematicViscosity / sv.L; vw > vcap*(1+solveSlack) {
+		// Short of flight: the one best setting, top speed in the warmest
+		// water.
+		ms.Re, ms.ReLimit = vcap*sv.L/sv.hot.KinematicViscosity, vl
+		ms.Cold = sv.setEnd(sv.hot, vcap, sv.limT)
+		ms.Warm = sv.setEnd(sv.hot, vcap, vl)
+		return ms
+	}
+	// The warm end: the warmest water, or where the speed falls to the
+	// lowest the tunnel runs.
+	warm, wl := sv.hot, sv.limT
+	if re*sv.hot.KinematicViscosity/sv.L < sv.lim.SpeedMin {
+		var over bool
+		warm, over = sv.coolFor(sv.lim.SpeedMin, re)
+		wl = LimitSpeedRange
+		if over {
+			// Even the coldest water at the lowest speed overshoots: the
+			// one setting that comes nearest (warmer where the coldest
+			// breaks the dynamic-pressure cap, as solveInto takes it).
+			if v := sv.lim.SpeedMin; sv.qCap > 0 && 0.5*warm.Density*v*v > sv.qCap {
+				warm = sv.coldestWithinQ(warm, v)
+			}
+			ms.Re, ms.ReLimit = sv.lim.SpeedMin*sv.L/warm.KinematicViscosity, LimitSpeedRange
+			ms.Cold = sv.setEnd(warm, sv.lim.SpeedMin, sv.limT)
+			ms.Warm = sv.setEnd(warm, sv.lim.SpeedMin, LimitSpeedRange)
+			return ms
+		}
+	}
+	if vw := re * warm.KinematicViscosity / sv.L; sv.qCap > 0 && 0.5*warm.Density*vw*vw > sv.qCap {
+		// The cooled water at the lowest speed breaks the dynamic-pressure
+		// cap, and every colder setting of the line more so: the one
+		// setting is the one solveInto takes, warmer water that keeps
+		// the cap and overshoots flight.
+		w := sv.coldestWithinQ(warm, sv.lim.SpeedMin)
+		ms.Re, ms.ReLimit = sv.lim.SpeedMin*sv.L/w.KinematicViscosity, sv.qCapLim
+		ms.Cold = sv.setEnd(w, sv.lim.SpeedMin, sv.qCapLim)
+		ms.Warm = sv.setEnd(w, sv.lim.SpeedMin, LimitSpeedRange)
+		return ms
+	}
+	ms.Warm = sv.setEnd(warm, re*warm.KinematicViscosity/sv.L, wl)
+	// The cold end: the coldest water, unless its speed breaks the speed
+	// range or the dynamic-pressure cap first.
+	cold, cl := sv.cold, sv.limT
+	if v := re * cold.KinematicViscosity / sv.L; v > sv.lim.SpeedMax {
+		cold, _ = sv.coolFor(sv.lim.SpeedMax, re)
+		cl = LimitSpeedRange
+	}
+	if v := re * cold.KinematicViscosity / sv.L; sv.qCap > 0 && 0.5*cold.Density*v*v > sv.qCap {
+		cold, cl = sv.coldestLineWithinQ(cold, re), sv.qCapLim
+	}
+	if cold.Temperature > warm.Temperature {
+		cold = warm // only by rounding
+	}
+	ms.Cold = sv.setEnd(cold, re*cold.KinematicViscosity/sv.L, cl)
+	return ms
+}
+
+// coldestLineWithinQ is the coldest water, between cold (whose speed on
+// the line of target breaks the dynamic-pressure cap) and the warmest
+// (which keeps it), whose speed on that line keeps it: bisection on the
+// temperature, at most waterIter steps, to waterTolK.
+func (sv *waterSolver) coldestLineWithinQ(cold atmos.WaterState, target float64) atmos.WaterState {
+	keep := sv.hot
+	lo, hi := cold.Temperature, sv.hot.Temperature
+	for it := 0; it < waterIter && hi-lo > waterTolK; it++ {
+		w, err := sv.waterAt(0.5 * (lo + hi))
+		if err != nil {
+			break
+		}
+		v := target * w.KinematicViscosity / sv.L
+		if 0.5*w.Density*v*v > sv.qCap {
+			lo = w.Temperature
+		} else {
+			hi, keep = w.Temperature, w
+		}
+	}
+	return keep
+}
+
+// setEnd is the end of a matching set in water w at speed V.
+func (sv *waterSolver) setEnd(w atmos.WaterState, V float64, lim Limit) SetEnd {
+	return SetEnd{P0: sv.pStatic, T0: w.Temperature, V: V, Q: 0.5 * w.Density * V * V, Limit: lim}
 }
 
 // sweep is the Reynolds range at dynamic pressure q as the water
@@ -308,4 +458,38 @@ func (sv *waterSolver) reachableRe(int) []ReRange {
 
 // minScale: no scale makes a water point a full match (Mach number is not
 // matched in a liquid).
-func (sv *waterSolver) minScale(*flightRec, map[float64]float64) (float64, bool) { return 0, false }
+func (sv *waterSolver) minScale(*flightRec, map[float64]scaleOne) minScaleSol { return minScaleSol{} }
+
+// matchQ: the warmest water at the lowest speed that reaches target
+// (cooled where even the lowest speed overshoots), which has the lowest
+// q of the line (see matchingSet), under the facility's own limits (the
+// balance cap aside).
+func (sv *waterSolver) matchQ(mf, target float64) (float64, bool) {
+	fs := sv.free()
+	if fs.qLoad > 0 {
+		c := *fs
+		c.setLoadCap(0)
+		fs = &c
+	}
+	if !(mf < fs.compMach) || !(fs.L > 0) {
+		return 0, false
+	}
+	vcap, _ := fs.speedCap()
+	re := target
+	if fs.maxRePerM > 0 && re > fs.maxRePerM*fs.L*(1+solveSlack) {
+		return 0, false
+	}
+	w := fs.hot
+	V := re * w.KinematicViscosity / fs.L
+	if V > vcap*(1+solveSlack) {
+		return 0, false
+	}
+	if V < fs.lim.SpeedMin {
+		V = fs.lim.SpeedMin
+		w, _ = fs.coolFor(V, re)
+		if fs.qCap > 0 && 0.5*w.Density*V*V > fs.qCap {
+			w = fs.coldestWithinQ(w, V) // as solveInto does
+		}
+	}
+	return 0.5 * w.Density * V * V, true
+}

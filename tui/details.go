@@ -328,7 +328,7 @@ func (m Model) settingLines(d *detailBlocks, det *envelope.Detail, fac *envelope
 	d.facility = append(d.facility, pair("scale", units.Sig(det.Scale, 3), "model", u.Length(det.ModelLength)))
 	if det.HasSettings && det.Class.Matched() {
 		// Which of the settings that reach the target was taken.
-		d.facility = append(d.facility, st.Label.Render("rule")+" "+envelope.OperatingRule(fac.Medium))
+		d.facility = append(d.facility, st.Label.Render("rule")+" "+det.Rule.Describe(fac.Medium, u))
 	}
 }
 
