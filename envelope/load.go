@@ -44,23 +44,6 @@ var (
 	}
 )
 
-// Plausibility bounds. They catch typing slips (a wrong unit, a missing
-// exponent); they are not facility or vehicle limits.
-const (
-	MaxLength      = 1000.0  // m, vehicle dimensions and test sections
-	maxArea        = 1e5     // m²
-	maxMach        = 30.0    // flight and facility Mach numbers
-	maxSpeed       = 10000.0 // m/s, flight speeds
-	maxWaterSpeed  = 100.0   // m/s
-	maxPressure    = 1e8     // Pa, facility pressures (1000 bar)
-	maxGasT0       = 3000.0  // K
-	MaxDeltaT      = 60.0    // K, design-day offset either way
-	maxModelScale  = 10.0
-	maxBlockage    = 0.5
-	waterFreezingK = 273.15
-	waterBoilingK  = 373.15
-)
-
 // LoadVehicle reads and validates a vehicle file. When the file has
 // problems the error is a *FileErrors listing all of them.
 func LoadVehicle(path string) (*Vehicle, error) {
@@ -381,13 +364,6 @@ func display(path string) string {
 		i += j
 	}
 	return b.String()
-}
-
-// altitudeRange describes the altitudes the standard atmosphere covers on
-// the scale of kind.
-func altitudeRange(kind atmos.AltitudeKind) string {
-	lo, hi := atmos.AltitudeRange(kind)
-	return fmt.Sprintf("a %s altitude from %.0f m to %.0f m (the standard atmosphere's range)", kind, lo, hi)
 }
 
 func (d *doc) altitude(q *qty, kind atmos.AltitudeKind) {
