@@ -256,12 +256,21 @@ func newDoc(name string, data []byte) (*doc, bool) {
 			Expected: fmt.Sprintf("at most %d (a vehicle file of 1000 boundary points holds about 3000)", MaxItems)}}
 		return d, false
 	}
-	if _, err := toml.Decode(src, &d.root); err != nil {
+	if err := decodeTOML(src, &d.root); err != nil {
 		d.errs = *syntaxErrors(name, err)
 		return d, false
 	}
 	d.idx = indexLines(src)
 	return d, true
+}
+
+// decodeTOML runs the TOML decoder. newDoc is its only caller and every
+// entry point (Load*, Parse*, Check, Demo) makes one doc per file, so each
+// file is decoded once; the line index scans the text without decoding it.
+// A variable only so that TestDecodeOnce can count the calls.
+var decodeTOML = func(src string, v any) error {
+	_, err := toml.Decode(src, v)
+	return err
 }
 
 func (d *doc) result() error {
