@@ -42,77 +42,19 @@ func parentPath(path string) string {
 
 // indexLines scans TOML source text and records where each path starts.
 func indexLines(src string) lineIndex {
-	s := &lineScanner{src: src, line: 1, idx: lineIndex{}, arrays: map[string]int{}}
+	s := &lineScanner{tomlCursor: tomlCursor{src: src, line: 1}, idx: lineIndex{}, arrays: map[string]int{}}
 	s.run()
 	return s.idx
 }
 
 type lineScanner struct {
-	src  string
-	i    int
-	line int
-	idx  lineIndex
+	tomlCursor
+	idx lineIndex
 	// arrays counts the elements seen so far of each array of tables,
 	// keyed by its resolved path.
 	arrays map[string]int
 	// table is the resolved path of the current table ("" at top level).
 	table string
-}
-
-func (s *lineScanner) eof() bool { return s.i >= len(s.src) }
-
-func (s *lineScanner) peek(off int) byte {
-	if s.i+off < len(s.src) {
-		return s.src[s.i+off]
-	}
-	return 0
-}
-
-func (s *lineScanner) advance() {
-	if s.i < len(s.src) {
-		if s.src[s.i] == '\n' {
-			s.line++
-		}
-		s.i++
-	}
-}
-
-// skipSpace skips blanks on the current line.
-func (s *lineScanner) skipSpace() {
-	for !s.eof() && (s.src[s.i] == ' ' || s.src[s.i] == '\t') {
-		s.i++
-	}
-}
-
-// skipComment skips a comment up to, not including, the newline.
-func (s *lineScanner) skipComment() {
-	if s.peek(0) == '#' {
-		for !s.eof() && s.src[s.i] != '\n' {
-			s.i++
-		}
-	}
-}
-
-// skipBlank skips blanks, newlines and comments.
-func (s *lineScanner) skipBlank() {
-	for !s.eof() {
-		switch s.src[s.i] {
-		case ' ', '\t', '\r', '\n':
-			s.advance()
-		case '#':
-			s.skipComment()
-		default:
-			return
-		}
-	}
-}
-
-// skipLine skips to the start of the next line.
-func (s *lineScanner) skipLine() {
-	for !s.eof() && s.src[s.i] != '\n' {
-		s.i++
-	}
-	s.advance()
 }
 
 func (s *lineScanner) run() {
@@ -190,20 +132,16 @@ func (s *lineScanner) key() []string {
 		var k string
 		switch s.peek(0) {
 		case '"':
-			k = s.basicString()
+			k = s.str()
 			// Escapes in a quoted key are read as Go reads them, which
 			// covers TOML's \uXXXX forms.
 			if u, err := strconv.Unquote(`"` + k + `"`); err == nil {
 				k = u
 			}
 		case '\'':
-			k = s.literalString()
+			k = s.str()
 		default:
-			start := s.i
-			for !s.eof() && isBareKeyChar(s.src[s.i]) {
-				s.i++
-			}
-			k = s.src[start:s.i]
+			k = s.bareKey()
 		}
 		keys = append(keys, k)
 		s.skipSpace()
@@ -213,10 +151,6 @@ func (s *lineScanner) key() []string {
 		s.i++
 	}
 	return keys
-}
-
-func isBareKeyChar(c byte) bool {
-	return c >= 'A' && c <= 'Z' || c >= 'a' && c <= 'z' || c >= '0' && c <= '9' || c == '_' || c == '-'
 }
 
 // keyValue reads "key = value" inside the table at path parent; record
@@ -252,10 +186,8 @@ const maxIndexedElements = MaxBoundaryPoints + 1
 // record).
 func (s *lineScanner) value(path string, record bool) {
 	switch s.peek(0) {
-	case '"':
-		s.basicString()
-	case '\'':
-		s.literalString()
+	case '"', '\'':
+		s.str()
 	case '[':
 		s.i++
 		for n := 0; ; n++ {
@@ -305,74 +237,4 @@ func (s *lineScanner) value(path string, record bool) {
 			s.i++
 		}
 	}
-}
-
-// basicString reads a "..." or """...""" string and returns its raw
-// contents (escapes are not decoded here; key decodes those of a quoted
-// key, so that an unknown key's error names its line).
-func (s *lineScanner) basicString() string {
-	if strings.HasPrefix(s.src[s.i:], `"""`) {
-		s.i += 3
-		start := s.i
-		for !s.eof() {
-			if s.src[s.i] == '\\' {
-				s.advance()
-				s.advance()
-				continue
-			}
-			if strings.HasPrefix(s.src[s.i:], `"""`) {
-				end := s.i
-				s.i += 3
-				for s.peek(0) == '"' { // up to two quotes may close the string
-					s.i++
-				}
-				return s.src[start:end]
-			}
-			s.advance()
-		}
-		return s.src[start:]
-	}
-	s.i++
-	start := s.i
-	for !s.eof() && s.src[s.i] != '"' && s.src[s.i] != '\n' {
-		if s.src[s.i] == '\\' {
-			s.i++
-		}
-		s.i++
-	}
-	end := min(s.i, len(s.src))
-	if s.peek(0) == '"' {
-		s.i++
-	}
-	return s.src[start:end]
-}
-
-// literalString reads a '...' or ”'...”' string.
-func (s *lineScanner) literalString() string {
-	if strings.HasPrefix(s.src[s.i:], `'''`) {
-		s.i += 3
-		start := s.i
-		for !s.eof() {
-			if strings.HasPrefix(s.src[s.i:], `'''`) {
-				end := s.i
-				s.i += 3
-				for s.peek(0) == '\'' {
-					s.i++
-				}
-				return s.src[start:end]
-			}
-			s.advance()
-		}
-		return s.src[start:]
-	}
-	s.i++
-	start := s.i
-	for !s.eof() && s.src[s.i] != '\'' && s.src[s.i] != '\n' {
-		s.i++
-	}
-	end := s.i
-	if s.peek(0) == '\'' {
-		s.i++
-	}
-	return s.src[start:end]
 }
