@@ -84,6 +84,10 @@ func (s *lineScanner) header() {
 		s.i++
 	}
 	keys := s.key()
+	if len(keys) == 0 { // "[" or "[[" at the end of the text
+		s.skipLine()
+		return
+	}
 	var path string
 	if isArray {
 		path = joinPath(s.resolve(keys[:len(keys)-1]), keys[len(keys)-1])
