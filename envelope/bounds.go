@@ -180,9 +180,19 @@ func QMaxBound() Bound {
 // for water.
 func FacilityTemperatureBound(m Medium) Bound {
 	if m == MediumWater {
-		return Bound{Lo: waterFreezingK, Hi: waterBoilingK, Slack: 1e-9, Expected: "a water temperature from 0 degC to 100 degC"}
+		return waterTemperatureBound()
 	}
+	return gasT0Bound()
+}
+
+// gasT0Bound bounds a gas facility's stagnation temperatures.
+func gasT0Bound() Bound {
 	return Bound{Lo: 0, LoOpen: true, Hi: maxGasT0, Expected: fmt.Sprintf("a temperature above 0 K and at most %g K", maxGasT0)}
+}
+
+// waterTemperatureBound bounds a water facility's water temperatures.
+func waterTemperatureBound() Bound {
+	return Bound{Lo: waterFreezingK, Hi: waterBoilingK, Slack: 1e-9, Expected: "a water temperature from 0 degC to 100 degC"}
 }
 
 // ParseMach reads a Mach number as written: "0.85", "M0.85" or

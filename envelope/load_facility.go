@@ -2,17 +2,20 @@ package envelope
 
 import (
 	"fmt"
+	"math"
 	"strconv"
 	"strings"
 )
 
-// Tables and keys of the facility format, in the order they are documented.
+// The facility format: one or more [[facility]] tables, each with a name,
+// a class and a medium, then the fields below and a [facility.model] table.
 var (
-	facilityTables   = []string{"facility"}
-	facilityKeys     = []string{"name", "class", "medium", "mach_range", "speed_range", "stagnation_pressure_range", "static_pressure_range", "stagnation_temperature_range", "water_temperature_range", "max_dynamic_pressure", "min_static_temperature", "condensation_check", "peak_local_mach", "max_reynolds_per_metre", "section_width", "section_height", "model"}
-	modelKeys        = []string{"scale", "max_span_fraction", "max_blockage"}
-	gasOnlyKeys      = []string{"mach_range", "stagnation_pressure_range", "stagnation_temperature_range", "min_static_temperature", "condensation_check", "peak_local_mach"}
-	waterOnlyKeys    = []string{"speed_range", "static_pressure_range", "water_temperature_range"}
+	facilityTables = []string{"facility"}
+	// facilityKeys are the keys of a [[facility]] table, in the order they
+	// are documented (unknown-key errors list them in this order).
+	facilityKeys = append([]string{"name", "class", "medium"}, facilityFieldKeys()...)
+	// waterCounterpart names, for a key of one medium, the key a facility
+	// of the other medium has instead.
 	waterCounterpart = map[string]string{
 		"mach_range":                   "speed_range",
 		"stagnation_pressure_range":    "static_pressure_range",
@@ -39,11 +42,16 @@ func (d *doc) facilities() []Facility {
 		d.fail("facility", "facility", describe(raw), form+" (note the double brackets)")
 		return nil
 	}
+	// Each table is read into f, then copied out: the fields are bound to
+	// f once per file, not once per facility (a file may hold thousands).
+	var f Facility
+	fields := facilityFields(&f)
 	out := make([]Facility, 0, len(list))
 	names := map[string]int{}
 	for i, m := range list {
 		p := fmt.Sprintf("facility[%d]", i)
-		f := d.facility(d.table(p, m, facilityKeys))
+		f = Facility{Source: d.file}
+		d.facility(d.table(p, m, facilityKeys), &f, fields)
 		if f.Name != "" {
 			key := strings.ToLower(f.Name)
 			if j, dup := names[key]; dup {
@@ -59,93 +67,114 @@ func (d *doc) facilities() []Facility {
 	return out
 }
 
-// facility reads one [[facility]] table.
-func (d *doc) facility(t *table) Facility {
+// facility reads one [[facility]] table into f, with fields, the
+// facilityFields bound to f.
+func (d *doc) facility(t *table, f *Facility, fields []facilityField) {
 	defer t.finish()
-	f := Facility{Source: d.file}
 	f.Name, _ = t.freeText("name", true, "the facility's name in quotes")
 	f.Class, _ = t.freeText("class", false, `a short description in quotes, e.g. "pressurized transonic"`)
 
-	mediumOK := false
-	if s, ok := t.text("medium", true, mediumWanted()); ok {
-		f.Medium, mediumOK = mediumNamed(s)
-		if !mediumOK {
-			p := t.keyPath("medium")
-			d.fail(p, display(p), strconv.Quote(s), mediumWanted())
-		}
-	}
-
-	if mediumOK {
-		wrong := waterOnlyKeys
-		if f.Medium == MediumWater {
-			wrong = gasOnlyKeys
-		}
-		for _, k := range wrong {
-			if !t.has(k) {
-				continue
+	medium := choose(t, "medium", true, mediumWanted(), mediumWanted(), mediumNamed)
+	f.Medium = medium.v
+	if medium.ok {
+		for _, ff := range fields {
+			if !ff.media.takes(f.Medium) && t.has(ff.name()) {
+				d.wrongMedium(t, ff.name(), f.Medium)
 			}
-			p := t.keyPath(k)
-			exp := "no " + k + " (condensation limits apply to " + andList(gasMedia()) + " only)"
-			if c, ok := waterCounterpart[k]; ok {
-				exp = c + " instead"
+		}
+		// The medium's own keys first, then those of every facility.
+		for _, ff := range fields {
+			if ff.media != everyMedium && ff.media.takes(f.Medium) {
+				ff.read(t)
 			}
-			d.fail(p, display(p), fmt.Sprintf("%s on a%s %s facility", k, article(f.Medium.String()), f.Medium), exp)
 		}
 	}
-
-	if mediumOK && f.Medium.IsGas() {
-		lo, hi := t.span("mach_range", uMach, true)
-		d.need(&lo, lo.v > 0, "a Mach number above 0")
-		d.need(&hi, hi.v <= maxMach, fmt.Sprintf("a Mach number up to %g", maxMach))
-		g := &f.Gas
-		g.MachMin, g.MachMax = lo.v, hi.v
-		lo, hi = t.span("stagnation_pressure_range", uPressure, true)
-		g.P0Min, g.P0Max = d.within(&lo, FacilityPressureBound()), d.within(&hi, FacilityPressureBound())
-		lo, hi = t.span("stagnation_temperature_range", uTemp, true)
-		tb := FacilityTemperatureBound(f.Medium)
-		g.T0Min, g.T0Max = d.within(&lo, tb), d.within(&hi, tb)
-		q := t.quantity("min_static_temperature", uTemp, false)
-		g.MinStaticT = d.positive(&q, maxGasT0, "a temperature above 0 K")
-		g.Condensation = t.boolean("condensation_check", true)
-		q = t.quantity("peak_local_mach", uMach, false)
-		g.PeakLocalMach = DefaultPeakLocalMach
-		if d.need(&q, q.v >= 1 && q.v <= 10, "a Mach number from 1 to 10") {
-			g.PeakLocalMach = q.v
+	for _, ff := range fields {
+		if ff.media == everyMedium {
+			ff.read(t)
 		}
 	}
-	if mediumOK && f.Medium == MediumWater {
-		lo, hi := t.span("speed_range", uSpeed, true)
-		d.need(&lo, lo.v > 0, "a speed above 0")
-		d.need(&hi, hi.v <= maxWaterSpeed, fmt.Sprintf("a water speed up to %g m/s", maxWaterSpeed))
-		w := &f.Water
-		w.SpeedMin, w.SpeedMax = lo.v, hi.v
-		lo, hi = t.span("static_pressure_range", uPressure, true)
-		w.PMin, w.PMax = d.within(&lo, FacilityPressureBound()), d.within(&hi, FacilityPressureBound())
-		lo, hi = t.span("water_temperature_range", uTemp, true)
-		wb := FacilityTemperatureBound(f.Medium)
-		w.TMin, w.TMax = d.within(&lo, wb), d.within(&hi, wb)
-	}
+}
 
-	q := t.quantity("max_dynamic_pressure", uPressure, false)
-	f.QMax = d.within(&q, QMaxBound())
-	q = t.quantity("max_reynolds_per_metre", uPerLength, false)
-	f.MaxReynoldsPerM = d.positive(&q, 1e12, "a unit Reynolds number above 0")
-	q = t.quantity("section_width", uLength, true)
-	f.Width = d.positive(&q, MaxLength, "a length above 0 m")
-	q = t.quantity("section_height", uLength, true)
-	f.Height = d.positive(&q, MaxLength, "a length above 0 m")
-
-	f.Model.MaxSpanFraction = DefaultMaxSpanFraction
-	if mt := t.sub("model", modelKeys, false); mt != nil {
-		q = mt.quantity("scale", uRatio, false)
-		f.Model.Scale = d.within(&q, ModelScaleBound())
-		q = mt.quantity("max_span_fraction", uFraction, false)
-		if d.need(&q, q.v > 0 && q.v <= 1, "a share of the section width above 0 and at most 1 (100 %)") {
-			f.Model.MaxSpanFraction = q.v
-		}
-		q = mt.quantity("max_blockage", uFraction, false)
-		f.Model.MaxBlockage = d.positive(&q, maxBlockage, "a share of the section area above 0 and at most 0.5 (50 %)")
-		mt.finish()
+// wrongMedium reports key, one that facilities of medium m do not take.
+func (d *doc) wrongMedium(t *table, key string, m Medium) {
+	p := t.keyPath(key)
+	exp := "no " + key + " (condensation limits apply to " + andList(gasMedia()) + " only)"
+	if c, ok := waterCounterpart[key]; ok {
+		exp = c + " instead"
 	}
-	return f
+	d.fail(p, display(p), fmt.Sprintf("%s on a%s %s facility", key, article(m.String()), m), exp)
+}
+
+// media says which facilities take a key: every facility, or only those
+// of a gas or of water.
+type media int
+
+const (
+	everyMedium media = iota
+	gasOnly
+	waterOnly
+)
+
+// takes reports whether a facility of medium m takes a key of these media.
+func (k media) takes(m Medium) bool {
+	switch k {
+	case gasOnly:
+		return m.IsGas()
+	case waterOnly:
+		return m == MediumWater
+	}
+	return true
+}
+
+// facilityField is a key of a [[facility]] table and the facilities that
+// take it.
+type facilityField struct {
+	media media
+	field
+}
+
+// facilityFields are the keys of a [[facility]] table after its name,
+// class and medium, in the order docs/FORMAT.md lists them, read into f.
+func facilityFields(f *Facility) []facilityField {
+	g, w := &f.Gas, &f.Water
+	p0 := FacilityPressureBound()
+	t0, tw := gasT0Bound(), waterTemperatureBound()
+	length := aboveZero(MaxLength, "a length above 0 m")
+	machLo, machHi := aboveZero(math.Inf(1), "a Mach number above 0"), upTo(maxMach, fmt.Sprintf("a Mach number up to %g", maxMach))
+	speedLo, speedHi := aboveZero(math.Inf(1), "a speed above 0"), upTo(maxWaterSpeed, fmt.Sprintf("a water speed up to %g m/s", maxWaterSpeed))
+	return []facilityField{
+		{gasOnly, rangeField{key: "mach_range", unit: uMach, required: true, lo: machLo, hi: machHi, toLo: &g.MachMin, toHi: &g.MachMax}},
+		{waterOnly, rangeField{key: "speed_range", unit: uSpeed, required: true, lo: speedLo, hi: speedHi, toLo: &w.SpeedMin, toHi: &w.SpeedMax}},
+		{gasOnly, rangeField{key: "stagnation_pressure_range", unit: uPressure, required: true, lo: p0, hi: p0, toLo: &g.P0Min, toHi: &g.P0Max}},
+		{waterOnly, rangeField{key: "static_pressure_range", unit: uPressure, required: true, lo: p0, hi: p0, toLo: &w.PMin, toHi: &w.PMax}},
+		{gasOnly, rangeField{key: "stagnation_temperature_range", unit: uTemp, required: true, lo: t0, hi: t0, toLo: &g.T0Min, toHi: &g.T0Max}},
+		{waterOnly, rangeField{key: "water_temperature_range", unit: uTemp, required: true, lo: tw, hi: tw, toLo: &w.TMin, toHi: &w.TMax}},
+		{everyMedium, quantityField{key: "max_dynamic_pressure", unit: uPressure, bound: QMaxBound(), to: &f.QMax}},
+		{gasOnly, quantityField{key: "min_static_temperature", unit: uTemp, bound: aboveZero(maxGasT0, "a temperature above 0 K"), to: &g.MinStaticT}},
+		{gasOnly, boolField{key: "condensation_check", def: true, to: &g.Condensation}},
+		{gasOnly, quantityField{key: "peak_local_mach", unit: uMach, bound: Bound{Lo: 1, Hi: 10, Expected: "a Mach number from 1 to 10"}, def: DefaultPeakLocalMach, to: &g.PeakLocalMach}},
+		{everyMedium, quantityField{key: "max_reynolds_per_metre", unit: uPerLength, bound: aboveZero(1e12, "a unit Reynolds number above 0"), to: &f.MaxReynoldsPerM}},
+		{everyMedium, quantityField{key: "section_width", unit: uLength, required: true, bound: length, to: &f.Width}},
+		{everyMedium, quantityField{key: "section_height", unit: uLength, required: true, bound: length, to: &f.Height}},
+		{everyMedium, subTable("model", modelFields(&f.Model))},
+	}
+}
+
+// facilityFieldKeys lists the keys of facilityFields, in order.
+func facilityFieldKeys() []string {
+	var out []string
+	for _, ff := range facilityFields(&Facility{}) {
+		out = append(out, ff.name())
+	}
+	return out
+}
+
+// modelFields are the keys of a [facility.model] table, read into m.
+func modelFields(m *ModelSizing) []field {
+	return []field{
+		quantityField{key: "scale", unit: uRatio, bound: ModelScaleBound(), to: &m.Scale},
+		quantityField{key: "max_span_fraction", unit: uFraction, bound: aboveZero(1, "a share of the section width above 0 and at most 1 (100 %)"), def: DefaultMaxSpanFraction, to: &m.MaxSpanFraction},
+		quantityField{key: "max_blockage", unit: uFraction, bound: aboveZero(maxBlockage, "a share of the section area above 0 and at most 0.5 (50 %)"), to: &m.MaxBlockage},
+	}
 }

@@ -145,32 +145,31 @@ func (t *table) boolean(key string, def bool) bool {
 // quantity reads key as u; absent gives a qty with ok false (reported when
 // required).
 func (t *table) quantity(key string, u unit, required bool) qty {
-	p := t.keyPath(key)
 	raw, ok := t.get(key)
 	if !ok {
 		if required {
 			t.missing(key, u.expect())
 		}
-		return qty{path: p, field: display(p)}
+		return qty{}
 	}
+	p := t.keyPath(key)
 	return t.d.value(raw, p, display(p), u)
 }
 
 // span reads a two-element [low, high] range.
 func (t *table) span(key string, u unit, required bool) (lo, hi qty) {
-	p := t.keyPath(key)
-	expected := fmt.Sprintf("a range [low, high] of two values, each %s", u.expect())
 	raw, ok := t.get(key)
 	if !ok {
 		if required {
-			t.missing(key, expected)
+			t.missing(key, u.expectRange())
 		}
-		return qty{path: p}, qty{path: p}
+		return qty{}, qty{}
 	}
+	p := t.keyPath(key)
 	arr, ok := raw.([]any)
 	if !ok || len(arr) != 2 {
-		t.d.fail(p, display(p), describe(raw), expected)
-		return qty{path: p}, qty{path: p}
+		t.d.fail(p, display(p), describe(raw), u.expectRange())
+		return qty{}, qty{}
 	}
 	f := display(p)
 	lo = t.d.value(arr[0], p+"[0]", f+" low", u)
@@ -180,4 +179,172 @@ func (t *table) span(key string, u unit, required bool) (lo, hi qty) {
 		lo.ok, hi.ok = false, false
 	}
 	return lo, hi
+}
+
+// A field is one key of a table in a vehicle or facility file: its name,
+// and how its value is read, checked and stored. A table declares its
+// fields in the order docs/FORMAT.md lists them; they are read in that
+// order (problems on one line keep it) and an unknown-key error lists
+// them so. Adding a key to a format is adding a row to its table's list.
+type field interface {
+	name() string
+	read(t *table)
+}
+
+// readFields reads each of fs from t, in order.
+func readFields(t *table, fs []field) {
+	for _, f := range fs {
+		f.read(t)
+	}
+}
+
+// fieldKeys lists the keys of fs, in order.
+func fieldKeys(fs []field) []string {
+	out := make([]string, len(fs))
+	for i, f := range fs {
+		out[i] = f.name()
+	}
+	return out
+}
+
+// quantityField is a key holding a quantity of unit that must lie within
+// bound. A value read and within bound is stored in to; otherwise (absent,
+// malformed or out of bound, the last two reported) to holds def.
+type quantityField struct {
+	key      string
+	unit     unit
+	required bool
+	bound    Bound
+	def      float64
+	to       *float64
+}
+
+func (f quantityField) name() string { return f.key }
+
+func (f quantityField) read(t *table) {
+	q := t.quantity(f.key, f.unit, f.required)
+	v := t.d.within(&q, f.bound)
+	if !q.ok {
+		v = f.def
+	}
+	*f.to = v
+}
+
+// rangeField is a key holding a [low, high] range of unit, each end
+// within its own bound (lo, hi), stored in toLo and toHi (0 when not
+// usable).
+type rangeField struct {
+	key        string
+	unit       unit
+	required   bool
+	lo, hi     Bound
+	toLo, toHi *float64
+}
+
+func (f rangeField) name() string { return f.key }
+
+func (f rangeField) read(t *table) {
+	lo, hi := t.span(f.key, f.unit, f.required)
+	*f.toLo, *f.toHi = t.d.within(&lo, f.lo), t.d.within(&hi, f.hi)
+}
+
+// textField is a key holding one line of printable text (a name, a
+// description), described by expected; to holds def when the key is
+// absent or refused.
+type textField struct {
+	key      string
+	required bool
+	expected string
+	def      string
+	to       *string
+}
+
+func (f textField) name() string { return f.key }
+
+func (f textField) read(t *table) {
+	s, ok := t.freeText(f.key, f.required, f.expected)
+	if !ok {
+		s = f.def
+	}
+	*f.to = s
+}
+
+// boolField is a key holding true or false, def when absent or refused.
+type boolField struct {
+	key string
+	def bool
+	to  *bool
+}
+
+func (f boolField) name() string { return f.key }
+
+func (f boolField) read(t *table) { *f.to = t.boolean(f.key, f.def) }
+
+// keyFunc is a key read by a function of its own, for a check a bound
+// cannot say (a ceiling above the boundary's lowest point, a speed with
+// its kind).
+type keyFunc struct {
+	key string
+	fn  func(t *table)
+}
+
+func (f keyFunc) name() string { return f.key }
+
+func (f keyFunc) read(t *table) { f.fn(t) }
+
+// tableField is a key holding a table of its own with fields (made by
+// subTable); an absent or refused table leaves them at their defaults.
+type tableField struct {
+	key    string
+	fields []field
+	keys   []string // fieldKeys(fields)
+}
+
+func subTable(key string, fields []field) tableField {
+	return tableField{key: key, fields: fields, keys: fieldKeys(fields)}
+}
+
+func (f tableField) name() string { return f.key }
+
+func (f tableField) read(t *table) {
+	st := t.sub(f.key, f.keys, false)
+	if st == nil {
+		st = t.d.table(t.keyPath(f.key), nil, nil)
+	}
+	readFields(st, f.fields)
+	st.finish()
+}
+
+// choice is what choose read: the thing a key's text names.
+type choice[T any] struct {
+	v T
+	// ok: the key holds text that names one. unknown: text that names
+	// none (reported). A key absent (reported when required) or not text
+	// (reported) is neither.
+	ok, unknown bool
+}
+
+// choose reads a key whose text names one of a few things (a speed kind,
+// a medium) with parse; expected describes the key when it is absent or
+// not text, wanted lists the names when the text names none of them.
+func choose[T any](t *table, key string, required bool, expected, wanted string, parse func(string) (T, bool)) choice[T] {
+	s, ok := t.text(key, required, expected)
+	if !ok {
+		return choice[T]{}
+	}
+	v, ok := parse(s)
+	if !ok {
+		p := t.keyPath(key)
+		t.d.fail(p, display(p), strconv.Quote(s), wanted)
+		return choice[T]{unknown: true}
+	}
+	return choice[T]{v: v, ok: true}
+}
+
+// known turns a parser that refuses with an error into one for choose.
+func known[T any](parse func(string) (T, error)) func(string) (T, bool) {
+	return func(s string) (T, bool) {
+		v, err := parse(s)
+		return v, err == nil
+	}
 }

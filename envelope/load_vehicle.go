@@ -9,14 +9,19 @@ import (
 )
 
 // Tables and keys of the vehicle format, in the order they are documented
-// (unknown-key errors list them in this order).
+// (unknown-key errors list them in this order); the keys of [vehicle] and
+// [limits] are their fields below.
 var (
 	vehicleTables = []string{"vehicle", "envelope", "limits", "grid"}
-	vehicleKeys   = []string{"name", "reference_length", "reference_length_is", "reference_area", "span", "frontal_area"}
 	envelopeKeys  = []string{"speed_kind", "altitude_kind", "temperature_offset", "boundary"}
-	limitKeys     = []string{"ceiling", "max_mach", "max_eas", "max_cas", "max_dynamic_pressure", "min_speed"}
 	gridKeys      = []string{"speed_kind", "altitude", "speed"}
 	axisKeys      = []string{"from", "to", "step", "count"}
+)
+
+// The names a speed kind and an altitude kind are written with.
+const (
+	speedKinds    = `"Mach", "TAS", "EAS" or "CAS"`
+	altitudeKinds = `"geometric", "geopotential" or "pressure"`
 )
 
 // checkInside reports a vehicle whose grid has no point inside the
@@ -57,52 +62,53 @@ func (d *doc) altitude(q *qty, kind atmos.AltitudeKind) {
 
 func (d *doc) speedBounds(q *qty, k atmos.SpeedKind) { d.within(q, FlightSpeedBound(k)) }
 
+// vehicleFields are the keys of the [vehicle] table, read into v.
+func vehicleFields(v *Vehicle) []field {
+	area := aboveZero(maxArea, "an area above 0 m2")
+	return []field{
+		textField{key: "name", required: true, expected: `the vehicle's name in quotes`, to: &v.Name},
+		quantityField{key: "reference_length", unit: uLength, required: true, bound: VehicleLengthBound(), to: &v.RefLength},
+		textField{key: "reference_length_is", expected: `what the reference length is, in quotes, e.g. "mean aerodynamic chord"`, def: "reference length", to: &v.RefLengthName},
+		quantityField{key: "reference_area", unit: uArea, required: true, bound: area, to: &v.RefArea},
+		quantityField{key: "span", unit: uLength, required: true, bound: VehicleLengthBound(), to: &v.Span},
+		quantityField{key: "frontal_area", unit: uArea, required: true, bound: area, to: &v.FrontalArea},
+	}
+}
+
+// limitFields are the keys of the optional [limits] table, read into
+// v.Limits (the ceiling is checked against v's boundary, read before).
+func limitFields(v *Vehicle) []field {
+	l := &v.Limits
+	speed := aboveZero(maxSpeed, "a speed above 0")
+	return []field{
+		keyFunc{"ceiling", func(t *table) { t.d.ceiling(t, v) }},
+		quantityField{key: "max_mach", unit: uMach, bound: aboveZero(maxMach, fmt.Sprintf("a Mach number above 0 and at most %g", maxMach)), to: &l.MaxMach},
+		quantityField{key: "max_eas", unit: uSpeed, bound: speed, to: &l.MaxEAS},
+		quantityField{key: "max_cas", unit: uSpeed, bound: speed, to: &l.MaxCAS},
+		quantityField{key: "max_dynamic_pressure", unit: uPressure, bound: aboveZero(maxPressure, "a pressure above 0"), to: &l.MaxQ},
+		keyFunc{"min_speed", func(t *table) { t.d.minSpeed(t, v) }},
+	}
+}
+
 // vehicle reads and checks a vehicle file.
 func (d *doc) vehicle() *Vehicle {
-	v := &Vehicle{Source: d.file, RefLengthName: "reference length"}
+	v := &Vehicle{Source: d.file}
 	root := d.table("", d.root, vehicleTables)
 	root.hint = "a vehicle file; facilities go in a file of their own"
 	defer root.finish()
 
-	if vt := root.sub("vehicle", vehicleKeys, true); vt != nil {
-		v.Name, _ = vt.freeText("name", true, `the vehicle's name in quotes`)
-		q := vt.quantity("reference_length", uLength, true)
-		v.RefLength = d.within(&q, VehicleLengthBound())
-		if s, ok := vt.freeText("reference_length_is", false, `what the reference length is, in quotes, e.g. "mean aerodynamic chord"`); ok {
-			v.RefLengthName = s
-		}
-		q = vt.quantity("reference_area", uArea, true)
-		v.RefArea = d.positive(&q, maxArea, "an area above 0 m2")
-		q = vt.quantity("span", uLength, true)
-		v.Span = d.within(&q, VehicleLengthBound())
-		q = vt.quantity("frontal_area", uArea, true)
-		v.FrontalArea = d.positive(&q, maxArea, "an area above 0 m2")
+	fields := vehicleFields(v)
+	if vt := root.sub("vehicle", fieldKeys(fields), true); vt != nil {
+		readFields(vt, fields)
 		vt.finish()
 	}
 
 	boundaryOK := false
 	if et := root.sub("envelope", envelopeKeys, true); et != nil {
-		kindsOK := true
-		if s, ok := et.text("speed_kind", true, `the kind of the boundary speeds: "Mach", "TAS", "EAS" or "CAS"`); ok {
-			k, err := atmos.ParseSpeedKind(s)
-			if err != nil {
-				p := et.keyPath("speed_kind")
-				d.fail(p, display(p), strconv.Quote(s), `"Mach", "TAS", "EAS" or "CAS"`)
-				kindsOK = false
-			}
-			v.BoundaryKind = k
-		} else {
-			kindsOK = false
-		}
-		if s, ok := et.text("altitude_kind", false, `"geometric", "geopotential" or "pressure"`); ok {
-			k, err := atmos.ParseAltitudeKind(s)
-			if err != nil {
-				p := et.keyPath("altitude_kind")
-				d.fail(p, display(p), strconv.Quote(s), `"geometric", "geopotential" or "pressure"`)
-				kindsOK = false
-			}
-			v.AltitudeKind = k
-		}
+		sk := choose(et, "speed_kind", true, `the kind of the boundary speeds: `+speedKinds, speedKinds, known(atmos.ParseSpeedKind))
+		ak := choose(et, "altitude_kind", false, altitudeKinds, altitudeKinds, known(atmos.ParseAltitudeKind))
+		v.BoundaryKind, v.AltitudeKind = sk.v, ak.v
+		kindsOK := sk.ok && !ak.unknown
 		dT := et.quantity("temperature_offset", uDeltaT, false)
 		v.DeltaT = d.within(&dT, DeltaTBound())
 		dTOK := dT.ok || !et.has("temperature_offset")
@@ -110,8 +116,9 @@ func (d *doc) vehicle() *Vehicle {
 		et.finish()
 	}
 
-	if lt := root.sub("limits", limitKeys, false); lt != nil {
-		d.limits(lt, v)
+	fields = limitFields(v)
+	if lt := root.sub("limits", fieldKeys(fields), false); lt != nil {
+		readFields(lt, fields)
 		lt.finish()
 	}
 
@@ -195,8 +202,9 @@ func (d *doc) boundary(et *table, v *Vehicle, kindsOK bool) bool {
 	return d.checkOutline(p, v)
 }
 
-// limits reads the optional limit lines.
-func (d *doc) limits(lt *table, v *Vehicle) {
+// ceiling reads the ceiling limit: an altitude above the boundary's lowest
+// point.
+func (d *doc) ceiling(lt *table, v *Vehicle) {
 	q := lt.quantity("ceiling", uAltitude, false)
 	d.altitude(&q, v.AltitudeKind)
 	lowest := math.Inf(-1)
@@ -208,35 +216,32 @@ func (d *doc) limits(lt *table, v *Vehicle) {
 	if d.need(&q, q.v > lowest, "a ceiling above the lowest boundary point") {
 		v.Limits.Ceiling = q.v
 	}
-	q = lt.quantity("max_mach", uMach, false)
-	v.Limits.MaxMach = d.positive(&q, maxMach, fmt.Sprintf("a Mach number above 0 and at most %g", maxMach))
-	q = lt.quantity("max_eas", uSpeed, false)
-	v.Limits.MaxEAS = d.positive(&q, maxSpeed, "a speed above 0")
-	q = lt.quantity("max_cas", uSpeed, false)
-	v.Limits.MaxCAS = d.positive(&q, maxSpeed, "a speed above 0")
-	q = lt.quantity("max_dynamic_pressure", uPressure, false)
-	v.Limits.MaxQ = d.positive(&q, maxPressure, "a pressure above 0")
+}
 
-	if raw, ok := lt.get("min_speed"); ok {
-		p := lt.keyPath("min_speed")
-		const exp = `a speed with its kind, e.g. "M0.25", "90 KEAS", "120 kt CAS" or "60 m/s TAS"`
-		s, isText := raw.(string)
-		if !isText {
-			d.fail(p, display(p), describe(raw), exp)
-			return
-		}
-		k, sp, err := atmos.ParseAirspeed(s)
-		if err != nil {
-			d.fail(p, display(p), strconv.Quote(s), exp)
-			return
-		}
-		mq := qty{v: sp, raw: raw, path: p, field: display(p), ok: true}
-		d.speedBounds(&mq, k)
-		if mq.ok && sp > 0 {
-			v.Limits.MinSpeed, v.Limits.MinSpeedKind = sp, k
-		} else if mq.ok {
-			d.need(&mq, false, "a speed above 0")
-		}
+// minSpeed reads the lower speed limit, a speed with its kind.
+func (d *doc) minSpeed(lt *table, v *Vehicle) {
+	raw, ok := lt.get("min_speed")
+	if !ok {
+		return
+	}
+	p := lt.keyPath("min_speed")
+	const exp = `a speed with its kind, e.g. "M0.25", "90 KEAS", "120 kt CAS" or "60 m/s TAS"`
+	s, isText := raw.(string)
+	if !isText {
+		d.fail(p, display(p), describe(raw), exp)
+		return
+	}
+	k, sp, err := atmos.ParseAirspeed(s)
+	if err != nil {
+		d.fail(p, display(p), strconv.Quote(s), exp)
+		return
+	}
+	mq := qty{v: sp, raw: raw, path: p, field: display(p), ok: true}
+	d.speedBounds(&mq, k)
+	if mq.ok && sp > 0 {
+		v.Limits.MinSpeed, v.Limits.MinSpeedKind = sp, k
+	} else if mq.ok {
+		d.need(&mq, false, "a speed above 0")
 	}
 }
 
@@ -283,16 +288,11 @@ func (d *doc) readAxis(gt *table, key string, u unit) axisIn {
 // boundary's bounding box.
 func (d *doc) grid(gt *table, v *Vehicle, boundaryOK bool) {
 	v.Grid.SpeedKind = v.BoundaryKind
-	kindOK := true
-	if s, ok := gt.text("speed_kind", false, `"Mach", "TAS", "EAS" or "CAS"`); ok {
-		k, err := atmos.ParseSpeedKind(s)
-		if err != nil {
-			p := gt.keyPath("speed_kind")
-			d.fail(p, display(p), strconv.Quote(s), `"Mach", "TAS", "EAS" or "CAS"`)
-			kindOK = false
-		}
-		v.Grid.SpeedKind = k
+	gk := choose(gt, "speed_kind", false, speedKinds, speedKinds, known(atmos.ParseSpeedKind))
+	if gk.ok {
+		v.Grid.SpeedKind = gk.v
 	}
+	kindOK := !gk.unknown
 	alt := d.readAxis(gt, "altitude", uAltitude)
 	d.altitude(&alt.from, v.AltitudeKind)
 	d.altitude(&alt.to, v.AltitudeKind)

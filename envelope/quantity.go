@@ -51,6 +51,11 @@ func (u unit) expect() string {
 	return fmt.Sprintf("a%s %s with its unit, e.g. %q (units: %s)", article(u.dim.String()), u.dim, u.example, strings.Join(atmos.UnitsFor(u.dim), ", "))
 }
 
+// expectRange describes a well-formed range of values of this unit.
+func (u unit) expectRange() string {
+	return "a range [low, high] of two values, each " + u.expect()
+}
+
 // qty is a number read from the file, with where it came from.
 type qty struct {
 	v     float64
@@ -156,12 +161,15 @@ func (d *doc) within(q *qty, b Bound) float64 {
 	return q.v
 }
 
-func (d *doc) positive(q *qty, upper float64, what string) float64 {
-	d.need(q, q.v > 0 && q.v <= upper, what)
-	if !q.ok {
-		return 0
-	}
-	return q.v
+// aboveZero bounds a value above 0 and at most hi, in the words of
+// expected (a loader-only bound; shared ones live in bounds.go).
+func aboveZero(hi float64, expected string) Bound {
+	return Bound{Lo: 0, LoOpen: true, Hi: hi, Expected: expected}
+}
+
+// upTo bounds a value from above only, in the words of expected.
+func upTo(hi float64, expected string) Bound {
+	return Bound{Lo: math.Inf(-1), Hi: hi, Expected: expected}
 }
 
 // speedUnit is how a speed of kind is written: a Mach number or a speed.
