@@ -14,8 +14,24 @@ import (
 // command-line flags and the interface's what-if editor and sessions, so
 // that a value one of them takes the others take too, written the same
 // ways, and a value one refuses the others refuse with the same words. The
-// limits themselves are the constants beside the loader (MaxLength,
-// MaxDeltaT, ...).
+// limits themselves are the constants below.
+
+// Plausibility bounds. They catch typing slips (a wrong unit, a missing
+// exponent); they are not facility or vehicle limits.
+const (
+	MaxLength      = 1000.0  // m, vehicle dimensions and test sections
+	maxArea        = 1e5     // m²
+	maxMach        = 30.0    // flight and facility Mach numbers
+	maxSpeed       = 10000.0 // m/s, flight speeds
+	maxWaterSpeed  = 100.0   // m/s
+	maxPressure    = 1e8     // Pa, facility pressures (1000 bar)
+	maxGasT0       = 3000.0  // K
+	MaxDeltaT      = 60.0    // K, design-day offset either way
+	maxModelScale  = 10.0
+	maxBlockage    = 0.5
+	waterFreezingK = 273.15
+	waterBoilingK  = 373.15
+)
 
 // Bound is the range a kind of value must lie in, with the words that say
 // so in an error ("expected ..."). An open end excludes the end value
@@ -103,6 +119,13 @@ func CheckAltitude(found string, h float64, kind atmos.AltitudeKind) error {
 	return nil
 }
 
+// altitudeRange describes the altitudes the standard atmosphere covers on
+// the scale of kind.
+func altitudeRange(kind atmos.AltitudeKind) string {
+	lo, hi := atmos.AltitudeRange(kind)
+	return fmt.Sprintf("a %s altitude from %.0f m to %.0f m (the standard atmosphere's range)", kind, lo, hi)
+}
+
 // MinVehicleLength is the shortest vehicle length taken (1 µm): far below
 // any model, yet far from where a Knudsen number overflows.
 const MinVehicleLength = 1e-6
@@ -157,9 +180,19 @@ func QMaxBound() Bound {
 // for water.
 func FacilityTemperatureBound(m Medium) Bound {
 	if m == MediumWater {
-		return Bound{Lo: waterFreezingK, Hi: waterBoilingK, Slack: 1e-9, Expected: "a water temperature from 0 degC to 100 degC"}
+		return waterTemperatureBound()
 	}
+	return gasT0Bound()
+}
+
+// gasT0Bound bounds a gas facility's stagnation temperatures.
+func gasT0Bound() Bound {
 	return Bound{Lo: 0, LoOpen: true, Hi: maxGasT0, Expected: fmt.Sprintf("a temperature above 0 K and at most %g K", maxGasT0)}
+}
+
+// waterTemperatureBound bounds a water facility's water temperatures.
+func waterTemperatureBound() Bound {
+	return Bound{Lo: waterFreezingK, Hi: waterBoilingK, Slack: 1e-9, Expected: "a water temperature from 0 degC to 100 degC"}
 }
 
 // ParseMach reads a Mach number as written: "0.85", "M0.85" or

@@ -884,6 +884,41 @@ z = 3
 	}
 }
 
+// TestLineIndexAnyText: the position scan ends without panicking on text
+// the decoder would refuse too (it runs only after decoding, but says it
+// never panics): a header bracket at the very end, and the example, demo
+// and small bad files cut after each bracket, quote and line end.
+func TestLineIndexAnyText(t *testing.T) {
+	texts := []string{"[", "[[", "a = 1\n[", "[x]\n[[", "[[ ", "[\n"}
+	for _, pattern := range []string{"demo/*.toml", "../testdata/*.toml", "../testdata/bad/*.toml"} {
+		files, _ := filepath.Glob(pattern)
+		for _, f := range files {
+			data, err := os.ReadFile(f)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(data) > 8<<10 {
+				continue
+			}
+			for n, b := range data {
+				if strings.IndexByte("[]{}\"'\n=", b) >= 0 {
+					texts = append(texts, string(data[:n+1]))
+				}
+			}
+		}
+	}
+	for _, src := range texts {
+		func() {
+			defer func() {
+				if r := recover(); r != nil {
+					t.Errorf("indexLines(%.40q) panicked: %v", src, r)
+				}
+			}()
+			indexLines(src)
+		}()
+	}
+}
+
 func BenchmarkParseVehicle(b *testing.B) {
 	data, err := demoFiles.ReadFile("demo/" + demoDefaultVehicle)
 	if err != nil {

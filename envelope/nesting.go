@@ -40,9 +40,7 @@ type shapeFault struct {
 // inside them do not count; on text that is not TOML it still ends, moving
 // on by at least one byte each step, and never recurses.
 type nestingScan struct {
-	src   string
-	i     int
-	line  int
+	tomlCursor
 	limit int
 	// stack holds the open arrays and inline tables of the value being
 	// read.
@@ -62,7 +60,7 @@ type nestFrame struct {
 // scanShape reports where src first nests deeper than maxDepth or holds
 // more than maxItems items.
 func scanShape(src string, maxDepth, maxItems int) shapeFault {
-	s := &nestingScan{src: src, line: 1, limit: maxDepth, maxItems: maxItems}
+	s := &nestingScan{tomlCursor: tomlCursor{src: src, line: 1}, limit: maxDepth, maxItems: maxItems}
 	s.run()
 	return s.fault
 }
@@ -72,24 +70,6 @@ func scanShape(src string, maxDepth, maxItems int) shapeFault {
 func checkNesting(src string, limit int) (line, depth int) {
 	f := scanShape(src, limit, math.MaxInt)
 	return f.Line, f.Depth
-}
-
-func (s *nestingScan) eof() bool { return s.i >= len(s.src) }
-
-func (s *nestingScan) peek() byte {
-	if s.i < len(s.src) {
-		return s.src[s.i]
-	}
-	return 0
-}
-
-func (s *nestingScan) advance() {
-	if s.i < len(s.src) {
-		if s.src[s.i] == '\n' {
-			s.line++
-		}
-		s.i++
-	}
 }
 
 // over counts one more item at level and reports whether that passes a
@@ -106,36 +86,6 @@ func (s *nestingScan) over(level int) bool {
 	return false
 }
 
-// skipSpace skips blanks on the line.
-func (s *nestingScan) skipSpace() {
-	for !s.eof() && (s.src[s.i] == ' ' || s.src[s.i] == '\t') {
-		s.i++
-	}
-}
-
-// skipBlank skips blanks, line ends and comments.
-func (s *nestingScan) skipBlank() {
-	for !s.eof() {
-		switch s.src[s.i] {
-		case ' ', '\t', '\r', '\n':
-			s.advance()
-		case '#':
-			for !s.eof() && s.src[s.i] != '\n' {
-				s.i++
-			}
-		default:
-			return
-		}
-	}
-}
-
-func (s *nestingScan) skipLine() {
-	for !s.eof() && s.src[s.i] != '\n' {
-		s.i++
-	}
-	s.advance()
-}
-
 func (s *nestingScan) run() {
 	tableLevel := 0
 	for {
@@ -143,9 +93,9 @@ func (s *nestingScan) run() {
 		if s.eof() {
 			return
 		}
-		if s.peek() == '[' { // a [table] or [[array of tables]] header
+		if s.peek(0) == '[' { // a [table] or [[array of tables]] header
 			s.i++
-			array := s.peek() == '['
+			array := s.peek(0) == '['
 			if array {
 				s.i++
 			}
@@ -165,7 +115,7 @@ func (s *nestingScan) run() {
 			return
 		}
 		s.skipSpace()
-		if s.i == start || s.peek() != '=' {
+		if s.i == start || s.peek(0) != '=' {
 			s.skipLine() // not a key = value line; the decoder reports it
 			continue
 		}
@@ -182,19 +132,17 @@ func (s *nestingScan) keyCount() int {
 	n := 0
 	for {
 		s.skipSpace()
-		switch c := s.peek(); {
+		switch c := s.peek(0); {
 		case c == '"' || c == '\'':
 			s.str()
 		case isBareKeyChar(c):
-			for !s.eof() && isBareKeyChar(s.src[s.i]) {
-				s.i++
-			}
+			s.bareKey()
 		default:
 			return n
 		}
 		n++
 		s.skipSpace()
-		if s.peek() != '.' {
+		if s.peek(0) != '.' {
 			return n
 		}
 		s.i++
@@ -213,7 +161,7 @@ func (s *nestingScan) value(level int) bool {
 		} else {
 			s.skipBlank()
 		}
-		switch c := s.peek(); c {
+		switch c := s.peek(0); c {
 		case '[':
 			s.i++
 			if s.over(cur + 1) {
@@ -248,7 +196,7 @@ func (s *nestingScan) value(level int) bool {
 			if s.eof() {
 				return true
 			}
-			switch c := s.peek(); {
+			switch c := s.peek(0); {
 			case c == ',':
 				s.i++
 			case !top.table && c == ']', top.table && c == '}':
@@ -268,7 +216,7 @@ func (s *nestingScan) value(level int) bool {
 					return false
 				}
 				s.skipSpace()
-				if s.peek() == '=' {
+				if s.peek(0) == '=' {
 					s.i++
 				}
 				cur = top.level + k
@@ -288,46 +236,6 @@ func (s *nestingScan) scalar() {
 			if s.i == start {
 				s.advance()
 			}
-			return
-		}
-		s.i++
-	}
-}
-
-// str skips a basic, literal or multi-line string, counting its lines.
-func (s *nestingScan) str() {
-	q := s.src[s.i]
-	if s.i+2 < len(s.src) && s.src[s.i+1] == q && s.src[s.i+2] == q {
-		s.i += 3
-		for !s.eof() {
-			c := s.src[s.i]
-			if c == '\\' && q == '"' {
-				s.advance()
-				s.advance()
-				continue
-			}
-			if c == q && s.i+2 < len(s.src) && s.src[s.i+1] == q && s.src[s.i+2] == q {
-				s.i += 3
-				for !s.eof() && s.src[s.i] == q { // up to two more quotes close it
-					s.i++
-				}
-				return
-			}
-			s.advance()
-		}
-		return
-	}
-	s.i++
-	for !s.eof() {
-		c := s.src[s.i]
-		switch {
-		case c == '\n':
-			return // unterminated; the decoder reports it
-		case c == '\\' && q == '"':
-			s.i += 2
-			continue
-		case c == q:
-			s.i++
 			return
 		}
 		s.i++
