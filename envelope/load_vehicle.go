@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"strconv"
+	"strings"
 
 	"likewind/atmos"
 )
@@ -81,12 +82,24 @@ func limitFields(v *Vehicle) []field {
 	l := &v.Limits
 	speed := aboveZero(maxSpeed, "a speed above 0")
 	return []field{
-		keyFunc{"ceiling", func(t *table) { t.d.ceiling(t, v) }},
+		keyFunc{"ceiling", func(t *table) { t.d.ceiling(t, v) }, func(b *strings.Builder) {
+			if l.Ceiling != 0 {
+				kv(b, "ceiling", si(l.Ceiling, "m"))
+			}
+		}},
 		quantityField{key: "max_mach", unit: uMach, bound: aboveZero(maxMach, fmt.Sprintf("a Mach number above 0 and at most %g", maxMach)), to: &l.MaxMach},
 		quantityField{key: "max_eas", unit: uSpeed, bound: speed, to: &l.MaxEAS},
 		quantityField{key: "max_cas", unit: uSpeed, bound: speed, to: &l.MaxCAS},
 		quantityField{key: "max_dynamic_pressure", unit: uPressure, bound: aboveZero(maxPressure, "a pressure above 0"), to: &l.MaxQ},
-		keyFunc{"min_speed", func(t *table) { t.d.minSpeed(t, v) }},
+		keyFunc{"min_speed", func(t *table) { t.d.minSpeed(t, v) }, func(b *strings.Builder) {
+			switch {
+			case l.MinSpeed == 0:
+			case l.MinSpeedKind == atmos.Mach:
+				kv(b, "min_speed", tomlQuote("M"+num(l.MinSpeed)))
+			default:
+				kv(b, "min_speed", tomlQuote(num(l.MinSpeed)+" m/s "+l.MinSpeedKind.String()))
+			}
+		}},
 	}
 }
 
