@@ -2,6 +2,7 @@ package envelope
 
 import (
 	"fmt"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -37,7 +38,7 @@ func (t *table) has(key string) bool {
 func (t *table) finish() {
 	var unknown []string
 	for k := range t.m {
-		if !contains(t.allowed, k) {
+		if !slices.Contains(t.allowed, k) {
 			unknown = append(unknown, k)
 		}
 	}
@@ -56,15 +57,6 @@ func (t *table) finish() {
 		}
 		t.d.fail(p, display(p), "unknown key "+strconv.Quote(k), exp)
 	}
-}
-
-func contains(list []string, s string) bool {
-	for _, x := range list {
-		if x == s {
-			return true
-		}
-	}
-	return false
 }
 
 // missing reports a required key that is absent.
