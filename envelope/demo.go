@@ -73,29 +73,34 @@ func DemoVehicles() ([]*Vehicle, error) {
 }
 
 func demoVehicle(name string) (*Vehicle, error) {
-	data, err := demoFiles.ReadFile("demo/" + name)
+	v, err := parseDemo(name, "demo vehicle", ParseVehicle)
 	if err != nil {
-		return nil, fmt.Errorf("demo vehicle: %w", err)
-	}
-	v, err := ParseVehicle("demo/"+name, data)
-	if err != nil {
-		return nil, fmt.Errorf("demo vehicle: %w", err)
+		return nil, err
 	}
 	v.Source = ""
 	return v, nil
 }
 
 func demoFacilities() ([]Facility, error) {
-	data, err := demoFiles.ReadFile("demo/" + demoFacilityFile)
+	facs, err := parseDemo(demoFacilityFile, "demo facilities", ParseFacilities)
 	if err != nil {
-		return nil, fmt.Errorf("demo facilities: %w", err)
-	}
-	facs, err := ParseFacilities("demo/"+demoFacilityFile, data)
-	if err != nil {
-		return nil, fmt.Errorf("demo facilities: %w", err)
+		return nil, err
 	}
 	for i := range facs {
 		facs[i].Source = ""
 	}
 	return facs, nil
+}
+
+// parseDemo reads the demo file name with parse; what names it in errors.
+func parseDemo[T any](name, what string, parse func(string, []byte) (T, error)) (T, error) {
+	data, err := demoFiles.ReadFile("demo/" + name)
+	if err == nil {
+		var v T
+		if v, err = parse("demo/"+name, data); err == nil {
+			return v, nil
+		}
+	}
+	var zero T
+	return zero, fmt.Errorf("%s: %w", what, err)
 }

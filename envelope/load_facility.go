@@ -2,6 +2,7 @@ package envelope
 
 import (
 	"fmt"
+	"iter"
 	"math"
 	"strconv"
 	"strings"
@@ -82,16 +83,23 @@ func (d *doc) facility(t *table, f *Facility, fields []facilityField) {
 				d.wrongMedium(t, ff.name(), f.Medium)
 			}
 		}
-		// The medium's own keys first, then those of every facility.
-		for _, ff := range fields {
-			if ff.media != everyMedium && ff.media.takes(f.Medium) {
-				ff.read(t)
-			}
-		}
 	}
-	for _, ff := range fields {
-		if ff.media == everyMedium {
-			ff.read(t)
+	for ff := range inReadOrder(fields, f.Medium) {
+		ff.read(t)
+	}
+}
+
+// inReadOrder gives the fields a facility of medium m takes in the order
+// they are read and written: the medium's own first, then those of every
+// facility (only those for a medium not known).
+func inReadOrder(fields []facilityField, m Medium) iter.Seq[field] {
+	return func(yield func(field) bool) {
+		for _, own := range []bool{true, false} {
+			for _, ff := range fields {
+				if (ff.media != everyMedium) == own && ff.media.takes(m) && !yield(ff.field) {
+					return
+				}
+			}
 		}
 	}
 }

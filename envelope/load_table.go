@@ -2,6 +2,7 @@ package envelope
 
 import (
 	"fmt"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -37,7 +38,7 @@ func (t *table) has(key string) bool {
 func (t *table) finish() {
 	var unknown []string
 	for k := range t.m {
-		if !contains(t.allowed, k) {
+		if !slices.Contains(t.allowed, k) {
 			unknown = append(unknown, k)
 		}
 	}
@@ -56,15 +57,6 @@ func (t *table) finish() {
 		}
 		t.d.fail(p, display(p), "unknown key "+strconv.Quote(k), exp)
 	}
-}
-
-func contains(list []string, s string) bool {
-	for _, x := range list {
-		if x == s {
-			return true
-		}
-	}
-	return false
 }
 
 // missing reports a required key that is absent.
@@ -185,10 +177,15 @@ func (t *table) span(key string, u unit, required bool) (lo, hi qty) {
 // and how its value is read, checked and stored. A table declares its
 // fields in the order docs/FORMAT.md lists them; they are read in that
 // order (problems on one line keep it) and an unknown-key error lists
-// them so. Adding a key to a format is adding a row to its table's list.
+// them so, and MarshalVehicle and MarshalFacilities write them back from
+// the same rows. Adding a key to a format is adding a row to its list.
 type field interface {
 	name() string
 	read(t *table)
+	// write writes the field back in SI units (tomlwrite.go) as a key of
+	// the table at path table ("facility"), unless it is optional, has
+	// no default and is not set.
+	write(b *strings.Builder, table string)
 }
 
 // readFields reads each of fs from t, in order.
@@ -280,17 +277,18 @@ func (f boolField) name() string { return f.key }
 
 func (f boolField) read(t *table) { *f.to = t.boolean(f.key, f.def) }
 
-// keyFunc is a key read by a function of its own, for a check a bound
-// cannot say (a ceiling above the boundary's lowest point, a speed with
-// its kind).
+// keyFunc is a key read and written by functions of its own, for a check
+// a bound cannot say (a ceiling above the boundary's lowest point, a speed
+// with its kind).
 type keyFunc struct {
 	key string
-	fn  func(t *table)
+	get func(t *table)
+	put func(b *strings.Builder)
 }
 
 func (f keyFunc) name() string { return f.key }
 
-func (f keyFunc) read(t *table) { f.fn(t) }
+func (f keyFunc) read(t *table) { f.get(t) }
 
 // tableField is a key holding a table of its own with fields (made by
 // subTable); an absent or refused table leaves them at their defaults.

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"strconv"
+	"strings"
 
 	"likewind/atmos"
 )
@@ -81,12 +82,24 @@ func limitFields(v *Vehicle) []field {
 	l := &v.Limits
 	speed := aboveZero(maxSpeed, "a speed above 0")
 	return []field{
-		keyFunc{"ceiling", func(t *table) { t.d.ceiling(t, v) }},
+		keyFunc{"ceiling", func(t *table) { t.d.ceiling(t, v) }, func(b *strings.Builder) {
+			if l.Ceiling != 0 {
+				kv(b, "ceiling", si(l.Ceiling, "m"))
+			}
+		}},
 		quantityField{key: "max_mach", unit: uMach, bound: aboveZero(maxMach, fmt.Sprintf("a Mach number above 0 and at most %g", maxMach)), to: &l.MaxMach},
 		quantityField{key: "max_eas", unit: uSpeed, bound: speed, to: &l.MaxEAS},
 		quantityField{key: "max_cas", unit: uSpeed, bound: speed, to: &l.MaxCAS},
 		quantityField{key: "max_dynamic_pressure", unit: uPressure, bound: aboveZero(maxPressure, "a pressure above 0"), to: &l.MaxQ},
-		keyFunc{"min_speed", func(t *table) { t.d.minSpeed(t, v) }},
+		keyFunc{"min_speed", func(t *table) { t.d.minSpeed(t, v) }, func(b *strings.Builder) {
+			switch {
+			case l.MinSpeed == 0:
+			case l.MinSpeedKind == atmos.Mach:
+				kv(b, "min_speed", tomlQuote("M"+num(l.MinSpeed)))
+			default:
+				kv(b, "min_speed", tomlQuote(num(l.MinSpeed)+" m/s "+l.MinSpeedKind.String()))
+			}
+		}},
 	}
 }
 
@@ -155,41 +168,14 @@ func (d *doc) boundary(et *table, v *Vehicle, kindsOK bool) bool {
 		return false
 	}
 	good := kindsOK
-	su := speedUnit(v.BoundaryKind)
 	verts := make([]Vertex, 0, len(arr))
 	for i, el := range arr {
-		ep := fmt.Sprintf("%s[%d]", p, i)
-		field := fmt.Sprintf("%s point %d", display(p), i+1)
-		pair, ok := el.([]any)
-		if !ok || len(pair) != 2 {
-			d.fail(ep, field, describe(el), `a pair [altitude, speed], e.g. ["41000 ft", "0.85"]`)
+		w, ok := d.boundaryPoint(el, fmt.Sprintf("%s[%d]", p, i), fmt.Sprintf("%s point %d", display(p), i+1), v, kindsOK)
+		if !ok {
 			good = false
 			continue
 		}
-		alt := d.value(pair[0], ep+"[0]", field+" altitude", uAltitude)
-		d.altitude(&alt, v.AltitudeKind)
-		sp := qty{}
-		if kindsOK {
-			sp = d.value(pair[1], ep+"[1]", field+" speed", su)
-			d.speedBounds(&sp, v.BoundaryKind)
-		}
-		if !alt.ok || !sp.ok {
-			good = false
-			continue
-		}
-		// The speed must mean something at this altitude (a CAS beyond
-		// what the standard atmosphere allows does not).
-		if m, err := convertSpeed(v, alt.v, v.BoundaryKind, sp.v, atmos.Mach); err != nil || !FlightMachBound().Holds(m) {
-			why := fmt.Sprintf("Mach %.3g", m)
-			if err != nil {
-				why = err.Error()
-			}
-			d.fail(ep, field, fmt.Sprintf("%s (%s)", describe(el), why),
-				fmt.Sprintf("a %s that exists at this altitude on the design day, at most Mach %g", v.BoundaryKind, maxMach))
-			good = false
-			continue
-		}
-		verts = append(verts, Vertex{Altitude: alt.v, Speed: sp.v})
+		verts = append(verts, w)
 	}
 	if !good {
 		return false
@@ -200,6 +186,40 @@ func (d *doc) boundary(et *table, v *Vehicle, kindsOK bool) bool {
 	}
 	v.Boundary = verts
 	return d.checkOutline(p, v)
+}
+
+// boundaryPoint reads the boundary point el, at internal path ep and shown
+// as field: an [altitude, speed] pair whose speed exists at its altitude
+// on the design day. Its speed is read only when the boundary's kinds are
+// (kindsOK).
+func (d *doc) boundaryPoint(el any, ep, field string, v *Vehicle, kindsOK bool) (Vertex, bool) {
+	pair, ok := el.([]any)
+	if !ok || len(pair) != 2 {
+		d.fail(ep, field, describe(el), `a pair [altitude, speed], e.g. ["41000 ft", "0.85"]`)
+		return Vertex{}, false
+	}
+	alt := d.value(pair[0], ep+"[0]", field+" altitude", uAltitude)
+	d.altitude(&alt, v.AltitudeKind)
+	sp := qty{}
+	if kindsOK {
+		sp = d.value(pair[1], ep+"[1]", field+" speed", speedUnit(v.BoundaryKind))
+		d.speedBounds(&sp, v.BoundaryKind)
+	}
+	if !alt.ok || !sp.ok {
+		return Vertex{}, false
+	}
+	// The speed must mean something at this altitude (a CAS beyond what
+	// the standard atmosphere allows does not).
+	if m, err := convertSpeed(v, alt.v, v.BoundaryKind, sp.v, atmos.Mach); err != nil || !FlightMachBound().Holds(m) {
+		why := fmt.Sprintf("Mach %.3g", m)
+		if err != nil {
+			why = err.Error()
+		}
+		d.fail(ep, field, fmt.Sprintf("%s (%s)", describe(el), why),
+			fmt.Sprintf("a %s that exists at this altitude on the design day, at most Mach %g", v.BoundaryKind, maxMach))
+		return Vertex{}, false
+	}
+	return Vertex{Altitude: alt.v, Speed: sp.v}, true
 }
 
 // ceiling reads the ceiling limit: an altitude above the boundary's lowest

@@ -51,6 +51,26 @@ func (u unit) expect() string {
 	return fmt.Sprintf("a%s %s with its unit, e.g. %q (units: %s)", article(u.dim.String()), u.dim, u.example, strings.Join(atmos.UnitsFor(u.dim), ", "))
 }
 
+// si is the SI unit a value of this unit is written back in (tomlwrite.go):
+// "" for pure numbers.
+func (u unit) si() string {
+	switch {
+	case u.perLength:
+		return "/m"
+	case u.dim == atmos.Length:
+		return "m"
+	case u.dim == atmos.Area:
+		return "m2"
+	case u.dim == atmos.Speed:
+		return "m/s"
+	case u.dim == atmos.Pressure:
+		return "Pa"
+	case u.dim == atmos.Temperature, u.dim == atmos.TemperatureDelta:
+		return "K"
+	}
+	return ""
+}
+
 // expectRange describes a well-formed range of values of this unit.
 func (u unit) expectRange() string {
 	return "a range [low, high] of two values, each " + u.expect()

@@ -186,6 +186,27 @@ func (s *lineScanner) keyValue(parent string, record bool) {
 // then costs no memory here.
 const maxIndexedElements = MaxBoundaryPoints + 1
 
+// items reads the comma-separated items of the array or inline table
+// opened at the cursor, up to closing, reading the nth with item.
+func (s *lineScanner) items(closing byte, item func(n int)) {
+	s.i++
+	for n := 0; ; n++ {
+		s.skipBlank()
+		if s.eof() || s.peek(0) == closing {
+			s.advance()
+			return
+		}
+		start := s.i
+		item(n)
+		s.skipBlank()
+		if s.peek(0) == ',' {
+			s.i++
+		} else if s.i == start {
+			return
+		}
+	}
+}
+
 // value reads one value and records the lines of its elements (with
 // record).
 func (s *lineScanner) value(path string, record bool) {
@@ -193,44 +214,16 @@ func (s *lineScanner) value(path string, record bool) {
 	case '"', '\'':
 		s.str()
 	case '[':
-		s.i++
-		for n := 0; ; n++ {
-			s.skipBlank()
-			if s.eof() || s.peek(0) == ']' {
-				s.advance()
-				return
-			}
+		s.items(']', func(n int) {
 			el, rec := "", record && n < maxIndexedElements
 			if rec {
 				el = path + "[" + strconv.Itoa(n) + "]"
 				s.idx[el] = s.line
 			}
-			start := s.i
 			s.value(el, rec)
-			s.skipBlank()
-			if s.peek(0) == ',' {
-				s.i++
-			} else if s.i == start {
-				return
-			}
-		}
+		})
 	case '{':
-		s.i++
-		for {
-			s.skipBlank()
-			if s.eof() || s.peek(0) == '}' {
-				s.advance()
-				return
-			}
-			start := s.i
-			s.keyValue(path, record)
-			s.skipBlank()
-			if s.peek(0) == ',' {
-				s.i++
-			} else if s.i == start {
-				return
-			}
-		}
+		s.items('}', func(int) { s.keyValue(path, record) })
 	default:
 		// Number, boolean or date: runs to a delimiter.
 		for !s.eof() {

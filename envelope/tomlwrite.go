@@ -15,12 +15,7 @@ import (
 func MarshalVehicle(v *Vehicle) []byte {
 	var b strings.Builder
 	b.WriteString("# likewind vehicle file (SI units; see docs/FORMAT.md)\n\n[vehicle]\n")
-	kv(&b, "name", tomlQuote(v.Name))
-	kv(&b, "reference_length", si(v.RefLength, "m"))
-	kv(&b, "reference_length_is", tomlQuote(v.RefLengthName))
-	kv(&b, "reference_area", si(v.RefArea, "m2"))
-	kv(&b, "span", si(v.Span, "m"))
-	kv(&b, "frontal_area", si(v.FrontalArea, "m2"))
+	writeFields(&b, "vehicle", vehicleFields(v))
 
 	b.WriteString("\n[envelope]\n")
 	kv(&b, "speed_kind", tomlQuote(v.BoundaryKind.String()))
@@ -32,41 +27,15 @@ func MarshalVehicle(v *Vehicle) []byte {
 	}
 	b.WriteString("]\n")
 
-	l := v.Limits
-	if l != (Limits{}) {
+	if v.Limits != (Limits{}) {
 		b.WriteString("\n[limits]\n")
-		if l.Ceiling != 0 {
-			kv(&b, "ceiling", si(l.Ceiling, "m"))
-		}
-		if l.MaxMach != 0 {
-			kv(&b, "max_mach", si(l.MaxMach, ""))
-		}
-		if l.MaxEAS != 0 {
-			kv(&b, "max_eas", si(l.MaxEAS, "m/s"))
-		}
-		if l.MaxCAS != 0 {
-			kv(&b, "max_cas", si(l.MaxCAS, "m/s"))
-		}
-		if l.MaxQ != 0 {
-			kv(&b, "max_dynamic_pressure", si(l.MaxQ, "Pa"))
-		}
-		if l.MinSpeed != 0 {
-			if l.MinSpeedKind == atmos.Mach {
-				kv(&b, "min_speed", tomlQuote("M"+num(l.MinSpeed)))
-			} else {
-				kv(&b, "min_speed", tomlQuote(num(l.MinSpeed)+" m/s "+l.MinSpeedKind.String()))
-			}
-		}
+		writeFields(&b, "limits", limitFields(v))
 	}
 
 	b.WriteString("\n[grid]\n")
 	kv(&b, "speed_kind", tomlQuote(v.Grid.SpeedKind.String()))
 	writeAxis(&b, "altitude", v.Grid.Altitude, "m")
-	su := "m/s"
-	if v.Grid.SpeedKind == atmos.Mach {
-		su = ""
-	}
-	writeAxis(&b, "speed", v.Grid.Speed, su)
+	writeAxis(&b, "speed", v.Grid.Speed, speedUnit(v.Grid.SpeedKind).si())
 	return []byte(b.String())
 }
 
@@ -94,41 +63,50 @@ func MarshalFacilities(fs []Facility) []byte {
 			kv(&b, "class", tomlQuote(f.Class))
 		}
 		kv(&b, "medium", tomlQuote(f.Medium.String()))
-		if f.Medium.IsGas() {
-			g := &f.Gas
-			kv(&b, "mach_range", rangeText(g.MachMin, g.MachMax, ""))
-			kv(&b, "stagnation_pressure_range", rangeText(g.P0Min, g.P0Max, "Pa"))
-			kv(&b, "stagnation_temperature_range", rangeText(g.T0Min, g.T0Max, "K"))
-			if g.MinStaticT != 0 {
-				kv(&b, "min_static_temperature", si(g.MinStaticT, "K"))
-			}
-			kv(&b, "condensation_check", strconv.FormatBool(g.Condensation))
-			kv(&b, "peak_local_mach", si(g.PeakLocalMach, ""))
-		} else {
-			w := &f.Water
-			kv(&b, "speed_range", rangeText(w.SpeedMin, w.SpeedMax, "m/s"))
-			kv(&b, "static_pressure_range", rangeText(w.PMin, w.PMax, "Pa"))
-			kv(&b, "water_temperature_range", rangeText(w.TMin, w.TMax, "K"))
-		}
-		if f.QMax != 0 {
-			kv(&b, "max_dynamic_pressure", si(f.QMax, "Pa"))
-		}
-		if f.MaxReynoldsPerM != 0 {
-			kv(&b, "max_reynolds_per_metre", tomlQuote(num(f.MaxReynoldsPerM)+" /m"))
-		}
-		kv(&b, "section_width", si(f.Width, "m"))
-		kv(&b, "section_height", si(f.Height, "m"))
-		b.WriteString("\n[facility.model]\n")
-		if f.Model.Scale != 0 {
-			kv(&b, "scale", si(f.Model.Scale, ""))
-		}
-		kv(&b, "max_span_fraction", si(f.Model.MaxSpanFraction, ""))
-		if f.Model.MaxBlockage != 0 {
-			kv(&b, "max_blockage", si(f.Model.MaxBlockage, ""))
+		for ff := range inReadOrder(facilityFields(&f), f.Medium) {
+			ff.write(&b, "facility")
 		}
 	}
 	return []byte(b.String())
 }
+
+// writeFields writes each of fs as a key of the table at path table.
+func writeFields(b *strings.Builder, table string, fs []field) {
+	for _, f := range fs {
+		f.write(b, table)
+	}
+}
+
+func (f quantityField) write(b *strings.Builder, _ string) {
+	if f.required || f.def != 0 || *f.to != 0 {
+		kv(b, f.key, si(*f.to, f.unit.si()))
+	}
+}
+
+func (f rangeField) write(b *strings.Builder, _ string) {
+	if f.required || *f.toLo != 0 || *f.toHi != 0 {
+		kv(b, f.key, rangeText(*f.toLo, *f.toHi, f.unit.si()))
+	}
+}
+
+func (f textField) write(b *strings.Builder, _ string) {
+	if f.required || f.def != "" || *f.to != "" {
+		kv(b, f.key, tomlQuote(*f.to))
+	}
+}
+
+func (f boolField) write(b *strings.Builder, _ string) {
+	kv(b, f.key, strconv.FormatBool(*f.to))
+}
+
+// write writes the sub-table's header, always, then its fields.
+func (f tableField) write(b *strings.Builder, table string) {
+	path := joinPath(table, f.key)
+	b.WriteString("\n[" + path + "]\n")
+	writeFields(b, path, f.fields)
+}
+
+func (f keyFunc) write(b *strings.Builder, _ string) { f.put(b) }
 
 func kv(b *strings.Builder, key, value string) {
 	b.WriteString(key)
@@ -148,12 +126,8 @@ func si(x float64, u string) string {
 	return tomlQuote(num(x) + " " + u)
 }
 
-func speedText(x float64, k atmos.SpeedKind) string {
-	if k == atmos.Mach {
-		return si(x, "")
-	}
-	return si(x, "m/s")
-}
+// speedText writes a speed of kind k: a Mach number, or m/s.
+func speedText(x float64, k atmos.SpeedKind) string { return si(x, speedUnit(k).si()) }
 
 func rangeText(lo, hi float64, u string) string {
 	return "[" + si(lo, u) + ", " + si(hi, u) + "]"
