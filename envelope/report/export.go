@@ -447,6 +447,24 @@ type RuleInfo struct {
 	Q           Num    `json:"q_pa"`          // fixed q: test-section dynamic pressure
 }
 
+// ruleOverrideInfo states a what-if rule r for facilities of the given
+// media, in the words of a gas facility's rule unless all are water; nil
+// when r is RuleDefault (each facility's own rule).
+func ruleOverrideInfo(r envelope.OperatingRule, media []envelope.Medium) *RuleInfo {
+	if r.Kind == envelope.RuleDefault {
+		return nil
+	}
+	med := envelope.MediumWater
+	for _, m := range media {
+		if m != envelope.MediumWater {
+			med = m
+			break
+		}
+	}
+	ri := NewRuleInfo(r, med)
+	return &ri
+}
+
 // NewRuleInfo states rule r as it applies to a facility of medium m.
 func NewRuleInfo(r envelope.OperatingRule, m envelope.Medium) RuleInfo {
 	ri := RuleInfo{Name: r.Kind.String(), Description: r.Describe(m, nil), Temperature: na, Q: na}
@@ -519,18 +537,11 @@ func NewExportHeader(info ExportInfo, maps []*envelope.Map) ExportHeader {
 	if s.Scale > 0 {
 		h.Settings.ScaleOverride = Num(s.Scale)
 	}
-	if s.Rule.Kind != envelope.RuleDefault {
-		// The words of a gas facility's rule unless every map is water.
-		med := envelope.MediumWater
-		for _, m := range maps {
-			if m.Facility.Medium != envelope.MediumWater {
-				med = m.Facility.Medium
-				break
-			}
-		}
-		ri := NewRuleInfo(s.Rule, med)
-		h.Settings.RuleOverride = &ri
+	media := make([]envelope.Medium, len(maps))
+	for k, m := range maps {
+		media[k] = m.Facility.Medium
 	}
+	h.Settings.RuleOverride = ruleOverrideInfo(s.Rule, media)
 	for _, m := range maps {
 		f := m.Facility
 		ef := ExportFacility{
