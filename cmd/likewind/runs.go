@@ -119,13 +119,7 @@ func (p *runPlan) writeText(w io.Writer, u units.System) error {
 		"order", "", "", report.RunT0Step, 100*report.RunP0Frac, report.RunMachStep, report.RunSpeedStep)
 	rule := "each facility's own operating rule, stated with its list"
 	if r := p.RuleOverride; r.Kind != envelope.RuleDefault {
-		rule = "what-if for every facility: " + r.Kind.String()
-		switch r.Kind {
-		case envelope.RuleFixedTemperature:
-			rule += " " + u.Temp(r.Temperature)
-		case envelope.RuleFixedQ:
-			rule += " " + u.Q(r.Q)
-		}
+		rule = "what-if for every facility: " + r.Name(u)
 	}
 	fmt.Fprintf(&b, "%-9s %s\n", "rule", rule)
 	fmt.Fprintf(&b, "%-9s %s\n", "caution", envelope.SafetyNote)
