@@ -183,6 +183,21 @@ func (r OperatingRule) Describe(m Medium, u QuantityFormat) string {
 	return r.Kind.String()
 }
 
+// Name is the rule by its name as the files write it, with the value a
+// fixed rule holds written by u (nil: SI): "warmest", "fixed q 80 kPa".
+func (r OperatingRule) Name(u QuantityFormat) string {
+	if u == nil {
+		u = SIFormat{}
+	}
+	switch r.Kind {
+	case RuleFixedTemperature:
+		return r.Kind.String() + " " + u.Temp(r.Temperature)
+	case RuleFixedQ:
+		return r.Kind.String() + " " + u.Q(r.Q)
+	}
+	return r.Kind.String()
+}
+
 // RuleError is a rule that does not suit a facility: Field says which part
 // of the rule is wrong ("rule" for the kind, "temperature" or "q" for the
 // value), so that the loader and the editor can name the key or field.

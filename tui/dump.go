@@ -3,6 +3,7 @@ package tui
 import (
 	"errors"
 	"fmt"
+	"slices"
 	"strings"
 
 	"likewind/envelope"
@@ -110,6 +111,7 @@ func dumpHeader(in DumpInput) string {
 			}
 			line("", "%c  %s (%s)", FacilityTag(k), f.Name, note)
 		}
+		line("rule", "%s", bestRules(in))
 	} else {
 		f := &in.Facilities[in.Facility]
 		m := in.Maps[in.Facility]
@@ -118,6 +120,7 @@ func dumpHeader(in DumpInput) string {
 			desc = f.Class + ", " + desc
 		}
 		line("facility", "%s (%s); model scale %.3g (%s)", f.Name, desc, m.Scale, m.ScaleRule)
+		line("rule", "%s", m.Rule.Describe(f.Medium, u))
 	}
 	line("layer", "%s", in.Layer)
 	scale := "each facility's own"
@@ -141,4 +144,22 @@ func dumpHeader(in DumpInput) string {
 	line("grid", "%s", grid)
 	line("caution", "%s", envelope.SafetyNote)
 	return b.String()
+}
+
+// bestRules names the operating rule of each facility a best-of-all dump
+// shows, by its tag ("a: warmest, b: fixed q 80.00 kPa"), or one name for
+// all when they share it ("every facility warmest").
+func bestRules(in DumpInput) string {
+	var names, tagged []string
+	for k := range in.Facilities {
+		if k < len(in.Maps) && in.Maps[k] != nil {
+			n := in.Maps[k].Rule.Name(in.Units)
+			names = append(names, n)
+			tagged = append(tagged, fmt.Sprintf("%c: %s", FacilityTag(k), n))
+		}
+	}
+	if len(names) > 0 && slices.IndexFunc(names, func(n string) bool { return n != names[0] }) < 0 {
+		return "every facility " + names[0]
+	}
+	return strings.Join(tagged, ", ")
 }

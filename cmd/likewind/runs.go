@@ -113,9 +113,15 @@ func (p *runPlan) writeText(w io.Writer, u units.System) error {
 	}
 	fmt.Fprintf(&b, "%-9s %s (%s)\n", "vehicle", envelope.CleanText(g.Vehicle.Name), src)
 	fmt.Fprintf(&b, "%-9s %s\n", "points", p.pointsWords())
-	fmt.Fprintf(&b, "%-9s grouped by T0, then p0, then Mach number ascending (water: temperature, static pressure, speed);\n"+
-		"%-9s a setting counts as changed when it moves by %g K, %g %% of p0, %g in Mach or %g m/s\n",
-		"order", "", report.RunT0Step, 100*report.RunP0Frac, report.RunMachStep, report.RunSpeedStep)
+	fmt.Fprintf(&b, "%-9s per facility as its operating rule sets it: grouped by T0, then p0, then Mach number ascending\n"+
+		"%-9s (water: temperature, static pressure, speed), under a fixed q by q, then T0, then Mach number;\n"+
+		"%-9s a setting counts as changed when it moves by %g K, %g %% of p0 or of a held q, %g in Mach or %g m/s\n",
+		"order", "", "", report.RunT0Step, 100*report.RunP0Frac, report.RunMachStep, report.RunSpeedStep)
+	rule := "each facility's own operating rule, stated with its list"
+	if r := p.RuleOverride; r.Kind != envelope.RuleDefault {
+		rule = "what-if for every facility: " + r.Name(u)
+	}
+	fmt.Fprintf(&b, "%-9s %s\n", "rule", rule)
 	fmt.Fprintf(&b, "%-9s %s\n", "caution", envelope.SafetyNote)
 	t := newRunText(u, g.SpeedKind)
 	for _, rl := range p.Lists {
@@ -182,6 +188,7 @@ func (t runText) speed(x float64) string {
 func (t runText) writeList(b *strings.Builder, rl report.RunList) {
 	water := rl.Medium == envelope.MediumWater
 	fmt.Fprintf(b, "\n%s (%s, model scale %.3g)\n", rl.Facility, rl.Medium, rl.Scale)
+	fmt.Fprintf(b, "operating rule: %s; runs grouped by %s\n", rl.Rule.Describe(rl.Medium, t.u), orderWords(rl.Order))
 	c := rl.Changes
 	if len(rl.Runs) == 0 {
 		b.WriteString("no points to run\n")
@@ -189,8 +196,12 @@ func (t runText) writeList(b *strings.Builder, rl report.RunList) {
 		fmt.Fprintf(b, "%s; set-point changes: water temperature %d, static pressure %d, speed %d; %d of %s change a setting\n",
 			runCount(rl), c.T0, c.P0, c.Mach, c.Moved, plural(c.Steps, "step", "steps"))
 	} else {
-		fmt.Fprintf(b, "%s; set-point changes: T0 %d, p0 %d, Mach %d; %d of %s change a setting\n",
-			runCount(rl), c.T0, c.P0, c.Mach, c.Moved, plural(c.Steps, "step", "steps"))
+		held := ""
+		if rl.Order.HoldQ {
+			held = fmt.Sprintf("q %d, ", c.Q)
+		}
+		fmt.Fprintf(b, "%s; set-point changes: %sT0 %d, p0 %d, Mach %d; %d of %s change a setting\n",
+			runCount(rl), held, c.T0, c.P0, c.Mach, c.Moved, plural(c.Steps, "step", "steps"))
 	}
 	if len(rl.Runs) > 0 {
 		head := []string{"run", "altitude " + t.altU, t.speedTitle, "flight Re", "flight q " + t.qU}
@@ -202,7 +213,7 @@ func (t runText) writeList(b *strings.Builder, rl report.RunList) {
 		head = append(head, "model Re", "Re ratio", "q "+t.qU, "class", "changes")
 		var rows [][]string
 		for k := range rl.Runs {
-			rows = append(rows, t.row(rl.Runs, k, water))
+			rows = append(rows, t.row(rl.Runs, k, rl.Order))
 		}
 		report.WriteTable(b, head, rows, func(k int) bool { return k == 11 || k == 12 })
 	}
@@ -220,7 +231,8 @@ func (t runText) writeList(b *strings.Builder, rl report.RunList) {
 
 // row is the table row of run k. A further flight point of the same run
 // leaves the run number and the settings blank.
-func (t runText) row(runs []report.Run, k int, water bool) []string {
+func (t runText) row(runs []report.Run, k int, o report.RunOrder) []string {
+	water := o.Water
 	r := runs[k]
 	again := k > 0 && runs[k-1].SetPoint == r.SetPoint
 	row := []string{strconv.Itoa(r.SetPoint), t.u.AltLabel(r.Altitude), t.speedLabel(r.GridSpeed),
@@ -234,27 +246,42 @@ func (t runText) row(runs []report.Run, k int, water bool) []string {
 	default:
 		row = append(row, t.temp(r.T0), t.p(r.P0), strconv.FormatFloat(r.Mach, 'f', 3, 64), sig3(r.Re))
 	}
-	q, changes := t.q(r.Q), changeWords(report.StepChanges(runs, k, water), water)
+	q, changes := t.q(r.Q), changeWords(o.Step(runs, k), water)
 	if again {
 		q, changes = "", "same run"
 	}
 	return append(row, strconv.FormatFloat(r.ReRatio, 'f', 2, 64), q, r.Class.String(), changes)
 }
 
-// changeWords names the settings that move before a run ("" for none,
-// "start" for the first).
+// changeWords names the settings that move before a run ("" for none and
+// for the first).
 func changeWords(c report.Changes, water bool) string {
 	var parts []string
-	names := [3]string{"T0", "p0", "Mach"}
+	names := [4]string{"q", "T0", "p0", "Mach"}
 	if water {
-		names = [3]string{"temperature", "pressure", "speed"}
+		names = [4]string{"q", "temperature", "pressure", "speed"}
 	}
-	for k, n := range []int{c.T0, c.P0, c.Mach} {
+	for k, n := range []int{c.Q, c.T0, c.P0, c.Mach} {
 		if n > 0 {
 			parts = append(parts, names[k])
 		}
 	}
 	return strings.Join(parts, " ")
+}
+
+// orderWords says how a run list is grouped: "T0, then p0, then Mach
+// number", "q, then T0, then Mach number" or for water "temperature, then
+// static pressure, then speed".
+func orderWords(o report.RunOrder) string {
+	if o.Water {
+		return "water temperature, then static pressure, then speed"
+	}
+	words := map[string]string{"t0": "T0", "p0": "p0", "mach": "Mach number", "q": "q"}
+	var parts []string
+	for _, k := range o.Keys() {
+		parts = append(parts, words[k])
+	}
+	return strings.Join(parts, ", then ")
 }
 
 func sig3(x float64) string { return strconv.FormatFloat(x, 'g', 3, 64) }

@@ -132,6 +132,50 @@ type ExportRecord struct {
 	MinT0Condensation Num `json:"min_t0_condensation_k"`
 	VapourPressure    Num `json:"vapour_pressure_pa"`
 	Cavitation        Num `json:"cavitation_number"`
+
+	// Operating rule in force (envelope.RuleInForce): its name as the
+	// facility files write it ("warmest", "least load", "fixed
+	// temperature", "fixed q") and the value a fixed rule holds (T0 or
+	// water temperature, test-section q).
+	Rule            string `json:"rule"`
+	RuleTemperature Num    `json:"rule_temperature_k"`
+	RuleQ           Num    `json:"rule_q_pa"`
+
+	// Matching set at the test Mach number (envelope.MatchingSet): the
+	// Reynolds number every setting of the set gives and the span of its
+	// settings from the cold end to the warm end. Gas: T0 and p0; water:
+	// water temperature and speed; both: q. Each span is written low to
+	// high; set_cold_limit and set_warm_limit name what bounds the set at
+	// its coldest and its warmest setting, set_re_limit what holds the
+	// set's Reynolds number off flight ("none" where it is flight's).
+	SetReynolds      Num    `json:"set_reynolds"`
+	SetT0Min         Num    `json:"set_t0_min_k"`
+	SetT0Max         Num    `json:"set_t0_max_k"`
+	SetP0Min         Num    `json:"set_p0_min_pa"`
+	SetP0Max         Num    `json:"set_p0_max_pa"`
+	SetWaterTempMin  Num    `json:"set_water_temperature_min_k"`
+	SetWaterTempMax  Num    `json:"set_water_temperature_max_k"`
+	SetSpeedMin      Num    `json:"set_speed_min_m_s"`
+	SetSpeedMax      Num    `json:"set_speed_max_m_s"`
+	SetQMin          Num    `json:"set_q_min_pa"`
+	SetQMax          Num    `json:"set_q_max_pa"`
+	SetColdLimit     string `json:"set_cold_limit"`
+	SetWarmLimit     string `json:"set_warm_limit"`
+	SetReynoldsLimit string `json:"set_re_limit"`
+
+	// Model loads at the setting (envelope.Detail.Load; planning loads at
+	// the vehicle's largest coefficients): normal force (where the
+	// vehicle gives a normal-force coefficient), pitching moment (where it
+	// gives a pitching-moment coefficient), the larger share of the
+	// balance capacity (where the facility gives one for a load the
+	// vehicle gives), the capacities, and the test-section q at which this
+	// model reaches the capacity.
+	NormalForce           Num `json:"normal_force_n"`
+	PitchMoment           Num `json:"pitch_moment_n_m"`
+	LoadShare             Num `json:"load_share"`
+	BalanceMaxNormalForce Num `json:"balance_max_normal_force_n"`
+	BalanceMaxPitchMoment Num `json:"balance_max_pitch_moment_n_m"`
+	BalanceQLimit         Num `json:"balance_q_limit_pa"`
 }
 
 // exportCSV is the export's CSV column table, derived once from
@@ -209,13 +253,26 @@ func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
 		ModelReynolds: na, ReynoldsRatio: na, ModelReynoldsPerM: na, DeltaCf: na,
 		ReMaxAtTestMach: na, ReSweepMin: na, ReSweepMax: na,
 		MinT0Condensation: na, VapourPressure: na, Cavitation: na,
+
+		Rule: d.Rule.Kind.String(), RuleTemperature: na, RuleQ: na,
+
+		SetReynolds: na, SetT0Min: na, SetT0Max: na, SetP0Min: na, SetP0Max: na,
+		SetWaterTempMin: na, SetWaterTempMax: na, SetSpeedMin: na, SetSpeedMax: na,
+		SetQMin: na, SetQMax: na,
+
+		NormalForce: na, PitchMoment: na, LoadShare: na,
+		BalanceMaxNormalForce: na, BalanceMaxPitchMoment: na, BalanceQLimit: na,
 	}
+	r.setRule(d.Rule)
+	r.setBalance(m)
 	if d.ReMax > 0 {
 		r.ReMaxAtTestMach = Num(d.ReMax)
 	}
 	if !d.HasSettings {
 		return r, nil
 	}
+	r.setMatchingSet(d.Set, d.Medium)
+	r.setLoads(m.Grid.Vehicle, d.Load)
 	water := d.Medium == envelope.MediumWater
 	if water {
 		r.WaterTemperature = Num(d.T0)
@@ -244,6 +301,66 @@ func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
 		r.ReSweepMax = Num(d.ReSweepMax)
 	}
 	return r, nil
+}
+
+// setRule writes the value fixed rule ru holds.
+func (r *ExportRecord) setRule(ru envelope.OperatingRule) {
+	switch ru.Kind {
+	case envelope.RuleFixedTemperature:
+		r.RuleTemperature = Num(ru.Temperature)
+	case envelope.RuleFixedQ:
+		r.RuleQ = Num(ru.Q)
+	}
+}
+
+// setBalance writes the balance capacities of m's facility and the q at
+// which its model reaches them (each where given, or checked).
+func (r *ExportRecord) setBalance(m *envelope.Map) {
+	b := m.Facility.Balance
+	if b.MaxNormalForce > 0 {
+		r.BalanceMaxNormalForce = Num(b.MaxNormalForce)
+	}
+	if b.MaxPitchMoment > 0 {
+		r.BalanceMaxPitchMoment = Num(b.MaxPitchMoment)
+	}
+	if m.LoadQ > 0 {
+		r.BalanceQLimit = Num(m.LoadQ)
+	}
+}
+
+// setMatchingSet writes the span of matching set ms for a facility of
+// medium med (nothing when there is no set).
+func (r *ExportRecord) setMatchingSet(ms envelope.MatchingSet, med envelope.Medium) {
+	if !ms.OK {
+		return
+	}
+	span := func(a, b float64) (Num, Num) { return Num(math.Min(a, b)), Num(math.Max(a, b)) }
+	r.SetReynolds = Num(ms.Re)
+	if med == envelope.MediumWater {
+		r.SetWaterTempMin, r.SetWaterTempMax = span(ms.Cold.T0, ms.Warm.T0)
+		r.SetSpeedMin, r.SetSpeedMax = span(ms.Cold.V, ms.Warm.V)
+	} else {
+		r.SetT0Min, r.SetT0Max = span(ms.Cold.T0, ms.Warm.T0)
+		r.SetP0Min, r.SetP0Max = span(ms.Cold.P0, ms.Warm.P0)
+	}
+	r.SetQMin, r.SetQMax = span(ms.Cold.Q, ms.Warm.Q)
+	r.SetColdLimit, r.SetWarmLimit = ms.Cold.Limit.String(), ms.Warm.Limit.String()
+	r.SetReynoldsLimit = ms.ReLimit.String()
+}
+
+// setLoads writes the model loads l at the setting: each load where
+// vehicle v gives its coefficient, the share where the balance is checked
+// (a capacity for a load v gives).
+func (r *ExportRecord) setLoads(v *envelope.Vehicle, l envelope.Load) {
+	if v.Loads.CNMax > 0 {
+		r.NormalForce = Num(l.NormalForce)
+	}
+	if v.Loads.CmMax > 0 {
+		r.PitchMoment = Num(l.PitchMoment)
+	}
+	if l.QCap > 0 {
+		r.LoadShare = Num(l.Share)
+	}
 }
 
 // EachRecord calls fn with the record of every inside point of every map,
@@ -315,6 +432,49 @@ type ExportSettings struct {
 	MachTol             Num `json:"mach_tol"`
 	ReTol               Num `json:"re_tol"`
 	CompressibilityMach Num `json:"compressibility_mach"`
+	// RuleOverride is the operating rule a what-if sets for every
+	// facility; null: each facility's own.
+	RuleOverride *RuleInfo `json:"rule_override"`
+}
+
+// RuleInfo states an operating rule in the JSON outputs: its name as the
+// facility files write it, the rule in words (envelope.OperatingRule.
+// Describe, SI) and the value a fixed rule holds (null otherwise).
+type RuleInfo struct {
+	Name        string `json:"name"`
+	Description string `json:"description"`
+	Temperature Num    `json:"temperature_k"` // fixed temperature: T0, or the water temperature
+	Q           Num    `json:"q_pa"`          // fixed q: test-section dynamic pressure
+}
+
+// ruleOverrideInfo states a what-if rule r for facilities of the given
+// media, in the words of a gas facility's rule unless all are water; nil
+// when r is RuleDefault (each facility's own rule).
+func ruleOverrideInfo(r envelope.OperatingRule, media []envelope.Medium) *RuleInfo {
+	if r.Kind == envelope.RuleDefault {
+		return nil
+	}
+	med := envelope.MediumWater
+	for _, m := range media {
+		if m != envelope.MediumWater {
+			med = m
+			break
+		}
+	}
+	ri := NewRuleInfo(r, med)
+	return &ri
+}
+
+// NewRuleInfo states rule r as it applies to a facility of medium m.
+func NewRuleInfo(r envelope.OperatingRule, m envelope.Medium) RuleInfo {
+	ri := RuleInfo{Name: r.Kind.String(), Description: r.Describe(m, nil), Temperature: na, Q: na}
+	switch r.Kind {
+	case envelope.RuleFixedTemperature:
+		ri.Temperature = Num(r.Temperature)
+	case envelope.RuleFixedQ:
+		ri.Q = Num(r.Q)
+	}
+	return ri
 }
 
 // ExportFacility is one facility's block in the JSON export.
@@ -327,7 +487,16 @@ type ExportFacility struct {
 	ScaleRule string `json:"scale_rule"`
 	FitScale  Num    `json:"fit_scale"`
 	FitRule   string `json:"fit_rule"`
-	Records   int    `json:"records"`
+	// Rule is the operating rule the facility runs under (its own, or the
+	// what-if's for every facility).
+	Rule RuleInfo `json:"operating_rule"`
+	// Balance capacities (null: not given) and the test-section q at which
+	// the model of this scale reaches them (null: the balance is not
+	// checked, no capacity or no load coefficient for it).
+	BalanceMaxNormalForce Num `json:"balance_max_normal_force_n"`
+	BalanceMaxPitchMoment Num `json:"balance_max_pitch_moment_n_m"`
+	BalanceQLimit         Num `json:"balance_q_limit_pa"`
+	Records               int `json:"records"`
 }
 
 // ExportHeader is everything in the JSON export but the records.
@@ -368,15 +537,31 @@ func NewExportHeader(info ExportInfo, maps []*envelope.Map) ExportHeader {
 	if s.Scale > 0 {
 		h.Settings.ScaleOverride = Num(s.Scale)
 	}
+	media := make([]envelope.Medium, len(maps))
+	for k, m := range maps {
+		media[k] = m.Facility.Medium
+	}
+	h.Settings.RuleOverride = ruleOverrideInfo(s.Rule, media)
 	for _, m := range maps {
 		f := m.Facility
 		ef := ExportFacility{
 			Name: envelope.CleanText(f.Name), Class: envelope.CleanText(f.Class), Medium: f.Medium.String(), Source: envelope.CleanText(f.Source),
 			Scale: Num(m.Scale), ScaleRule: m.ScaleRule, FitScale: na, FitRule: m.FitRule,
+			Rule:                  NewRuleInfo(m.Rule, f.Medium),
+			BalanceMaxNormalForce: na, BalanceMaxPitchMoment: na, BalanceQLimit: na,
 			Records: m.Grid.InsideCount(),
 		}
 		if m.FitScale > 0 {
 			ef.FitScale = Num(m.FitScale)
+		}
+		if f.Balance.MaxNormalForce > 0 {
+			ef.BalanceMaxNormalForce = Num(f.Balance.MaxNormalForce)
+		}
+		if f.Balance.MaxPitchMoment > 0 {
+			ef.BalanceMaxPitchMoment = Num(f.Balance.MaxPitchMoment)
+		}
+		if m.LoadQ > 0 {
+			ef.BalanceQLimit = Num(m.LoadQ)
 		}
 		h.Facilities = append(h.Facilities, ef)
 	}

@@ -299,7 +299,7 @@ func FuzzNumJSON(f *testing.F) {
 func ExampleExportColumns() {
 	cols := ExportColumns()
 	fmt.Println(cols[0], cols[4], cols[len(cols)-1])
-	// Output: facility altitude_m cavitation_number
+	// Output: facility altitude_m balance_q_limit_pa
 }
 
 // TestExportGridDecimals: the grid point and the model scale are written

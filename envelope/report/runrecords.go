@@ -15,13 +15,16 @@ type RunPlan struct {
 	// every matched point of each facility (DefaultRunPoints).
 	Marked bool
 	Lists  []RunList
+	// RuleOverride is the operating rule a what-if sets for every facility
+	// (Kind RuleDefault: each facility's own).
+	RuleOverride envelope.OperatingRule
 }
 
 // PlanAll builds the run list of facility sel of e, or of every facility
 // that could be evaluated when sel < 0: for the marked points, or without
 // marks for every matched point of each facility.
 func PlanAll(e *envelope.Evaluation, marks []envelope.GridPoint, sel int) (RunPlan, error) {
-	p := RunPlan{Vehicle: envelope.CleanText(e.Grid.Vehicle.Name), Marked: len(marks) > 0}
+	p := RunPlan{Vehicle: envelope.CleanText(e.Grid.Vehicle.Name), Marked: len(marks) > 0, RuleOverride: e.Settings.Rule}
 	for k, m := range e.Maps {
 		if m == nil || (sel >= 0 && k != sel) {
 			continue
@@ -37,15 +40,6 @@ func PlanAll(e *envelope.Evaluation, marks []envelope.GridPoint, sel int) (RunPl
 		p.Lists = append(p.Lists, rl)
 	}
 	return p, nil
-}
-
-// StepChanges says which settings move from run k-1 to run k of runs
-// (none for the first).
-func StepChanges(runs []Run, k int, water bool) Changes {
-	if k == 0 {
-		return Changes{}
-	}
-	return CountChanges(runs[k-1:k+1], water)
 }
 
 // RunRecord is one flight point of a run list as the CSV row and the JSON
@@ -79,6 +73,15 @@ type RunRecord struct {
 	T0Change         bool   `json:"t0_change"`
 	P0Change         bool   `json:"p0_change"`
 	MachChange       bool   `json:"mach_change"`
+	// QChange is whether q moves before the run where the rule holds q
+	// (fixed q); null (empty) under other rules, where q follows the
+	// other settings.
+	QChange *bool `json:"q_change"`
+	// Rule is the operating rule in force, as the facility files name it,
+	// with the value a fixed rule holds.
+	Rule            string `json:"rule"`
+	RuleTemperature Num    `json:"rule_temperature_k"`
+	RuleQ           Num    `json:"rule_q_pa"`
 }
 
 // runCSV is the run list's CSV column table, derived once from
@@ -93,6 +96,7 @@ func RunColumns() []string { return runCSV.header() }
 // that cannot be run.
 func (rl RunList) Records() (runs, unrunnable []RunRecord) {
 	water := rl.Medium == envelope.MediumWater
+	ri := NewRuleInfo(rl.Rule, rl.Medium)
 	mk := func(r Run, n int) RunRecord {
 		rec := RunRecord{
 			Facility: rl.Facility, Medium: rl.Medium.String(), Run: n, Row: r.Row, Col: r.Col,
@@ -101,6 +105,7 @@ func (rl RunList) Records() (runs, unrunnable []RunRecord) {
 			FlightRe: Num(r.FlightRe), Class: r.Class.String(), Limit: r.Limit.String(), Flags: r.Flags.String(),
 			TestMach: na, P0: na, T0: na, WaterTemperature: na, StaticPressure: na,
 			TestSpeed: na, TestQ: na, ModelRe: na, ReRatio: na,
+			Rule: ri.Name, RuleTemperature: ri.Temperature, RuleQ: ri.Q,
 		}
 		if !r.HasSettings {
 			return rec
@@ -116,8 +121,12 @@ func (rl RunList) Records() (runs, unrunnable []RunRecord) {
 	}
 	for k, r := range rl.Runs {
 		rec := mk(r, r.SetPoint)
-		c := StepChanges(rl.Runs, k, water)
+		c := rl.Order.Step(rl.Runs, k)
 		rec.T0Change, rec.P0Change, rec.MachChange = c.T0 > 0, c.P0 > 0, c.Mach > 0
+		if rl.Order.HoldQ {
+			moved := c.Q > 0
+			rec.QChange = &moved
+		}
 		runs = append(runs, rec)
 	}
 	for _, r := range rl.Unrunnable {
@@ -147,17 +156,24 @@ func (p RunPlan) WriteCSV(w io.Writer) error {
 // runsDoc is the JSON run list.
 type runsDoc struct {
 	ExportInfo
-	Caution    string         `json:"caution"`
-	Units      string         `json:"units"`
-	Vehicle    string         `json:"vehicle"`
-	Points     string         `json:"points"` // "marked" or "matched"
-	Facilities []runsFacility `json:"facilities"`
+	Caution string `json:"caution"`
+	Units   string `json:"units"`
+	Vehicle string `json:"vehicle"`
+	Points  string `json:"points"` // "marked" or "matched"
+	// RuleOverride is a what-if rule for every facility; null: each
+	// facility's own.
+	RuleOverride *RuleInfo      `json:"rule_override"`
+	Facilities   []runsFacility `json:"facilities"`
 }
 
 type runsFacility struct {
-	Facility   string      `json:"facility"`
-	Medium     string      `json:"medium"`
-	Scale      Num         `json:"model_scale"`
+	Facility string   `json:"facility"`
+	Medium   string   `json:"medium"`
+	Scale    Num      `json:"model_scale"`
+	Rule     RuleInfo `json:"operating_rule"`
+	// Order names the settings the runs are grouped by, slowest first
+	// (RunOrder.Keys).
+	Order      []string    `json:"order"`
 	SetPoints  int         `json:"set_points"` // runs; each record of "runs" is one flight point
 	Changes    runChanges  `json:"changes"`
 	Runs       []RunRecord `json:"runs"`
@@ -165,10 +181,12 @@ type runsFacility struct {
 }
 
 type runChanges struct {
-	T0    int `json:"t0"`
-	P0    int `json:"p0"`
-	Mach  int `json:"mach"`
-	Moved int `json:"any"`
+	T0   int `json:"t0"`
+	P0   int `json:"p0"`
+	Mach int `json:"mach"`
+	// Q is counted where the rule holds q (fixed q); null otherwise.
+	Q     *int `json:"q"`
+	Moved int  `json:"any"`
 }
 
 // WriteJSON writes the run lists as one indented JSON object: info, the
@@ -183,6 +201,11 @@ func (p RunPlan) WriteJSON(w io.Writer, info ExportInfo) error {
 	if p.Marked {
 		doc.Points = "marked"
 	}
+	media := make([]envelope.Medium, len(p.Lists))
+	for k, rl := range p.Lists {
+		media[k] = rl.Medium
+	}
+	doc.RuleOverride = ruleOverrideInfo(p.RuleOverride, media)
 	for _, rl := range p.Lists {
 		runs, un := rl.Records()
 		if runs == nil {
@@ -192,9 +215,15 @@ func (p RunPlan) WriteJSON(w io.Writer, info ExportInfo) error {
 			un = []RunRecord{}
 		}
 		c := rl.Changes
+		rc := runChanges{T0: c.T0, P0: c.P0, Mach: c.Mach, Moved: c.Moved}
+		if rl.Order.HoldQ {
+			q := c.Q
+			rc.Q = &q
+		}
 		doc.Facilities = append(doc.Facilities, runsFacility{
-			Facility: rl.Facility, Medium: rl.Medium.String(), Scale: Num(rl.Scale), SetPoints: rl.SetPoints,
-			Changes: runChanges{T0: c.T0, P0: c.P0, Mach: c.Mach, Moved: c.Moved}, Runs: runs, Unrunnable: un,
+			Facility: rl.Facility, Medium: rl.Medium.String(), Scale: Num(rl.Scale),
+			Rule: NewRuleInfo(rl.Rule, rl.Medium), Order: rl.Order.Keys(), SetPoints: rl.SetPoints,
+			Changes: rc, Runs: runs, Unrunnable: un,
 		})
 	}
 	b, err := json.MarshalIndent(doc, "", "  ")

@@ -19,6 +19,7 @@ const (
 	RunP0Frac    = 0.005 // relative
 	RunMachStep  = 0.005 // Mach number
 	RunSpeedStep = 0.05  // m/s, water speed
+	RunQFrac     = 0.005 // relative, test-section q where the rule holds it
 )
 
 // RunSameRel is the relative agreement within which two runs have the
@@ -63,14 +64,68 @@ type Run struct {
 
 // Changes counts set-point changes along a run list: how many times, going
 // from one run to the next, T0 (water temperature), p0 (static pressure)
-// and the Mach number (water speed) must be moved, and how many steps move
-// any of them. Steps holds the number of steps from one set point to the
-// next (set points − 1).
+// and the Mach number (water speed) must be moved, and, where the
+// operating rule holds the test-section dynamic pressure (RunOrder.HoldQ),
+// q; and how many steps move any of them. Steps holds the number of steps
+// from one set point to the next (set points − 1).
 type Changes struct {
 	T0, P0, Mach int
+	// Q counts the moves of q; only a run list that holds q counts them
+	// (0 otherwise: q then follows the other settings).
+	Q int
 	// Moved counts the steps that move at least one of them.
 	Moved int
 	Steps int
+}
+
+// RunOrder is how a run list is ordered and its changes counted, as the
+// operating rule in force sets it (OrderFor). Runs are grouped by the
+// slowest setting to change first: T0, then p0, then the Mach number
+// ascending (water: temperature, static pressure, speed) — under a fixed
+// T0 or water temperature every run shares the first, so only p0 and the
+// Mach number move. Under a fixed q (HoldQ) q is the shared setting and
+// the Reynolds number is varied by T0: runs are grouped by q, then T0,
+// then the Mach number ascending (p0 follows q and the Mach number), and
+// moves of q are counted too.
+type RunOrder struct {
+	Water bool
+	HoldQ bool
+}
+
+// OrderFor is the run order of a facility of medium m under rule r.
+func OrderFor(r envelope.OperatingRule, m envelope.Medium) RunOrder {
+	water := m == envelope.MediumWater
+	return RunOrder{Water: water, HoldQ: !water && r.Kind == envelope.RuleFixedQ}
+}
+
+// Settings of a run, as runSettings lists them.
+const (
+	settingT0   = iota // T0, or the water temperature
+	settingP0          // p0, or the water's static pressure
+	settingMach        // test Mach number, or the water speed
+	settingQ           // test-section dynamic pressure
+	numSettings
+)
+
+// levels are the settings the runs are grouped by, slowest first; the
+// last is sorted ascending within the groups of the others.
+func (o RunOrder) levels() [3]int {
+	if o.HoldQ {
+		return [3]int{settingQ, settingT0, settingMach}
+	}
+	return [3]int{settingT0, settingP0, settingMach}
+}
+
+// Keys names the grouping settings in order as the JSON run list's change
+// counts do: "t0", "p0", "mach" and "q" (for water, t0, p0 and mach are the
+// water temperature, static pressure and speed).
+func (o RunOrder) Keys() []string {
+	names := [numSettings]string{settingT0: "t0", settingP0: "p0", settingMach: "mach", settingQ: "q"}
+	var out []string
+	for _, l := range o.levels() {
+		out = append(out, names[l])
+	}
+	return out
 }
 
 // RunList is one facility's ordered run list.
@@ -80,11 +135,15 @@ type RunList struct {
 	Scale    float64
 	// SpeedKind is the kind of the grid speed of the runs (Run.GridSpeed).
 	SpeedKind atmos.SpeedKind
-	// Runs are the flight points in facility order: grouped by T0
-	// (ascending), within that by p0 (ascending), then by Mach number
-	// ascending (water: by temperature, then speed), so that the slow
-	// changes happen least. Flight points with the same set point are
-	// consecutive and share Run.SetPoint.
+	// Rule is the operating rule the facility's settings were picked by,
+	// and Order the run order it sets (OrderFor).
+	Rule  envelope.OperatingRule
+	Order RunOrder
+	// Runs are the flight points in facility order (see RunOrder): by
+	// default grouped by T0 (ascending), within that by p0 (ascending),
+	// then by Mach number ascending (water: by temperature, then speed),
+	// so that the slow changes happen least. Flight points with the same
+	// set point are consecutive and share Run.SetPoint.
 	Runs []Run
 	// SetPoints is the number of distinct set points (runs of the
 	// facility) in Runs.
@@ -129,10 +188,11 @@ func DefaultRunPoints(m *envelope.Map) []envelope.GridPoint {
 }
 
 // PlanRuns builds the run list of facility map m for the given points
-// (duplicates are dropped) and orders it with OrderRuns.
+// (duplicates are dropped) and orders it in the order of the map's
+// operating rule (OrderFor, RunOrder.Order).
 func PlanRuns(m *envelope.Map, points []envelope.GridPoint) (RunList, error) {
 	rl := RunList{Facility: envelope.CleanText(m.Facility.Name), Medium: m.Facility.Medium, Scale: m.Scale,
-		SpeedKind: m.Grid.SpeedKind}
+		SpeedKind: m.Grid.SpeedKind, Rule: m.Rule, Order: OrderFor(m.Rule, m.Facility.Medium)}
 	g := m.Grid
 	seen := map[envelope.GridPoint]bool{}
 	for _, p := range points {
@@ -171,7 +231,7 @@ func PlanRuns(m *envelope.Map, points []envelope.GridPoint) (RunList, error) {
 		}
 		return x.Col < y.Col
 	})
-	rl.Changes = OrderRuns(rl.Runs, rl.Medium == envelope.MediumWater)
+	rl.Changes = rl.Order.Order(rl.Runs)
 	if n := len(rl.Runs); n > 0 {
 		rl.SetPoints = rl.Runs[n-1].SetPoint
 	}
@@ -230,54 +290,69 @@ func mergeSetPoints(runs []Run) {
 	copy(runs, out)
 }
 
-// runKeys returns the three set points of a run, slowest to change first,
-// with their resolutions: T0, p0 and Mach number, or for water the
-// temperature, static pressure and speed.
-func runKeys(r *Run, water bool) (k [3]float64, step [3]float64) {
-	k = [3]float64{r.T0, r.P0, r.Mach}
-	step = [3]float64{RunT0Step, RunP0Frac * math.Abs(r.P0), RunMachStep}
+// runSettings returns the settings of a run with their resolutions, in
+// the order of the setting constants: T0, p0, Mach number and q, or for
+// water the temperature, static pressure, speed and q.
+func runSettings(r *Run, water bool) (k, step [numSettings]float64) {
+	k = [numSettings]float64{r.T0, r.P0, r.Mach, r.Q}
+	step = [numSettings]float64{RunT0Step, RunP0Frac * math.Abs(r.P0), RunMachStep, RunQFrac * math.Abs(r.Q)}
 	if water {
-		k[2], step[2] = r.Speed, RunSpeedStep
+		k[settingMach], step[settingMach] = r.Speed, RunSpeedStep
 	}
 	return k, step
 }
 
-// OrderRuns sorts runs into facility order and returns the set-point
-// changes along it. Runs are grouped by T0: sorted by T0 ascending, a group
-// holds the runs within RunT0Step of its coolest run. Within a T0 group,
-// runs are grouped the same way by p0 (within RunP0Frac), and within a p0
-// group sorted by Mach number ascending. Water runs use temperature, static
-// pressure and speed (RunSpeedStep) instead. Ties keep grid order (altitude,
-// then speed). Runs with the same set point (sameSetPoint) are then brought
-// together as one run and numbered (Run.SetPoint).
-func OrderRuns(runs []Run, water bool) Changes {
+// OrderRuns sorts runs into the standard facility order (the order of
+// every rule but a fixed q: RunOrder{Water: water}.Order) and returns the
+// set-point changes along it.
+func OrderRuns(runs []Run, water bool) Changes { return RunOrder{Water: water}.Order(runs) }
+
+// CountChanges counts the set-point changes between consecutive runs in
+// the standard order (RunOrder{Water: water}.Count).
+func CountChanges(runs []Run, water bool) Changes { return RunOrder{Water: water}.Count(runs) }
+
+// Order sorts runs into facility order and returns the set-point changes
+// along it. Sorted by the first grouping setting (o.levels) ascending, a
+// group holds the runs within that setting's resolution of its lowest run
+// (RunT0Step, RunP0Frac or RunQFrac of it); within a group, runs are
+// grouped the same way by the second setting, and within that sorted by
+// the last (the Mach number, or the water speed) ascending. Ties keep
+// grid order (altitude, then speed). Runs with the same set point
+// (sameSetPoint) are then brought together as one run and numbered
+// (Run.SetPoint).
+func (o RunOrder) Order(runs []Run) Changes {
+	levels := o.levels()
 	less := func(a, b *Run) bool {
 		if a.Row != b.Row {
 			return a.Row < b.Row
 		}
 		return a.Col < b.Col
 	}
-	key := func(r *Run, level int) float64 {
-		k, _ := runKeys(r, water)
-		return k[level]
+	key := func(r *Run, level int) (x, step float64) {
+		k, st := runSettings(r, o.Water)
+		return k[levels[level]], st[levels[level]]
 	}
 	var order func(rs []Run, level int)
 	order = func(rs []Run, level int) {
 		sort.SliceStable(rs, func(a, b int) bool {
-			ka, kb := key(&rs[a], level), key(&rs[b], level)
+			ka, _ := key(&rs[a], level)
+			kb, _ := key(&rs[b], level)
 			if ka != kb {
 				return ka < kb
 			}
 			return less(&rs[a], &rs[b])
 		})
-		if level == 2 {
+		if level == len(levels)-1 {
 			return
 		}
 		for start := 0; start < len(rs); {
-			_, st := runKeys(&rs[start], water)
-			lim := key(&rs[start], level) + st[level]
+			k0, st := key(&rs[start], level)
+			lim := k0 + st
 			end := start + 1
-			for end < len(rs) && key(&rs[end], level) < lim {
+			for end < len(rs) {
+				if k, _ := key(&rs[end], level); k >= lim {
+					break
+				}
 				end++
 			}
 			order(rs[start:end], level+1)
@@ -286,36 +361,41 @@ func OrderRuns(runs []Run, water bool) Changes {
 	}
 	order(runs, 0)
 	mergeSetPoints(runs)
-	return CountChanges(runs, water)
+	return o.Count(runs)
 }
 
-// CountChanges counts the set-point changes between consecutive runs: a
-// setting changes when it moves by at least its resolution (RunT0Step,
-// RunP0Frac of the larger p0, RunMachStep or RunSpeedStep). A flight point
-// with the same set point as the one before (sameSetPoint) is no step.
-func CountChanges(runs []Run, water bool) Changes {
+// Count counts the set-point changes between consecutive runs: a setting
+// changes when it moves by at least its resolution (RunT0Step, RunP0Frac
+// of the larger p0, RunMachStep or RunSpeedStep, and where o holds q,
+// RunQFrac of the larger q). A flight point with the same set point as the
+// one before (sameSetPoint) is no step.
+func (o RunOrder) Count(runs []Run) Changes {
 	var c Changes
 	for k := 1; k < len(runs); k++ {
 		if sameSetPoint(&runs[k-1], &runs[k]) {
 			continue
 		}
 		c.Steps++
-		a, sa := runKeys(&runs[k-1], water)
-		b, sb := runKeys(&runs[k], water)
+		a, sa := runSettings(&runs[k-1], o.Water)
+		b, sb := runSettings(&runs[k], o.Water)
 		moved := false
-		for level := range a {
-			step := math.Max(sa[level], sb[level])
-			if math.Abs(b[level]-a[level]) < step {
+		for s := range numSettings {
+			if s == settingQ && !o.HoldQ {
+				continue
+			}
+			if math.Abs(b[s]-a[s]) < math.Max(sa[s], sb[s]) {
 				continue
 			}
 			moved = true
-			switch level {
-			case 0:
+			switch s {
+			case settingT0:
 				c.T0++
-			case 1:
+			case settingP0:
 				c.P0++
-			case 2:
+			case settingMach:
 				c.Mach++
+			case settingQ:
+				c.Q++
 			}
 		}
 		if moved {
@@ -323,4 +403,13 @@ func CountChanges(runs []Run, water bool) Changes {
 		}
 	}
 	return c
+}
+
+// Step says which settings move from run k-1 to run k of runs (none for
+// the first).
+func (o RunOrder) Step(runs []Run, k int) Changes {
+	if k == 0 {
+		return Changes{}
+	}
+	return o.Count(runs[k-1 : k+1])
 }
