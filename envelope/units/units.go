@@ -199,6 +199,29 @@ func (u System) Stagnation(p float64) string {
 	return Sig(p/1000, 4) + " kPa"
 }
 
+// Force formats a force (a model load): N, kN from 1 kN up, or lbf.
+func (u System) Force(n float64) string {
+	if u == Customary {
+		return Sig(n/atmos.PoundForce, 4) + " lbf"
+	}
+	if math.Abs(n) < 1000 {
+		return Sig(n, 4) + " N"
+	}
+	return Sig(n/1000, 4) + " kN"
+}
+
+// Moment formats a moment (a pitching moment on the balance): N·m, kN·m
+// from 1 kN·m up, or lbf·ft.
+func (u System) Moment(nm float64) string {
+	if u == Customary {
+		return Sig(nm/(atmos.PoundForce*atmos.Foot), 4) + " lbf·ft"
+	}
+	if math.Abs(nm) < 1000 {
+		return Sig(nm, 4) + " N·m"
+	}
+	return Sig(nm/1000, 4) + " kN·m"
+}
+
 // Density formats a density.
 func (u System) Density(rho float64) string {
 	if u == Customary {

@@ -43,6 +43,14 @@ func TestUnitsFormat(t *testing.T) {
 		{"SI unit Reynolds", SI.PerLength(6.7e6), "6.70e6 /m"},
 		{"customary unit Reynolds (per ft = per m × 0.3048)", Customary.PerLength(1e7), "3.05e6 /ft"},
 		{"customary length", Customary.Length(0.3048), "1.00 ft"},
+		// The pound-force is 4.448 222 N and the pound-force foot
+		// 1.355 818 N·m (NIST Special Publication 811 (2008), Appendix B.9).
+		{"SI force", SI.Force(850), "850.0 N"},
+		{"SI force in kN", SI.Force(12500), "12.50 kN"},
+		{"customary force 4448.222 N = 1000 lbf", Customary.Force(4448.222), "1000 lbf"},
+		{"SI moment", SI.Moment(120), "120.0 N·m"},
+		{"SI moment in kN·m", SI.Moment(2500), "2.500 kN·m"},
+		{"customary moment 135.5818 N·m = 100 lbf·ft", Customary.Moment(135.5818), "100.0 lbf·ft"},
 	}
 	for _, c := range cases {
 		if c.got != c.want {
