@@ -5,6 +5,7 @@ import (
 	"strings"
 	"testing"
 
+	"likewind/envelope"
 	"likewind/envelope/whatif"
 )
 
@@ -94,7 +95,7 @@ func TestSessionWhatIfKeys(t *testing.T) {
 	head := `{"version": 1, "inputs": [], "hash": "", "layer": "class", "units": "SI", "what_if": `
 	for _, c := range []struct{ what, want string }{
 		{`{"scael": 0.05}`, `unknown what-if field "scael" (expected scale, delta_t_K, mach_tol, re_tol, compressibility_mach or facilities)`},
-		{`{"facilities": {"T": {"p0_max": 1}}}`, `unknown facility what-if field "p0_max" (expected p0_max_Pa, t0_min_K, q_max_Pa)`},
+		{`{"facilities": {"T": {"p0_max": 1}}}`, `unknown facility what-if field "p0_max" (expected p0_max_Pa, t0_min_K, q_max_Pa, rule, rule_temperature_K, rule_q_Pa)`},
 		{`{"scale": "big"}`, "what-if scale: json: cannot unmarshal string"},
 	} {
 		_, err := parse([]byte(head + c.what + "}"))
@@ -108,5 +109,55 @@ func TestSessionWhatIfKeys(t *testing.T) {
 	}
 	if !reflect.DeepEqual(s.WhatIf.Values, map[string]float64{"delta_t_K": 5}) || len(s.WhatIf.Facilities["T"]) != 0 {
 		t.Errorf("what-if read as %+v, want only ΔT 5 K", s.WhatIf)
+	}
+}
+
+// A facility's operating rule is kept under the key "rule" by its name,
+// with the value a fixed rule holds in SI; such a file reads back as it
+// was written (the keys of the files above are unchanged beside it).
+func TestSessionRuleRoundTrip(t *testing.T) {
+	const file = `{
+  "version": 1,
+  "inputs": [],
+  "hash": "sha256:abc",
+  "facility": "Tunnel B",
+  "layer": "model load",
+  "units": "SI",
+  "what_if": {
+    "scale": 0.025,
+    "facilities": {
+      "Tunnel A": {
+        "rule": "least load"
+      },
+      "Tunnel B": {
+        "t0_min_K": 120,
+        "rule": "fixed temperature",
+        "rule_temperature_K": 150
+      }
+    }
+  }
+}
+`
+	s, err := parse([]byte(file))
+	if err != nil {
+		t.Fatalf("a session with rules does not load: %v", err)
+	}
+	// In memory a rule is its engine value.
+	want := whatif.Changes{
+		Values: map[string]float64{"scale": 0.025},
+		Facilities: map[string]whatif.FacilityChanges{
+			"Tunnel A": {"rule": float64(envelope.RuleLeastLoad)},
+			"Tunnel B": {"t0_min_K": 120, "rule": float64(envelope.RuleFixedTemperature), "rule_temperature_K": 150},
+		},
+	}
+	if !reflect.DeepEqual(s.WhatIf, want) {
+		t.Errorf("what-if read as %+v, want %+v", s.WhatIf, want)
+	}
+	b, err := encode(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if string(b) != file {
+		t.Errorf("session written as\n%s\nwant\n%s", b, file)
 	}
 }

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"sort"
+	"strings"
 
 	"likewind/envelope"
 )
@@ -62,10 +63,17 @@ func Apply(w Changes, s *envelope.Settings, facs []envelope.Facility) (changed [
 		}
 		fw := w.Facilities[name]
 		problems = append(problems, unknownKeys(fw, true, name+" ")...)
+		before, n := facs[k], len(changed)
 		for f := range FieldCount {
 			if f.Facility() {
 				apply(f, &facs[k], name+" ", fw)
 			}
+		}
+		// The facility's values together must leave it a rule it can run
+		// under, as the solve checks it; else none of them is applied.
+		if err := envelope.CheckRule(facs[k].Rule, &facs[k]); err != nil && len(changed) > n {
+			problems = append(problems, fmt.Errorf("what-if %s: %w; its values %s", name, err, strings.Join(changed[n:], ", ")))
+			facs[k], changed = before, changed[:n]
 		}
 	}
 	return changed, errors.Join(problems...)

@@ -21,7 +21,9 @@ type Changes struct {
 }
 
 // FacilityChanges holds a facility's changed limits (SI) under their
-// session keys ("p0_max_Pa", "t0_min_K", "q_max_Pa").
+// session keys ("p0_max_Pa", "t0_min_K", "q_max_Pa"), and its operating
+// rule ("rule", the session file writing the rule's name) with the value
+// a fixed rule holds ("rule_temperature_K", "rule_q_Pa").
 type FacilityChanges map[string]float64
 
 // MarshalJSON writes the settings in the table's order, then
@@ -32,7 +34,10 @@ func (w Changes) MarshalJSON() ([]byte, error) {
 	}
 	var b bytes.Buffer
 	b.WriteByte('{')
-	n := writeFieldValues(&b, w.Values, false)
+	n, err := writeFieldValues(&b, w.Values, false)
+	if err != nil {
+		return nil, err
+	}
 	if len(w.Facilities) > 0 {
 		if n > 0 {
 			b.WriteByte(',')
@@ -55,7 +60,9 @@ func (f FacilityChanges) MarshalJSON() ([]byte, error) {
 	}
 	var b bytes.Buffer
 	b.WriteByte('{')
-	writeFieldValues(&b, f, true)
+	if _, err := writeFieldValues(&b, f, true); err != nil {
+		return nil, err
+	}
 	b.WriteByte('}')
 	return b.Bytes(), nil
 }
@@ -63,7 +70,8 @@ func (f FacilityChanges) MarshalJSON() ([]byte, error) {
 // writeFieldValues writes the values of the settings (facility false) or
 // facility limits held in vals as JSON members, in the table's order, and
 // returns how many it wrote. Keys that are not in the table are left out.
-func writeFieldValues(b *bytes.Buffer, vals map[string]float64, facility bool) int {
+// A choice field's value is written as its word ("rule": "least load").
+func writeFieldValues(b *bytes.Buffer, vals map[string]float64, facility bool) (int, error) {
 	n := 0
 	for f := range FieldCount {
 		v, ok := vals[f.Key()]
@@ -74,11 +82,18 @@ func writeFieldValues(b *bytes.Buffer, vals map[string]float64, facility bool) i
 			b.WriteByte(',')
 		}
 		num, _ := json.Marshal(v) // checked by the caller
+		if f.IsChoice() {
+			w, ok := f.Word(v)
+			if !ok {
+				return n, fmt.Errorf("what-if %s: %g is no choice", f.Key(), v)
+			}
+			num, _ = json.Marshal(w)
+		}
 		b.WriteString(strconv.Quote(f.Key()) + ":")
 		b.Write(num)
 		n++
 	}
-	return n
+	return n, nil
 }
 
 // UnmarshalJSON reads the settings' keys and "facilities"; any other key
@@ -129,11 +144,23 @@ func (f *FacilityChanges) UnmarshalJSON(data []byte) error {
 	return nil
 }
 
-// readFieldValue decodes the number data of field f into *vals under the
-// field's key (null: nothing).
+// readFieldValue decodes the number data of field f, or a choice field's
+// word, into *vals under the field's key (null: nothing).
 func readFieldValue(vals *map[string]float64, f Field, data json.RawMessage) error {
 	var v *float64
-	if err := json.Unmarshal(data, &v); err != nil {
+	if c := f.row().choice; c != nil {
+		var w *string
+		if err := json.Unmarshal(data, &w); err != nil {
+			return fmt.Errorf("what-if %s: %w", f.Key(), err)
+		}
+		if w != nil {
+			x, err := c.read(*w)
+			if err != nil {
+				return fmt.Errorf("what-if %s: %w", f.Key(), err)
+			}
+			v = &x
+		}
+	} else if err := json.Unmarshal(data, &v); err != nil {
 		return fmt.Errorf("what-if %s: %w", f.Key(), err)
 	}
 	if v == nil {
@@ -168,7 +195,9 @@ func Diff(set, fileSet envelope.Settings, facs, fileFacs []envelope.Facility) Ch
 	for k := range min(len(facs), len(fileFacs)) {
 		var fw map[string]float64
 		for f := range FieldCount {
-			if f.Facility() {
+			// A value a rule does not hold now (a fixed T0 after another
+			// rule was chosen) is not the facility's: not saved.
+			if f.Facility() && f.Applies(&facs[k]) {
 				if now := f.Get(nil, &facs[k]); now != f.Get(nil, &fileFacs[k]) {
 					put(&fw, f, now)
 				}

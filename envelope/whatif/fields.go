@@ -3,6 +3,7 @@ package whatif
 import (
 	"errors"
 	"fmt"
+	"math"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -26,6 +27,12 @@ const (
 	P0Max
 	T0Min
 	QMax
+	// Rule is the facility's operating rule, a choice among the rules of
+	// its medium (envelope.RuleKinds); RuleTemperature and RuleQ are the
+	// value a fixed rule holds, fields only while that rule is chosen.
+	Rule
+	RuleTemperature
+	RuleQ
 
 	// FieldCount is the number of fields: range over it for each in order.
 	FieldCount
@@ -70,6 +77,18 @@ type row struct {
 	// An out-of-range refusal names them; a typed number is never read as
 	// one (a typed 0 is refused).
 	words []fieldWord
+	// choice marks a field whose every value is a word, offered as a
+	// list (the operating rule); nil for a field that takes a typed
+	// value. Its limit checks a chosen value against the facility.
+	choice *choiceDef
+	// applies reports whether the field is one of facility f's now (nil:
+	// always): the value a fixed rule holds is a field only while that
+	// rule is chosen. A field that does not apply is not listed, saved
+	// or shown as changed.
+	applies func(f *envelope.Facility) bool
+	// start is the value an input line starts from when the field holds
+	// none yet (nil: the value held).
+	start func(f *envelope.Facility) float64
 
 	// get and set read and write the value (SI): settings in s, a limit
 	// in f, the facility it belongs to.
@@ -98,6 +117,27 @@ type fieldWord struct {
 	word  string
 	value float64
 	means string
+}
+
+// choiceDef is how a choice field's words map to its values.
+type choiceDef struct {
+	// offer lists the choices for facility f, in the order shown.
+	offer func(f *envelope.Facility) []Choice
+	// word is the word of value v, as the session file and the input
+	// line write it (false for a value that is no choice).
+	word func(v float64) (string, bool)
+	// read reads a word, typed or stored.
+	read func(s string) (float64, error)
+	// needs is the field whose value choice v holds, if any (a fixed
+	// rule's temperature or q).
+	needs func(v float64) (Field, bool)
+}
+
+// Choice is one word a choice field offers, its value and what it means.
+type Choice struct {
+	Word  string
+	Value float64
+	Means string
 }
 
 // table is every what-if field, indexed by Field. Each value a user can
@@ -192,6 +232,119 @@ var table = [FieldCount]row{
 		},
 		show: func(u units.System, v float64, _ bool) string { return qText(u, v) },
 	},
+	Rule: {
+		label: "operating rule", short: "rule", name: "operating rule", key: "rule",
+		facility: true, origin: FromFacility,
+		choice: &choiceDef{offer: ruleChoices, word: ruleWord, read: readRule, needs: ruleNeeds},
+		// The standard rule is the one a facility that names none runs
+		// under: both read as "warmest".
+		get: func(_ *envelope.Settings, f *envelope.Facility) float64 { return float64(ruleKind(f)) },
+		set: func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.Rule.Kind = envelope.RuleKind(v) },
+		limit: func(f *envelope.Facility, _ string, v float64) (float64, error) {
+			return v, envelope.CheckRuleKind(envelope.RuleKind(v), f)
+		},
+		show: func(_ units.System, v float64, _ bool) string { w, _ := ruleWord(v); return w },
+	},
+	RuleTemperature: {
+		label: "fixed T0", waterLabel: "fixed water T", name: "rule temperature", key: "rule_temperature_K",
+		facility: true, origin: FromFacility,
+		dim: atmos.Temperature, bareSI: "K", bareCustomary: "degF",
+		applies: func(f *envelope.Facility) bool { return ruleKind(f) == envelope.RuleFixedTemperature },
+		// A new fixed temperature starts from the top of the range: the
+		// standard rule's pick wherever the facility reaches flight there.
+		start: func(f *envelope.Facility) float64 { return f.TemperatureMax() },
+		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.Rule.Temperature },
+		set:   func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.Rule.Temperature = v },
+		limit: envelope.CheckRuleTemperature,
+		show:  func(u units.System, v float64, _ bool) string { return u.Temp(v) },
+	},
+	RuleQ: {
+		label: "fixed q", name: "rule q", key: "rule_q_Pa",
+		facility: true, origin: FromFacility,
+		dim: atmos.Pressure, bareSI: "kPa", bareCustomary: "psf",
+		applies: func(f *envelope.Facility) bool { return ruleKind(f) == envelope.RuleFixedQ },
+		// A new fixed q starts from the facility's q max (none: typed).
+		start: func(f *envelope.Facility) float64 { return f.QMax },
+		get:   func(_ *envelope.Settings, f *envelope.Facility) float64 { return f.Rule.Q },
+		set:   func(_ *envelope.Settings, f *envelope.Facility, v float64) { f.Rule.Q = v },
+		limit: envelope.CheckRuleQ,
+		show:  func(u units.System, v float64, _ bool) string { return u.Q(v) },
+	},
+}
+
+// ruleKind is the kind of facility f's own rule, RuleWarmest where it
+// names none.
+func ruleKind(f *envelope.Facility) envelope.RuleKind {
+	if f.Rule.Kind == envelope.RuleDefault {
+		return envelope.RuleWarmest
+	}
+	return f.Rule.Kind
+}
+
+// ruleChoices are the rules a facility of f's medium may run under, with
+// what each does there.
+func ruleChoices(f *envelope.Facility) []Choice {
+	water := IsWater(f)
+	var out []Choice
+	for _, k := range envelope.RuleKinds(f.Medium) {
+		out = append(out, Choice{Word: k.String(), Value: float64(k), Means: ruleMeans(k, water)})
+	}
+	return out
+}
+
+// ruleMeans says in a few words what rule k does on a gas facility or a
+// water tunnel.
+func ruleMeans(k envelope.RuleKind, water bool) string {
+	switch {
+	case k == envelope.RuleWarmest && water:
+		return "warmest water, then lowest speed (least speed and load)"
+	case k == envelope.RuleWarmest:
+		return "warmest T0, then lowest p0 (least coolant or heating)"
+	case k == envelope.RuleLeastLoad:
+		return "coldest T0 on the matching line: lowest p0, q and model load (needs balance data)"
+	case k == envelope.RuleFixedTemperature && water:
+		return "water temperature held at a value you give; only the speed moves"
+	case k == envelope.RuleFixedTemperature:
+		return "T0 held at a value you give; only p0 moves (fewest slow changes)"
+	case k == envelope.RuleFixedQ:
+		return "test-section q held at a value you give; Reynolds number by T0 alone"
+	}
+	return k.String()
+}
+
+// ruleWord is the name of the rule of value v.
+func ruleWord(v float64) (string, bool) {
+	k := envelope.RuleKind(v)
+	if v != math.Trunc(v) || v < 0 || float64(k) != v || !k.ForGas() {
+		return "", false
+	}
+	if k == envelope.RuleDefault {
+		k = envelope.RuleWarmest
+	}
+	return k.String(), true
+}
+
+// readRule reads a rule's name (envelope.ParseRuleKind).
+func readRule(s string) (float64, error) {
+	k, err := envelope.ParseRuleKind(s)
+	if err != nil {
+		return 0, err
+	}
+	if k == envelope.RuleDefault {
+		k = envelope.RuleWarmest
+	}
+	return float64(k), nil
+}
+
+// ruleNeeds is the field of the value rule v holds.
+func ruleNeeds(v float64) (Field, bool) {
+	switch envelope.RuleKind(v) {
+	case envelope.RuleFixedTemperature:
+		return RuleTemperature, true
+	case envelope.RuleFixedQ:
+		return RuleQ, true
+	}
+	return 0, false
 }
 
 // scaleText shows a model scale; 0 is each facility's own sizing.
@@ -278,7 +431,68 @@ func (f Field) EditText(u units.System, v float64, water bool) string {
 	if w, ok := f.wordFor(v); ok {
 		return w.word
 	}
+	if w, ok := f.Word(v); ok {
+		return w
+	}
 	return strings.ReplaceAll(f.Show(u, v, water), "°F", "degF")
+}
+
+// IsChoice reports whether the field's every value is a word offered as
+// a list (Choices): the operating rule.
+func (f Field) IsChoice() bool { return f.row().choice != nil }
+
+// Choices lists the words a choice field offers for facility fac, in the
+// order shown, with what each means there (nil for other fields, or
+// without a facility).
+func (f Field) Choices(fac *envelope.Facility) []Choice {
+	if c := f.row().choice; c != nil && fac != nil {
+		return c.offer(fac)
+	}
+	return nil
+}
+
+// Word is the word of a choice field's value v, as the session file
+// stores it ("least load"); false for other fields and for a value that
+// is no choice.
+func (f Field) Word(v float64) (string, bool) {
+	if c := f.row().choice; c != nil {
+		return c.word(v)
+	}
+	return "", false
+}
+
+// Needs is the field whose value the choice v holds, if any: a fixed
+// rule's temperature (RuleTemperature) or q (RuleQ). Choosing v sets both
+// at once.
+func (f Field) Needs(v float64) (Field, bool) {
+	if c := f.row().choice; c != nil && c.needs != nil {
+		return c.needs(v)
+	}
+	return 0, false
+}
+
+// Applies reports whether the field is one of facility fac's now: the
+// value a fixed rule holds is a field only while that rule is chosen.
+// Every other field applies (a facility limit needs a facility).
+func (f Field) Applies(fac *envelope.Facility) bool {
+	d := f.row()
+	if d.applies == nil {
+		return true
+	}
+	return fac != nil && d.applies(fac)
+}
+
+// StartValue is the value an input line for the field starts from: the
+// value held, or where a field holds none yet (a fixed rule's
+// temperature or q before that rule was chosen) a value in the
+// facility's range to start from (0: none, the line starts empty).
+func (f Field) StartValue(s *envelope.Settings, fac *envelope.Facility) float64 {
+	d := f.row()
+	v := d.get(s, fac)
+	if d.start != nil && fac != nil && !(v > 0) {
+		v = d.start(fac)
+	}
+	return v
 }
 
 // wordFor is the word the field takes for the value v, if any.
@@ -326,7 +540,7 @@ const MaxEntry = 1024
 // are.
 func (f Field) Parse(text string, u units.System, fac *envelope.Facility) (float64, error) {
 	d := f.row()
-	fail := func(err error) (float64, error) { return 0, fmt.Errorf("%s: %w", f.Label(IsWater(fac)), err) }
+	fail := func(err error) (float64, error) { return 0, labelled(f.Label(IsWater(fac)), err) }
 	t := strings.TrimSpace(text)
 	if t == "" {
 		return fail(errors.New("empty value"))
@@ -341,6 +555,16 @@ func (f Field) Parse(text string, u units.System, fac *envelope.Facility) (float
 	}
 	if d.facility && fac == nil {
 		return fail(errors.New("choose a facility first"))
+	}
+	if d.choice != nil {
+		v, err := d.choice.read(t)
+		if err == nil {
+			v, err = d.limit(fac, strconv.Quote(t), v)
+		}
+		if err != nil {
+			return fail(err)
+		}
+		return v, nil
 	}
 	if unit := f.BareUnit(u); unit != "" {
 		if _, err := strconv.ParseFloat(t, 64); err == nil {
@@ -379,6 +603,12 @@ func (f Field) Check(v float64, fac *envelope.Facility) (float64, error) {
 		return v, nil
 	case d.facility && fac == nil:
 		err = errors.New("no facility")
+	case d.choice != nil:
+		if _, ok := d.choice.word(v); !ok {
+			err = fmt.Errorf("found %s, expected one of %s", strconv.FormatFloat(v, 'g', 6, 64), choiceWords(d.choice.offer(fac)))
+		} else {
+			v, err = d.limit(fac, "", v)
+		}
 	case d.facility:
 		v, err = d.limit(fac, "", v)
 	default:
@@ -389,9 +619,27 @@ func (f Field) Check(v float64, fac *envelope.Facility) (float64, error) {
 		err = d.bound().Check(found, v)
 	}
 	if err != nil {
-		return 0, fmt.Errorf("%s: %w", f.Label(IsWater(fac)), err)
+		return 0, labelled(f.Label(IsWater(fac)), err)
 	}
 	return v, nil
+}
+
+// labelled prefixes err with the field's label, unless it names its
+// field itself: the engine's rule errors begin "operating rule".
+func labelled(label string, err error) error {
+	if _, ok := err.(*envelope.RuleError); ok {
+		return err
+	}
+	return fmt.Errorf("%s: %w", label, err)
+}
+
+// choiceWords lists the words of cs: "warmest", "least load".
+func choiceWords(cs []Choice) string {
+	q := make([]string, len(cs))
+	for k, c := range cs {
+		q[k] = strconv.Quote(c.Word)
+	}
+	return strings.Join(q, ", ")
 }
 
 // Validate refuses a value of the field that the settings s rule out.

@@ -20,7 +20,7 @@ func TestFieldTableRows(t *testing.T) {
 		if d.label == "" || d.name == "" || d.key == "" || d.get == nil || d.set == nil || d.show == nil {
 			t.Errorf("field %d: row incomplete: %+v", f, d)
 		}
-		if d.facility && d.limit == nil || !d.facility && (d.read == nil || d.bound == nil) {
+		if d.facility && d.limit == nil || !d.facility && (d.read == nil || d.bound == nil) || d.choice != nil && !d.facility {
 			t.Errorf("%s: no parser or bound", d.label)
 		}
 		if keys[d.key] {
@@ -33,12 +33,25 @@ func TestFieldTableRows(t *testing.T) {
 		seenLimit = seenLimit || d.facility
 		for k := range facs {
 			s := envelope.DefaultSettings(v)
-			fac := &facs[k]
+			fc := facs[k]
+			fac := &fc
+			if !f.Applies(fac) {
+				// A fixed rule's value: a field once the rule that holds
+				// it is chosen, where the medium offers that rule.
+				kind := envelope.RuleFixedTemperature
+				if f == RuleQ {
+					kind = envelope.RuleFixedQ
+				}
+				if fac.Medium == envelope.MediumWater && !kind.ForWater() {
+					continue
+				}
+				fac.Rule.Kind = kind
+			}
 			var on *envelope.Facility
 			if d.facility {
 				on = fac
 			}
-			want := d.get(&s, fac)
+			want := f.StartValue(&s, fac)
 			for _, u := range []units.System{units.SI, units.Customary} {
 				text := f.EditText(u, want, IsWater(fac))
 				got, err := f.Parse(text, u, on)
