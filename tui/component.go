@@ -21,6 +21,12 @@ type component[T any] interface {
 	SetSize(width, height int)
 }
 
+// A further panel (the model-scale study of the facility on screen is the
+// next planned) plugs in the same way: a component here, a mode in
+// model.go with the key that opens it in KeyMap, its case in bodyView,
+// lowerPreferred and setPanelSize (view.go), what it shows given in
+// syncPanels, and its reports handled in onReport.
+
 var (
 	_ component[picker]       = (*picker)(nil)
 	_ component[editor]       = (*editor)(nil)
@@ -33,11 +39,11 @@ var (
 type (
 	// facilityChosenMsg: the picker chose facility fac (-1: best of all).
 	facilityChosenMsg struct{ fac int }
-	// fieldAppliedMsg: the editor read value (SI) for field, parsed and
-	// checked; the root applies it and recomputes.
+	// fieldAppliedMsg: the editor read the values (SI) of edits, parsed
+	// and checked together (a fixed rule with the value it holds); the
+	// root applies them as one change and recomputes.
 	fieldAppliedMsg struct {
-		field whatif.Field
-		value float64
+		edits []whatif.Edit
 	}
 	// panelClosedMsg: back to the matrix.
 	panelClosedMsg struct{}
@@ -103,7 +109,7 @@ func (m *Model) onReport(msg tea.Msg) tea.Cmd {
 		m.chooseFacility(r.fac)
 		m.mode = modeMain
 	case fieldAppliedMsg:
-		return m.applyField(r.field, r.value)
+		return m.applyField(r.edits...)
 	case panelClosedMsg:
 		m.mode = modeMain
 	case helpWantedMsg:

@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"reflect"
 	"strings"
 	"testing"
 
@@ -66,7 +67,7 @@ func TestEditorReportsAppliedField(t *testing.T) {
 		e, _ = e.Update(tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{r}})
 	}
 	e2, cmd := e.Update(keyMsg("enter"))
-	if got, want := reportOf(cmd), (fieldAppliedMsg{field: whatif.P0Max, value: 3e5}); got != want || e2.editing {
+	if got, want := reportOf(cmd), (fieldAppliedMsg{edits: []whatif.Edit{{Field: whatif.P0Max, Value: 3e5}}}); !reflect.DeepEqual(got, want) || e2.editing {
 		t.Errorf("enter on 3 bar reports %#v (editing %v), want %#v with the line closed", got, e2.editing, want)
 	}
 	e, _ = e.Update(keyMsg("ctrl+u"))

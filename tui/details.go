@@ -33,6 +33,9 @@ type detailBlocks struct {
 	cautions []string
 	flags    string
 	summary  string // one line for cramped screens
+	// set is the point's matching set, shown under the facility block
+	// where the panel has room for it (it is the first thing left out).
+	set []string
 }
 
 // Shows reports whether the panel holds the details for k.
@@ -52,8 +55,15 @@ func (v detailsView) ShortHelp() []key.Binding  { return nil }
 func (v detailsView) FullHelp() [][]key.Binding { return nil }
 
 // PreferredHeight is how many lines the blocks take side by side at
-// width w, every caution by its flag.
-func (v detailsView) PreferredHeight(w int) int { return len(detailLines(v.blocks, w, 0, false)) }
+// width w, every caution by its flag, with the matching set (all) or
+// without it.
+func (v detailsView) PreferredHeight(w int, all bool) int {
+	b := v.blocks
+	if !all {
+		b.set = nil
+	}
+	return len(detailLines(b, w, 0, false))
+}
 
 // View lays the stored blocks out: one above the other (stacked, the wide
 // layout) or side by side (below the matrix).
@@ -68,10 +78,37 @@ func (v detailsView) View() string {
 }
 
 // detailLines is the details panel as lines of at most w cells. Lines too
-// long for their column are wrapped, never cut. When the full caution texts
-// would not fit in h lines (h ≤ 0: no limit), the cautions are named by
-// their short flags instead.
+// long for their column are wrapped, never cut. Within h lines (h ≤ 0: no
+// limit) what does not fit is left out in this order: the matching set,
+// then the full caution texts, which are named by their short flags
+// instead (side by side, below the matrix, the cautions are always named
+// by their flags), then the matching set again beside the flags.
 func detailLines(d detailBlocks, w, h int, stacked bool) []string {
+	withSet := func(full, set bool) []string {
+		b := d
+		if !set {
+			b.set = nil
+		}
+		return layDetails(b, w, stacked, stacked && full)
+	}
+	tries := [][2]bool{{true, true}, {true, false}, {false, true}, {false, false}}
+	if !stacked {
+		tries = tries[2:]
+	}
+	var out []string
+	for _, t := range tries {
+		out = withSet(t[0], t[1])
+		if h <= 0 || len(out) <= h {
+			break
+		}
+	}
+	return out
+}
+
+// layDetails lays the blocks out at width w: stacked or side by side, the
+// matching set under the facility block, then the cautions in full or by
+// their flags.
+func layDetails(d detailBlocks, w int, stacked, full bool) []string {
 	wrapAll := func(ls []string, w int) []string {
 		var out []string
 		for _, l := range ls {
@@ -79,28 +116,28 @@ func detailLines(d detailBlocks, w, h int, stacked bool) []string {
 		}
 		return out
 	}
+	facility := append(append([]string(nil), d.facility...), d.set...)
 	var body []string
 	if stacked {
 		body = wrapAll(d.flight, w)
-		if len(d.facility) > 0 {
+		if len(facility) > 0 {
 			body = append(body, "")
-			body = append(body, wrapAll(d.facility, w)...)
+			body = append(body, wrapAll(facility, w)...)
 		}
 	} else {
 		half := (w - 1) / 2
-		left, right := wrapAll(d.flight, half), wrapAll(d.facility, w-half-1)
+		left, right := wrapAll(d.flight, half), wrapAll(facility, w-half-1)
 		rows := max(len(left), len(right))
 		body = strings.Split(joinColumns(box(strings.Join(left, "\n"), half, rows),
 			box(strings.Join(right, "\n"), w-half-1, rows), " "), "\n")
 	}
-	full := wrapAll(d.cautions, w)
-	if !stacked || h > 0 && len(body)+len(full) > h {
-		full = nil
-		if d.flags != "" {
-			full = wrapLines(d.flags, w, "  ")
-		}
+	var tail []string
+	if full {
+		tail = wrapAll(d.cautions, w)
+	} else if d.flags != "" {
+		tail = wrapLines(d.flags, w, "  ")
 	}
-	return append(body, full...)
+	return append(body, tail...)
 }
 
 // detailKey is everything the details depend on. The panel is computed
@@ -317,19 +354,120 @@ func (m Model) settingLines(d *detailBlocks, det *envelope.Detail, fac *envelope
 		if fac.QMax > 0 {
 			qLine += st.Label.Render(fmt.Sprintf(" (%.0f %% of max)", 100*det.Q/fac.QMax))
 		}
-		d.facility = append(d.facility,
-			qLine,
-			pair("Re", units.Expo(det.Re, 3), "ratio", units.Fixed(det.ReRatio, 3)),
-		)
+		d.facility = append(d.facility, qLine)
+		if l := loadLine(st, u, det.Load); l != "" {
+			d.facility = append(d.facility, l)
+		}
+		d.facility = append(d.facility, pair("Re", units.Expo(det.Re, 3), "ratio", units.Fixed(det.ReRatio, 3)))
 		if det.Class == envelope.ReShort {
 			d.facility = append(d.facility, st.Label.Render("ΔCf")+" "+skinFrictionNote(*det))
 		}
 	}
 	d.facility = append(d.facility, pair("scale", units.Sig(det.Scale, 3), "model", u.Length(det.ModelLength)))
-	if det.HasSettings && det.Class.Matched() {
-		// Which of the settings that reach the target was taken.
+	if det.HasSettings && (det.Class.Matched() || det.Rule.Kind != envelope.RuleWarmest) {
+		// Which of the settings that reach the target was taken; a rule
+		// other than the standard one is stated wherever it holds a
+		// setting, as it can be what falls short.
 		d.facility = append(d.facility, st.Label.Render("rule")+" "+det.Rule.Describe(fac.Medium, u))
 	}
+	if det.HasSettings {
+		d.set = setLines(st, u, det)
+	}
+}
+
+// loadLine is the model load at the setting as a share of the balance
+// capacity, with the normal force and pitching moment against theirs
+// ("" where the balance is not checked: no capacity or no coefficients).
+func loadLine(st *Styles, u units.System, l envelope.Load) string {
+	if !(l.Share > 0) {
+		return ""
+	}
+	var parts []string
+	if l.NormalForce > 0 {
+		p := st.Label.Render("N") + " " + u.Force(l.NormalForce)
+		if l.MaxNormalForce > 0 {
+			p += " of " + u.Force(l.MaxNormalForce)
+		}
+		parts = append(parts, p)
+	}
+	if l.PitchMoment > 0 {
+		p := st.Label.Render("M") + " " + u.Moment(l.PitchMoment)
+		if l.MaxPitchMoment > 0 {
+			p += " of " + u.Moment(l.MaxPitchMoment)
+		}
+		parts = append(parts, p)
+	}
+	line := st.Label.Render("load") + " " + fmt.Sprintf("%.0f %% of capacity", 100*l.Share)
+	if len(parts) > 0 {
+		line += ": " + strings.Join(parts, ", ")
+	}
+	return line
+}
+
+// setLines state the point's matching set in the units u: its span of
+// T0, p0 and q (water: temperature, speed and q) and what bounds each end
+// (the cold end and the warm end), or that only the one setting reaches
+// what the facility reaches there. Nil where there is no set.
+func setLines(st *Styles, u units.System, det *envelope.Detail) []string {
+	s := det.Set
+	if !s.OK {
+		return nil
+	}
+	label := st.Label.Render
+	span := func(a, b string) string {
+		if a == b {
+			return a
+		}
+		return a + " – " + b
+	}
+	c, w := s.Cold, s.Warm
+	head := label("set")
+	if det.Medium.IsGas() {
+		head += " " + label("at M") + " " + units.Fixed(s.Mach, 3)
+	}
+	if s.Single() {
+		line := head + " one setting only"
+		if lim := setEndLimits(c.Limit, w.Limit); lim != "" {
+			line += ", bounded by " + lim
+		}
+		return []string{line}
+	}
+	var parts []string
+	if det.Medium.IsGas() {
+		parts = []string{
+			label("T0") + " " + span(u.Temp(c.T0), u.Temp(w.T0)),
+			label("p0") + " " + span(u.Stagnation(c.P0), u.Stagnation(w.P0)),
+		}
+	} else {
+		parts = []string{
+			label("water") + " " + span(u.Temp(c.T0), u.Temp(w.T0)),
+			label("V") + " " + span(u.Speed(c.V), u.Speed(w.V)),
+		}
+	}
+	parts = append(parts, label("q")+" "+span(u.Q(c.Q), u.Q(w.Q)))
+	ends := label("cold end") + " " + c.Limit.String() + ", " + label("warm end") + " " + w.Limit.String()
+	if s.ReLimit != envelope.LimitNone {
+		ends += "; " + label("Re held by") + " " + s.ReLimit.String()
+	}
+	return []string{head + ": " + strings.Join(parts, ", "), ends}
+}
+
+// setEndLimits names the limits at the two ends of a one-setting set,
+// once where they are the same ("" where neither binds).
+func setEndLimits(a, b envelope.Limit) string {
+	switch {
+	case a == envelope.LimitNone:
+		a, b = b, envelope.LimitNone
+	case a == b:
+		b = envelope.LimitNone
+	}
+	if a == envelope.LimitNone {
+		return ""
+	}
+	if b == envelope.LimitNone {
+		return a.String()
+	}
+	return a.String() + " and " + b.String()
 }
 
 // skinFrictionNote grades a Reynolds shortfall by its effect: the change in

@@ -13,6 +13,7 @@ import (
 
 // editorRow is one line of the what-if list as the root describes it.
 type editorRow struct {
+	field   whatif.Field
 	label   string
 	value   string // current value, display units
 	start   string // the text the input line starts with
@@ -23,11 +24,14 @@ type editorRow struct {
 }
 
 // editor is the what-if panel: the list of fields and, for the one
-// chosen, an input line. enter on a field opens the line with its value;
+// chosen, an input line, or for a choice field (the operating rule) the
+// list of its choices. enter on a field opens the line with its value;
 // enter on the line reads it with the field's parser (fieldReader) and
 // reports the value (fieldAppliedMsg), or shows why it is refused and
-// keeps the line open. The root gives it the rows, the facility the
-// limits are for and the reader (SetFields).
+// keeps the line open. A choice that holds a value (a fixed rule) opens
+// the line for that value next, and both are reported together. The root
+// gives it the rows, the facility the limits are for and the reader
+// (SetFields).
 type editor struct {
 	frame
 	rows    []editorRow
@@ -37,27 +41,40 @@ type editor struct {
 	sel     int
 	editing bool
 	input   inputLine
-	err     string
-	lineW   int
+	// The choice list of a choice field (choosing), the choice under
+	// its pointer, and the choice the open input line's value goes with
+	// (pending: nil when the line is for its field alone).
+	choosing  bool
+	choices   []whatif.Choice
+	choiceSel int
+	pending   []whatif.Edit
+	lineField whatif.Field // the field the input line is for
+	err       string
+	lineW     int
 }
 
 // fieldReader reads the text typed for a field as the editor applies it:
 // in the current units, for the chosen facility, then checked against the
-// other settings. It holds copies of what it needs, so it stays valid as
-// the model is copied.
+// other settings and the facility's operating rule. It holds copies of
+// what it needs, so it stays valid as the model is copied.
 type fieldReader struct {
 	units units.System
 	fac   *envelope.Facility // the chosen facility, nil for none (its slice is never changed in place)
 	set   envelope.Settings
 }
 
-// read parses text for field f and checks it.
-func (r fieldReader) read(f whatif.Field, text string) (float64, error) {
+// read parses text for field f and checks it with the edits it goes with
+// (pending: a fixed rule the value is for), returning every edit to apply.
+func (r fieldReader) read(f whatif.Field, text string, pending ...whatif.Edit) ([]whatif.Edit, error) {
 	v, err := f.Parse(text, r.units, r.fac)
-	if err == nil {
-		err = f.Validate(r.set, v)
+	if err != nil {
+		return nil, err
 	}
-	return v, err
+	edits := append(append([]whatif.Edit(nil), pending...), whatif.Edit{Field: f, Value: v})
+	if err := whatif.CheckEdits(r.set, r.fac, edits...); err != nil {
+		return nil, err
+	}
+	return edits, nil
 }
 
 func newEditor(f frame) editor {
@@ -71,6 +88,7 @@ func (e *editor) Open() { e.err = "" }
 // none) with its name, and the reader of typed values.
 func (e *editor) SetFields(rows []editorRow, fac int, name string, r fieldReader) {
 	e.rows, e.fac, e.facName, e.reader = rows, fac, name, r
+	e.sel = min(e.sel, max(len(rows)-1, 0))
 }
 
 // title names what the facility fields apply to: the facility's letter and
@@ -87,18 +105,69 @@ func (e editor) title() string {
 func (e *editor) SetLineWidth(w int) { e.lineW = max(w, 0) }
 
 // field is the field under the pointer.
-func (e editor) field() whatif.Field { return whatif.Field(e.sel) }
+func (e editor) field() whatif.Field {
+	if e.sel < len(e.rows) {
+		return e.rows[e.sel].field
+	}
+	return whatif.Field(e.sel)
+}
 
 // begin opens the input line for the field under the pointer, holding
 // text, with the field's parser as its Validate hook.
-func (e *editor) begin(text string) {
-	f, r := e.field(), e.reader
-	e.editing = true
+func (e *editor) begin(text string) { e.beginFor(e.field(), text) }
+
+// beginFor opens the input line for field f, holding text, with the
+// field's parser (and the pending choice's check) as its Validate hook.
+func (e *editor) beginFor(f whatif.Field, text string, pending ...whatif.Edit) {
+	r := e.reader
+	e.editing, e.choosing = true, false
+	e.lineField, e.pending = f, pending
 	e.err = ""
 	e.input = newInputLine(e.keys, f.Label(whatif.IsWater(r.fac))+" > ", text, whatif.MaxEntry, func(s string) error {
-		_, err := r.read(f, s)
+		_, err := r.read(f, s, pending...)
 		return err
 	})
+}
+
+// choose opens the choice list of the choice field under the pointer,
+// with its pointer on the value held.
+func (e *editor) choose() {
+	f := e.field()
+	e.choices = f.Choices(e.reader.fac)
+	e.choosing, e.choiceSel, e.err = true, 0, ""
+	held := f.Get(&e.reader.set, e.reader.fac)
+	for k, c := range e.choices {
+		if c.Value == held {
+			e.choiceSel = k
+		}
+	}
+}
+
+// pick takes the choice under the pointer: checked, then reported, or
+// where it holds a value (a fixed rule's temperature or q) the input line
+// for that value opens, starting from the value held or a value in range.
+func (e editor) pick() (editor, tea.Cmd) {
+	f, c, r := e.field(), e.choices[e.choiceSel], e.reader
+	if _, err := f.Parse(c.Word, r.units, r.fac); err != nil {
+		e.err = err.Error()
+		return e, nil
+	}
+	choice := whatif.Edit{Field: f, Value: c.Value}
+	if vf, ok := f.Needs(c.Value); ok {
+		water := whatif.IsWater(r.fac)
+		text := ""
+		if v := vf.StartValue(&r.set, r.fac); v > 0 {
+			text = vf.EditText(r.units, v, water)
+		}
+		e.beginFor(vf, text, choice)
+		return e, nil
+	}
+	if err := whatif.CheckEdits(r.set, r.fac, choice); err != nil {
+		e.err = err.Error()
+		return e, nil
+	}
+	e.choosing, e.err = false, ""
+	return e, report(fieldAppliedMsg{edits: []whatif.Edit{choice}})
 }
 
 // Editing reports whether the input line is open.
@@ -107,9 +176,10 @@ func (e editor) Editing() bool { return e.editing }
 // end closes the input line.
 func (e *editor) end() { e.editing = false }
 
-// Update takes a key: on the list it moves, opens the line or passes R, U,
-// ? and q on to the root; on the line it edits, applies (enter) or
-// closes it (esc).
+// Update takes a key: on the list it moves, opens the line or the choice
+// list, or passes R, U, ? and q on to the root; on the choice list it
+// moves, picks (enter) or closes it (esc); on the line it edits, applies
+// (enter) or closes it (esc).
 func (e editor) Update(msg tea.Msg) (editor, tea.Cmd) {
 	k, ok := msg.(tea.KeyMsg)
 	if !ok {
@@ -119,14 +189,14 @@ func (e editor) Update(msg tea.Msg) (editor, tea.Cmd) {
 	if e.editing {
 		switch {
 		case key.Matches(k, keys.Select):
-			v, err := e.reader.read(e.field(), e.input.Value())
+			edits, err := e.reader.read(e.lineField, e.input.Value(), e.pending...)
 			if err != nil {
 				e.err = err.Error()
 				return e, nil
 			}
 			e.end()
 			e.err = ""
-			return e, report(fieldAppliedMsg{field: e.field(), value: v})
+			return e, report(fieldAppliedMsg{edits: edits})
 		case key.Matches(k, keys.Back):
 			e.end()
 			e.err = ""
@@ -136,12 +206,29 @@ func (e editor) Update(msg tea.Msg) (editor, tea.Cmd) {
 		default:
 			e.input, _ = e.input.Update(k)
 			if r := e.input.Refused(); r != "" {
-				e.err = e.field().Label(whatif.IsWater(e.reader.fac)) + ": " + r
+				e.err = e.lineField.Label(whatif.IsWater(e.reader.fac)) + ": " + r
 			}
 		}
 		return e, nil
 	}
-	if sel, cmd, ok := listKey(k, keys, keys.Edit, e.sel, int(whatif.FieldCount)); ok {
+	if e.choosing {
+		n := max(len(e.choices), 1)
+		switch {
+		case key.Matches(k, keys.Prev):
+			e.choiceSel, e.err = (e.choiceSel-1+n)%n, ""
+		case key.Matches(k, keys.Next):
+			e.choiceSel, e.err = (e.choiceSel+1)%n, ""
+		case key.Matches(k, keys.Select) && len(e.choices) > 0:
+			return e.pick()
+		case key.Matches(k, keys.Back):
+			e.choosing, e.err = false, ""
+		case key.Matches(k, keys.Interrupt):
+			e.choosing = false
+			return e, report(quitWantedMsg{})
+		}
+		return e, nil
+	}
+	if sel, cmd, ok := listKey(k, keys, keys.Edit, e.sel, len(e.rows)); ok {
 		if sel != e.sel {
 			e.sel, e.err = sel, ""
 		}
@@ -151,6 +238,10 @@ func (e editor) Update(msg tea.Msg) (editor, tea.Cmd) {
 	case key.Matches(k, keys.Select):
 		if e.sel >= len(e.rows) || !e.rows[e.sel].enabled {
 			e.err = "choose a facility first (f or [ ])"
+			return e, nil
+		}
+		if e.field().IsChoice() {
+			e.choose()
 			return e, nil
 		}
 		e.begin(e.rows[e.sel].start)
@@ -166,8 +257,11 @@ func (e editor) Update(msg tea.Msg) (editor, tea.Cmd) {
 // keys while editing).
 func (e editor) ShortHelp() []key.Binding {
 	k := e.keys
-	if e.editing {
+	switch {
+	case e.editing:
 		return []key.Binding{k.Select, k.Back, k.Interrupt}
+	case e.choosing:
+		return []key.Binding{k.Prev, k.Next, k.Select, k.Back}
 	}
 	return []key.Binding{k.Prev, k.Next, k.Select, k.Restore, k.Undo, k.Back}
 }
@@ -177,15 +271,17 @@ func (e editor) FullHelp() [][]key.Binding { return [][]key.Binding{e.ShortHelp(
 
 // PreferredHeight is how many lines the panel takes at width w.
 func (e editor) PreferredHeight(w int) int {
-	n := len(e.rows) + 1
-	if e.err != "" {
-		n += len(wrapLines(e.err, w, ""))
-	}
-	return n
+	e.width = w
+	return lineCount(e.body())
 }
 
 // View draws the list of fields.
-func (e editor) View() string {
+func (e editor) View() string { return e.fit(e.body()) }
+
+// body is the panel's text at its width: the title, each row (its origin
+// on lines of its own where it does not fit beside the value: wrapped,
+// never cut), the choice list under its row, and a refusal wrapped whole.
+func (e editor) body() string {
 	rows := e.rows
 	var b strings.Builder
 	b.WriteString(e.st.Section.Render("WHAT-IF") + " " + e.st.Faint.Render(e.title()))
@@ -193,8 +289,11 @@ func (e editor) View() string {
 	for _, r := range rows {
 		lw = max(lw, visibleWidth(r.label))
 	}
+	indent := strings.Repeat(" ", min(3+lw+2, max(e.width-12, 0)))
 	for k, r := range rows {
-		b.WriteString("\n")
+		if e.choosing && k != e.sel {
+			continue // the list of choices shows with its row alone
+		}
 		pointer, mark := " ", " "
 		if k == e.sel {
 			pointer = ">"
@@ -208,15 +307,37 @@ func (e editor) View() string {
 		} else {
 			text += r.note
 		}
+		style := e.st.Value
 		switch {
 		case k == e.sel:
-			text = e.st.Selected.Render(text)
+			style = e.st.Selected
 		case !r.enabled:
-			text = e.st.Faint.Render(text)
+			style = e.st.Faint
 		}
-		b.WriteString(text)
+		origin := ""
 		if r.changed && r.enabled {
-			b.WriteString(e.st.Faint.Render("  (" + r.origin + ")"))
+			origin = "(" + r.origin + ")"
+		}
+		lines := wrapLines(text, e.width, indent)
+		if n := len(lines); origin != "" && n > 0 && visibleWidth(lines[n-1])+2+visibleWidth(origin) <= e.width {
+			lines[n-1] = style.Render(lines[n-1]) + e.st.Faint.Render("  "+origin)
+			origin = ""
+		} else if n > 0 {
+			lines[n-1] = style.Render(lines[n-1])
+		}
+		for i := 0; i < len(lines)-1; i++ {
+			lines[i] = style.Render(lines[i])
+		}
+		if origin != "" {
+			for _, l := range wrapLines(origin, max(e.width-len(indent), 1), "") {
+				lines = append(lines, indent+e.st.Faint.Render(l))
+			}
+		}
+		for _, l := range lines {
+			b.WriteString("\n" + l)
+		}
+		if k == e.sel && e.choosing {
+			b.WriteString(e.choiceLines())
 		}
 	}
 	if e.err != "" {
@@ -225,7 +346,47 @@ func (e editor) View() string {
 			b.WriteString("\n" + e.st.Error.Render(l))
 		}
 	}
-	return e.fit(b.String())
+	return b.String()
+}
+
+// choiceLines lists the choices of the open choice list, each with what
+// it means (wrapped in a column of its own beside the word, or under it
+// where the panel is narrow), the one under the pointer marked.
+func (e editor) choiceLines() string {
+	ww := 0
+	for _, c := range e.choices {
+		ww = max(ww, visibleWidth(c.Word))
+	}
+	const lead = "    "
+	prefixW := len(lead) + 2 + ww + 2
+	meansW := e.width - prefixW
+	beside := meansW >= 20
+	if !beside {
+		prefixW, meansW = len(lead)+2, max(e.width-len(lead)-2, 1)
+	}
+	pad := strings.Repeat(" ", prefixW)
+	var b strings.Builder
+	for k, c := range e.choices {
+		pointer := "  "
+		if k == e.choiceSel {
+			pointer = "> "
+		}
+		head := lead + pointer + padRight(c.Word, ww)
+		if k == e.choiceSel {
+			head = e.st.Selected.Render(head)
+		}
+		means := wrapLines(c.Means, meansW, "")
+		if beside && len(means) > 0 {
+			b.WriteString("\n" + head + "  " + means[0])
+			means = means[1:]
+		} else {
+			b.WriteString("\n" + head)
+		}
+		for _, l := range means {
+			b.WriteString("\n" + pad + e.st.Faint.Render(l))
+		}
+	}
+	return b.String()
 }
 
 // Line draws the input line (only while editing).

@@ -158,28 +158,42 @@ func (m *Model) fieldReader() fieldReader {
 	return r
 }
 
-// applyField applies the value v the editor read for field f (checked
-// there) and recomputes what it changes: the grid for a flight-side
-// setting, every facility for another setting, the chosen facility for
-// one of its limits.
-func (m *Model) applyField(f whatif.Field, v float64) tea.Cmd {
-	if f.Facility() && (m.fac < 0 || m.fac >= len(m.facs)) {
-		return nil // the editor opens no limit without a facility
+// applyField applies the values the editor read (checked there) as one
+// change, undone as one, and recomputes what they change: the grid for a
+// flight-side setting, every facility for another setting, the chosen
+// facility for its own fields.
+func (m *Model) applyField(edits ...whatif.Edit) tea.Cmd {
+	if len(edits) == 0 {
+		return nil
 	}
+	hasFac := m.fac >= 0 && m.fac < len(m.facs)
+	for _, e := range edits {
+		if e.Field.Facility() && !hasFac {
+			return nil // the editor opens no facility field without a facility
+		}
+	}
+	first := edits[0].Field
 	// The state before the edit, for undo.
-	before := undoStep{what: "what-if " + f.Label(f.Facility() && whatif.IsWater(&m.facs[m.fac])), whatIf: true, set: m.set, facs: m.facs, marks: m.marks}
-	kind := recomputeSolve
-	switch {
-	case f.Facility():
-		facs := append([]envelope.Facility(nil), m.facs...)
-		f.Set(nil, &facs[m.fac], v)
+	before := undoStep{what: "what-if " + first.Label(first.Facility() && whatif.IsWater(&m.facs[m.fac])), whatIf: true, set: m.set, facs: m.facs, marks: m.marks}
+	kind := recomputeOneFac
+	var facs []envelope.Facility
+	for _, e := range edits {
+		switch {
+		case e.Field.Facility():
+			if facs == nil {
+				facs = append([]envelope.Facility(nil), m.facs...)
+			}
+			e.Field.Set(nil, &facs[m.fac], e.Value)
+		case e.Field.Grid():
+			e.Field.Set(&m.set, nil, e.Value)
+			kind = recomputeGrid
+		default:
+			e.Field.Set(&m.set, nil, e.Value)
+			kind = min(kind, recomputeSolve)
+		}
+	}
+	if facs != nil {
 		m.facs = facs
-		kind = recomputeOneFac
-	case f.Grid():
-		f.Set(&m.set, nil, v)
-		kind = recomputeGrid
-	default:
-		f.Set(&m.set, nil, v)
 	}
 	m.pushStep(before)
 	return m.recompute(kind)

@@ -41,13 +41,25 @@ func goldenStates(t *testing.T) []struct {
 		{"regime", keys("tab")},
 		{"reynolds", keys("tab", "tab")},
 		{"q", keys("tab", "tab", "tab")},
-		{"mach", keys("tab", "tab", "tab", "tab")},
+		{"load", keys("tab", "tab", "tab", "tab")},
+		{"mach", keys("tab", "tab", "tab", "tab", "tab")},
 		{"best", keys("b")},
 		{"customary", keys("u")},
 		{"marks", keys("M", "up", "space")},
 		{"help", keys("?")},
 		{"picker", keys("f")},
 		{"editor", keys("e", "down", "down", "down", "down", "down")},
+		// The operating rule's choice list.
+		{"choosing", keys("e", "down", "down", "down", "down", "down", "down", "down", "down", "enter")},
+		// A full match whose matching set is a line (12192 m, Mach 0.6).
+		{"set", func(w, h int) Model {
+			m := start(w, h)
+			m.curI, m.curJ = 20, 8
+			m.relayout()
+			return m
+		}},
+		// One step up of the model scale (1:40 to 1:32, every facility).
+		{"scaled", keys("+")},
 		{"editing", keys("e", "down", "down", "down", "down", "down", "enter", "ctrl+u", "3", " ", "b", "a", "r")},
 		{"edited", func(w, h int) Model {
 			m := start(w, h)

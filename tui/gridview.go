@@ -170,6 +170,8 @@ func (v *GridView) Cell(i, j int) Cell {
 			c.Level = lvReNone
 		case LayerQ:
 			c.Level = lvQNone
+		case LayerLoad:
+			c.Level = lvLoadNone
 		default:
 			c.Level = lvClassNoFacility
 		}
@@ -190,6 +192,13 @@ func (v *GridView) Cell(i, j int) Cell {
 			qMax = v.Facilities[k].QMax
 		}
 		c.Level = QLevel(float64(res.Q), qMax)
+	case LayerLoad:
+		if k < len(v.Maps) && v.Maps[k] != nil {
+			mp := v.Maps[k]
+			c.Level = LoadLevel(mp.LoadShare(res), mp.LoadQ > 0)
+		} else {
+			c.Level = lvLoadNone
+		}
 	}
 	return c
 }

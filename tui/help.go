@@ -63,11 +63,12 @@ func (v helpView) Overlay() string {
 	}
 	keys := strings.Split(v.h.FullHelpView(v.keys.FullHelp()), "\n")
 	layers := para("Layers:", "match class, flow regime, Reynolds ratio (model/flight), "+
-		"tunnel q as a share of its limit, flight Mach number. Glyphs differ per value; "+
-		"the legend under the matrix lists them.")
+		"tunnel q and model load as shares of their limits (load where there are balance data), "+
+		"flight Mach number. Glyphs differ per value; the legend under the matrix lists them.")
 	classes := para("Classes:", ClassHelp)
-	whatIf := para("What-if:", "values take units (3 bar, 45 psi, -150 degC, 10 K); scale 1/20, 1:20, 5%"+
-		" or fit; q max none; R restores the files' values, U undoes.")
+	whatIf := para("What-if:", "values take units (3 bar, 45 psi, -150 degC, 10 K); scale 1:20, 5% or fit;"+
+		" q max none; the rule from a list; + and - step every facility's model scale (1:50, 1:40,"+
+		" 1:32...); R restores the files' values, U undoes.")
 	caution := wrapLines(v.st.Caution.Render("CAUTION")+" "+envelope.SafetyNote, w, "")
 	heading := []string{v.st.Section.Render("Keys")}
 	blank := []string{""}

@@ -18,6 +18,9 @@ type KeyMap struct {
 
 	Edit    key.Binding
 	Restore key.Binding
+	// ScaleUp and ScaleDown step the what-if model scale (every
+	// facility's) from the scale in force on screen (scalekey.go).
+	ScaleUp, ScaleDown key.Binding
 	// Undo puts back the state before the latest change of what-if values
 	// or marks (R and X included).
 	Undo key.Binding
@@ -71,6 +74,8 @@ func DefaultKeyMap() KeyMap {
 		BestOfAll:     b([]string{"b"}, "b", "best of all"),
 		Edit:          b([]string{"e"}, "e", "what-if"),
 		Restore:       b([]string{"R"}, "R", "file values"),
+		ScaleUp:       b([]string{"+", "="}, "+", "scale up"),
+		ScaleDown:     b([]string{"-"}, "-", "scale down"),
 		Undo:          b([]string{"U"}, "U", "undo"),
 		Mark:          b([]string{" ", "space"}, "space", "mark point"),
 		MarkMatch:     b([]string{"M"}, "M", "mark matches"),
@@ -109,7 +114,7 @@ func (k KeyMap) FullHelp() [][]key.Binding {
 	return [][]key.Binding{
 		{k.Up, k.Down, k.Left, k.Right, k.PageUp, k.PageDown, k.Home, k.End},
 		{k.Layer, k.Units, k.Facility, k.PrevFac, k.NextFac, k.BestOfAll},
-		{k.Edit, k.Restore, k.Undo, k.Mark, k.MarkMatch, k.ClearMark},
+		{k.Edit, k.Restore, k.Undo, k.ScaleUp, k.ScaleDown, k.Mark, k.MarkMatch, k.ClearMark},
 		{k.Save, k.WriteView, k.Help, k.Quit, k.Select, k.Back},
 	}
 }

@@ -20,6 +20,11 @@ const (
 	LayerReynolds
 	// LayerQ shows the tunnel dynamic pressure as a fraction of its limit.
 	LayerQ
+	// LayerLoad shows the model load as a share of the balance capacity
+	// (envelope.Map.LoadShare), where the facility gives a capacity and
+	// the vehicle load coefficients; elsewhere every cell says "no
+	// balance data".
+	LayerLoad
 	// LayerMach shows the flight Mach number on a graded scale.
 	LayerMach
 
@@ -28,7 +33,7 @@ const (
 
 // Layers lists every layer in cycling order.
 func Layers() []Layer {
-	return []Layer{LayerClass, LayerRegime, LayerReynolds, LayerQ, LayerMach}
+	return []Layer{LayerClass, LayerRegime, LayerReynolds, LayerQ, LayerLoad, LayerMach}
 }
 
 // String names the layer for headers and session files.
@@ -42,6 +47,8 @@ func (l Layer) String() string {
 		return "Reynolds ratio"
 	case LayerQ:
 		return "tunnel q / limit"
+	case LayerLoad:
+		return "model load / capacity"
 	case LayerMach:
 		return "Mach number"
 	}
@@ -72,7 +79,7 @@ func (l Layer) Next() Layer { return (l + 1) % layerCount }
 // NeedsFacility reports whether the layer shows facility results (and so
 // is blank where no facility answer exists).
 func (l Layer) NeedsFacility() bool {
-	return l == LayerClass || l == LayerReynolds || l == LayerQ
+	return l == LayerClass || l == LayerReynolds || l == LayerQ || l == LayerLoad
 }
 
 type levelKind uint8
@@ -149,6 +156,23 @@ const (
 	lvQNone  // no setting
 )
 
+// Model load as a share of the balance capacity. The solve holds the load
+// within the capacity (a setting held at it rounds to a share of 1 within
+// capSlack); the top bin is the last 20 % below it, where the details and
+// cautions flag the load from 90 %.
+const capSlack = 1e-9
+
+var loadBins = [...]float64{0.5, 0.8, 1 + capSlack}
+
+const (
+	lvLoad1      = iota // < 50 %
+	lvLoad2             // 50–80 %
+	lvLoad3             // 80–100 %
+	lvLoadOver          // above the capacity
+	lvLoadNoData        // the facility gives no capacity, or the vehicle no coefficients
+	lvLoadNone          // no setting
+)
+
 // Flight Mach number bins.
 var machBins = [...]float64{0.3, 0.6, 0.8, 0.95, 1.05, 1.5, 3, 5}
 
@@ -190,6 +214,14 @@ var (
 		{'-', "no q limit", levelNone},
 		{'x', "no setting", levelNone},
 	}
+	tableLoad = []levelDef{
+		{'1', "< 50 %", levelGraded},
+		{'2', "50-80 %", levelGraded},
+		{'3', "80-100 %", levelGraded},
+		{'!', "above capacity", levelOver},
+		{'-', "no balance data", levelNone},
+		{'x', "no setting", levelNone},
+	}
 	tableMach = []levelDef{
 		{'0', "< 0.3", levelGraded},
 		{'1', "0.3-0.6", levelGraded},
@@ -213,6 +245,8 @@ func layerTable(l Layer) []levelDef {
 		return tableRe
 	case LayerQ:
 		return tableQ
+	case LayerLoad:
+		return tableLoad
 	case LayerMach:
 		return tableMach
 	}
@@ -302,6 +336,24 @@ func QLevel(q, qMax float64) int {
 		}
 	}
 	return lvQOver
+}
+
+// LoadLevel bins a model load given as a share of the balance capacity;
+// checked is false where the balance is not checked (no capacity or no
+// load coefficients), and a share that is not above 0 means no setting.
+func LoadLevel(share float64, checked bool) int {
+	if !checked {
+		return lvLoadNoData
+	}
+	if !(share > 0) || math.IsInf(share, 0) {
+		return lvLoadNone
+	}
+	for k, e := range loadBins {
+		if share < e {
+			return k
+		}
+	}
+	return lvLoadOver
 }
 
 // MachLevel bins a flight Mach number.

@@ -539,6 +539,10 @@ func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
 		m.editor.Open()
 	case matches(msg, k.Restore):
 		return m.restoreFiles()
+	case matches(msg, k.ScaleUp):
+		return m.stepScale(true)
+	case matches(msg, k.ScaleDown):
+		return m.stepScale(false)
 	case matches(msg, k.Mark):
 		m.toggleMark()
 	case matches(msg, k.MarkMatch):

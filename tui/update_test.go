@@ -82,9 +82,14 @@ func TestUpdateKeys(t *testing.T) {
 				t.Errorf("column = %d, want %d", a.curJ, cols-1)
 			}
 		}},
-		{"tab cycles the layers and wraps", nil, []string{"tab", "tab", "tab", "tab", "tab"}, func(t *testing.T, b, a Model, _ bool) {
+		{"tab cycles the layers and wraps", nil, []string{"tab", "tab", "tab", "tab", "tab", "tab"}, func(t *testing.T, b, a Model, _ bool) {
 			if a.layer != LayerClass {
-				t.Errorf("layer after five tabs = %v, want %v", a.layer, LayerClass)
+				t.Errorf("layer after six tabs = %v, want %v", a.layer, LayerClass)
+			}
+		}},
+		{"tab after the q layer shows the model load", nil, []string{"tab", "tab", "tab", "tab"}, func(t *testing.T, b, a Model, _ bool) {
+			if a.layer != LayerLoad {
+				t.Errorf("layer after four tabs = %v, want %v", a.layer, LayerLoad)
 			}
 		}},
 		{"tab once shows the regime layer", nil, []string{"tab"}, func(t *testing.T, b, a Model, _ bool) {
@@ -243,7 +248,7 @@ func edit(t *testing.T, m Model, f whatif.Field, text string) Model {
 	if m.mode != modeEdit {
 		m, _ = press(m, "e")
 	}
-	for n := 0; m.editor.sel != int(f); n++ {
+	for n := 0; m.editor.field() != f; n++ {
 		if n > int(whatif.FieldCount) || m.mode != modeEdit {
 			t.Fatalf("cannot reach field %v in the editor", f.Label(false))
 		}

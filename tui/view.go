@@ -137,7 +137,10 @@ func (m *Model) lowerPreferred(w int) int {
 	case modeSaveAs:
 		return m.saveAs.PreferredHeight(w)
 	}
-	return m.details.PreferredHeight(w)
+	// The matching set takes only rows the matrix does not need.
+	base, all := m.details.PreferredHeight(w, false), m.details.PreferredHeight(w, true)
+	_, need := MatrixSize(m.matrixInput())
+	return min(all, max(m.bodyH-need, base))
 }
 
 // View implements tea.Model. It draws from the state only.
@@ -471,17 +474,29 @@ func (m Model) changes() []change {
 	for k := range min(len(m.facs), len(m.fileFacs)) {
 		water := whatif.IsWater(&m.facs[k])
 		for f := range whatif.FieldCount {
-			if !f.Facility() {
+			if !f.Facility() || !f.Applies(&m.facs[k]) {
 				continue
 			}
 			now, file := f.Get(nil, &m.facs[k]), f.Get(nil, &m.fileFacs[k])
 			if now != file {
 				out = append(out, change{label: f.HeaderLabel(water), now: f.Show(u, now, water),
-					origin: m.originText(f, k) + " " + f.Show(u, file, water), fac: k})
+					origin: m.fileValueText(f, k, water), fac: k})
 			}
 		}
 	}
 	return out
+}
+
+// fileValueText says where facility k's starting value of field f comes
+// from and what it is there ("demo facility 450.0 kPa"); for the value of
+// a rule the file does not choose, that it holds none ("demo facility: no
+// fixed T0").
+func (m Model) fileValueText(f whatif.Field, k int, water bool) string {
+	file := &m.fileFacs[k]
+	if !f.Applies(file) {
+		return m.originText(f, k) + ": no " + f.Label(water)
+	}
+	return m.originText(f, k) + " " + f.Show(m.units, f.Get(nil, file), water)
 }
 
 // originText says where the starting value of field f comes from (fac:
@@ -522,26 +537,38 @@ func facilityOrigin(f envelope.Facility) string {
 	return "facility file"
 }
 
-// editorRows describes every what-if field in the current units.
+// editorRows describes every what-if field in the current units: the
+// settings, then the chosen facility's fields (the value a fixed rule
+// holds only while that rule is chosen).
 func (m Model) editorRows() []editorRow {
 	u := m.units
-	rows := make([]editorRow, whatif.FieldCount)
+	rows := make([]editorRow, 0, whatif.FieldCount)
 	var now, file *envelope.Facility
 	if m.fac >= 0 && m.fac < len(m.facs) {
 		now, file = &m.facs[m.fac], &m.fileFacs[m.fac]
 	}
 	water := whatif.IsWater(now)
 	for f := range whatif.FieldCount {
-		r := editorRow{label: f.Label(water), enabled: !f.Facility() || now != nil}
-		if !r.enabled {
-			r.note = "choose a facility"
-			rows[f] = r
+		if !f.Applies(now) {
 			continue
 		}
-		v, was := f.Get(&m.set, now), f.Get(&m.fileSet, file)
-		r.value, r.start, r.changed = f.Show(u, v, water), f.EditText(u, v, water), v != was
-		r.origin = m.originText(f, m.fac) + " " + f.Show(u, was, water)
-		rows[f] = r
+		r := editorRow{field: f, label: f.Label(water), enabled: !f.Facility() || now != nil}
+		if !r.enabled {
+			r.note = "choose a facility"
+			rows = append(rows, r)
+			continue
+		}
+		v := f.Get(&m.set, now)
+		r.value, r.start = f.Show(u, v, water), f.EditText(u, f.StartValue(&m.set, now), water)
+		if f.Facility() {
+			r.changed = v != f.Get(nil, file) || !f.Applies(file)
+			r.origin = m.fileValueText(f, m.fac, water)
+		} else {
+			was := f.Get(&m.fileSet, nil)
+			r.changed = v != was
+			r.origin = m.originText(f, m.fac) + " " + f.Show(u, was, water)
+		}
+		rows = append(rows, r)
 	}
 	return rows
 }

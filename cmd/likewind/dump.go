@@ -27,7 +27,7 @@ var dumpCommand = commandSpec{
 // that says what it shows.
 func runDump(args []string, stdout, stderr io.Writer) int {
 	c := newCommand(dumpCommand, stdout, stderr)
-	layer := c.fs.String("layer", "", "layer: class, regime, reynolds, q or mach (default class)")
+	layer := c.fs.String("layer", "", "layer: class, regime, reynolds, q, load or mach (default class)")
 	plain := c.fs.Bool("plain", false, "no colour, even on a terminal")
 	color := c.fs.Bool("color", false, "ANSI colour, even into a file or pipe")
 	return c.run(args, func() error {
@@ -115,6 +115,7 @@ var layerAliases = map[string]tui.Layer{
 	"regime": tui.LayerRegime, "flow": tui.LayerRegime,
 	"reynolds": tui.LayerReynolds, "re": tui.LayerReynolds,
 	"q":    tui.LayerQ,
+	"load": tui.LayerLoad,
 	"mach": tui.LayerMach,
 }
 
@@ -124,7 +125,7 @@ func parseLayer(s string) (tui.Layer, error) {
 	}
 	l, err := tui.ParseLayer(s)
 	if err != nil {
-		return l, fmt.Errorf("--layer %q: expected class, regime, reynolds, q or mach", s)
+		return l, fmt.Errorf("--layer %q: expected class, regime, reynolds, q, load or mach", s)
 	}
 	return l, nil
 }

@@ -139,7 +139,7 @@ func TestTerminalSmoke(t *testing.T) {
 	s.keys("0", ".", "0", "5", "Enter")
 	s.keys("Escape")
 	edited := s.waitFor("what-if:")
-	if !strings.Contains(edited, "model scale 0.05") {
+	if !strings.Contains(edited, "model scale (all facilities) 1:20") {
 		t.Errorf("header does not list the edited model scale:\n%s", edited)
 	}
 

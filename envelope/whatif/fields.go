@@ -148,7 +148,8 @@ type Choice struct {
 // Facility field).
 var table = [FieldCount]row{
 	Scale: {
-		label: "model scale", name: "model scale", key: "scale",
+		// The what-if scale overrides every facility's: the header says so.
+		label: "model scale", short: "model scale (all facilities)", name: "model scale", key: "scale",
 		words: []fieldWord{{word: "fit", value: 0, means: "each facility's own sizing"}},
 		get:   func(s *envelope.Settings, _ *envelope.Facility) float64 { return s.Scale },
 		set:   func(s *envelope.Settings, _ *envelope.Facility, v float64) { s.Scale = v },
@@ -347,12 +348,24 @@ func ruleNeeds(v float64) (Field, bool) {
 	return 0, false
 }
 
-// scaleText shows a model scale; 0 is each facility's own sizing.
+// ratioSlack is the rounding allowed between a scale and the ratio it is
+// shown as (1/20 read back from "1:20").
+const ratioSlack = 1e-9
+
+// scaleText shows a model scale: as a ratio "1:40" where it is one to
+// three significant digits (as models are made), else as a number; 0 is
+// each facility's own sizing.
 func scaleText(s float64) string {
-	if s > 0 {
-		return units.Sig(s, 4)
+	if !(s > 0) {
+		return "facility sizing"
 	}
-	return "facility sizing"
+	if s < 1 {
+		n, _ := strconv.ParseFloat(strconv.FormatFloat(1/s, 'g', 3, 64), 64)
+		if math.Abs(1/n-s) <= ratioSlack*s {
+			return "1:" + strconv.FormatFloat(n, 'f', -1, 64)
+		}
+	}
+	return units.Sig(s, 4)
 }
 
 // qText shows a q max; 0 is no limit.
