@@ -200,3 +200,39 @@ func TestDumpNamesRule(t *testing.T) {
 		}
 	}
 }
+
+// A water tunnel's fixed rule holds the water temperature: its line is
+// "fixed water T", read in the units shown, and the details state it.
+func TestRuleWhatIfWater(t *testing.T) {
+	m := newDemo(t, 120, 40)
+	m.fac = facilityNamed(t, m, "Wenlow")
+	k := m.fac
+	m = chooseRule(t, m, "fixed temperature")
+	if !m.editor.editing || m.editor.lineField != whatif.RuleTemperature {
+		t.Fatalf("no water temperature line after choosing a fixed rule (err %q)", m.editor.err)
+	}
+	if got := m.editor.Line(); !strings.HasPrefix(got, "fixed water T > ") {
+		t.Errorf("input line %q, want it to ask for the fixed water T", got)
+	}
+	m, _ = press(m, "ctrl+u")
+	m = typeText(m, "20 degC")
+	m, _ = press(m, "enter", "esc")
+	if r := m.facs[k].Rule; r.Kind != envelope.RuleFixedTemperature || r.Temperature != 293.15 {
+		t.Fatalf("water rule %+v, want fixed temperature 293.15 K (20 °C)", r)
+	}
+	// The details state it wherever the tunnel has a setting.
+	g := m.res.grid
+	for i := range g.Rows() {
+		for j := range g.Cols() {
+			if r := m.res.maps[k].At(i, j); r.Class != envelope.Outside && r.Q > 0 {
+				m.curI, m.curJ = i, j
+				m.relayout()
+				if det := strings.Join(m.details.blocks.facility, "\n"); !strings.Contains(det, "rule fixed water temperature 293.1 K, speed to match") {
+					t.Errorf("details at (%d, %d) do not state the water rule:\n%s", i, j, det)
+				}
+				return
+			}
+		}
+	}
+	t.Error("no point of the water tunnel with a setting to read the details at")
+}
