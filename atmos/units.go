@@ -12,8 +12,11 @@ import (
 
 // Conversion factors to SI. The foot, inch, mile, nautical mile and pound are
 // exact by definition (international yard and pound, 1959); the pound-force
-// uses standard gravity 9.80665 m/s². The inch of mercury is the conventional
-// value (NIST Special Publication 811, Appendix B).
+// uses standard gravity 9.80665 m/s², so 1 lbf = 0.45359237 kg × 9.80665 m/s²
+// = 4.4482216152605 N exactly (NIST Special Publication 811, Appendix B.8,
+// lists it rounded, 4.448 222 N), and the foot and inch pound-force follow
+// exactly from it. The inch of mercury is the conventional value (NIST
+// Special Publication 811, Appendix B).
 const (
 	Foot              = 0.3048                           // m
 	Inch              = 0.0254                           // m
@@ -35,6 +38,8 @@ const (
 	InchOfHg          = 3386.389                         // Pa, conventional
 	SlugPerCubicFoot  = Slug / (Foot * Foot * Foot)      // kg/m³
 	PoundPerCubicFoot = PoundMass / (Foot * Foot * Foot) // kg/m³
+	FootPoundForce    = PoundForce * Foot                // N·m, lbf·ft
+	InchPoundForce    = PoundForce * Inch                // N·m, lbf·in
 )
 
 // Dimension is the physical kind of a quantity read from text or shown on
@@ -51,6 +56,8 @@ const (
 	TemperatureDelta                  // K (a difference or offset, e.g. ΔT of a non-standard day)
 	Dimensionless                     // pure number: Mach, Reynolds, ratios
 	Density                           // kg/m³
+	Force                             // N
+	Moment                            // N·m (a moment of force, e.g. a balance's pitching-moment capacity)
 	numDimensions
 )
 
@@ -63,6 +70,8 @@ var dimensionNames = [...]string{
 	TemperatureDelta: "temperature difference",
 	Dimensionless:    "dimensionless number",
 	Density:          "density",
+	Force:            "force",
+	Moment:           "moment",
 }
 
 var dimensionExamples = [...]string{
@@ -74,6 +83,8 @@ var dimensionExamples = [...]string{
 	TemperatureDelta: "15 K",
 	Dimensionless:    "0.8",
 	Density:          "1.225 kg/m3",
+	Force:            "4.5 kN",
+	Moment:           "600 N·m",
 }
 
 // String returns the dimension's name, e.g. "length".
@@ -99,8 +110,12 @@ type unitDef struct {
 	symbol  string   // display symbol
 	aliases []string // other accepted spellings (after normalisation)
 	exact   bool     // match only with exact case (e.g. MPa, never mPa)
-	scale   float64
-	shift   float64
+	// hintCase: when text of another dimension is checked against this
+	// unit for a "wrong dimension" hint, match only with exact case, so
+	// that "NM" (nautical miles) is not hinted as "Nm".
+	hintCase bool
+	scale    float64
+	shift    float64
 }
 
 func (u unitDef) toSI(v float64) float64   { return (v + u.shift) * u.scale }
@@ -167,6 +182,21 @@ var unitTables = [numDimensions][]unitDef{
 		{name: "slug/ft3", symbol: "slug/ft³", scale: SlugPerCubicFoot},
 		{name: "lb/ft3", symbol: "lb/ft³", aliases: []string{"lbm/ft3"}, scale: PoundPerCubicFoot},
 	},
+	Force: {
+		{name: "N", symbol: "N", aliases: []string{"newton", "newtons"}, scale: 1},
+		{name: "daN", symbol: "daN", aliases: []string{"decanewton", "decanewtons"}, scale: 10},
+		{name: "kN", symbol: "kN", aliases: []string{"kilonewton", "kilonewtons"}, scale: 1e3},
+		{name: "lbf", symbol: "lbf", aliases: []string{"pound-force", "pounds-force", "poundforce"}, scale: PoundForce},
+	},
+	// Moments are written with a middle dot, a space or nothing between
+	// the force and the length ("N·m", "N m", "Nm"; normaliseUnit drops
+	// the space and reads "⋅" and "*" as "·"), or with a hyphen.
+	Moment: {
+		{name: "N·m", symbol: "N·m", hintCase: true, aliases: []string{"Nm", "N-m", "newton-metre", "newton-metres", "newtonmetre", "newtonmetres"}, scale: 1},
+		{name: "kN·m", symbol: "kN·m", aliases: []string{"kNm", "kN-m"}, scale: 1e3},
+		{name: "lbf·ft", symbol: "lbf·ft", aliases: []string{"lbfft", "lbf-ft", "ft·lbf", "ftlbf", "ft-lbf"}, scale: FootPoundForce},
+		{name: "lbf·in", symbol: "lbf·in", aliases: []string{"lbfin", "lbf-in", "in·lbf", "inlbf", "in-lbf"}, scale: InchPoundForce},
+	},
 }
 
 // customaryUnit names the display unit used by Format when customary is true.
@@ -178,6 +208,8 @@ var customaryUnit = [numDimensions]string{
 	Temperature:      "degF",
 	TemperatureDelta: "degF",
 	Density:          "slug/ft3",
+	Force:            "lbf",
+	Moment:           "lbf·ft",
 }
 
 // siDisplayUnit names the display unit used by Format for SI output.
@@ -189,6 +221,8 @@ var siDisplayUnit = [numDimensions]string{
 	Temperature:      "K",
 	TemperatureDelta: "K",
 	Density:          "kg/m3",
+	Force:            "N",
+	Moment:           "N·m",
 }
 
 // gaugeUnits are refused because every pressure here is absolute.
@@ -213,7 +247,8 @@ func acceptedList(d Dimension) string {
 
 // normaliseUnit maps the ways people type a unit onto the table spellings:
 // degree signs become "deg", superscripts become digits, "^" and all white
-// space are dropped ("deg C" → "degC", "ft / s" → "ft/s", "m^2" → "m2").
+// space are dropped ("deg C" → "degC", "ft / s" → "ft/s", "m^2" → "m2"), and
+// a dot operator or "*" between units becomes the middle dot ("N*m" → "N·m").
 func normaliseUnit(u string) string {
 	var b strings.Builder
 	for _, r := range u {
@@ -227,6 +262,8 @@ func normaliseUnit(u string) string {
 			b.WriteString("degF")
 		case r == '\u212a': // Kelvin sign
 			b.WriteByte('K')
+		case r == '⋅', r == '*', r == '•':
+			b.WriteString("·")
 		case r == '²':
 			b.WriteByte('2')
 		case r == '³':
@@ -264,6 +301,38 @@ func matchUnit(u unitDef, s string) unitMatch {
 	return noMatch
 }
 
+// matchesExactly reports whether s is one of u's spellings, case and all.
+func matchesExactly(u unitDef, s string) bool {
+	if u.name == s {
+		return true
+	}
+	for _, n := range u.aliases {
+		if n == s {
+			return true
+		}
+	}
+	return false
+}
+
+// otherDimension finds the dimension other than d that has a unit
+// spelled norm: one whose spelling matches with its case first, then one
+// that matches with case ignored (never a hintCase unit).
+func otherDimension(norm string, d Dimension) (Dimension, bool) {
+	for _, exact := range []bool{true, false} {
+		for od := Dimension(0); od < numDimensions; od++ {
+			if od == d {
+				continue
+			}
+			for _, u := range unitTables[od] {
+				if exact && matchesExactly(u, norm) || !exact && !u.hintCase && matchUnit(u, norm) == matched {
+					return od, true
+				}
+			}
+		}
+	}
+	return 0, false
+}
+
 // lookupUnit finds unit text (already normalised) for dimension d.
 func lookupUnit(norm string, d Dimension) (unitDef, error) {
 	for _, g := range gaugeUnits {
@@ -281,20 +350,15 @@ func lookupUnit(norm string, d Dimension) (unitDef, error) {
 				norm, u.name, ErrUnknownUnit)
 		}
 	}
-	for od := Dimension(0); od < numDimensions; od++ {
-		if od == d {
-			continue
+	// A unit of another dimension: a hint. Spellings that match case and
+	// all come first ("kN" is a force, though "kn" is a knot).
+	if od, ok := otherDimension(norm, d); ok {
+		if d == Dimensionless {
+			return unitDef{}, fmt.Errorf("%q is a %s unit; expected a dimensionless number with no unit: %w",
+				norm, od, ErrWrongDimension)
 		}
-		for _, u := range unitTables[od] {
-			if matchUnit(u, norm) == matched {
-				if d == Dimensionless {
-					return unitDef{}, fmt.Errorf("%q is a %s unit; expected a dimensionless number with no unit: %w",
-						norm, od, ErrWrongDimension)
-				}
-				return unitDef{}, fmt.Errorf("%q is a %s unit; expected a %s (%s): %w",
-					norm, od, d, acceptedList(d), ErrWrongDimension)
-			}
-		}
+		return unitDef{}, fmt.Errorf("%q is a %s unit; expected a %s (%s): %w",
+			norm, od, d, acceptedList(d), ErrWrongDimension)
 	}
 	if d == Dimensionless {
 		return unitDef{}, fmt.Errorf("unexpected unit %q; expected a dimensionless number with no unit: %w", norm, ErrUnknownUnit)
@@ -477,8 +541,9 @@ func unitOf(unit string, d Dimension) (unitDef, error) {
 }
 
 // Format renders the SI value v of dimension d for display with five
-// significant figures, in SI (m, m², m/s, kPa, K, kg/m³) or, if customary is
-// set, in customary units (ft, ft², kt, psi, °F, slug/ft³). Dimensionless
+// significant figures, in SI (m, m², m/s, kPa, K, kg/m³, N, N·m) or, if
+// customary is set, in customary units (ft, ft², kt, psi, °F, slug/ft³, lbf,
+// lbf·ft). Dimensionless
 // values have no unit.
 func Format(v float64, d Dimension, customary bool) string {
 	if d < 0 || d >= numDimensions {

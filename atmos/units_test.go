@@ -108,6 +108,37 @@ func TestParseQuantity(t *testing.T) {
 		{"1.225 kg/m³", Density, 1.225, unitsTolExact, "superscript"},
 		{"1 slug/ft3", Density, 515.3788, 1e-7, "NIST SP 811, slug/ft³"},
 		{"1 lb/ft3", Density, 16.01846, 1e-6, "NIST SP 811, lb/ft³"},
+		// Force. The pound-force is exact by definition: the pound
+		// (0.45359237 kg, international yard and pound, 1959) under standard
+		// gravity (9.80665 m/s², 3rd CGPM 1901), 4.4482216152605 N; NIST
+		// SP 811, Appendix B.8 (from memory) lists 1 lbf = 4.448 222 E+00 N.
+		{"4500 N", Force, 4500, unitsTolExact, "SI"},
+		{"4.5 kN", Force, 4500, unitsTolExact, "SI"},
+		{"450 daN", Force, 4500, unitsTolExact, "1 daN = 10 N"},
+		{"1 lbf", Force, 0.45359237 * 9.80665, unitsTolExact, "lbf by definition"},
+		{"1 lbf", Force, 4.4482216152605, unitsTolExact, "lbf = 4.4482216152605 N exactly"},
+		{"1000 lbf", Force, 4448.222, 0.5e-6 / 4.448222, "NIST SP 811 B.8 (from memory), 4.448 222 N"},
+		{"2 pounds-force", Force, 2 * 4.4482216152605, unitsTolExact, "spelled"},
+		// Moment: lbf·ft = 4.4482216152605 N × 0.3048 m and lbf·in =
+		// 4.4482216152605 N × 0.0254 m exactly; NIST SP 811, Appendix B.8
+		// (from memory): 1 lbf·ft = 1.355 818 E+00 N·m, 1 lbf·in = 1.129 848
+		// E-01 N·m.
+		{"600 N·m", Moment, 600, unitsTolExact, "SI, middle dot"},
+		{"600 N⋅m", Moment, 600, unitsTolExact, "dot operator U+22C5"},
+		{"600 N*m", Moment, 600, unitsTolExact, "asterisk"},
+		{"600 N m", Moment, 600, unitsTolExact, "space"},
+		{"600 Nm", Moment, 600, unitsTolExact, "run together"},
+		{"600 N-m", Moment, 600, unitsTolExact, "hyphen"},
+		{"0.6 kN·m", Moment, 600, unitsTolExact, "SI"},
+		{"0.6 kNm", Moment, 600, unitsTolExact, "SI"},
+		{"1 lbf·ft", Moment, 4.4482216152605 * 0.3048, unitsTolExact, "lbf·ft exactly"},
+		{"1 ft·lbf", Moment, 1.3558179483314004, unitsTolExact, "ft·lbf the same"},
+		{"1 lbf ft", Moment, 1.3558179483314004, unitsTolExact, "space"},
+		{"1 ft-lbf", Moment, 1.3558179483314004, unitsTolExact, "hyphen"},
+		{"1000 lbf·ft", Moment, 1355.818, 0.5e-6 / 1.355818, "NIST SP 811 B.8 (from memory), 1.355 818 N·m"},
+		{"1 lbf·in", Moment, 4.4482216152605 * 0.0254, unitsTolExact, "lbf·in exactly"},
+		{"12 in·lbf", Moment, 1.3558179483314004, unitsTolExact, "12 lbf·in = 1 lbf·ft"},
+		{"1000 lbf in", Moment, 112.9848, 0.5e-6 / 1.129848, "NIST SP 811 B.8 (from memory), 0.112 984 8 N·m"},
 		// Dimensionless.
 		{"0.8", Dimensionless, 0.8, unitsTolExact, "Mach number"},
 		{" 2.5e6 ", Dimensionless, 2.5e6, unitsTolExact, "Reynolds number"},
@@ -162,6 +193,12 @@ func TestParseQuantityErrors(t *testing.T) {
 		{"-3 kt", Speed, []string{"speed must not be negative"}, ErrOutOfRange},
 		{"-1 psi", Pressure, []string{"must not be negative"}, ErrOutOfRange},
 		{"1 m", Dimension(99), []string{"unknown dimension 99"}, nil},
+		{"5 kg", Force, []string{`unknown force unit "kg"; accepted: N, daN, kN, lbf`}, ErrUnknownUnit},
+		{"5 kN", Moment, []string{`"kN" is a force unit; expected a moment (N·m, kN·m, lbf·ft, lbf·in)`}, ErrWrongDimension},
+		{"5 N·m", Force, []string{`"N·m" is a moment unit; expected a force (N, daN, kN, lbf)`}, ErrWrongDimension},
+		{"600", Moment, []string{`missing moment unit; accepted: N·m, kN·m, lbf·ft, lbf·in`}, ErrMissingUnit},
+		// "NM" (nautical miles) is no hint of a newton metre.
+		{"5 NM", Length, []string{`unknown length unit "NM"; accepted: m, km`}, ErrUnknownUnit},
 	}
 	for _, tc := range tests {
 		got, err := ParseQuantity(tc.in, tc.d)
@@ -240,6 +277,10 @@ func TestFormat(t *testing.T) {
 		{15, TemperatureDelta, false, "15 K"},
 		{1.225, Density, false, "1.225 kg/m³"},
 		{515.3788184, Density, true, "1 slug/ft³"},
+		{4500, Force, false, "4500 N"},
+		{4.4482216152605 * 1000, Force, true, "1000 lbf"},
+		{600, Moment, false, "600 N·m"},
+		{1.3558179483314004 * 250, Moment, true, "250 lbf·ft"},
 		{0.8, Dimensionless, true, "0.8"},
 		{2.5e7, Dimensionless, false, "25000000"},
 		{3, Dimension(77), false, "3"},
@@ -332,6 +373,9 @@ func TestParseAirspeed(t *testing.T) {
 func TestDimensionString(t *testing.T) {
 	if got := TemperatureDelta.String(); got != "temperature difference" {
 		t.Errorf("TemperatureDelta.String() = %q", got)
+	}
+	if got := Moment.String(); got != "moment" {
+		t.Errorf("Moment.String() = %q", got)
 	}
 	if got := Dimension(50).String(); got != "Dimension(50)" {
 		t.Errorf("Dimension(50).String() = %q", got)

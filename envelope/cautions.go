@@ -12,9 +12,12 @@ type QuantityFormat interface {
 	Temp(k float64) string        // absolute temperature, from K
 	Stagnation(pa float64) string // stagnation or vessel pressure, from Pa
 	Q(pa float64) string          // dynamic pressure, from Pa
+	Force(n float64) string       // force (model load, balance capacity), from N
+	Moment(nm float64) string     // moment (pitching moment, balance capacity), from N·m
 }
 
-// SIFormat writes temperatures in K and pressures in kPa.
+// SIFormat writes temperatures in K, pressures in kPa, forces in N and
+// moments in N·m.
 type SIFormat struct{}
 
 // Temp writes k to the nearest kelvin, e.g. "105 K".
@@ -27,6 +30,12 @@ func (SIFormat) Stagnation(pa float64) string {
 
 // Q writes pa in kPa to 0.1 kPa, e.g. "120.0 kPa".
 func (SIFormat) Q(pa float64) string { return strconv.FormatFloat(pa/1e3, 'f', 1, 64) + " kPa" }
+
+// Force writes n in N to 4 significant figures, e.g. "4500 N".
+func (SIFormat) Force(n float64) string { return strconv.FormatFloat(n, 'g', 4, 64) + " N" }
+
+// Moment writes nm in N·m to 4 significant figures, e.g. "612.5 N·m".
+func (SIFormat) Moment(nm float64) string { return strconv.FormatFloat(nm, 'g', 4, 64) + " N·m" }
 
 // Cautions lists the safety and validity notes for a detail of facility f,
 // the planning note first, with every quantity written by u.
@@ -63,8 +72,8 @@ func Cautions(d *Detail, f *Facility, u QuantityFormat) []string {
 			"wall interference and blockage make these results unreliable.", d.Scale, d.SectionFit, d.SectionFitRule)
 	}
 	if d.Flags.Has(FlagLoadNearLimit) {
-		add("Model load %.0f %% of the balance capacity (normal force %.4g N, pitching moment %.4g N·m at the largest load coefficients): "+
-			"a planning estimate; check model, sting and balance with their own ratings.", 100*d.Load.Share, d.Load.NormalForce, d.Load.PitchMoment)
+		add("Model load %.0f %% of the balance capacity (normal force %s, pitching moment %s at the largest load coefficients): "+
+			"a planning estimate; check model, sting and balance with their own ratings.", 100*d.Load.Share, u.Force(d.Load.NormalForce), u.Moment(d.Load.PitchMoment))
 	}
 	if d.Flags.Has(FlagLowCavitation) {
 		add("Cavitation number %.2f: cavitation on the model is likely.", d.Cavitation)

@@ -128,3 +128,33 @@ func FuzzParse(f *testing.F) {
 		}
 	})
 }
+
+// TestLoadCautionInUnits: the balance-load caution writes the loads in the
+// screen's unit system. 4448.2216152605 N is 1000 lbf and 1355.8179483314
+// N·m is 1000 lbf·ft exactly (the pound-force is 0.45359237 kg × 9.80665
+// m/s²; NIST SP 811, Appendix B.8).
+func TestLoadCautionInUnits(t *testing.T) {
+	d := &envelope.Detail{Flags: envelope.FlagLoadNearLimit,
+		Load: envelope.Load{NormalForce: 4448.2216152605, PitchMoment: 1355.8179483314, MaxNormalForce: 4500, Share: 0.988}}
+	f := &envelope.Facility{Name: "t", Medium: "air"}
+	find := func(u envelope.QuantityFormat) string {
+		for _, c := range envelope.Cautions(d, f, u) {
+			if strings.HasPrefix(c, "Model load") {
+				return c
+			}
+		}
+		return ""
+	}
+	for _, c := range []struct {
+		u    envelope.QuantityFormat
+		want string
+	}{
+		{Customary, "(normal force 1000 lbf, pitching moment 1000 lbf·ft at the largest load coefficients)"},
+		{SI, "(normal force 4.448 kN, pitching moment 1.356 kN·m at the largest load coefficients)"},
+		{envelope.SIFormat{}, "(normal force 4448 N, pitching moment 1356 N·m at the largest load coefficients)"},
+	} {
+		if got := find(c.u); !strings.Contains(got, c.want) {
+			t.Errorf("%T caution = %q, want it to contain %q", c.u, got, c.want)
+		}
+	}
+}
