@@ -371,13 +371,13 @@ func LoadCoefficientBound() Bound {
 // BalanceForceBound and BalanceMomentBound bound a balance's capacity.
 func BalanceForceBound() Bound {
 	return Bound{Lo: 0, LoOpen: true, Hi: MaxBalanceForce,
-		Expected: fmt.Sprintf("a force above 0 and at most %g N", MaxBalanceForce)}
+		Expected: fmt.Sprintf("a force above 0 and at most %s kN", numberText(MaxBalanceForce/1e3))}
 }
 
 // BalanceMomentBound: see BalanceForceBound.
 func BalanceMomentBound() Bound {
 	return Bound{Lo: 0, LoOpen: true, Hi: MaxBalanceMoment,
-		Expected: fmt.Sprintf("a moment above 0 and at most %g N·m", MaxBalanceMoment)}
+		Expected: fmt.Sprintf("a moment above 0 and at most %s kN·m", numberText(MaxBalanceMoment/1e3))}
 }
 
 // Plausibility bounds of load data (not physical limits: values beyond

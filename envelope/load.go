@@ -286,6 +286,9 @@ func (d *doc) result() error {
 	return &errs
 }
 
+// problems counts the problems found so far, listed or not.
+func (d *doc) problems() int { return len(d.errs) + d.unlisted }
+
 // fail records a problem at the line of path (an internal path, see
 // lineIndex) under the displayed field name.
 func (d *doc) fail(path, field, found, expected string) {

@@ -84,9 +84,14 @@ func (d *doc) facility(t *table, f *Facility, fields []facilityField) {
 			}
 		}
 	}
+	start, limitsOK := d.problems(), false
 	for ff := range inReadOrder(fields, f.Medium) {
+		if ff.name() == keyRule {
+			limitsOK = d.problems() == start
+		}
 		ff.read(t)
 	}
+	d.checkRule(t, f, limitsOK)
 }
 
 // inReadOrder gives the fields a facility of medium m takes in the order
@@ -151,7 +156,7 @@ func facilityFields(f *Facility) []facilityField {
 	length := aboveZero(MaxLength, "a length above 0 m")
 	machLo, machHi := aboveZero(math.Inf(1), "a Mach number above 0"), upTo(maxMach, fmt.Sprintf("a Mach number up to %g", maxMach))
 	speedLo, speedHi := aboveZero(math.Inf(1), "a speed above 0"), upTo(maxWaterSpeed, fmt.Sprintf("a water speed up to %g m/s", maxWaterSpeed))
-	return []facilityField{
+	out := []facilityField{
 		{gasOnly, rangeField{key: "mach_range", unit: uMach, required: true, lo: machLo, hi: machHi, toLo: &g.MachMin, toHi: &g.MachMax}},
 		{waterOnly, rangeField{key: "speed_range", unit: uSpeed, required: true, lo: speedLo, hi: speedHi, toLo: &w.SpeedMin, toHi: &w.SpeedMax}},
 		{gasOnly, rangeField{key: "stagnation_pressure_range", unit: uPressure, required: true, lo: p0, hi: p0, toLo: &g.P0Min, toHi: &g.P0Max}},
@@ -165,8 +170,12 @@ func facilityFields(f *Facility) []facilityField {
 		{everyMedium, quantityField{key: "max_reynolds_per_metre", unit: uPerLength, bound: aboveZero(1e12, "a unit Reynolds number above 0"), to: &f.MaxReynoldsPerM}},
 		{everyMedium, quantityField{key: "section_width", unit: uLength, required: true, bound: length, to: &f.Width}},
 		{everyMedium, quantityField{key: "section_height", unit: uLength, required: true, bound: length, to: &f.Height}},
-		{everyMedium, subTable("model", modelFields(&f.Model))},
+		{everyMedium, quantityField{key: keyBalanceN, unit: uForce, bound: BalanceForceBound(), to: &f.Balance.MaxNormalForce}},
+		{everyMedium, quantityField{key: keyBalanceM, unit: uMoment, bound: BalanceMomentBound(), to: &f.Balance.MaxPitchMoment}},
 	}
+	// The rule is read after every limit it is checked against (checkRule).
+	out = append(out, ruleFields(f)...)
+	return append(out, facilityField{everyMedium, subTable("model", modelFields(&f.Model))})
 }
 
 // facilityFieldKeys lists the keys of facilityFields, in order.

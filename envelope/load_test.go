@@ -293,7 +293,7 @@ func TestBadFiles(t *testing.T) {
 			`syntax.toml:3: syntax after vehicle.name: found strings cannot contain newlines, expected valid TOML`}},
 		{"unknown_key.toml", []string{
 			`unknown_key.toml:2: vehicle.span: missing, expected a length with its unit, e.g. "1.2 m" ` + lengthUnits,
-			`unknown_key.toml:6: vehicle.spann: found unknown key "spann", expected "span", or one of: name, reference_length, reference_length_is, reference_area, span, frontal_area`}},
+			`unknown_key.toml:6: vehicle.spann: found unknown key "spann", expected "span", or one of: name, reference_length, reference_length_is, reference_area, span, frontal_area, max_normal_coefficient, max_pitching_moment_coefficient, load_reference_area`}},
 		{"missing_field.toml", []string{
 			`missing_field.toml:2: vehicle.reference_length: missing, expected a length with its unit, e.g. "1.2 m" ` + lengthUnits}},
 		{"missing_table.toml", []string{
@@ -405,10 +405,46 @@ func TestBadFiles(t *testing.T) {
 			`newline_in_facility_name.toml:3: facility[1].name: found "Test tunnel\r\nfull match" (control character U+000D), expected the facility's name in quotes, ` + printableOnly}},
 		{"bidi_in_class.toml", []string{
 			`bidi_in_class.toml:4: facility[1].class: found "atmospheric \u202ehctam lluf" (bidirectional-text control U+202E), expected a short description in quotes, e.g. "pressurized transonic", ` + printableOnly}},
+		{"load_coefficient_negative.toml", []string{
+			`load_coefficient_negative.toml:8: vehicle.max_normal_coefficient: found -1.2, expected a load coefficient above 0 and at most 50`}},
+		{"load_coefficient_zero.toml", []string{
+			`load_coefficient_zero.toml:9: vehicle.max_pitching_moment_coefficient: found 0, expected a load coefficient above 0 and at most 50`}},
+		{"load_coefficient_absurd.toml", []string{
+			`load_coefficient_absurd.toml:8: vehicle.max_normal_coefficient: found "80", expected a load coefficient above 0 and at most 50`}},
+		{"load_area_alone.toml", []string{
+			`load_area_alone.toml:8: vehicle.load_reference_area: found a load area with no coefficient, expected the largest normal-force or pitching-moment coefficient it goes with`}},
+		{"balance_force_zero.toml", []string{
+			`balance_force_zero.toml:11: facility[1].balance_max_normal_force: found "0 N", expected a force above 0 and at most 10000 kN`}},
+		{"balance_force_negative.toml", []string{
+			`balance_force_negative.toml:11: facility[1].balance_max_normal_force: found "-4 kN", expected a force above 0 and at most 10000 kN`}},
+		{"balance_force_absurd.toml", []string{
+			`balance_force_absurd.toml:11: facility[1].balance_max_normal_force: found "20000 kN", expected a force above 0 and at most 10000 kN`}},
+		{"balance_moment_as_force.toml", []string{
+			`balance_moment_as_force.toml:12: facility[1].balance_max_pitching_moment: found "600 N" ("N" is a force unit), expected a moment with its unit, e.g. "600 N·m" (units: N·m, kN·m, lbf·ft, lbf·in)`}},
+		{"rule_unknown.toml", []string{
+			`rule_unknown.toml:11: facility[1].operating_rule: found "coldest", expected an operating rule: "warmest", "least load", "fixed temperature" or "fixed q"`}},
+		{"rule_unknown_water.toml", []string{
+			`rule_unknown_water.toml:10: facility[1].operating_rule: found "slowest", expected an operating rule: "warmest" or "fixed temperature"`}},
+		{"least_load_no_balance.toml", []string{
+			`least_load_no_balance.toml:11: facility[1].operating_rule: found "least load" with no balance capacity, expected balance_max_normal_force or balance_max_pitching_moment to plan the load against, or another rule: "warmest", "fixed temperature" or "fixed q"`}},
+		{"gas_rule_on_water.toml", []string{
+			`gas_rule_on_water.toml:10: facility[1].operating_rule: found "fixed q" on a water tunnel, expected a water tunnel's rule: "warmest" or "fixed temperature" (the warmest water already needs the least speed and load)`}},
+		{"rule_temperature_out_of_range.toml", []string{
+			`rule_temperature_out_of_range.toml:12: facility[1].rule_temperature: found "-40 degC", expected a temperature within the facility's range, 280 K to 320 K`}},
+		{"rule_temperature_condensing.toml", []string{
+			`rule_temperature_condensing.toml:12: facility[1].rule_temperature: found "85 K", expected a T0 of at least 88.1278 K: colder, the test section condenses even at the facility's lowest p0 and Mach number`}},
+		{"rule_q_above_q_max.toml", []string{
+			`rule_q_above_q_max.toml:12: facility[1].rule_q: found "120 kPa", expected a dynamic pressure above 0 and at most the facility's q max, 90000 Pa`}},
+		{"rule_value_without_rule.toml", []string{
+			`rule_value_without_rule.toml:12: facility[1].rule_temperature: found rule_temperature with operating_rule "warmest", expected operating_rule = "fixed temperature" to hold it, or no rule_temperature`}},
+		{"rule_q_without_rule.toml", []string{
+			`rule_q_without_rule.toml:11: facility[1].rule_q: found rule_q with no operating_rule, expected operating_rule = "fixed q" to hold it, or no rule_q`}},
+		{"rule_temperature_missing.toml", []string{
+			`rule_temperature_missing.toml:2: facility[1].rule_temperature: missing, expected the T0 the "fixed temperature" rule holds, a temperature with its unit, e.g. "-20 degC" (units: K, degC, degF, degR)`}},
 		{"many_faults.toml", []string{
 			`many_faults.toml:6: facility[1].stagnation_pressure_range high: found "4.5 psx" (unknown pressure unit "psx"), expected a pressure with its unit, e.g. "2.5 bar" (units: Pa, hPa, kPa, MPa, mbar, bar, psi, psf, atm, inHg, mmHg, torr)`,
 			`many_faults.toml:9: facility[1].section_height: found "-2 m", expected a length above 0 m`,
-			`many_faults.toml:10: facility[1].colour: found unknown key "colour", expected one of: name, class, medium, mach_range, speed_range, stagnation_pressure_range, static_pressure_range, stagnation_temperature_range, water_temperature_range, max_dynamic_pressure, min_static_temperature, condensation_check, peak_local_mach, max_reynolds_per_metre, section_width, section_height, model`,
+			`many_faults.toml:10: facility[1].colour: found unknown key "colour", expected one of: name, class, medium, mach_range, speed_range, stagnation_pressure_range, static_pressure_range, stagnation_temperature_range, water_temperature_range, max_dynamic_pressure, min_static_temperature, condensation_check, peak_local_mach, max_reynolds_per_metre, section_width, section_height, balance_max_normal_force, balance_max_pitching_moment, operating_rule, rule_temperature, rule_q, model`,
 			`many_faults.toml:12: facility[2].section_height: missing, expected a length with its unit, e.g. "1.2 m" ` + lengthUnits,
 			`many_faults.toml:15: facility[2].speed_range: found ["10 m/s", "1 m/s"] (low above high), expected the low value first`,
 			`many_faults.toml:17: facility[2].water_temperature_range low: found "-5 degC", expected a water temperature from 0 degC to 100 degC`,

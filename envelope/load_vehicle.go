@@ -1,6 +1,7 @@
 package envelope
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"strconv"
@@ -73,6 +74,35 @@ func vehicleFields(v *Vehicle) []field {
 		quantityField{key: "reference_area", unit: uArea, required: true, bound: area, to: &v.RefArea},
 		quantityField{key: "span", unit: uLength, required: true, bound: VehicleLengthBound(), to: &v.Span},
 		quantityField{key: "frontal_area", unit: uArea, required: true, bound: area, to: &v.FrontalArea},
+		quantityField{key: "max_normal_coefficient", unit: uCoeff, bound: LoadCoefficientBound(), to: &v.Loads.CNMax},
+		quantityField{key: "max_pitching_moment_coefficient", unit: uCoeff, bound: LoadCoefficientBound(), to: &v.Loads.CmMax},
+		quantityField{key: "load_reference_area", unit: uArea, bound: aboveZero(MaxArea, "an area above 0 m2 (leave it out for the reference area)"), to: &v.Loads.Area},
+	}
+}
+
+// loadKeys are the file keys of the fields of ModelLoads (LoadError.Field).
+var loadKeys = map[string]string{
+	"CNMax": "max_normal_coefficient",
+	"CmMax": "max_pitching_moment_coefficient",
+	"Area":  "load_reference_area",
+}
+
+// checkLoads checks the vehicle's load data as a whole (CheckModelLoads:
+// an area needs a coefficient), once each coefficient the table gives
+// was read; a coefficient refused is reported already.
+func (d *doc) checkLoads(vt *table, v *Vehicle) {
+	if vt.has(loadKeys["CNMax"]) && v.Loads.CNMax == 0 || vt.has(loadKeys["CmMax"]) && v.Loads.CmMax == 0 {
+		return
+	}
+	var le *LoadError
+	if err := CheckModelLoads(v.Loads); errors.As(err, &le) {
+		p := vt.keyPath(loadKeys[le.Field])
+		found, expected := err.Error(), ""
+		if ob, ok := le.Err.(*OutOfBounds); ok {
+			found, expected = ob.Found, ob.Expected
+		}
+		d.fail(p, display(p), found, expected)
+		v.Loads = ModelLoads{}
 	}
 }
 
@@ -113,6 +143,7 @@ func (d *doc) vehicle() *Vehicle {
 	fields := vehicleFields(v)
 	if vt := root.sub("vehicle", fieldKeys(fields), true); vt != nil {
 		readFields(vt, fields)
+		d.checkLoads(vt, v)
 		vt.finish()
 	}
 

@@ -34,6 +34,9 @@ var (
 	uRatio     = unit{dim: atmos.Dimensionless, example: "1/40", ratio: true}
 	uFraction  = unit{dim: atmos.Dimensionless, example: "80 %", ratio: true}
 	uPerLength = unit{dim: atmos.Dimensionless, example: "30e6 /m", perLength: true}
+	uCoeff     = unit{dim: atmos.Dimensionless, example: "1.2"}
+	uForce     = unit{dim: atmos.Force, example: "4.5 kN"}
+	uMoment    = unit{dim: atmos.Moment, example: "600 N·m"}
 )
 
 // expect describes a well-formed value of this unit.
@@ -67,6 +70,10 @@ func (u unit) si() string {
 		return "Pa"
 	case u.dim == atmos.Temperature, u.dim == atmos.TemperatureDelta:
 		return "K"
+	case u.dim == atmos.Force:
+		return "N"
+	case u.dim == atmos.Moment:
+		return "N·m"
 	}
 	return ""
 }
