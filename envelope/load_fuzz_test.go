@@ -14,7 +14,7 @@ func addSeeds(f *testing.F, extra ...string) {
 	for _, s := range extra {
 		f.Add([]byte(s))
 	}
-	for _, pattern := range []string{"demo/*.toml", "../testdata/*.toml", "../testdata/bad/*.toml"} {
+	for _, pattern := range []string{"demo/*.toml", "../testdata/*.toml", "../testdata/examples/*.toml", "../testdata/bad/*.toml"} {
 		files, _ := filepath.Glob(pattern)
 		for _, file := range files {
 			if data, err := os.ReadFile(file); err == nil {
@@ -49,8 +49,9 @@ func checkFileErrors(t *testing.T, err error) {
 }
 
 // FuzzParseVehicle: any input either fails with a *FileErrors or gives a
-// vehicle whose numbers are finite and in range, whose grid is within the
-// size limit, and which survives a write and re-read unchanged.
+// vehicle whose numbers are finite and in range (load data too), whose
+// grid is within the size limit, and which survives a write and re-read
+// unchanged.
 func FuzzParseVehicle(f *testing.F) {
 	addSeeds(f, baseVehicle)
 	f.Fuzz(func(t *testing.T, data []byte) {
@@ -81,6 +82,9 @@ func FuzzParseVehicle(f *testing.F) {
 				t.Fatalf("grid axis %+v (%d points)", a, n)
 			}
 		}
+		if err := CheckModelLoads(v.Loads); err != nil || !finiteAll(v.Loads.CNMax, v.Loads.CmMax, v.Loads.Area) {
+			t.Fatalf("load data %+v: %v", v.Loads, err)
+		}
 		back, err := ParseVehicle("fuzz.toml", MarshalVehicle(v))
 		if err != nil {
 			t.Fatalf("re-reading the written vehicle: %v\n%s", err, MarshalVehicle(v))
@@ -92,7 +96,8 @@ func FuzzParseVehicle(f *testing.F) {
 }
 
 // FuzzParseFacilities: any input either fails with a *FileErrors or gives
-// facilities with finite, ordered ranges and a positive section, which
+// facilities with finite, ordered ranges and a positive section, a
+// balance within its bounds and an operating rule Solve takes, which
 // survive a write and re-read unchanged.
 func FuzzParseFacilities(f *testing.F) {
 	addSeeds(f, baseFacility, baseWater, baseFacility+"\n"+baseWater)
@@ -122,6 +127,12 @@ func FuzzParseFacilities(f *testing.F) {
 			}
 			if x.Medium.IsGas() && !(g.MachMin > 0) || x.Medium == MediumWater && !(w.SpeedMin > 0) {
 				t.Fatalf("facility has no speed range: %+v", x)
+			}
+			if err := CheckBalance(x.Balance); err != nil {
+				t.Fatalf("balance %+v: %v", x.Balance, err)
+			}
+			if err := CheckRule(x.Rule, &x); err != nil {
+				t.Fatalf("rule %+v: %v", x.Rule, err)
 			}
 		}
 		back, err := ParseFacilities("fuzz.toml", MarshalFacilities(fs))

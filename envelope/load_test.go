@@ -441,6 +441,10 @@ func TestBadFiles(t *testing.T) {
 			`rule_q_without_rule.toml:11: facility[1].rule_q: found rule_q with no operating_rule, expected operating_rule = "fixed q" to hold it, or no rule_q`}},
 		{"rule_temperature_missing.toml", []string{
 			`rule_temperature_missing.toml:2: facility[1].rule_temperature: missing, expected the T0 the "fixed temperature" rule holds, a temperature with its unit, e.g. "-20 degC" (units: K, degC, degF, degR)`}},
+		// q/p0 = ½γM²(1 + (γ−1)M²/2)^(−γ/(γ−1)) = 0.0155044 at Mach 0.15 (γ = 1.4; the
+		// isentropic relations of NACA Report 1135): 1 bar gives 1550.44 Pa.
+		{"rule_q_unreachable.toml", []string{
+			`rule_q_unreachable.toml:12: facility[1].rule_q: found "1 kPa", expected a dynamic pressure the facility runs, 1550.44 Pa (its lowest p0 at an end of its Mach range) to 134098 Pa (its highest p0)`}},
 		{"many_faults.toml", []string{
 			`many_faults.toml:6: facility[1].stagnation_pressure_range high: found "4.5 psx" (unknown pressure unit "psx"), expected a pressure with its unit, e.g. "2.5 bar" (units: Pa, hPa, kPa, MPa, mbar, bar, psi, psf, atm, inHg, mmHg, torr)`,
 			`many_faults.toml:9: facility[1].section_height: found "-2 m", expected a length above 0 m`,
