@@ -138,7 +138,7 @@ type ScaleStudy struct {
 	Steps  []ScaleStep
 	// Best is the index of the step with the highest matched share among
 	// those within both limits (the smallest scale on a tie), -1 when no
-	// step is.
+	// step within them matches any point.
 	Best int
 }
 
@@ -214,11 +214,12 @@ func (e *Evaluation) StudyAll(opt StudyOptions) ([]*ScaleStudy, []error) {
 }
 
 // bestStep is the index of the step with the highest matched share within
-// both limits, the smallest scale on a tie; -1 when none is within them.
+// both limits, the smallest scale on a tie; -1 when no step within them
+// matches any point.
 func bestStep(steps []ScaleStep) int {
 	best := -1
 	for k := range steps {
-		if steps[k].Mark.Beyond() {
+		if steps[k].Mark.Beyond() || !(steps[k].Shares.Matched() > 0) {
 			continue
 		}
 		if best < 0 || steps[k].Shares.Matched() > steps[best].Shares.Matched() {
