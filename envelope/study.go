@@ -129,10 +129,12 @@ type ScaleStudy struct {
 	// blockage rules (0: unknown), FitRule the rule that decides it.
 	FitScale float64
 	FitRule  string
-	// Balance is the largest scale the balance takes (BalanceScaleEnvelope;
-	// Max +Inf where the balance is not checked, or where no point is a
-	// full match within it: see Open and Closed).
-	Balance BalanceScale
+	// BalanceChecked says the balance is checked (BalanceChecked), and
+	// Balance is the largest scale it takes (BalanceScaleEnvelope; Max
+	// +Inf where it is not checked, or where no point is a full match
+	// within it: see Open and Closed).
+	BalanceChecked bool
+	Balance        BalanceScale
 	// Others is the number of other facilities the union counts.
 	Others int
 	Steps  []ScaleStep
@@ -148,6 +150,11 @@ func (st *ScaleStudy) BalanceLimit() (float64, bool) {
 	b := st.Balance
 	return b.Max, b.Open > 0 && !math.IsInf(b.Max, 1)
 }
+
+// BalanceChecked reports whether the model of vehicle v is checked against
+// facility f's balance: a capacity with the load coefficient it takes (a
+// normal force with CNMax, a pitching moment with CmMax).
+func BalanceChecked(v *Vehicle, f *Facility) bool { return newLoadModel(v, f).checks() }
 
 // StudyMap studies the facility of map m (solved by Solve) over model
 // scale; others are the maps of the other facilities on the same grid,
@@ -165,7 +172,7 @@ func StudyMap(m *Map, others []*Map, opt StudyOptions) (*ScaleStudy, error) {
 	st := &ScaleStudy{
 		Facility: m.Facility.Name, Medium: m.Facility.Medium, Inside: m.Grid.InsideCount(),
 		Scale: m.Scale, ScaleRule: m.ScaleRule, FitScale: m.FitScale, FitRule: m.FitRule,
-		Balance: BalanceScaleEnvelope(m.Grid, m.Facility, m.Settings), Others: sc.others,
+		BalanceChecked: sc.loads.checks(), Balance: BalanceScaleEnvelope(m.Grid, m.Facility, m.Settings), Others: sc.others,
 	}
 	bal, balOK := st.BalanceLimit()
 	if !balOK {

@@ -158,7 +158,7 @@ func (sf *ScaleFacility) fill(st *envelope.ScaleStudy, vehicle string) {
 	if st.FitScale > 0 {
 		sf.FitScale, sf.FitRule = Num(st.FitScale), st.FitRule
 	}
-	sf.BalanceChecked = st.Balance.Open+st.Balance.Closed > 0
+	sf.BalanceChecked = st.BalanceChecked
 	sf.BalanceOpen, sf.BalanceClosed = st.Balance.Open, st.Balance.Closed
 	if b, ok := st.BalanceLimit(); ok {
 		sf.BalanceScale = Num(b)
