@@ -26,6 +26,12 @@ func studyClasses(t *testing.T, e *Evaluation, k int, s float64) ([]Class, Scale
 // Solve's.
 func checkStudyEqualsSolve(t *testing.T, e *Evaluation, scales []float64) {
 	t.Helper()
+	var seen [NumClasses]int
+	defer func() {
+		if seen[FullMatch] == 0 || seen[ReShort] == 0 || seen[NoMatch] == 0 {
+			t.Errorf("classes seen %v: the comparison checks too little", seen)
+		}
+	}()
 	for k := range e.Facilities {
 		f := &e.Facilities[k]
 		if e.Maps[k] == nil {
@@ -39,6 +45,9 @@ func checkStudyEqualsSolve(t *testing.T, e *Evaluation, scales []float64) {
 				t.Fatal(err)
 			}
 			classes, st := studyClasses(t, e, k, s)
+			for c, n := range st.Shares.Count {
+				seen[c] += n
+			}
 			if st.Shares != m.Shares() {
 				t.Errorf("%s at scale %g: study counts %v, Solve %v", f.Name, s, st.Shares.Count, m.Shares().Count)
 			}
@@ -369,5 +378,55 @@ func TestBalanceScaleEnvelopePruned(t *testing.T) {
 	}
 	if searched < 2 {
 		t.Fatalf("only %d facilities with open windows: the test checks too little", searched)
+	}
+}
+
+// TestStudyEqualsSolveTASGrid: on a true-airspeed grid every point has a
+// flight Mach number of its own (groups of one).
+func TestStudyEqualsSolveTASGrid(t *testing.T) {
+	e := demoEvaluation(t, 30, 30, func(v *Vehicle, fs []Facility) {
+		v.Grid.SpeedKind = atmos.TAS
+		v.Grid.Speed = Axis{Min: 60, Max: 800, Count: 30}
+		v.Loads = ModelLoads{CNMax: 1.2}
+		fs[3].Balance = BalanceLimits{MaxNormalForce: 20e3}
+	})
+	checkStudyEqualsSolve(t, e, []float64{0.01, 0.03, 0.1})
+}
+
+// TestStudyEqualsSolveRelaxed: the second demo vehicle flies slowly, so
+// many of its points are matched with Mach number relaxed.
+func TestStudyEqualsSolveRelaxed(t *testing.T) {
+	vs, err := DemoVehicles()
+	if err != nil || len(vs) < 2 {
+		t.Fatalf("DemoVehicles: %d, %v", len(vs), err)
+	}
+	_, facs, err := Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, loads := range []bool{false, true} {
+		v := *vs[1]
+		fs := append([]Facility(nil), facs...)
+		if loads {
+			v.Loads = ModelLoads{CNMax: 1.5}
+			for k := range fs {
+				fs[k].Balance = BalanceLimits{MaxNormalForce: 5e3}
+			}
+		}
+		e, err := Evaluate(&v, fs, DefaultSettings(&v))
+		if err != nil {
+			t.Fatal(err)
+		}
+		relaxed := 0
+		for k := range e.Facilities {
+			for _, s := range []float64{0.005, 0.02, 0.08} {
+				_, st := studyClasses(t, e, k, s)
+				relaxed += st.Shares.Count[MachRelaxed]
+			}
+		}
+		if relaxed == 0 {
+			t.Fatal("no Mach-relaxed point: the test checks too little")
+		}
+		checkStudyEqualsSolve(t, e, []float64{0.005, 0.02, 0.08})
 	}
 }
