@@ -165,7 +165,56 @@ func StudyMap(m *Map, others []*Map, opt StudyOptions) (*ScaleStudy, error) {
 	if m == nil || m.Grid == nil || m.Facility == nil || m.sv == nil {
 		return nil, errors.New("scale study: need a map made by Solve")
 	}
-	sc, err := newStudier(m, others)
+	return studyMap(m, newMatchCount(m.Grid, others, m), opt)
+}
+
+// matchCount counts per grid point the maps that match it (full match or
+// Mach relaxed), for the union of a study; self is the studied map when
+// it is among them.
+type matchCount struct {
+	n    []uint16
+	maps int
+	self *Map
+}
+
+// newMatchCount counts the matches of maps on grid g, leaving out nil
+// maps, maps of another grid and skip.
+func newMatchCount(g *Grid, maps []*Map, skip *Map) *matchCount {
+	mc := &matchCount{}
+	for _, o := range maps {
+		if o == nil || o == skip || o.Grid != g || len(o.Results) != g.Len() || mc.maps == math.MaxUint16 {
+			continue
+		}
+		mc.maps++
+		if mc.n == nil {
+			mc.n = make([]uint16, g.Len())
+		}
+		for k := range o.Results {
+			if c := o.Results[k].Class; c == FullMatch || c == MachRelaxed {
+				mc.n[k]++
+			}
+		}
+	}
+	return mc
+}
+
+// others reports whether a map other than m matches point k.
+func (mc *matchCount) others(m *Map, k int) bool {
+	if mc.n == nil {
+		return false
+	}
+	n := mc.n[k]
+	if mc.self == m {
+		if c := m.Results[k].Class; c == FullMatch || c == MachRelaxed {
+			n--
+		}
+	}
+	return n > 0
+}
+
+// studyMap is StudyMap with the matches of the union counted.
+func studyMap(m *Map, mc *matchCount, opt StudyOptions) (*ScaleStudy, error) {
+	sc, err := newStudier(m, mc)
 	if err != nil {
 		return nil, fmt.Errorf("scale study of %q: %w", m.Facility.Name, err)
 	}
@@ -194,8 +243,10 @@ func StudyMap(m *Map, others []*Map, opt StudyOptions) (*ScaleStudy, error) {
 
 // Study is StudyMap of facility k of the evaluation, with the others of
 // the evaluation in the union. It is the call for one facility's study
-// panel: on the demo's 400×400 grid it takes about one solve's time
-// (BenchmarkStudy400).
+// panel (safe to run beside the interface's use of the maps): on the
+// demo's 400×400 grid it takes a few milliseconds without load data, about
+// one solve of the facility (BenchmarkStudy400 studies all six); with load
+// data the balance's window search (BalanceScaleEnvelope) adds to it.
 func (e *Evaluation) Study(k int, opt StudyOptions) (*ScaleStudy, error) {
 	if k < 0 || k >= len(e.Facilities) {
 		return nil, fmt.Errorf("scale study: facility %d of %d", k+1, len(e.Facilities))
@@ -212,9 +263,20 @@ func (e *Evaluation) Study(k int, opt StudyOptions) (*ScaleStudy, error) {
 func (e *Evaluation) StudyAll(opt StudyOptions) ([]*ScaleStudy, []error) {
 	out := make([]*ScaleStudy, len(e.Facilities))
 	errs := make([]error, len(e.Facilities))
+	// The matches of every facility are counted once for all the unions.
+	mc := newMatchCount(e.Grid, e.Maps, nil)
 	var wg sync.WaitGroup
 	for k := range e.Facilities {
-		wg.Go(func() { out[k], errs[k] = e.Study(k, opt) })
+		m := e.Maps[k]
+		if m == nil || m.sv == nil {
+			out[k], errs[k] = e.Study(k, opt) // its error
+			continue
+		}
+		wg.Go(func() {
+			own := *mc
+			own.self = m
+			out[k], errs[k] = studyMap(m, &own, opt)
+		})
 	}
 	wg.Wait()
 	return out, errs
@@ -345,10 +407,13 @@ type studier struct {
 	one      []pointReach
 	relax1   float64
 	relaxOK1 bool
-	// sorted1 are the reach ratios at scale 1 of the points that have a
-	// setting, ascending: at scale s they are s times as large.
-	sorted1 []float64
-	work    []pointReach // reaches at one scale with the balance cap
+	// reached1 counts the points that have a setting where the balance
+	// does not bind, and quant1 are the quantiles of their reach ratios at
+	// scale 1: at scale s the ratios are s times as large, and so are
+	// their quantiles.
+	reached1 int
+	quant1   [len(StudyQuantiles)]float64
+	work     []pointReach // reaches at one scale with the balance cap
 }
 
 // studyPt is one inside point of the study.
@@ -358,45 +423,45 @@ type studyPt struct {
 	other    bool    // matched by another facility at its scale
 }
 
-func newStudier(m *Map, others []*Map) (*studier, error) {
+func newStudier(m *Map, mc *matchCount) (*studier, error) {
 	g, f, s := m.Grid, m.Facility, m.Settings
 	sv, err := newSolver(f, s, g.Regimes)
 	if err != nil {
 		return nil, err
 	}
 	sv.setModelLength(g.Vehicle.RefLength)
-	sc := &studier{g: g, f: f, s: s, loads: m.loads, qTop: sv.topQ()}
-	var other []bool
-	for _, o := range others {
-		if o == nil || o == m || o.Grid != g || len(o.Results) != g.Len() {
-			continue
-		}
-		sc.others++
-		if other == nil {
-			other = make([]bool, g.Len())
-		}
-		for k := range o.Results {
-			if c := o.Results[k].Class; c == FullMatch || c == MachRelaxed {
-				other[k] = true
-			}
-		}
+	sc := &studier{g: g, f: f, s: s, loads: m.loads, qTop: sv.topQ(), others: mc.maps}
+	if mc.self == m {
+		sc.others--
 	}
 	// Group the inside points by flight Mach number (a counting sort),
 	// then order each group by target.
 	at := map[float64]int{}
 	grp := make([]int32, g.Len())
 	var count []int
+	// On a Mach grid a column shares its flight Mach number: the group of
+	// the point above is tried first.
+	cols := len(g.Speeds)
+	colMach, colGrp := make([]float64, cols), make([]int, cols)
+	for j := range colMach {
+		colMach[j] = math.NaN()
+	}
 	for k := range g.points {
 		r := &g.points[k]
 		if r.excl != InEnvelope {
 			continue
 		}
-		j, seen := at[r.mach]
-		if !seen {
-			j = len(sc.mach)
-			at[r.mach] = j
-			sc.mach = append(sc.mach, r.mach)
-			count = append(count, 0)
+		c := k % cols
+		j := colGrp[c]
+		if r.mach != colMach[c] {
+			var seen bool
+			if j, seen = at[r.mach]; !seen {
+				j = len(sc.mach)
+				at[r.mach] = j
+				sc.mach = append(sc.mach, r.mach)
+				count = append(count, 0)
+			}
+			colMach[c], colGrp[c] = r.mach, j
 		}
 		grp[k] = int32(j)
 		count[j]++
@@ -413,7 +478,7 @@ func newStudier(m *Map, others []*Map) (*studier, error) {
 			continue
 		}
 		j := grp[k]
-		sc.pts[fill[j]] = studyPt{need: (1 - s.ReTol) * r.re, re: r.re, k: int32(k), other: other != nil && other[k]}
+		sc.pts[fill[j]] = studyPt{need: (1 - s.ReTol) * r.re, re: r.re, k: int32(k), other: mc.others(m, k)}
 		fill[j]++
 	}
 	sc.otherPre = make([]int32, len(sc.pts)+1)
@@ -429,8 +494,9 @@ func newStudier(m *Map, others []*Map) (*studier, error) {
 	}
 	sc.one = sc.reachAll(sv, nil)
 	sc.relax1, sc.relaxOK1 = sv.relaxReach()
-	sc.sorted1 = sc.ratios(sc.one, sc.relax1, sc.relaxOK1, 1, make([]float64, 0, len(sc.pts)))
-	slices.Sort(sc.sorted1)
+	ratios := sc.ratios(sc.one, sc.relax1, sc.relaxOK1, 1, make([]float64, 0, len(sc.pts)))
+	sc.reached1 = len(ratios)
+	sc.quant1 = quantilesOf(ratios)
 	return sc, nil
 }
 
@@ -585,12 +651,9 @@ func (sc *studier) step(s float64, buf []float64, classes []Class) (ScaleStep, [
 		st.Union = float64(union) / float64(sc.g.inside)
 	}
 	if linear {
-		st.Reached = len(sc.sorted1)
-		for q, share := range StudyQuantiles {
-			st.ReRatio[q] = math.NaN()
-			if st.Reached > 0 {
-				st.ReRatio[q] = s * sc.sorted1[nearestRank(share, st.Reached)]
-			}
+		st.Reached = sc.reached1
+		for q := range st.ReRatio {
+			st.ReRatio[q] = s * sc.quant1[q] // NaN stays NaN
 		}
 		return st, buf
 	}

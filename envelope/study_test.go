@@ -12,7 +12,7 @@ import (
 // at scale s (Outside elsewhere), with its step.
 func studyClasses(t *testing.T, e *Evaluation, k int, s float64) ([]Class, ScaleStep) {
 	t.Helper()
-	sc, err := newStudier(e.Maps[k], e.Maps)
+	sc, err := newStudier(e.Maps[k], newMatchCount(e.Grid, e.Maps, e.Maps[k]))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -428,5 +428,40 @@ func TestStudyEqualsSolveRelaxed(t *testing.T) {
 			t.Fatal("no Mach-relaxed point: the test checks too little")
 		}
 		checkStudyEqualsSolve(t, e, []float64{0.005, 0.02, 0.08})
+	}
+}
+
+// TestStudyUnionInForce: at the scale each facility is evaluated at, the
+// union of the study is the union coverage of the evaluation, one study
+// at a time and all together.
+func TestStudyUnionInForce(t *testing.T) {
+	e := demoEvaluation(t, 50, 50, nil)
+	want := UnionCoverage(e.Solved())
+	all, errs := e.StudyAll(StudyOptions{})
+	for k := range e.Facilities {
+		if errs[k] != nil {
+			t.Fatal(errs[k])
+		}
+		one, err := e.Study(k, StudyOptions{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, st := range []*ScaleStudy{one, all[k]} {
+			if st.Others != len(e.Facilities)-1 {
+				t.Errorf("%s: %d others, want %d", st.Facility, st.Others, len(e.Facilities)-1)
+			}
+			found := false
+			for _, x := range st.Steps {
+				if x.Mark.Has(MarkInForce) {
+					found = true
+					if x.Union != want || x.Shares != e.Maps[k].Shares() {
+						t.Errorf("%s at its scale %g: union %g, shares %v; want %g, %v", st.Facility, x.Scale, x.Union, x.Shares.Count, want, e.Maps[k].Shares().Count)
+					}
+				}
+			}
+			if !found {
+				t.Errorf("%s: no step at the scale in force", st.Facility)
+			}
+		}
 	}
 }
