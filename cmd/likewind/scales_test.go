@@ -13,6 +13,7 @@ import (
 
 	"likewind/envelope"
 	"likewind/envelope/report"
+	"likewind/envelope/whatif"
 )
 
 // demoFiles are the demo's vehicle and facility files under testdata/.
@@ -213,5 +214,33 @@ func TestPlotScales(t *testing.T) {
 	}
 	if exists(filepath.Join(dir, "pair-scales.png")) {
 		t.Error("--chart both wrote the scales chart")
+	}
+}
+
+// TestScalesSession: a session's what-if values apply, so a scale set
+// for every facility is the scale in force of every study.
+func TestScalesSession(t *testing.T) {
+	sess := outDemoSession(t, nil, whatif.Changes{Values: map[string]float64{"scale": 0.05}}, "")
+	code, out, errs := outCmd("scales", "--session", sess, "--format", "json")
+	if code != 0 {
+		t.Fatalf("scales exit %d: %s", code, errs)
+	}
+	var got report.Scales
+	if err := json.Unmarshal([]byte(out), &got); err != nil {
+		t.Fatal(err)
+	}
+	for _, f := range got.Vehicles[0].Facilities {
+		inForce := 0
+		for _, x := range f.Steps {
+			if strings.Contains(x.Marks, "in force") {
+				inForce++
+				if float64(x.Scale) != 0.05 {
+					t.Errorf("%s: in force at %g, want the session's 0.05", f.Facility, float64(x.Scale))
+				}
+			}
+		}
+		if inForce != 1 || float64(f.Scale) != 0.05 {
+			t.Errorf("%s: scale %g, %d steps in force", f.Facility, float64(f.Scale), inForce)
+		}
 	}
 }
