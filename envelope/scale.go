@@ -260,12 +260,18 @@ func ScaleWindowAt(g *Grid, f *Facility, s Settings, i, j int) (ScaleWindow, boo
 	if r.excl != InEnvelope {
 		return ScaleWindow{}, false
 	}
-	return scaleWindow(sv, g.Vehicle.RefLength, newLoadModel(g.Vehicle, f), r, s.ReTol, nil), true
+	return scaleWindow(sv, g.Vehicle.RefLength, newLoadModel(g.Vehicle, f), r, s.ReTol, nil, math.Inf(1)), true
 }
 
 // scaleWindow is the scale window of flight record r with solver sv
 // (whose model length it changes; L1 is the full-scale length).
-func scaleWindow(sv solver, L1 float64, loads loadModel, r *flightRec, reTol float64, memo map[float64]scaleOne) ScaleWindow {
+//
+// below, when finite, asks only whether Max lies below it: where the
+// balance still carries the model at scale below (the load grows with
+// scale: see the scale search above), Max is returned as below without the root
+// search (BalanceScaleEnvelope keeps the smallest Max, so most points
+// need two loads worked out instead of tens: BenchmarkStudy400Loads).
+func scaleWindow(sv solver, L1 float64, loads loadModel, r *flightRec, reTol float64, memo map[float64]scaleOne, below float64) ScaleWindow {
 	sv.setModelLength(L1)
 	sol := sv.minScale(r, memo)
 	w := ScaleWindow{Min: sol.scale, MinOK: sol.ok, Max: math.Inf(1)}
@@ -291,6 +297,14 @@ func scaleWindow(sv solver, L1 float64, loads loadModel, r *flightRec, reTol flo
 	slo := share(lo)
 	if slo > 1+solveSlack {
 		w.Max = 0
+		return w
+	}
+	switch {
+	case below < lo:
+		w.Max = lo // at least Min, so above below
+		return w
+	case below < math.Inf(1) && share(below) <= 1:
+		w.Max = below
 		return w
 	}
 	hi, shi := lo, slo
@@ -357,7 +371,7 @@ func BalanceScaleEnvelope(g *Grid, f *Facility, s Settings) BalanceScale {
 		if r.excl != InEnvelope {
 			continue
 		}
-		w := scaleWindow(sv, g.Vehicle.RefLength, loads, r, s.ReTol, memo)
+		w := scaleWindow(sv, g.Vehicle.RefLength, loads, r, s.ReTol, memo, out.Max)
 		switch {
 		case w.Open():
 			out.Open++

@@ -56,6 +56,15 @@ type solver interface {
 	// full match (see MinScaleFullMatch), without the balance cap; memo,
 	// when not nil, keeps what depends on the flight Mach number alone.
 	minScale(r *flightRec, memo map[float64]scaleOne) minScaleSol
+
+	// reach, relaxReach and topQ serve the scale study (study_reach.go):
+	// the best settings a point's class is decided by, at flight Mach
+	// number mf; the highest setting where Mach number may be relaxed;
+	// the highest dynamic pressure the facility runs (a balance cap at or
+	// above it binds nowhere).
+	reach(mf float64) pointReach
+	relaxReach() (re float64, ok bool)
+	topQ() float64
 }
 
 // scaleOne is the best setting at a flight Mach number for a full-scale

@@ -41,6 +41,10 @@ type commandSpec struct {
 	format        string
 	formats       []string
 	formatFromExt bool
+
+	// vehicles: the command takes several vehicle files (told apart from
+	// facility files by content) and evaluates each (vehicles.go).
+	vehicles bool
 }
 
 // Help texts of --session shared by several commands.
@@ -66,6 +70,9 @@ type command struct {
 	targets []string
 	day     string // the checked --date, or today
 	ev      *evaluated
+	// evs are the evaluations of every vehicle (spec.vehicles; ev is the
+	// first).
+	evs []*evaluated
 }
 
 // newCommand makes the flag set of spec with its common flags; the
@@ -185,6 +192,14 @@ func (c *command) load() error {
 		if err := fileout.CheckOutputTarget(t, c.out.force); err != nil {
 			return err
 		}
+	}
+	if c.spec.vehicles {
+		evs, err := evaluateVehicles(c.files, c.session, c.stderr)
+		if err != nil {
+			return err
+		}
+		c.evs, c.ev = evs, evs[0]
+		return nil
 	}
 	ev, err := evaluateInputs(c.files, c.session, c.stderr)
 	c.ev = ev
@@ -316,6 +331,11 @@ func evaluateInputs(files []string, sessionPath string, stderr io.Writer) (*eval
 	if err != nil {
 		return nil, err
 	}
+	return evaluateLoaded(in, sessionPath, stderr)
+}
+
+// evaluateLoaded is evaluateInputs on inputs already loaded.
+func evaluateLoaded(in inputs, sessionPath string, stderr io.Writer) (*evaluated, error) {
 	ev := &evaluated{in: in}
 	s := envelope.DefaultSettings(in.vehicle)
 	facs := append([]envelope.Facility(nil), in.facilities...)

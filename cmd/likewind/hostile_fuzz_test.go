@@ -168,6 +168,14 @@ func hostileOutputs(t *testing.T, name, file string) map[string]string {
 	must("coverage text", r.WriteText(&b))
 	must("coverage csv", r.WriteCSV(&b))
 	must("coverage json", r.WriteJSON(&b))
+	cs := report.NewCoverageSet([]*envelope.Evaluation{e, e})
+	must("coverage set text", cs.WriteText(&b))
+	must("coverage set csv", cs.WriteCSV(&b))
+	must("coverage set json", cs.WriteJSON(&b))
+	sr := report.NewScales(report.ExportInfo{Tool: "likewind"}, []*envelope.Evaluation{e, e}, envelope.StudyOptions{Steps: 6})
+	must("scales text", sr.WriteText(&b))
+	must("scales csv", sr.WriteCSV(&b))
+	must("scales json", sr.WriteJSON(&b))
 	p, err := planAll(ev, -1)
 	if err != nil {
 		t.Fatal(err)
@@ -178,6 +186,10 @@ func hostileOutputs(t *testing.T, name, file string) map[string]string {
 	for what, mk := range map[string]func() (*report.Chart, error){
 		"map svg":     func() (*report.Chart, error) { return report.MapChart(e, 0, false) },
 		"re-mach svg": func() (*report.Chart, error) { return report.ReMachChart(e, nil) },
+		"scales svg": func() (*report.Chart, error) {
+			studies, _ := e.StudyAll(envelope.StudyOptions{Steps: 6})
+			return report.ScalesChart(e.Grid.Vehicle.Name, studies)
+		},
 	} {
 		ch, err := mk()
 		if err != nil {

@@ -46,6 +46,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			return runPlot(args[1:], stdout, stderr)
 		case "coverage":
 			return runCoverage(args[1:], stdout, stderr)
+		case "scales":
+			return runScales(args[1:], stdout, stderr)
 		case "runs":
 			return runRuns(args[1:], stdout, stderr)
 		case "help", "-h", "--help", "-help":
@@ -81,6 +83,7 @@ usage:
   likewind export [FILES] --format csv|json  every grid point's numbers
   likewind plot [FILES] -o FILE.png|FILE.svg pictures for slides
   likewind coverage [FILES]                  coverage shares per facility
+  likewind scales [FILES]                    coverage by model scale per facility
   likewind runs [FILES]                      run list in facility order
   likewind version
 

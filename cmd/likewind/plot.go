@@ -13,9 +13,9 @@ import (
 
 var plotCommand = commandSpec{
 	name:      "plot",
-	usage:     "likewind plot [VEHICLE.toml FACILITIES.toml...] -o FILE.png|FILE.svg|- [--format png|svg] [--chart map|re-mach|both] [--facility NAME] [--customary] [--force] [--session FILE]",
+	usage:     "likewind plot [VEHICLE.toml FACILITIES.toml...] -o FILE.png|FILE.svg|- [--format png|svg] [--chart map|re-mach|scales|both|all] [--facility NAME] [--customary] [--force] [--session FILE]",
 	format:    "png or svg (default: from the -o extension; needed with -o -)",
-	facility:  `facility: name, unique part of a name, or number (default: map of the best of all, Reynolds–Mach chart of every facility)`,
+	facility:  `facility: name, unique part of a name, or number (default: map of the best of all, Reynolds–Mach and scales charts of every facility)`,
 	customary: "map axes in ft and kt",
 	session:   sessionWhatIf,
 }
@@ -24,7 +24,7 @@ var plotCommand = commandSpec{
 // as PNG or SVG pictures.
 func runPlot(args []string, stdout, stderr io.Writer) int {
 	c := newCommand(plotCommand, stdout, stderr)
-	chart := c.fs.String("chart", "both", "map, re-mach, or both (both writes FILE-map.EXT and FILE-remach.EXT)")
+	chart := c.fs.String("chart", "both", "map, re-mach, scales (matched share against model scale), both (FILE-map.EXT and FILE-remach.EXT) or all (those and FILE-scales.EXT)")
 	return c.run(args, func() error {
 		format, err := c.pictureFormat()
 		if err != nil {
@@ -102,12 +102,13 @@ func (c *command) pictureFormat() (string, error) {
 
 // plotTarget is one picture to write.
 type plotTarget struct {
-	chart string // "map" or "re-mach"
+	chart string // "map", "re-mach" or "scales"
 	path  string
 }
 
 // plotTargets are the pictures --chart asks for: one at -o FILE, or with
-// both FILE-map.EXT and FILE-remach.EXT.
+// both FILE-map.EXT and FILE-remach.EXT, with all FILE-scales.EXT too
+// (both keeps its two pictures, as before the scales chart).
 func (c *command) plotTargets(chart string) ([]plotTarget, error) {
 	path := c.out.path
 	ext := strings.ToLower(filepath.Ext(path))
@@ -117,24 +118,42 @@ func (c *command) plotTargets(chart string) ([]plotTarget, error) {
 		return []plotTarget{{"map", path}}, nil
 	case "re-mach", "remach":
 		return []plotTarget{{"re-mach", path}}, nil
-	case "both":
+	case "scales":
+		return []plotTarget{{"scales", path}}, nil
+	case "both", "all":
 		if path == "-" {
-			return nil, c.usagef("-o - takes one picture: give --chart map or --chart re-mach")
+			return nil, c.usagef("-o - takes one picture: give --chart map, re-mach or scales")
 		}
-		return []plotTarget{{"map", base + "-map" + ext}, {"re-mach", base + "-remach" + ext}}, nil
+		t := []plotTarget{{"map", base + "-map" + ext}, {"re-mach", base + "-remach" + ext}}
+		if strings.EqualFold(chart, "all") {
+			t = append(t, plotTarget{"scales", base + "-scales" + ext})
+		}
+		return t, nil
 	}
-	return nil, c.usagef("--chart %q: want map, re-mach or both", chart)
+	return nil, c.usagef("--chart %q: want map, re-mach, scales, both or all", chart)
 }
 
 // renderChart draws one chart of e as png or svg: the class map of
-// facility fac (-1 the best of all), or the Reynolds–Mach chart of fac
-// (-1 every facility).
+// facility fac (-1 the best of all), or the Reynolds–Mach chart or the
+// scales chart of fac (-1 every facility).
 func renderChart(e *envelope.Evaluation, chart string, fac int, customary bool, format string) ([]byte, error) {
 	var ch *report.Chart
 	var err error
-	if chart == "map" {
+	switch chart {
+	case "map":
 		ch, err = report.MapChart(e, fac, customary)
-	} else {
+	case "scales":
+		studies, errs := e.StudyAll(envelope.StudyOptions{})
+		if fac >= 0 {
+			if errs[fac] != nil {
+				return nil, errs[fac]
+			}
+			only := make([]*envelope.ScaleStudy, len(studies))
+			only[fac] = studies[fac]
+			studies = only
+		}
+		ch, err = report.ScalesChart(e.Grid.Vehicle.Name, studies)
+	default:
 		var sel []int
 		if fac >= 0 {
 			sel = []int{fac}
