@@ -434,7 +434,7 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 		fmt.Sprintf("Reynolds number on %s", refLengthWords(v)))
 	// The y axis is linear in log10(Re), labelled in decades: the plot's
 	// own log scale centres the rotated axis title wrongly.
-	ch.plot.Y.Tick.Marker = decadeTicks{}
+	ch.plot.Y.Tick.Marker = decadeTicks
 	lg := math.Log10
 
 	ylo, yhi := math.Inf(1), math.Inf(-1)
@@ -511,12 +511,21 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 	return ch, nil
 }
 
-// decadeTicks marks an axis of log10 values at every whole number
-// (labelled "1e7") and at log10 of 2–9 times each (unlabelled), within the
-// axis range only.
-type decadeTicks struct{}
+// logTicks marks an axis of log10 values at every whole multiple of each
+// power of ten within the axis range, labelled where label gives a text
+// for multiple f of 10^e.
+type logTicks struct{ label func(f int, e float64) string }
 
-func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
+// decadeTicks labels each power of ten ("1e7") and leaves 2–9 times it
+// unlabelled.
+var decadeTicks = logTicks{label: func(f int, e float64) string {
+	if f == 1 {
+		return "1e" + strconv.Itoa(int(e))
+	}
+	return ""
+}}
+
+func (lt logTicks) Ticks(lo, hi float64) []plot.Tick {
 	var ticks []plot.Tick
 	if !(hi > lo) {
 		return ticks
@@ -527,11 +536,7 @@ func (decadeTicks) Ticks(lo, hi float64) []plot.Tick {
 			if x < lo-1e-9 || x > hi+1e-9 {
 				continue
 			}
-			t := plot.Tick{Value: x}
-			if f == 1 {
-				t.Label = "1e" + strconv.Itoa(int(e))
-			}
-			ticks = append(ticks, t)
+			ticks = append(ticks, plot.Tick{Value: x, Label: lt.label(f, e)})
 		}
 	}
 	return ticks

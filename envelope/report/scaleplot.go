@@ -29,7 +29,7 @@ const beyondAlpha = 0x60
 func ScalesChart(vehicle string, studies []*envelope.ScaleStudy) (*Chart, error) {
 	ch := newChart(fmt.Sprintf("%s: matched share against model scale", vehicle),
 		"model scale (model size / full size, log scale)", "matched share of inside points (%)")
-	ch.plot.X.Tick.Marker = scaleTicks{}
+	ch.plot.X.Tick.Marker = scaleTicks
 	lg := math.Log10
 	xlo, xhi := math.Inf(1), math.Inf(-1)
 	n := 0
@@ -140,28 +140,11 @@ func grey(l *plotter.Line) plot.Thumbnailer {
 	return &g
 }
 
-// scaleTicks marks an axis of log10 scale values at 1, 2 and 5 times each
-// power of ten (labelled as decimals: 0.01, 0.02, 0.05) and at the other
-// whole multiples (unlabelled), within the axis range only.
-type scaleTicks struct{}
-
-func (scaleTicks) Ticks(lo, hi float64) []plot.Tick {
-	var ticks []plot.Tick
-	if !(hi > lo) {
-		return ticks
+// scaleTicks labels 1, 2 and 5 times each power of ten as decimals (0.01,
+// 0.02, 0.05) and leaves the other whole multiples unlabelled.
+var scaleTicks = logTicks{label: func(f int, e float64) string {
+	if f == 1 || f == 2 || f == 5 {
+		return strconv.FormatFloat(float64(f)*math.Pow(10, e), 'g', 3, 64)
 	}
-	for e := math.Floor(lo); e <= math.Ceil(hi); e++ {
-		for f := 1; f <= 9; f++ {
-			x := e + math.Log10(float64(f))
-			if x < lo-1e-9 || x > hi+1e-9 {
-				continue
-			}
-			t := plot.Tick{Value: x}
-			if f == 1 || f == 2 || f == 5 {
-				t.Label = strconv.FormatFloat(float64(f)*math.Pow(10, e), 'g', 3, 64)
-			}
-			ticks = append(ticks, t)
-		}
-	}
-	return ticks
-}
+	return ""
+}}
