@@ -24,7 +24,7 @@ type gasSolver struct {
 	// lim are the facility's limits (fac) with the rule's fixed T0, if
 	// any, as both ends of the T0 range.
 	lim, fac  GasLimits
-	qMax      float64 // Pa (0: none)
+	qLimits           // q max and the balance's q cap
 	maxRePerM float64 // unit Reynolds cap, 1/m (0: none)
 	reg       atmos.Regimes
 
@@ -37,11 +37,6 @@ type gasSolver struct {
 	// above and p0 from below: the facility's limits, or the rule's fixed
 	// value.
 	limT0Lo, limT0Hi, limP0Lo Limit
-	// qLoad is the dynamic pressure at which the model reaches the
-	// balance capacity (0: not checked); qCap, the lower of it and qMax,
-	// caps p0 at each Mach number, and qCapLim names it.
-	qLoad, qCap float64
-	qCapLim     Limit
 
 	mTol, reTol float64
 	compMach    float64 // below it Mach number may be relaxed
@@ -83,7 +78,7 @@ func newGasSolver(f *Facility, gas atmos.Gas, s Settings, reg atmos.Regimes, r O
 	sv := &gasSolver{
 		lim:       g,
 		fac:       g,
-		qMax:      f.QMax,
+		qLimits:   qLimits{qMax: f.QMax},
 		maxRePerM: f.MaxReynoldsPerM,
 		reg:       reg,
 		rule:      r,
@@ -117,16 +112,6 @@ func newGasSolver(f *Facility, gas atmos.Gas, s Settings, reg atmos.Regimes, r O
 	}
 	sv.setLoadCap(0)
 	return sv, nil
-}
-
-// setLoadCap sets the dynamic pressure at which the model reaches the
-// balance capacity (0: not checked).
-func (sv *gasSolver) setLoadCap(q float64) {
-	sv.qLoad = q
-	sv.qCap, sv.qCapLim = sv.qMax, LimitQMax
-	if q > 0 && (sv.qCap == 0 || q < sv.qCap) {
-		sv.qCap, sv.qCapLim = q, LimitBalanceLoad
-	}
 }
 
 // free is the solver of the same facility and model under the standard

@@ -190,3 +190,25 @@ func checkNonNegative(vs []namedValue) error {
 	}
 	return nil
 }
+
+// qLimits is the test-section dynamic-pressure cap both media share: the
+// facility's q max and the q at which the model reaches the balance
+// capacity.
+type qLimits struct {
+	qMax float64 // Pa (0: none)
+	// qLoad is the dynamic pressure at which the model reaches the
+	// balance capacity (0: not checked); qCap, the lower of it and qMax,
+	// caps p0 (gas) or the speed (water), and qCapLim names it.
+	qLoad, qCap float64
+	qCapLim     Limit
+}
+
+// setLoadCap sets the dynamic pressure at which the model reaches the
+// balance capacity (0: not checked).
+func (c *qLimits) setLoadCap(q float64) {
+	c.qLoad = q
+	c.qCap, c.qCapLim = c.qMax, LimitQMax
+	if q > 0 && (c.qCap == 0 || q < c.qCap) {
+		c.qCap, c.qCapLim = q, LimitBalanceLoad
+	}
+}

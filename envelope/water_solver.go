@@ -28,20 +28,15 @@ type waterSolver struct {
 	// lim are the facility's limits (fac) with the rule's fixed water
 	// temperature, if any, as both ends of the temperature range.
 	lim, fac  WaterLimits
-	qMax      float64 // Pa (0: none)
+	qLimits           // q max and the balance's q cap
 	maxRePerM float64 // unit Reynolds cap, 1/m (0: none)
 	rule      OperatingRule
 	limT      Limit // what bounds the water temperature (range or rule)
-	// qLoad is the dynamic pressure at which the model reaches the
-	// balance capacity (0: not checked); qCap, the lower of it and qMax,
-	// caps the speed, and qCapLim names it.
-	qLoad, qCap float64
-	qCapLim     Limit
-	reTol       float64
-	compMach    float64          // flight Mach numbers below it are tried
-	L           float64          // model reference length, m
-	pStatic     float64          // test-section static pressure, Pa
-	hot, cold   atmos.WaterState // at the warmest and the coldest water
+	reTol     float64
+	compMach  float64          // flight Mach numbers below it are tried
+	L         float64          // model reference length, m
+	pStatic   float64          // test-section static pressure, Pa
+	hot, cold atmos.WaterState // at the warmest and the coldest water
 }
 
 // newWaterSolver checks the water limits of f and prepares its solver
@@ -65,7 +60,7 @@ func newWaterSolver(f *Facility, s Settings, r OperatingRule) (*waterSolver, err
 	sv := &waterSolver{
 		lim:       w,
 		fac:       w,
-		qMax:      f.QMax,
+		qLimits:   qLimits{qMax: f.QMax},
 		maxRePerM: f.MaxReynoldsPerM,
 		rule:      r,
 		limT:      LimitWaterTemp,
@@ -83,16 +78,6 @@ func newWaterSolver(f *Facility, s Settings, r OperatingRule) (*waterSolver, err
 	sv.cold, _ = sv.waterAt(sv.lim.TMin)
 	sv.setLoadCap(0)
 	return sv, nil
-}
-
-// setLoadCap sets the dynamic pressure at which the model reaches the
-// balance capacity (0: not checked).
-func (sv *waterSolver) setLoadCap(q float64) {
-	sv.qLoad = q
-	sv.qCap, sv.qCapLim = sv.qMax, LimitQMax
-	if q > 0 && (sv.qCap == 0 || q < sv.qCap) {
-		sv.qCap, sv.qCapLim = q, LimitBalanceLoad
-	}
 }
 
 // free is the solver of the same facility and model under the standard
