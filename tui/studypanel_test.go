@@ -57,7 +57,7 @@ func rowShare(t *testing.T, p studyPanel, k int) float64 {
 // fit-limit row is the section's largest model, the rows above it say
 // they are beyond it, the pointer starts on the scale in force, and the
 // best scale named is the row of the highest matched share among those
-// within the limits (the smallest on a tie).
+// within both limits, the fit and the balance's (the smallest on a tie).
 func TestStudyPanelMarksAndBest(t *testing.T) {
 	m := studyOpen(t, 120, 40)
 	p := m.study
@@ -79,7 +79,7 @@ func TestStudyPanelMarksAndBest(t *testing.T) {
 		if beyond != (k > fit) {
 			t.Errorf("row %d (scale %g): beyond fit %v, want %v (fit limit %g)", k, r.scale, beyond, k > fit, mp.FitScale)
 		}
-		if !beyond {
+		if !r.beyond {
 			if s := rowShare(t, p, k); s > bestShare {
 				best, bestShare = k, s
 			}
@@ -93,7 +93,12 @@ func TestStudyPanelMarksAndBest(t *testing.T) {
 	if !strings.Contains(screen, want) {
 		t.Errorf("screen does not name the best scale %q:\n%s", want, m.View())
 	}
-	for _, w := range []string{"MODEL-SCALE STUDY d Kellen Fold", "scale in force 0.025 = 1:40", "balance not checked"} {
+	// The demo tunnel's balance (2.4 kN, 120 N·m) is checked.
+	lim, ok := p.study.BalanceLimit()
+	if !ok {
+		t.Fatal("no balance limit for the demo cryogenic tunnel")
+	}
+	for _, w := range []string{"MODEL-SCALE STUDY d Kellen Fold", "scale in force 0.025 = 1:40", "the balance takes up to " + sig3(lim)} {
 		if !strings.Contains(screen, w) {
 			t.Errorf("screen lacks %q:\n%s", w, m.View())
 		}
