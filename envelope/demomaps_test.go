@@ -4,11 +4,22 @@ import "testing"
 
 // outDemoMaps solves every demo facility on the demo vehicle's grid
 // (invented data).
-func outDemoMaps(t testing.TB) (*Grid, []*Map) {
+func outDemoMaps(t testing.TB) (*Grid, []*Map) { return demoMapsWith(t, nil) }
+
+// outDemoMapsNoLoads is outDemoMaps without the demo's load data
+// (stripLoads).
+func outDemoMapsNoLoads(t testing.TB) (*Grid, []*Map) { return demoMapsWith(t, stripLoads) }
+
+// demoMapsWith solves every demo facility on the demo vehicle's grid,
+// the data changed by edit first (nil: as they are).
+func demoMapsWith(t testing.TB, edit func(*Vehicle, []Facility)) (*Grid, []*Map) {
 	t.Helper()
 	v, facs, err := Demo()
 	if err != nil {
 		t.Fatalf("Demo() = %v", err)
+	}
+	if edit != nil {
+		edit(v, facs)
 	}
 	s := DefaultSettings(v)
 	g, err := NewGrid(v, s)

@@ -11,15 +11,20 @@ import "testing"
 //
 //	go test -run '^$' -bench 'Study400|DemoSolve400' -cpu 1 ./envelope/
 
-// benchStudy studies every facility of the demo on its 400×400 grid, with
-// load data on every facility when loads is set.
+// benchStudy studies every facility of the demo on its 400×400 grid,
+// without the demo's load data, or with load data on every facility when
+// loads is set.
 func benchStudy(b *testing.B, loads bool) {
 	v, facs, s := demo400(b)
-	if loads {
-		v.Loads = ModelLoads{CNMax: 1.2}
-		for k := range facs {
+	v.Loads = ModelLoads{} // the demo's own load data (two balances) left out
+	for k := range facs {
+		facs[k].Balance = BalanceLimits{}
+		if loads {
 			facs[k].Balance = BalanceLimits{MaxNormalForce: 20e3}
 		}
+	}
+	if loads {
+		v.Loads = ModelLoads{CNMax: 1.2}
 	}
 	e, err := Evaluate(v, facs, s)
 	if err != nil {

@@ -93,8 +93,22 @@ func demoEvaluation(t *testing.T, rows, cols int, edit func(v *Vehicle, fs []Fac
 // section's fit (the demo fit scales lie between about 0.01 and 0.3).
 var studyScalesSample = []float64{0.004, 0.0125, 0.025, 0.06, 0.11, 0.3, 0.7}
 
+// TestStudyEqualsSolve: without load data the scale-1 reaches serve every
+// scale, scaled; on the demo as it is (two facilities with a balance) the
+// study solves again where the balance binds.
 func TestStudyEqualsSolve(t *testing.T) {
+	checkStudyEqualsSolve(t, demoEvaluation(t, 60, 60, stripLoads), studyScalesSample)
 	checkStudyEqualsSolve(t, demoEvaluation(t, 60, 60, nil), studyScalesSample)
+}
+
+// stripLoads removes the demo's load data (the vehicle's coefficients,
+// every balance capacity), for the properties that hold where the balance
+// cannot bind.
+func stripLoads(v *Vehicle, fs []Facility) {
+	v.Loads = ModelLoads{}
+	for k := range fs {
+		fs[k].Balance = BalanceLimits{}
+	}
 }
 
 // TestStudyEqualsSolveBalance: with load data the balance caps q at a
@@ -218,7 +232,7 @@ func TestStudyTinyHandChecked(t *testing.T) {
 // quantile at or above 1 − ReTol exactly when at least that share of the
 // points reach it.
 func TestStudyReachRatio(t *testing.T) {
-	e := demoEvaluation(t, 40, 40, nil)
+	e := demoEvaluation(t, 40, 40, stripLoads)
 	for k := range e.Facilities {
 		st, err := e.Study(k, StudyOptions{Steps: 2, Min: 0.02, Max: 0.04})
 		if err != nil {

@@ -21,17 +21,19 @@ type component[T any] interface {
 	SetSize(width, height int)
 }
 
-// A further panel (the model-scale study of the facility on screen is the
-// next planned) plugs in the same way: a component here, a mode in
-// model.go with the key that opens it in KeyMap, its case in bodyView,
-// lowerPreferred and setPanelSize (view.go), what it shows given in
-// syncPanels, and its reports handled in onReport.
+// A further panel plugs in as the model-scale study does
+// (studypanel.go): a component, a mode in model.go with the key that
+// opens it in KeyMap, its case in bodyView, lowerPreferred and
+// setPanelSize (view.go), what it shows given in syncPanels, and its
+// reports handled in onReport. Work that takes time (the study) runs in a
+// command of the root whose typed message brings the result back.
 
 var (
 	_ component[picker]       = (*picker)(nil)
 	_ component[editor]       = (*editor)(nil)
 	_ component[detailsView]  = (*detailsView)(nil)
 	_ component[saveAsPrompt] = (*saveAsPrompt)(nil)
+	_ component[studyPanel]   = (*studyPanel)(nil)
 )
 
 // The reports of the components: the message of the command a
@@ -123,6 +125,10 @@ func (m *Model) onReport(msg tea.Msg) tea.Cmd {
 		return m.undoLast()
 	case sessionFileChosenMsg:
 		return m.saveAsCmd(r.path, r.quit)
+	case studyScaleChosenMsg:
+		return m.studyScale(r.scale)
+	case studyFacilityMsg:
+		m.stepStudyFacility(r.step)
 	case saveAsCancelledMsg:
 		m.mode = modeMain
 		m.setError("session not saved; the changes are still here")

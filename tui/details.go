@@ -314,7 +314,14 @@ func (m Model) facilityBlock(d *detailBlocks, fd envelope.FlightDetail, w int, p
 		d.facility = append(d.facility, st.Label.Render("limited by")+" "+det.Limit.String())
 	}
 	d.summary += " | " + classWord(det.Class)
-	m.settingLines(d, &det, &fac, pair)
+	// The facility block's column where it is the right of two blocks
+	// side by side (layDetails), the narrow layout, whose height is
+	// short; stacked (the wide layout) lines wrap.
+	colW := 0
+	if !m.wide {
+		colW = w - (w-1)/2 - 1
+	}
+	m.settingLines(d, &det, &fac, pair, colW)
 
 	// The cautions by name, for panels without room for the full texts,
 	// and the full texts in the panel's units, like every other value.
@@ -331,8 +338,9 @@ func (m Model) facilityBlock(d *detailBlocks, fd envelope.FlightDetail, w int, p
 
 // settingLines writes the facility settings of det into d: p0 and T0, or
 // water speed and temperature, then q, the Reynolds number reached, the
-// model and the operating rule.
-func (m Model) settingLines(d *detailBlocks, det *envelope.Detail, fac *envelope.Facility, pair pairFunc) {
+// model and the operating rule; colW is the width of the block's column
+// where lines are to keep to it (0: they wrap).
+func (m Model) settingLines(d *detailBlocks, det *envelope.Detail, fac *envelope.Facility, pair pairFunc, colW int) {
 	st, u := m.fr.st, m.units
 	if !det.HasSettings {
 		d.facility = append(d.facility, st.Faint.Render("no setting reaches this condition"))
@@ -355,7 +363,7 @@ func (m Model) settingLines(d *detailBlocks, det *envelope.Detail, fac *envelope
 			qLine += st.Label.Render(fmt.Sprintf(" (%.0f %% of max)", 100*det.Q/fac.QMax))
 		}
 		d.facility = append(d.facility, qLine)
-		if l := loadLine(st, u, det.Load); l != "" {
+		if l := loadLine(st, u, det.Load, colW); l != "" {
 			d.facility = append(d.facility, l)
 		}
 		d.facility = append(d.facility, pair("Re", units.Expo(det.Re, 3), "ratio", units.Fixed(det.ReRatio, 3)))
@@ -378,28 +386,48 @@ func (m Model) settingLines(d *detailBlocks, det *envelope.Detail, fac *envelope
 // loadLine is the model load at the setting as a share of the balance
 // capacity, with the normal force and pitching moment against theirs
 // ("" where the balance is not checked: no capacity or no coefficients).
-func loadLine(st *Styles, u units.System, l envelope.Load) string {
+// Where that is wider than w cells (w > 0), the load that sets the share
+// is kept alone, and where that is too, the share alone (an 80-column
+// screen keeps the details whole; the exports give every load).
+func loadLine(st *Styles, u units.System, l envelope.Load, w int) string {
 	if !(l.Share > 0) {
 		return ""
 	}
 	var parts []string
+	var shares []float64
 	if l.NormalForce > 0 {
 		p := st.Label.Render("N") + " " + u.Force(l.NormalForce)
+		share := 0.0
 		if l.MaxNormalForce > 0 {
 			p += " of " + u.Force(l.MaxNormalForce)
+			share = l.NormalForce / l.MaxNormalForce
 		}
-		parts = append(parts, p)
+		parts, shares = append(parts, p), append(shares, share)
 	}
 	if l.PitchMoment > 0 {
 		p := st.Label.Render("M") + " " + u.Moment(l.PitchMoment)
+		share := 0.0
 		if l.MaxPitchMoment > 0 {
 			p += " of " + u.Moment(l.MaxPitchMoment)
+			share = l.PitchMoment / l.MaxPitchMoment
 		}
-		parts = append(parts, p)
+		parts, shares = append(parts, p), append(shares, share)
 	}
 	line := st.Label.Render("load") + " " + fmt.Sprintf("%.0f %% of capacity", 100*l.Share)
-	if len(parts) > 0 {
-		line += ": " + strings.Join(parts, ", ")
+	if len(parts) == 0 {
+		return line
+	}
+	if all := line + ": " + strings.Join(parts, ", "); w <= 0 || visibleWidth(all) <= w {
+		return all
+	}
+	top := 0
+	for k := range shares {
+		if shares[k] > shares[top] {
+			top = k
+		}
+	}
+	if one := line + ": " + parts[top]; visibleWidth(one) <= w {
+		return one
 	}
 	return line
 }

@@ -69,7 +69,9 @@ func TestDetailsStateOperatingRule(t *testing.T) {
 	for name, line := range want {
 		found := false
 		for _, v := range vs {
-			m := newDemo(t, 120, 40, func(o *Options) { o.Vehicle = v })
+			// Without the demo's balances, which take no model as large as
+			// the one below.
+			m := newDemo(t, 120, 40, func(o *Options) { o.Vehicle = v }, noLoads)
 			m.fac = facilityNamed(t, m, name)
 			// A larger model than the facilities' own, so that the water
 			// tunnel matches somewhere too.

@@ -11,7 +11,7 @@ var fuzzKeys = []string{
 	"up", "down", "left", "right", "k", "j", "h", "l", "pgup", "pgdown", "home", "end",
 	"tab", "u", "f", "[", "]", "b", "e", "R", "space", "M", "X", "s", "?", "q", "n", "y",
 	"enter", "esc", "backspace", "delete", "ctrl+u", "ctrl+a", "ctrl+e",
-	"1", "0", ".", "5", "-", " ", "b", "a", "r", "K", "%", "x",
+	"1", "0", ".", "5", "-", " ", "b", "a", "r", "K", "%", "x", "S",
 }
 
 // FuzzUpdate presses random keys and resizes the terminal between 1×1 and
@@ -58,6 +58,7 @@ func TestViewFitsEverySize(t *testing.T) {
 	states["picker"], _ = press(base, "f")
 	states["editor"], _ = press(base, "e", "enter")
 	states["best"], _ = press(base, "b")
+	states["study"], _ = press(base, "S")
 	states["confirm"], _ = press(base, "space", "q")
 	for name, s := range states {
 		for w := 1; w <= 300; w += 7 {

@@ -68,6 +68,14 @@ func goldenStates(t *testing.T) []struct {
 			m, _ = press(m, "esc")
 			return m
 		}},
+		// The model-scale study of the cryogenic tunnel: the pointer on
+		// the scale in force (1:40); being computed; in best of all.
+		{"study", keys("S")},
+		{"studying", func(w, h int) Model {
+			next, _ := start(w, h).Update(keyMsg("S")) // the study's command not run
+			return next.(Model)
+		}},
+		{"studybest", keys("b", "S")},
 		{"confirm", keys("space", "q")},
 		{"scrolled", keys("end", "pgup", "pgup")},
 	}

@@ -34,6 +34,20 @@ func newDemo(tb testing.TB, w, h int, edit ...func(*Options)) Model {
 	return New(o)
 }
 
+// noLoads strips the demo's load data (the vehicle's coefficients and
+// every balance capacity): an Options edit for newDemo, for what holds on
+// files that give none.
+func noLoads(o *Options) {
+	v := *o.Vehicle
+	v.Loads = envelope.ModelLoads{}
+	o.Vehicle = &v
+	facs := append([]envelope.Facility(nil), o.Facilities...)
+	for k := range facs {
+		facs[k].Balance = envelope.BalanceLimits{}
+	}
+	o.Facilities = facs
+}
+
 // keyMsg turns a key name into the message the terminal would send.
 func keyMsg(s string) tea.KeyMsg {
 	types := map[string]tea.KeyType{

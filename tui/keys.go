@@ -21,6 +21,9 @@ type KeyMap struct {
 	// ScaleUp and ScaleDown step the what-if model scale (every
 	// facility's) from the scale in force on screen (scalekey.go).
 	ScaleUp, ScaleDown key.Binding
+	// Study opens the model-scale study of the facility on screen
+	// (studypanel.go).
+	Study key.Binding
 	// Undo puts back the state before the latest change of what-if values
 	// or marks (R and X included).
 	Undo key.Binding
@@ -76,6 +79,7 @@ func DefaultKeyMap() KeyMap {
 		Restore:       b([]string{"R"}, "R", "file values"),
 		ScaleUp:       b([]string{"+", "="}, "+", "scale up"),
 		ScaleDown:     b([]string{"-"}, "-", "scale down"),
+		Study:         b([]string{"S"}, "S", "scale study"),
 		Undo:          b([]string{"U"}, "U", "undo"),
 		Mark:          b([]string{" ", "space"}, "space", "mark point"),
 		MarkMatch:     b([]string{"M"}, "M", "mark matches"),
@@ -113,7 +117,7 @@ func (k KeyMap) ShortHelp() []key.Binding {
 func (k KeyMap) FullHelp() [][]key.Binding {
 	return [][]key.Binding{
 		{k.Up, k.Down, k.Left, k.Right, k.PageUp, k.PageDown, k.Home, k.End},
-		{k.Layer, k.Units, k.Facility, k.PrevFac, k.NextFac, k.BestOfAll},
+		{k.Layer, k.Units, k.Facility, k.PrevFac, k.NextFac, k.BestOfAll, k.Study},
 		{k.Edit, k.Restore, k.Undo, k.ScaleUp, k.ScaleDown, k.Mark, k.MarkMatch, k.ClearMark},
 		{k.Save, k.WriteView, k.Help, k.Quit, k.Select, k.Back},
 	}

@@ -10,10 +10,11 @@ import (
 	"likewind/envelope/units"
 )
 
-// Invented load data for the demo (the demo files give none): the
+// Invented load data for the tests, a round hand case in place of the
+// demo's own (CN 1.2 and Cm 0.25, a 2.4 kN, 120 N·m balance): the
 // vehicle's largest normal-force coefficient 1.2 on its reference area,
-// 28.0 m², and a balance of 2100 N in the cryogenic tunnel, whose model
-// scale is 0.025. By hand, the normal force per unit q is
+// 28.0 m², no moment coefficient, and a balance of 2100 N in the
+// cryogenic tunnel, whose model scale is 0.025. By hand, the normal force per unit q is
 // CN·A·s² = 1.2 × 28.0 m² × 0.025² = 0.021 m², so the balance caps the
 // tunnel q at 2100 N / 0.021 m² = 100 kPa (below its q max, 120 kPa).
 const (
@@ -71,8 +72,8 @@ func TestLoadLevelsAndGlyphs(t *testing.T) {
 }
 
 // On the map, each point's cell is its q over the balance's q cap,
-// 100 kPa by hand; the facility without load data says so at every
-// inside point.
+// 100 kPa by hand; a facility without balance data (the demo's
+// supersonic tunnel) says so at every inside point.
 func TestLoadLayerCells(t *testing.T) {
 	m := loadDemo(t, 120, 40)
 	mp := m.res.maps[m.fac]
@@ -105,7 +106,7 @@ func TestLoadLayerCells(t *testing.T) {
 		}
 	}
 	// Another facility has no balance data.
-	v.Facility = facilityNamed(t, m, "Harl Cove")
+	v.Facility = facilityNamed(t, m, "Skerrow")
 	for i := range g.Rows() {
 		for j := range g.Cols() {
 			if g.Inside(i, j) && v.Cell(i, j).Level != lvLoadNoData {
@@ -135,7 +136,7 @@ func TestDetailsLoadLine(t *testing.T) {
 		}
 	}
 	// Without load data there is no load line.
-	d := newDemo(t, 120, 40)
+	d := newDemo(t, 120, 40, noLoads)
 	d.fac = facilityNamed(t, d, "Kellen Fold")
 	d.curI, d.curJ = 20, 8
 	d.relayout()
@@ -175,5 +176,32 @@ func TestDetailsMatchingSet(t *testing.T) {
 		if !strings.Contains(view, strings.Join(strings.Fields(want[1]), " ")) {
 			t.Errorf("%v: the matching set is not on the 120×40 screen", u)
 		}
+	}
+}
+
+// The load line keeps to its column: every load where it fits, else the
+// one that sets the share, else the share alone. The demo's cryogenic
+// tunnel at its balance's normal force: 2.4 kN of 2.4 kN, and a moment
+// of 38.75 N·m of 120 N·m (by hand: 0.25 × 114.3 kPa × 28 m² × 0.025² ×
+// 0.025 × 3.10 m).
+func TestLoadLineNarrow(t *testing.T) {
+	st := PlainStyles()
+	l := envelope.Load{NormalForce: 2400, MaxNormalForce: 2400, PitchMoment: 38.75, MaxPitchMoment: 120, Share: 1}
+	for _, c := range []struct {
+		w    int
+		want string
+	}{
+		{100, "load 100 % of capacity: N 2.400 kN of 2.400 kN, M 38.75 N·m of 120.0 N·m"},
+		{60, "load 100 % of capacity: N 2.400 kN of 2.400 kN"},
+		{40, "load 100 % of capacity"},
+	} {
+		if got := loadLine(&st, units.SI, l, c.w); got != c.want {
+			t.Errorf("width %d: %q, want %q", c.w, got, c.want)
+		}
+	}
+	// Where the moment sets the share, it is the one kept.
+	l.PitchMoment, l.NormalForce, l.Share = 114, 1200, 0.95
+	if got, want := loadLine(&st, units.SI, l, 60), "load 95 % of capacity: M 114.0 N·m of 120.0 N·m"; got != want {
+		t.Errorf("moment setting the share: %q, want %q", got, want)
 	}
 }

@@ -88,6 +88,7 @@ const (
 	modeEdit
 	modeConfirm
 	modeSaveAs // the session could not be saved (or not there): ask for another file
+	modeStudy  // the model-scale study of the facility on screen
 )
 
 // Model is the root Bubble Tea model. It owns the data, the what-if values,
@@ -103,6 +104,7 @@ type Model struct {
 	legend  legendView
 	picker  picker
 	editor  editor
+	study   studyPanel
 	help    helpView
 
 	vehicle  *envelope.Vehicle
@@ -162,6 +164,12 @@ type Model struct {
 	hash        string
 
 	undo []undoStep // what-if and mark changes, newest last
+
+	// The model-scale study: the map of the latest request (studyFor)
+	// and its generation, and the latest study that came back.
+	studyFor *envelope.Map
+	studyGen int
+	studied  studiedMsg
 
 	dumpDir string
 	version string
@@ -238,6 +246,7 @@ func newModel(opts Options) Model {
 		picker:   picker{frame: fr},
 		saveAs:   saveAsPrompt{frame: fr},
 		editor:   newEditor(fr),
+		study:    studyPanel{frame: fr},
 		help:     newHelpView(fr),
 		vehicle:  veh,
 		fileFacs: facs,
@@ -446,11 +455,15 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		} else {
 			m.setStatus("view written to " + msg.path)
 		}
+	case studiedMsg:
+		if msg.gen == m.studyGen {
+			m.studied = msg
+		}
 	case tea.KeyMsg:
 		cmd = m.onKey(msg)
 	}
 	m.relayout()
-	return m, cmd
+	return m, tea.Batch(cmd, m.studyCmd())
 }
 
 func (m *Model) onComputed(msg computedMsg) {
@@ -487,6 +500,8 @@ func (m *Model) onKey(msg tea.KeyMsg) tea.Cmd {
 		m.editor, cmd = m.editor.Update(msg)
 	case modeSaveAs:
 		m.saveAs, cmd = m.saveAs.Update(msg)
+	case modeStudy:
+		m.study, cmd = m.study.Update(msg)
 	default:
 		return m.keyMain(msg)
 	}
@@ -537,6 +552,10 @@ func (m *Model) keyMain(msg tea.KeyMsg) tea.Cmd {
 	case matches(msg, k.Edit):
 		m.mode = modeEdit
 		m.editor.Open()
+	case matches(msg, k.Study):
+		m.mode = modeStudy
+		m.syncPanels()
+		m.study.Open()
 	case matches(msg, k.Restore):
 		return m.restoreFiles()
 	case matches(msg, k.ScaleUp):

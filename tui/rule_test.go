@@ -100,10 +100,12 @@ func TestRuleWhatIfApplied(t *testing.T) {
 
 // A rule the facility cannot run under is refused with the engine's whole
 // reason, and the choice list stays open; esc closes it with nothing
-// applied. The demo facilities give no balance capacity, so least load is
-// refused there.
+// applied. Without its balance capacity the cryogenic demo tunnel refuses
+// least load.
 func TestRuleWhatIfRefused(t *testing.T) {
-	m := kellenAt9144(t, 120, 40)
+	m := newDemo(t, 120, 40, noLoads)
+	m.fac = facilityNamed(t, m, "Kellen Fold")
+	m.relayout()
 	m = chooseRule(t, m, "least load")
 	want := `operating rule: found "least load" with no balance capacity, expected the facility's largest balance normal force or pitching moment, or another rule: "warmest", "fixed temperature" or "fixed q"`
 	if !m.editor.choosing || m.editor.err != want {

@@ -85,12 +85,19 @@ func (m *Model) stepScale(up bool) tea.Cmd {
 		m.setError(fmt.Sprintf("model scale %s is the %s step", whatif.Scale.Show(m.units, from, false), dir))
 		return nil
 	}
-	if err := whatif.CheckEdits(m.set, nil, whatif.Edit{Field: whatif.Scale, Value: next}); err != nil {
+	return m.setScale(next, fmt.Sprintf("a step %s from %s", step, whatif.Scale.Show(m.units, from, false)))
+}
+
+// setScale applies s as the what-if model scale of every facility, as one
+// change undone by U, and says so on the status line with how it was
+// chosen.
+func (m *Model) setScale(s float64, how string) tea.Cmd {
+	if err := whatif.CheckEdits(m.set, nil, whatif.Edit{Field: whatif.Scale, Value: s}); err != nil {
 		m.setError(err.Error())
 		return nil
 	}
-	cmd := m.applyField(whatif.Edit{Field: whatif.Scale, Value: next})
-	m.setStatus(fmt.Sprintf("model scale %s for all facilities, a step %s from %s (%s undoes)",
-		whatif.Scale.Show(m.units, next, false), step, whatif.Scale.Show(m.units, from, false), m.fr.keys.Undo.Help().Key))
+	cmd := m.applyField(whatif.Edit{Field: whatif.Scale, Value: s})
+	m.setStatus(fmt.Sprintf("model scale %s for all facilities, %s (%s undoes)",
+		whatif.Scale.Show(m.units, s, false), how, m.fr.keys.Undo.Help().Key))
 	return cmd
 }

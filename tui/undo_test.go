@@ -10,7 +10,8 @@ import (
 // Item 17: R (file values) and X (clear marks) act at once; U puts back
 // what they took, with the results recomputed, and says what it undid.
 func TestUndoRestoreAndClear(t *testing.T) {
-	m := newDemo(t, 100, 30)
+	// Without the demo's balance, which takes no full match at scale 0.3.
+	m := newDemo(t, 100, 30, noLoads)
 	k := facilityNamed(t, m, "Harl Cove")
 	m.fac = k
 	m = edit(t, m, whatif.Scale, "0.3")

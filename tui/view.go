@@ -54,6 +54,8 @@ const (
 	// maxSideWidth caps the side panel of the wide layout for reading.
 	maxSideWidth = 100
 	minSideWidth = 42
+	// studyMatrixWidth is the width the matrix keeps beside the study.
+	studyMatrixWidth = 40
 )
 
 // relayout sizes every component for the current terminal and state. It
@@ -80,6 +82,11 @@ func (m *Model) relayout() {
 	if m.wide {
 		need, _ := MatrixSize(m.matrixInput())
 		m.sideW = min(max(W-need-len(sideGap), minSideWidth), maxSideWidth)
+		if m.mode == modeStudy {
+			// The study's table takes the width its marks need as
+			// words; the matrix scrolls in what is left.
+			m.sideW = max(m.sideW, min(m.study.PreferredWidth(), W-studyMatrixWidth, maxSideWidth))
+		}
 		matW := W - m.sideW - len(sideGap)
 		m.matrix.SetSize(matW, m.bodyH)
 		m.refreshDetails(m.sideW)
@@ -104,6 +111,7 @@ func (m *Model) setPanelSize(w, h int) {
 	m.picker.SetSize(w, h)
 	m.editor.SetSize(w, h)
 	m.saveAs.SetSize(w, h)
+	m.study.SetSize(w, h)
 }
 
 // syncPanels gives the open panel what it shows: the picker its rows,
@@ -120,6 +128,8 @@ func (m *Model) syncPanels() {
 			name = m.facs[m.fac].Name
 		}
 		m.editor.SetFields(m.editorRows(), m.fac, name, m.fieldReader())
+	case modeStudy:
+		m.syncStudy()
 	}
 }
 
@@ -136,6 +146,8 @@ func (m *Model) lowerPreferred(w int) int {
 		return m.editor.PreferredHeight(w)
 	case modeSaveAs:
 		return m.saveAs.PreferredHeight(w)
+	case modeStudy:
+		return m.study.PreferredHeight(w)
 	}
 	// The matching set takes only rows the matrix does not need.
 	base, all := m.details.PreferredHeight(w, false), m.details.PreferredHeight(w, true)
@@ -182,6 +194,8 @@ func (m Model) bodyView() string {
 		panel = m.editor.View()
 	case modeSaveAs:
 		panel = m.saveAs.View()
+	case modeStudy:
+		panel = m.study.View()
 	default:
 		panel = m.details.View()
 	}
@@ -296,6 +310,8 @@ func (m Model) footer() string {
 		return keyLine(st, []key.Binding{k.Help, k.Back, k.Quit}, W)
 	case modePicker:
 		return keyLine(st, m.picker.ShortHelp(), W)
+	case modeStudy:
+		return keyLine(st, m.study.ShortHelp(), W)
 	case modeEdit:
 		if m.editor.Editing() {
 			return m.editor.Line()

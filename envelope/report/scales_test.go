@@ -177,8 +177,9 @@ func TestCoverageBalance(t *testing.T) {
 			t.Errorf("CSV row of %d cells under %d columns", len(row), len(rows[0]))
 		}
 	}
-	// Without load data: no balance in any format.
-	plain := NewCoverage(outDemoEval(t))
+	// Without load data (the demo without its own): no balance in any
+	// format.
+	plain := NewCoverage(outEvalNoLoads(t, 0))
 	b.Reset()
 	if err := plain.WriteCSV(&b); err != nil {
 		t.Fatal(err)

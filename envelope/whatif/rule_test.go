@@ -64,13 +64,15 @@ func TestRuleFieldChoices(t *testing.T) {
 			t.Errorf("Parse(rule, %q) = %v, %v; want %v", c.text, envelope.RuleKind(v), err, c.want)
 		}
 	}
+	// The cryogenic demo tunnel without its balance capacity.
+	noBalance := *gas
+	noBalance.Balance = envelope.BalanceLimits{}
 	for _, c := range []struct {
 		text string
 		fac  *envelope.Facility
 		want string
 	}{
-		// The demo facilities give no balance capacity.
-		{"least load", gas, `operating rule: found "least load" with no balance capacity, expected the facility's largest balance normal force or pitching moment, or another rule: "warmest", "fixed temperature" or "fixed q"`},
+		{"least load", &noBalance, `operating rule: found "least load" with no balance capacity, expected the facility's largest balance normal force or pitching moment, or another rule: "warmest", "fixed temperature" or "fixed q"`},
 		{"fixed q", water, `operating rule: found "fixed q" on a water tunnel, expected a water tunnel's rule: "warmest" or "fixed temperature" (the warmest water already needs the least speed and load)`},
 		{"coolest", gas, `operating rule: found "coolest", expected an operating rule: "warmest", "least load", "fixed temperature" or "fixed q"`},
 	} {
@@ -79,10 +81,12 @@ func TestRuleFieldChoices(t *testing.T) {
 			t.Errorf("Parse(rule, %q) error\n%v\nwant\n%s", c.text, err, c.want)
 		}
 	}
-	// With a balance the least-load rule is taken.
-	withBalance := *gas
-	withBalance.Balance.MaxNormalForce = 5000
-	if v, err := Rule.Parse("least load", units.SI, &withBalance); err != nil || envelope.RuleKind(v) != envelope.RuleLeastLoad {
+	// With a balance (the demo tunnel's own) the least-load rule is
+	// taken.
+	if gas.Balance == (envelope.BalanceLimits{}) {
+		t.Fatal("the cryogenic demo tunnel has no balance capacity")
+	}
+	if v, err := Rule.Parse("least load", units.SI, gas); err != nil || envelope.RuleKind(v) != envelope.RuleLeastLoad {
 		t.Errorf("least load with a balance: %v, %v", envelope.RuleKind(v), err)
 	}
 }
@@ -204,7 +208,9 @@ func TestRuleSessionRoundTrip(t *testing.T) {
 // facility refuses, leaves the facility as its file has it and is named.
 func TestApplyRuleRefused(t *testing.T) {
 	v, facs := demoData(t)
-	name := facs[demoFacility(t, facs, "Kellen Fold")].Name
+	kf := demoFacility(t, facs, "Kellen Fold")
+	name := facs[kf].Name
+	facs[kf].Balance = envelope.BalanceLimits{} // for the least-load case
 	for _, c := range []struct {
 		what string
 		fw   FacilityChanges
