@@ -12,6 +12,8 @@ import (
 	"testing"
 	"unicode/utf8"
 
+	"golang.org/x/net/html"
+
 	"likewind/envelope"
 	"likewind/envelope/report"
 	"likewind/envelope/units"
@@ -110,6 +112,30 @@ func requireSVG(t *testing.T, what string, b []byte) {
 	}
 }
 
+// requireHTML checks that a page parses as HTML and that no text made an
+// element: no script, and one heading of the first level.
+func requireHTML(t *testing.T, what, page string) {
+	t.Helper()
+	doc, err := html.Parse(strings.NewReader(page))
+	if err != nil {
+		t.Fatalf("%s does not parse as HTML: %v", what, err)
+	}
+	count := map[string]int{}
+	var walk func(*html.Node)
+	walk = func(n *html.Node) {
+		if n.Type == html.ElementNode {
+			count[n.Data]++
+		}
+		for c := n.FirstChild; c != nil; c = c.NextSibling {
+			walk(c)
+		}
+	}
+	walk(doc)
+	if count["script"] > 0 || count["h1"] != 1 || count["iframe"] > 0 || count["img"] > 0 {
+		t.Fatalf("%s: elements %v; a name made markup", what, count)
+	}
+}
+
 // fileNamePart turns fuzz text into a name the file system takes.
 func fileNamePart(s string) string {
 	s = strings.NewReplacer("/", "_", "\x00", "_").Replace(s)
@@ -183,6 +209,13 @@ func hostileOutputs(t *testing.T, name, file string) map[string]string {
 	must("runs text", p.writeText(&b, units.SI))
 	must("runs csv", p.WriteCSV(&b))
 	must("runs json", p.writeJSON(&b))
+	rv, err := report.NewReview(report.ReviewInput{Info: report.ExportInfo{Tool: "likewind"}, Sources: ev.in.files,
+		Session: file, Changed: []string{name}, Eval: e, Marks: ev.marks})
+	if err != nil {
+		t.Fatal(err)
+	}
+	must("report html", rv.WriteHTML(&b))
+	requireHTML(t, "report html", out["report html"])
 	for what, mk := range map[string]func() (*report.Chart, error){
 		"map svg":     func() (*report.Chart, error) { return report.MapChart(e, 0, false) },
 		"re-mach svg": func() (*report.Chart, error) { return report.ReMachChart(e, nil) },
@@ -242,6 +275,7 @@ func hostileCommands(t *testing.T, name, file string) map[string]string {
 		{"coverage", "--format", "csv", vp, fp},
 		{"runs", vp, fp},
 		{"runs", "--format", "json", vp, fp},
+		{"report", vp, fp},
 		{"plot", "--chart", "map", "-o", filepath.Join(dir, base+".svg"), vp, fp},
 		{"dump", "--facility", name, vp, fp},
 		{"dump", "-o", filepath.Join(dir, base+"-missing", "x.txt"), vp, fp},
@@ -249,6 +283,9 @@ func hostileCommands(t *testing.T, name, file string) map[string]string {
 		code, stdout, stderr := outCmd(args...)
 		what := strings.Join(args[:min(3, len(args))], " ")
 		out[what+" (stdout)"], out[what+" (stderr)"] = stdout, stderr
+		if args[0] == "report" && code == 0 {
+			requireHTML(t, "report page", stdout)
+		}
 		if args[0] == "plot" && code == 0 {
 			svg, err := os.ReadFile(args[4])
 			if err != nil {
@@ -275,6 +312,7 @@ func FuzzHostileText(f *testing.F) {
 		"sep\u2028\u2029",
 		"tab\there",
 		"<svg>&amp;\"'",
+		"</title><script>alert(1)</script><h1>",
 		"",
 	} {
 		f.Add(s, s)
@@ -297,7 +335,7 @@ func TestHostileNamesShownEscaped(t *testing.T) {
 	const name = "Glider\x1b]0;owned\x07\u202e"
 	const shown = `Glider\x1b]0;owned\x07\u202e`
 	out := hostileOutputs(t, name, "hostile\x1b[2J.toml")
-	for _, what := range []string{"dump facility 0", "export csv", "coverage text", "runs text", "interface"} {
+	for _, what := range []string{"dump facility 0", "export csv", "coverage text", "runs text", "interface", "report html"} {
 		if !strings.Contains(out[what], shown) {
 			t.Errorf("%s does not show the name as %s", what, shown)
 		}

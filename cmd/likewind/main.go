@@ -50,6 +50,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			return runScales(args[1:], stdout, stderr)
 		case "runs":
 			return runRuns(args[1:], stdout, stderr)
+		case "report":
+			return runReport(args[1:], stdout, stderr)
 		case "help", "-h", "--help", "-help":
 			return reportWrite(printUsage(stdout), stderr)
 		case "version", "--version":
@@ -85,6 +87,7 @@ usage:
   likewind coverage [FILES]                  coverage shares per facility
   likewind scales [FILES]                    coverage by model scale per facility
   likewind runs [FILES]                      run list in facility order
+  likewind report [FILES] -o FILE.html       one review pack page for print
   likewind version
 
 Values carry their units: 35000ft, 11km, 250kt, 0.8 (Mach), 3bar, 45psi, -56.5degC.

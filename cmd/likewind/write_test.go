@@ -39,6 +39,7 @@ func outputCommands(dir string) [][]string {
 		{"runs", "--format", "json", "-o", "-"},
 		{"plot", "--chart", "map", "--format", "svg", "-o", "-"},
 		{"plot", "-o", filepath.Join(dir, "p.svg")}, // "wrote …" lines
+		{"report", "-o", "-"},
 	}
 }
 
@@ -89,6 +90,7 @@ func TestDashMeansStandardOutput(t *testing.T) {
 		{"export"},
 		{"coverage", "--format", "csv"},
 		{"runs", "--date", "2025-01-01"},
+		{"report", "--date", "2025-01-01"},
 	} {
 		code, want, errs := outCmd(args...)
 		if code != 0 {
@@ -139,6 +141,8 @@ func TestOutputsOnlyOverRegularFiles(t *testing.T) {
 		{"dump", "-o", link, "--force"},
 		{"coverage", "-o", link},
 		{"runs", "-o", link, "--force"},
+		{"report", "-o", link, "--force"},
+		{"report", "-o", "/dev/null", "--force"},
 		{"plot", "--chart", "map", "-o", folder, "--force"},
 		{"export", "-o", "/dev/null", "--force"},
 	} {
