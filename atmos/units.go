@@ -107,6 +107,15 @@ var dimensionExamples = [...]string{
 	TimePerTemperature: "1.5 min/K",
 }
 
+// Dimensions lists every dimension, in order.
+func Dimensions() []Dimension {
+	out := make([]Dimension, numDimensions)
+	for d := range out {
+		out[d] = Dimension(d)
+	}
+	return out
+}
+
 // String returns the dimension's name, e.g. "length".
 func (d Dimension) String() string {
 	if d >= 0 && d < numDimensions {
