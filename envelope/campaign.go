@@ -290,7 +290,8 @@ func (f costField) write(b *strings.Builder, _ string) {
 	kv(b, f.key, tomlQuote(num(f.to.Amount)+" "+f.to.Currency+"/"+per))
 }
 
-// ParseCost reads a cost as "AMOUNT CUR/UNIT": a number from 0 to 1e12, a
+// ParseCost reads a cost as "AMOUNT CUR/UNIT": a number from 0 (at most
+// 1e12 per second or per kg), a
 // currency code of three letters (any case; kept upper case) and, after a
 // slash, a unit of dimension per (atmos.Time: s, min, h; atmos.Mass: kg,
 // g, t, lb). The amount is returned per SI unit (per second, per kg). why
@@ -305,8 +306,8 @@ func ParseCost(s string, per atmos.Dimension) (m Money, why string) {
 	if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
 		return Money{}, "not a finite number"
 	}
-	if v < 0 || v > maxCostAmount {
-		return Money{}, "an amount from 0 to 1e12 is expected"
+	if v < 0 {
+		return Money{}, "an amount from 0 to 1e12 per second or per kg is expected"
 	}
 	rest = strings.TrimSpace(rest)
 	if rest == "" {
@@ -336,6 +337,11 @@ func ParseCost(s string, per atmos.Dimension) (m Money, why string) {
 	one, err := atmos.ToSI(1, strings.TrimSpace(unitText), per)
 	if err != nil {
 		return Money{}, reason(unitText, err)
+	}
+	// The bound holds for the amount per SI unit, the form it is written
+	// back in, so that a file written reads back.
+	if v/one > maxCostAmount {
+		return Money{}, "an amount from 0 to 1e12 per second or per kg is expected"
 	}
 	return Money{Amount: v / one, Currency: strings.ToUpper(cur), Set: true}, ""
 }

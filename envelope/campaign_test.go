@@ -42,7 +42,10 @@ func TestParseCost(t *testing.T) {
 		{"2400 EUR/kg", `"kg" is a mass unit`, atmos.Time},
 		{"0.15 EUR/h", `"h" is a time unit`, atmos.Mass},
 		{"5 bar/h", `"bar" is a unit, not a currency`, atmos.Time},
-		{"-5 EUR/h", "an amount from 0 to 1e12 is expected", atmos.Time},
+		{"-5 EUR/h", "an amount from 0 to 1e12 per second or per kg is expected", atmos.Time},
+		// 1e12 per gram is 1e15 per kg, beyond the bound (and so it could
+		// not be written back in SI).
+		{"1e12 EUR/g", "an amount from 0 to 1e12 per second or per kg is expected", atmos.Mass},
 		{"EUR 2400/h", "no number", atmos.Time},
 		{"2400 EUR/fortnight", `unknown time unit "fortnight"`, atmos.Time},
 	}

@@ -345,6 +345,18 @@ func Minutes(s float64) string { return fmt.Sprintf("%.1f min", s/atmos.Minute) 
 // Seconds writes a time in seconds to one decimal, "12.3 s".
 func Seconds(s float64) string { return fmt.Sprintf("%.1f s", s) }
 
+// Duration writes a time in the unit that suits it: seconds below a
+// minute ("20 s"), minutes below an hour ("42.5 min"), else hours.
+func Duration(s float64) string {
+	switch {
+	case s < atmos.Minute:
+		return fmt.Sprintf("%.3g s", s)
+	case s < atmos.Hour:
+		return Minutes(s)
+	}
+	return Hours(s)
+}
+
 // Money writes an amount with its currency to two decimals, "1234.50 EUR".
 func Money(x float64, currency string) string { return fmt.Sprintf("%.2f %s", x, currency) }
 

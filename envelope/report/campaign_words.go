@@ -93,10 +93,14 @@ func (cc CampaignCost) Words(n int, u units.System) FacilityCost {
 	} else {
 		add("model installation", leftOut)
 	}
-	add("data points", fig(cc.DataKnown, fmt.Sprintf("%d at %s: %s", n, Minutes(d.DataPoint.V), Hours(cc.DataTime))))
+	add("data points", fig(cc.DataKnown, fmt.Sprintf("%d at %s: %s", n, Duration(d.DataPoint.V), Hours(cc.DataTime))))
 	add("set-point changes", cc.changeWords())
 	if blow {
-		add("blows", fmt.Sprintf("%d, each followed by a %s recharge: %s", cc.Blows, Minutes(d.Recharge.V), Hours(cc.Recharge)))
+		custom := u == units.Customary
+		add("storage", fmt.Sprintf("%s at %s, a blow ending at %s × p0 (isentropic storage; blow length from the choked mass flow, NACA Report 1135)",
+			atmos.Format(d.StorageVolume.V, atmos.Volume, custom), atmos.Format(d.StoragePressure.V, atmos.Pressure, custom),
+			atmos.FormatNumber(d.UsableRatio.V)))
+		add("blows", fmt.Sprintf("%d, each followed by a %s recharge: %s", cc.Blows, Duration(d.Recharge.V), Hours(cc.Recharge)))
 	}
 	add("campaign time", fig(cc.TimeKnown, Hours(cc.Time)))
 	add(fmt.Sprintf("shifts (%s)", strings.TrimSuffix(strings.TrimSuffix(Hours(cc.Shift), " h"), ".00")+" h"), fig(cc.TimeKnown, strconv.Itoa(cc.Shifts)))
