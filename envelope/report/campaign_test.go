@@ -189,4 +189,18 @@ func TestBlowDuration(t *testing.T) {
 	if !reflect.DeepEqual(cc.Short, []int{2}) || cc.Blows != 3 {
 		t.Errorf("short %v blows %d, want [2] and 3", cc.Short, cc.Blows)
 	}
+	// A third run at 18 bar cannot be blown (end pressure 21.6 bar above
+	// the storage's 20): flagged, no time, left out of the totals, which
+	// stay known: 1805 + 3665 s (p0 moves before it: +60 s is not counted
+	// either, the run is not timed).
+	rl.Runs = append(rl.Runs, Run{HasSettings: true, Mach: 2, P0: 18e5, T0: 290, SetPoint: 3})
+	rl.Given = rl.Runs
+	cc, _ = NewCampaignCost(rl, 0)
+	r3 := cc.Runs[2]
+	if !r3.NoBlow || r3.Known || r3.HasBlow || !reflect.DeepEqual(cc.NoBlow, []int{3}) {
+		t.Errorf("run 3: %+v, no-blow list %v; want a run that cannot be blown", r3, cc.NoBlow)
+	}
+	if !cc.TimeKnown || !campaignNear(cc.Time, 1805+3665) || len(cc.RunNotes()) != 2 {
+		t.Errorf("campaign time %v s (known %v), notes %q; want 5470 s and two notes", cc.Time, cc.TimeKnown, cc.RunNotes())
+	}
 }
