@@ -1,6 +1,8 @@
 package envelope
 
 import (
+	"os"
+	"path/filepath"
 	"reflect"
 	"strings"
 	"testing"
@@ -149,5 +151,41 @@ func TestCampaignLoad(t *testing.T) {
 	fs[0].Campaign = Campaign{}
 	if text := string(MarshalFacilities(fs)); strings.Contains(text, "campaign") {
 		t.Errorf("a facility without campaign data wrote a campaign table:\n%s", text)
+	}
+}
+
+// TestCampaignFormatExample: the [facility.campaign] example of
+// docs/FORMAT.md reads as it says.
+func TestCampaignFormatExample(t *testing.T) {
+	doc, err := os.ReadFile(filepath.Join("..", "docs", "FORMAT.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, rest, ok := strings.Cut(string(doc), "```toml\n[facility.campaign]")
+	if !ok {
+		t.Fatal("docs/FORMAT.md has no [facility.campaign] example")
+	}
+	example, _, _ := strings.Cut(rest, "```")
+	text := `[[facility]]
+name = "Example"
+medium = "nitrogen"
+mach_range = ["0.2", "0.9"]
+stagnation_pressure_range = ["1 bar", "4 bar"]
+stagnation_temperature_range = ["110 K", "310 K"]
+section_width = "2 m"
+section_height = "2 m"
+
+[facility.campaign]` + example
+	fs, err := ParseFacilities("example.toml", []byte(text))
+	if err != nil {
+		t.Fatalf("the FORMAT.md example: %v", err)
+	}
+	c := fs[0].Campaign
+	// As the example's comments say: 2400 EUR/h, 4 h, 6 min, 0.8 min/K
+	// and 10 min, 8 min, 3 min, 9 t/h at 0.14 EUR/kg.
+	if relDiff(c.OccupancyCost.Amount*3600, 2400) > 1e-12 || c.ModelChange.V != 4*3600 || c.DataPoint.V != 360 ||
+		relDiff(c.T0PerKelvin.V, 48) > 1e-12 || c.T0Fixed.V != 600 || c.P0Change.V != 480 || c.MachChange.V != 180 ||
+		relDiff(c.CoolantUse.V*3600, 9000) > 1e-12 || relDiff(c.CoolantPrice.Amount, 0.14) > 1e-12 {
+		t.Errorf("the FORMAT.md example reads %+v", c)
 	}
 }
