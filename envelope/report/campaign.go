@@ -76,7 +76,10 @@ type CampaignCost struct {
 	// Changes counts the set-point changes by kind along the run list;
 	// ChangeTime is the time of each kind (T0, p0 with q, Mach number), s,
 	// known where its data is given (ChangeKnown).
-	Changes     Changes
+	Changes Changes
+	// Kinds counts the changes by kind as they are timed: T0, p0 (a step
+	// that moves p0 or a held q, once), Mach number.
+	Kinds       [3]int
 	ChangeTime  [3]float64
 	ChangeKnown [3]bool
 	DataTime    float64
@@ -281,6 +284,15 @@ func NewCampaignCost(rl RunList, shift float64) (CampaignCost, bool) {
 		}
 		prev := &rl.Runs[cc.Runs[k-1].First]
 		cur := &rl.Runs[r.First]
+		if r.Moves.T0 > 0 {
+			cc.Kinds[ChangeT0]++
+		}
+		if r.Moves.P0 > 0 || r.Moves.Q > 0 {
+			cc.Kinds[ChangeP0]++
+		}
+		if r.Moves.Mach > 0 {
+			cc.Kinds[ChangeMach]++
+		}
 		if r.Moves.T0 > 0 && cc.ChangeKnown[ChangeT0] {
 			cc.ChangeTime[ChangeT0] += c.T0Fixed.V + c.T0PerKelvin.V*math.Abs(cur.T0-prev.T0)
 		}

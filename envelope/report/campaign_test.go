@@ -106,8 +106,8 @@ func TestCampaignHand(t *testing.T) {
 		t.Errorf("known %v %v %v %v %v, shifts %d, missing %v; want all known, 1 shift, none missing",
 			cc.TimeKnown, cc.CostKnown, cc.CoolantCostKnown, cc.TotalCostKnown, cc.SavedKnown, cc.Shifts, cc.Missing)
 	}
-	if c := cc.Changes; c.T0 != 1 || c.P0 != 1 || c.Mach != 2 {
-		t.Errorf("changes %+v, want T0 1, p0 1, Mach 2", c)
+	if c := cc.Changes; c.T0 != 1 || c.P0 != 1 || c.Mach != 2 || cc.Kinds != [3]int{1, 1, 2} {
+		t.Errorf("changes %+v, kinds %v; want T0 1, p0 1, Mach 2", c, cc.Kinds)
 	}
 	if cc1, _ := NewCampaignCost(rl, atmos.Hour); cc1.Shifts != 4 {
 		t.Errorf("1-hour shifts: %d, want 4 (3.17 h)", cc1.Shifts)
@@ -202,5 +202,26 @@ func TestBlowDuration(t *testing.T) {
 	}
 	if !cc.TimeKnown || !campaignNear(cc.Time, 1805+3665) || len(cc.RunNotes()) != 2 {
 		t.Errorf("campaign time %v s (known %v), notes %q; want 5470 s and two notes", cc.Time, cc.TimeKnown, cc.RunNotes())
+	}
+}
+
+// TestCampaignHeldQ: under a fixed q a step that moves q moves p0 too; it
+// is one p0 change, timed once: by hand 5 min of data, then 6 + 5 = 11
+// min.
+func TestCampaignHeldQ(t *testing.T) {
+	runs := []Run{
+		{GridPoint: envelope.GridPoint{Col: 0}, HasSettings: true, T0: 200, P0: 2e5, Mach: 0.5, Q: 30e3},
+		{GridPoint: envelope.GridPoint{Col: 1}, HasSettings: true, T0: 200, P0: 3e5, Mach: 0.5, Q: 45e3},
+	}
+	rl := RunList{Facility: "held q", Medium: "nitrogen", Campaign: handCampaign(), SectionArea: 1,
+		Order: RunOrder{HoldQ: true}, Given: append([]Run(nil), runs...), Runs: runs}
+	rl.Changes = rl.Order.Order(rl.Runs)
+	cc, _ := NewCampaignCost(rl, 0)
+	if c := rl.Changes; c.Q != 1 || c.P0 != 1 {
+		t.Fatalf("changes %+v, want q 1 and p0 1", c)
+	}
+	if cc.Kinds != [3]int{0, 1, 0} || !campaignNear(cc.ChangeTime[ChangeP0], 6*atmos.Minute) ||
+		!campaignNear(cc.Runs[1].Time, 11*atmos.Minute) {
+		t.Errorf("kinds %v, p0 time %v s, run 2 %v s; want one p0 change of 360 s and a 660 s run", cc.Kinds, cc.ChangeTime[ChangeP0], cc.Runs[1].Time)
 	}
 }

@@ -145,8 +145,7 @@ func (cc CampaignCost) changeWords() string {
 	if cc.Medium == envelope.MediumWater {
 		names = [3]string{"temperature", "pressure", "speed"}
 	}
-	c := cc.Changes
-	counts := [3]int{c.T0, c.P0 + c.Q, c.Mach}
+	counts := cc.Kinds
 	var parts []string
 	for k, name := range names {
 		t := "time " + leftOut
@@ -156,8 +155,8 @@ func (cc CampaignCost) changeWords() string {
 		parts = append(parts, fmt.Sprintf("%s %d (%s)", name, counts[k], t))
 	}
 	s := strings.Join(parts, ", ")
-	if c.Q > 0 {
-		s += fmt.Sprintf("; p0 counts the %d moves of the held q", c.Q)
+	if cc.Changes.Q > 0 {
+		s += fmt.Sprintf("; p0 counts each step that moves p0 or the held q (%d moves of q) once", cc.Changes.Q)
 	}
 	return s
 }

@@ -271,8 +271,7 @@ func newCampaignDoc(cc CampaignCost) *campaignDoc {
 		ShortRuns: append([]int{}, cc.Short...), UnblowableRuns: append([]int{}, cc.NoBlow...),
 		Missing: append([]string{}, cc.Missing...),
 	}
-	c := cc.Changes
-	counts := [3]int{c.T0, c.P0 + c.Q, c.Mach}
+	counts := cc.Kinds
 	var ts [3]Num
 	for k := range ts {
 		ts[k] = opt(cc.ChangeKnown[k] || counts[k] == 0, cc.ChangeTime[k])
