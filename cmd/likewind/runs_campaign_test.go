@@ -195,3 +195,26 @@ func TestRunsShiftFlag(t *testing.T) {
 		}
 	}
 }
+
+// TestRunsCampaignText: the text list of a facility with campaign data
+// gains the time columns and the summary; customary units give the
+// coolant in lb (the demo's 9 t/h is 19841.6 lb/h: 9000/0.45359237).
+func TestRunsCampaignText(t *testing.T) {
+	code, out, errs := outCmd("runs", "--facility", "Kellen Fold", "--date", "2025-01-01")
+	if code != 0 {
+		t.Fatalf("runs: exit %d: %s", code, errs)
+	}
+	for _, want := range []string{"run time min  total h", "campaign time and cost:", "coolant cost", "t)\n"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("runs text lacks %q", want)
+		}
+	}
+	_, cust, _ := outCmd("runs", "--facility", "Kellen Fold", "--customary", "--date", "2025-01-01")
+	if !strings.Contains(cust, " lb\n") || strings.Contains(cust, " kg (") {
+		t.Error("runs --customary: the coolant is not in lb")
+	}
+	code, out, _ = outCmd("runs", "--facility", "Skerrow", "--date", "2025-01-01")
+	if code != 0 || !strings.Contains(out, "blow s    blows") || !strings.Contains(out, "2 short") || !strings.Contains(out, "storage               600 m³ at 4000 kPa") {
+		t.Error("runs text of the blowdown tunnel lacks the blow columns, a short run or the storage line")
+	}
+}
