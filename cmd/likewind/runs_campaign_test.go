@@ -204,7 +204,7 @@ func TestRunsCampaignText(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("runs: exit %d: %s", code, errs)
 	}
-	for _, want := range []string{"run time min  total h", "campaign time and cost:", "coolant cost", "t)\n"} {
+	for _, want := range []string{"run time min  total h", "campaign time and cost:", "coolant cost", "t)\n", "the coolant is a cryogen"} {
 		if !strings.Contains(out, want) {
 			t.Errorf("runs text lacks %q", want)
 		}
@@ -214,7 +214,7 @@ func TestRunsCampaignText(t *testing.T) {
 		t.Error("runs --customary: the coolant is not in lb")
 	}
 	code, out, _ = outCmd("runs", "--facility", "Skerrow", "--date", "2025-01-01")
-	if code != 0 || !strings.Contains(out, "blow s    blows") || !strings.Contains(out, "2 short") || !strings.Contains(out, "storage               600 m³ at 4000 kPa") {
+	if code != 0 || !strings.Contains(out, "blow s    blows") || !strings.Contains(out, "2 short") || !strings.Contains(out, "is a pressure vessel") || !strings.Contains(out, "storage               600 m³ at 4000 kPa") {
 		t.Error("runs text of the blowdown tunnel lacks the blow columns, a short run or the storage line")
 	}
 }

@@ -134,6 +134,12 @@ func (cc CampaignCost) Words(n int, u units.System) FacilityCost {
 	if m := cc.MissingNote(); m != "" {
 		fc.Notes = append(fc.Notes, m)
 	}
+	if blow {
+		fc.Notes = append(fc.Notes, "the air storage is a pressure vessel: its charging and every blow follow the facility's pressure-equipment procedures and local codes")
+	}
+	if d.CoolantUse.Set {
+		fc.Notes = append(fc.Notes, "the coolant is a cryogen: handling, venting and oxygen-deficiency monitoring follow the facility's procedures")
+	}
 	fc.Notes = append(fc.Notes, "planning estimates from the facility file's figures; the facility's own schedule and procedures govern")
 	return fc
 }
