@@ -33,6 +33,9 @@ type CampaignRun struct {
 	// Change is the time of the set-point changes before the run (0 for
 	// the first run), Data the data time: Points × the data point time.
 	Change, Data float64
+	// ChangeBy is Change by kind (ChangeT0, ChangeP0, ChangeMach), each
+	// where its data is given.
+	ChangeBy [3]float64
 	// Blowdown: Blow is the duration of one blow at the run's set point
 	// (HasBlow), Blows the blows its data time needs (each followed by a
 	// recharge, Recharge in all); Short says the data time is longer than
@@ -173,30 +176,21 @@ func walk(runs []Run, o RunOrder, m envelope.Medium, A float64, c envelope.Campa
 		if v[0] > 0 {
 			prev := &runs[v[0]-1]
 			cr.Moves = o.Count(runs[v[0]-1 : v[0]+1])
-			if cr.Moves.T0 > 0 {
-				if c.T0PerKelvin.Set && c.T0Fixed.Set {
-					cr.Change += c.T0Fixed.V + c.T0PerKelvin.V*math.Abs(r.T0-prev.T0)
-				} else {
-					cr.Known = false
-					w.need[keyOf(c.T0PerKelvin.Set, "t0_change_per_kelvin")] = true
-					w.need[keyOf(c.T0Fixed.Set, "t0_change_fixed")] = true
+			moved := [3]bool{cr.Moves.T0 > 0, cr.Moves.P0 > 0 || cr.Moves.Q > 0, cr.Moves.Mach > 0}
+			for kind := range moved {
+				if !moved[kind] {
+					continue
 				}
-			}
-			if cr.Moves.P0 > 0 || cr.Moves.Q > 0 {
-				if c.P0Change.Set {
-					cr.Change += c.P0Change.V
-				} else {
+				t, missing := changeTime(c, kind, math.Abs(r.T0-prev.T0))
+				if len(missing) > 0 {
 					cr.Known = false
-					w.need["p0_change_time"] = true
+					for _, key := range missing {
+						w.need[key] = true
+					}
+					continue
 				}
-			}
-			if cr.Moves.Mach > 0 {
-				if c.MachChange.Set {
-					cr.Change += c.MachChange.V
-				} else {
-					cr.Known = false
-					w.need["mach_change_time"] = true
-				}
+				cr.ChangeBy[kind] = t
+				cr.Change += t
 			}
 		}
 		if c.DataPoint.Set {
@@ -227,12 +221,26 @@ func walk(runs []Run, o RunOrder, m envelope.Medium, A float64, c envelope.Campa
 	return w
 }
 
-// keyOf is key when the figure is not set, "" otherwise.
-func keyOf(set bool, key string) string {
-	if set {
-		return ""
+// changeTime is the time of one change of kind (ChangeT0, ChangeP0,
+// ChangeMach) under campaign data c, dT the size of a T0 change (K), or
+// the campaign keys it needs and c does not give.
+func changeTime(c envelope.Campaign, kind int, dT float64) (t float64, missing []string) {
+	need := func(o envelope.Opt, key string) {
+		if !o.Set {
+			missing = append(missing, key)
+		}
 	}
-	return key
+	switch kind {
+	case ChangeT0:
+		need(c.T0PerKelvin, "t0_change_per_kelvin")
+		need(c.T0Fixed, "t0_change_fixed")
+		return c.T0Fixed.V + c.T0PerKelvin.V*dT, missing
+	case ChangeP0:
+		need(c.P0Change, "p0_change_time")
+		return c.P0Change.V, missing
+	}
+	need(c.MachChange, "mach_change_time")
+	return c.MachChange.V, missing
 }
 
 // NewCampaignCost works out the time and cost of run list rl from the
@@ -282,25 +290,12 @@ func NewCampaignCost(rl RunList, shift float64) (CampaignCost, bool) {
 		if k == 0 {
 			continue
 		}
-		prev := &rl.Runs[cc.Runs[k-1].First]
-		cur := &rl.Runs[r.First]
-		if r.Moves.T0 > 0 {
-			cc.Kinds[ChangeT0]++
-		}
-		if r.Moves.P0 > 0 || r.Moves.Q > 0 {
-			cc.Kinds[ChangeP0]++
-		}
-		if r.Moves.Mach > 0 {
-			cc.Kinds[ChangeMach]++
-		}
-		if r.Moves.T0 > 0 && cc.ChangeKnown[ChangeT0] {
-			cc.ChangeTime[ChangeT0] += c.T0Fixed.V + c.T0PerKelvin.V*math.Abs(cur.T0-prev.T0)
-		}
-		if (r.Moves.P0 > 0 || r.Moves.Q > 0) && c.P0Change.Set {
-			cc.ChangeTime[ChangeP0] += c.P0Change.V
-		}
-		if r.Moves.Mach > 0 && c.MachChange.Set {
-			cc.ChangeTime[ChangeMach] += c.MachChange.V
+		moved := [3]bool{r.Moves.T0 > 0, r.Moves.P0 > 0 || r.Moves.Q > 0, r.Moves.Mach > 0}
+		for kind := range moved {
+			if moved[kind] {
+				cc.Kinds[kind]++
+				cc.ChangeTime[kind] += r.ChangeBy[kind]
+			}
 		}
 	}
 	cc.Time, cc.TimeKnown = total, totalKnown

@@ -136,6 +136,14 @@ func TestCampaignMissing(t *testing.T) {
 	if want := []string{"occupancy_cost", "p0_change_time"}; !reflect.DeepEqual(cc.Missing, want) {
 		t.Errorf("missing %v, want %v", cc.Missing, want)
 	}
+	// Only the fixed part of a T0 change missing: run 2 (the T0 change) is
+	// left out, and only that key is named.
+	c = handCampaign()
+	c.T0Fixed = envelope.Opt{}
+	cc, _ = NewCampaignCost(handRunList(c), 0)
+	if cc.Runs[1].Known || !cc.Runs[2].Known || !reflect.DeepEqual(cc.Missing, []string{"t0_change_fixed"}) {
+		t.Errorf("without t0_change_fixed: run 2 known %v, run 3 known %v, missing %v", cc.Runs[1].Known, cc.Runs[2].Known, cc.Missing)
+	}
 	if _, ok := NewCampaignCost(handRunList(envelope.Campaign{}), 0); ok {
 		t.Error("campaign cost from no campaign data")
 	}
