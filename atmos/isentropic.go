@@ -281,3 +281,32 @@ func NormalShockAt(M1, g float64) (NormalShock, error) {
 		PitotRatio:         pitot,
 	}, nil
 }
+
+// MassFlowParameter returns ṁ·√T0 / (A·p0), the mass flow per unit area of
+// a stream tube at Mach number M of a perfect gas with ratio of specific
+// heats g and specific gas constant R (J/(kg·K)), per unit stagnation
+// pressure over the root of the stagnation temperature, in s·K^0.5/m for SI
+// inputs. From the isentropic relations of NACA Report 1135 (ρ0 = p0/(R T0),
+// a0 = √(γ R T0), ρV = ρ0 a0 M (1 + (γ−1)M²/2)^(−(γ+1)/(2(γ−1)))):
+//
+//	ṁ√T0/(A p0) = √(γ/R) · M · (1 + (γ−1)M²/2)^(−(γ+1)/(2(γ−1)))
+//
+// At M = 1 it is the choked (sonic-throat) value, for air about 0.0404
+// s·K^0.5/m; at any M it equals the sonic value over AreaRatio(M, g), as
+// continuity through the throat requires. NaN for invalid input.
+func MassFlowParameter(M, g, R float64) float64 {
+	if !validMach(M) || !validGamma(g) || !(R > 0) || math.IsInf(R, 0) {
+		return math.NaN()
+	}
+	return math.Sqrt(g/R) * M * math.Pow(1+0.5*(g-1)*M*M, -0.5*(g+1)/(g-1))
+}
+
+// ChokedMassFlow returns the mass flow (kg/s) through a sonic throat of
+// area throat (m²) fed at stagnation pressure p0 (Pa) and temperature T0
+// (K): p0·A*/√T0 · MassFlowParameter(1, g, R). NaN for invalid input.
+func ChokedMassFlow(p0, T0, throat, g, R float64) float64 {
+	if !(p0 >= 0) || !(T0 > 0) || !(throat >= 0) || math.IsInf(p0, 0) || math.IsInf(T0, 0) || math.IsInf(throat, 0) {
+		return math.NaN()
+	}
+	return p0 * throat / math.Sqrt(T0) * MassFlowParameter(1, g, R)
+}

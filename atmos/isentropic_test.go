@@ -275,3 +275,46 @@ func BenchmarkPressureRatio(b *testing.B) {
 		_ = PressureRatio(float64(i%50)*0.1, 1.4)
 	}
 }
+
+// TestMassFlowParameter checks the mass flow per unit area against the
+// closed form of NACA Report 1135 worked by hand, and against continuity
+// with the area ratio.
+func TestMassFlowParameter(t *testing.T) {
+	const tol = 1e-4 // relative; the hand values carry five figures
+	// Hand calculation, NACA Report 1135 isentropic relations, γ = 1.4, R =
+	// 287.05 J/(kg·K): √(1.4/287.05) = 0.069837; (2/2.4)^3 = 0.578704;
+	// product 0.040415 s·K^0.5/m, the usual "0.0404" for choked air.
+	if got := MassFlowParameter(1, 1.4, 287.05); mediaRelErr(got, 0.040415) > tol {
+		t.Errorf("MassFlowParameter(1, air) = %.6f, want 0.040415 (NACA 1135, by hand)", got)
+	}
+	// Hand calculation at M = 2: 0.069837 · 2 · 1.8^−3 = 0.023950.
+	if got := MassFlowParameter(2, 1.4, 287.05); mediaRelErr(got, 0.023950) > tol {
+		t.Errorf("MassFlowParameter(2, air) = %.6f, want 0.023950 (NACA 1135, by hand)", got)
+	}
+	// Nitrogen, γ = 1.4, R = 8.314462618/0.0280134 = 296.80 J/(kg·K):
+	// √(1.4/296.80) · 0.578704 = 0.039745 (by hand).
+	if got := MassFlowParameter(1, 1.4, 296.80); mediaRelErr(got, 0.039745) > tol {
+		t.Errorf("MassFlowParameter(1, nitrogen) = %.6f, want 0.039745 (by hand)", got)
+	}
+	// Continuity: the same mass flow passes the throat and the section, so
+	// the parameter at M times A/A*(M) is the sonic one (NACA 1135).
+	sonic := MassFlowParameter(1, 1.4, RAir)
+	for _, M := range []float64{0.2, 0.6, 1.5, 3, 4} {
+		if got := MassFlowParameter(M, 1.4, RAir) * AreaRatio(M, 1.4); mediaRelErr(got, sonic) > inverseRoundTripTol {
+			t.Errorf("MassFlowParameter(%v)·A/A* = %.15g, want the sonic %.15g", M, got, sonic)
+		}
+	}
+	// A 0.01 m² throat at 10 bar and 288.15 K passes, by hand,
+	// 1e6 · 0.01 / 16.9750 · 0.040415 = 23.808 kg/s.
+	if got := ChokedMassFlow(10e5, 288.15, 0.01, 1.4, 287.05); mediaRelErr(got, 23.808) > tol {
+		t.Errorf("ChokedMassFlow = %.4f kg/s, want 23.808 (by hand)", got)
+	}
+	for _, bad := range [][3]float64{{-1, 1.4, 287}, {1, 1, 287}, {1, 1.4, 0}, {math.NaN(), 1.4, 287}} {
+		if got := MassFlowParameter(bad[0], bad[1], bad[2]); !math.IsNaN(got) {
+			t.Errorf("MassFlowParameter(%v) = %v, want NaN", bad, got)
+		}
+	}
+	if got := ChokedMassFlow(1e5, 0, 1, 1.4, 287); !math.IsNaN(got) {
+		t.Errorf("ChokedMassFlow at T0 = 0: %v, want NaN", got)
+	}
+}

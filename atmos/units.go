@@ -40,6 +40,11 @@ const (
 	PoundPerCubicFoot = PoundMass / (Foot * Foot * Foot) // kg/m³
 	FootPoundForce    = PoundForce * Foot                // N·m, lbf·ft
 	InchPoundForce    = PoundForce * Inch                // N·m, lbf·in
+	Minute            = 60.0                             // s
+	Hour              = 3600.0                           // s
+	Litre             = 1e-3                             // m³
+	Tonne             = 1000.0                           // kg, metric ton
+	CubicFoot         = Foot * Foot * Foot               // m³
 )
 
 // Dimension is the physical kind of a quantity read from text or shown on
@@ -48,43 +53,67 @@ type Dimension int
 
 // Dimensions.
 const (
-	Length           Dimension = iota // m
-	Area                              // m²
-	Speed                             // m/s
-	Pressure                          // Pa (absolute)
-	Temperature                       // K (absolute)
-	TemperatureDelta                  // K (a difference or offset, e.g. ΔT of a non-standard day)
-	Dimensionless                     // pure number: Mach, Reynolds, ratios
-	Density                           // kg/m³
-	Force                             // N
-	Moment                            // N·m (a moment of force, e.g. a balance's pitching-moment capacity)
+	Length             Dimension = iota // m
+	Area                                // m²
+	Speed                               // m/s
+	Pressure                            // Pa (absolute)
+	Temperature                         // K (absolute)
+	TemperatureDelta                    // K (a difference or offset, e.g. ΔT of a non-standard day)
+	Dimensionless                       // pure number: Mach, Reynolds, ratios
+	Density                             // kg/m³
+	Force                               // N
+	Moment                              // N·m (a moment of force, e.g. a balance's pitching-moment capacity)
+	Time                                // s (a duration: a set-point change, a data point, a recharge)
+	Volume                              // m³ (a storage vessel)
+	Mass                                // kg
+	MassRate                            // kg/s (a coolant use)
+	TimePerTemperature                  // s/K (the time a temperature change takes per kelvin)
 	numDimensions
 )
 
 var dimensionNames = [...]string{
-	Length:           "length",
-	Area:             "area",
-	Speed:            "speed",
-	Pressure:         "pressure",
-	Temperature:      "temperature",
-	TemperatureDelta: "temperature difference",
-	Dimensionless:    "dimensionless number",
-	Density:          "density",
-	Force:            "force",
-	Moment:           "moment",
+	Length:             "length",
+	Area:               "area",
+	Speed:              "speed",
+	Pressure:           "pressure",
+	Temperature:        "temperature",
+	TemperatureDelta:   "temperature difference",
+	Dimensionless:      "dimensionless number",
+	Density:            "density",
+	Force:              "force",
+	Moment:             "moment",
+	Time:               "time",
+	Volume:             "volume",
+	Mass:               "mass",
+	MassRate:           "mass flow",
+	TimePerTemperature: "time per kelvin",
 }
 
 var dimensionExamples = [...]string{
-	Length:           "35000 ft",
-	Area:             "0.5 m2",
-	Speed:            "250 kt",
-	Pressure:         "101.325 kPa",
-	Temperature:      "-56.5 degC",
-	TemperatureDelta: "15 K",
-	Dimensionless:    "0.8",
-	Density:          "1.225 kg/m3",
-	Force:            "4.5 kN",
-	Moment:           "600 N·m",
+	Length:             "35000 ft",
+	Area:               "0.5 m2",
+	Speed:              "250 kt",
+	Pressure:           "101.325 kPa",
+	Temperature:        "-56.5 degC",
+	TemperatureDelta:   "15 K",
+	Dimensionless:      "0.8",
+	Density:            "1.225 kg/m3",
+	Force:              "4.5 kN",
+	Moment:             "600 N·m",
+	Time:               "15 min",
+	Volume:             "60 m3",
+	Mass:               "500 kg",
+	MassRate:           "8 t/h",
+	TimePerTemperature: "1.5 min/K",
+}
+
+// Dimensions lists every dimension, in order.
+func Dimensions() []Dimension {
+	out := make([]Dimension, numDimensions)
+	for d := range out {
+		out[d] = Dimension(d)
+	}
+	return out
 }
 
 // String returns the dimension's name, e.g. "length".
@@ -197,32 +226,74 @@ var unitTables = [numDimensions][]unitDef{
 		{name: "lbf·ft", symbol: "lbf·ft", aliases: []string{"lbfft", "lbf-ft", "ft·lbf", "ftlbf", "ft-lbf"}, scale: FootPoundForce},
 		{name: "lbf·in", symbol: "lbf·in", aliases: []string{"lbfin", "lbf-in", "in·lbf", "inlbf", "in-lbf"}, scale: InchPoundForce},
 	},
+	Time: {
+		{name: "s", symbol: "s", aliases: []string{"sec", "second", "seconds"}, scale: 1},
+		{name: "min", symbol: "min", aliases: []string{"minute", "minutes"}, scale: Minute},
+		{name: "h", symbol: "h", aliases: []string{"hr", "hour", "hours"}, scale: Hour},
+	},
+	Volume: {
+		{name: "m3", symbol: "m³", aliases: []string{"cum"}, scale: 1},
+		{name: "L", symbol: "L", aliases: []string{"litre", "litres", "liter", "liters"}, scale: Litre},
+		{name: "ft3", symbol: "ft³", aliases: []string{"cuft"}, scale: CubicFoot},
+	},
+	Mass: {
+		{name: "kg", symbol: "kg", aliases: []string{"kilogram", "kilograms"}, scale: 1},
+		{name: "g", symbol: "g", aliases: []string{"gram", "grams"}, scale: 1e-3},
+		{name: "t", symbol: "t", aliases: []string{"tonne", "tonnes"}, scale: Tonne},
+		{name: "lb", symbol: "lb", aliases: []string{"lbm", "lbs", "pound", "pounds"}, scale: PoundMass},
+	},
+	MassRate: {
+		{name: "kg/s", symbol: "kg/s", scale: 1},
+		{name: "kg/h", symbol: "kg/h", aliases: []string{"kg/hr"}, scale: 1 / Hour},
+		{name: "t/h", symbol: "t/h", aliases: []string{"t/hr"}, scale: Tonne / Hour},
+		{name: "lb/s", symbol: "lb/s", aliases: []string{"lbm/s"}, scale: PoundMass},
+		{name: "lb/h", symbol: "lb/h", aliases: []string{"lb/hr", "lbm/h"}, scale: PoundMass / Hour},
+	},
+	// A time per kelvin of temperature change; per degree Fahrenheit or
+	// Rankine is 9/5 as much per kelvin.
+	TimePerTemperature: {
+		{name: "s/K", symbol: "s/K", aliases: []string{"s/degC"}, scale: 1},
+		{name: "min/K", symbol: "min/K", aliases: []string{"min/degC"}, scale: Minute},
+		{name: "h/K", symbol: "h/K", aliases: []string{"h/degC"}, scale: Hour},
+		{name: "s/degF", symbol: "s/°F", aliases: []string{"s/degR"}, scale: 9.0 / 5},
+		{name: "min/degF", symbol: "min/°F", aliases: []string{"min/degR"}, scale: Minute * 9 / 5},
+	},
 }
 
 // customaryUnit names the display unit used by Format when customary is true.
 var customaryUnit = [numDimensions]string{
-	Length:           "ft",
-	Area:             "ft2",
-	Speed:            "kt",
-	Pressure:         "psi",
-	Temperature:      "degF",
-	TemperatureDelta: "degF",
-	Density:          "slug/ft3",
-	Force:            "lbf",
-	Moment:           "lbf·ft",
+	Length:             "ft",
+	Area:               "ft2",
+	Speed:              "kt",
+	Pressure:           "psi",
+	Temperature:        "degF",
+	TemperatureDelta:   "degF",
+	Density:            "slug/ft3",
+	Force:              "lbf",
+	Moment:             "lbf·ft",
+	Time:               "h",
+	Volume:             "ft3",
+	Mass:               "lb",
+	MassRate:           "lb/h",
+	TimePerTemperature: "min/degF",
 }
 
 // siDisplayUnit names the display unit used by Format for SI output.
 var siDisplayUnit = [numDimensions]string{
-	Length:           "m",
-	Area:             "m2",
-	Speed:            "m/s",
-	Pressure:         "kPa",
-	Temperature:      "K",
-	TemperatureDelta: "K",
-	Density:          "kg/m3",
-	Force:            "N",
-	Moment:           "N·m",
+	Length:             "m",
+	Area:               "m2",
+	Speed:              "m/s",
+	Pressure:           "kPa",
+	Temperature:        "K",
+	TemperatureDelta:   "K",
+	Density:            "kg/m3",
+	Force:              "N",
+	Moment:             "N·m",
+	Time:               "h",
+	Volume:             "m3",
+	Mass:               "kg",
+	MassRate:           "kg/h",
+	TimePerTemperature: "min/K",
 }
 
 // gaugeUnits are refused because every pressure here is absolute.
@@ -492,7 +563,7 @@ func isNonFiniteWord(t string) bool {
 
 func checkSign(si float64, d Dimension) error {
 	switch d {
-	case Area, Speed, Pressure, Density:
+	case Area, Speed, Pressure, Density, Volume, Mass, MassRate:
 		if si < 0 {
 			return fmt.Errorf("%s must not be negative: %w", d, ErrOutOfRange)
 		}

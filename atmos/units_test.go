@@ -193,7 +193,12 @@ func TestParseQuantityErrors(t *testing.T) {
 		{"-3 kt", Speed, []string{"speed must not be negative"}, ErrOutOfRange},
 		{"-1 psi", Pressure, []string{"must not be negative"}, ErrOutOfRange},
 		{"1 m", Dimension(99), []string{"unknown dimension 99"}, nil},
-		{"5 kg", Force, []string{`unknown force unit "kg"; accepted: N, daN, kN, lbf`}, ErrUnknownUnit},
+		// A mass where a force is meant: kg is a mass unit since the
+		// campaign data (coolant, storage) reads masses.
+		{"5 kg", Force, []string{`"kg" is a mass unit; expected a force (N, daN, kN, lbf)`}, ErrWrongDimension},
+		{"5 kgf", Force, []string{`unknown force unit "kgf"; accepted: N, daN, kN, lbf`}, ErrUnknownUnit},
+		{"15 min", Pressure, []string{`"min" is a time unit; expected a pressure`}, ErrWrongDimension},
+		{"-5 kg/h", MassRate, []string{`mass flow must not be negative`}, ErrOutOfRange},
 		{"5 kN", Moment, []string{`"kN" is a force unit; expected a moment (N·m, kN·m, lbf·ft, lbf·in)`}, ErrWrongDimension},
 		{"5 N·m", Force, []string{`"N·m" is a moment unit; expected a force (N, daN, kN, lbf)`}, ErrWrongDimension},
 		{"600", Moment, []string{`missing moment unit; accepted: N·m, kN·m, lbf·ft, lbf·in`}, ErrMissingUnit},

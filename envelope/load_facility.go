@@ -175,7 +175,10 @@ func facilityFields(f *Facility) []facilityField {
 	}
 	// The rule is read after every limit it is checked against (checkRule).
 	out = append(out, ruleFields(f)...)
-	return append(out, facilityField{everyMedium, subTable("model", modelFields(&f.Model))})
+	out = append(out, facilityField{everyMedium, subTable("model", modelFields(&f.Model))})
+	// The campaign data is read last: its storage pressure is checked
+	// against the pressure range.
+	return append(out, facilityField{everyMedium, newCampaignTable(f)})
 }
 
 // facilityFieldKeys lists the keys of facilityFields, in order.

@@ -18,6 +18,7 @@ func TestFieldKeysDocumented(t *testing.T) {
 	}
 	var v Vehicle
 	var m ModelSizing
+	var c Campaign
 	lists := map[string][]string{
 		"vehicle":  fieldKeys(vehicleFields(&v)),
 		"envelope": envelopeKeys,
@@ -26,6 +27,7 @@ func TestFieldKeysDocumented(t *testing.T) {
 		"axis":     axisKeys,
 		"facility": facilityKeys,
 		"model":    fieldKeys(modelFields(&m)),
+		"campaign": fieldKeys(campaignFields(&c)),
 	}
 	for table, keys := range lists {
 		for _, k := range keys {
@@ -39,7 +41,7 @@ func TestFieldKeysDocumented(t *testing.T) {
 // TestFacilityKeys states the keys of a [[facility]] table in their
 // documented order, and which media take them.
 func TestFacilityKeys(t *testing.T) {
-	want := []string{"name", "class", "medium", "mach_range", "speed_range", "stagnation_pressure_range", "static_pressure_range", "stagnation_temperature_range", "water_temperature_range", "max_dynamic_pressure", "min_static_temperature", "condensation_check", "peak_local_mach", "max_reynolds_per_metre", "section_width", "section_height", "balance_max_normal_force", "balance_max_pitching_moment", "operating_rule", "rule_temperature", "rule_q", "model"}
+	want := []string{"name", "class", "medium", "mach_range", "speed_range", "stagnation_pressure_range", "static_pressure_range", "stagnation_temperature_range", "water_temperature_range", "max_dynamic_pressure", "min_static_temperature", "condensation_check", "peak_local_mach", "max_reynolds_per_metre", "section_width", "section_height", "balance_max_normal_force", "balance_max_pitching_moment", "operating_rule", "rule_temperature", "rule_q", "model", "campaign"}
 	if !reflect.DeepEqual(facilityKeys, want) {
 		t.Errorf("facilityKeys =\n  %v\nwant\n  %v", facilityKeys, want)
 	}

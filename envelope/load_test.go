@@ -445,10 +445,28 @@ func TestBadFiles(t *testing.T) {
 		// isentropic relations of NACA Report 1135): 1 bar gives 1550.44 Pa.
 		{"rule_q_unreachable.toml", []string{
 			`rule_q_unreachable.toml:12: facility[1].rule_q: found "1 kPa", expected a dynamic pressure the facility runs, 1550.44 Pa (its lowest p0 at an end of its Mach range) to 134098 Pa (its highest p0)`}},
+		{"campaign_negative_time.toml", []string{
+			`campaign_negative_time.toml:14: facility[1].campaign.p0_change_time: found "-5 min", expected a time from 0 s to 1000 h`}},
+		{"campaign_storage_below_p0.toml", []string{
+			`campaign_storage_below_p0.toml:14: facility[1].campaign.storage_pressure: found "3 bar", expected a storage pressure at least the facility's highest p0, 400000 Pa`}},
+		{"campaign_cost_no_unit.toml", []string{
+			`campaign_cost_no_unit.toml:13: facility[1].campaign.occupancy_cost: found "2400" (missing currency and unit), expected a cost per hour with its currency, e.g. "2400 EUR/h" (per: s, min, h)`}},
+		{"campaign_cost_wrong_unit.toml", []string{
+			`campaign_cost_wrong_unit.toml:13: facility[1].campaign.occupancy_cost: found "2400 EUR/kg" ("kg" is a mass unit), expected a cost per hour with its currency, e.g. "2400 EUR/h" (per: s, min, h)`}},
+		{"campaign_cost_no_per.toml", []string{
+			`campaign_cost_no_per.toml:13: facility[1].campaign.occupancy_cost: found "2400 EUR" (missing the unit it is per hour, e.g. /h), expected a cost per hour with its currency, e.g. "2400 EUR/h" (per: s, min, h)`,
+			`campaign_cost_no_per.toml:15: facility[1].campaign.coolant_price: found 0.15 (a number without its unit), expected a price per mass with its currency, e.g. "0.15 EUR/kg" (per: kg, g, t, lb), in quotes`}},
+		{"campaign_storage_partial.toml", []string{
+			`campaign_storage_partial.toml:12: facility[1].campaign.usable_pressure_ratio: missing, expected the blowdown storage in full: storage_volume, storage_pressure, usable_pressure_ratio, recharge_time together (or none of them)`,
+			`campaign_storage_partial.toml:12: facility[1].campaign.recharge_time: missing, expected the blowdown storage in full: storage_volume, storage_pressure, usable_pressure_ratio, recharge_time together (or none of them)`}},
+		{"campaign_currency_mixed.toml", []string{
+			`campaign_currency_mixed.toml:15: facility[1].campaign.coolant_price: found "0.15 USD/kg", expected a price in EUR, the currency of occupancy_cost`}},
+		{"campaign_storage_on_water.toml", []string{
+			`campaign_storage_on_water.toml:13: facility[1].campaign.storage_volume: found storage_volume on a water facility, expected no storage_volume (blowdown storage and coolant apply to air and nitrogen facilities)`}},
 		{"many_faults.toml", []string{
 			`many_faults.toml:6: facility[1].stagnation_pressure_range high: found "4.5 psx" (unknown pressure unit "psx"), expected a pressure with its unit, e.g. "2.5 bar" (units: Pa, hPa, kPa, MPa, mbar, bar, psi, psf, atm, inHg, mmHg, torr)`,
 			`many_faults.toml:9: facility[1].section_height: found "-2 m", expected a length above 0 m`,
-			`many_faults.toml:10: facility[1].colour: found unknown key "colour", expected one of: name, class, medium, mach_range, speed_range, stagnation_pressure_range, static_pressure_range, stagnation_temperature_range, water_temperature_range, max_dynamic_pressure, min_static_temperature, condensation_check, peak_local_mach, max_reynolds_per_metre, section_width, section_height, balance_max_normal_force, balance_max_pitching_moment, operating_rule, rule_temperature, rule_q, model`,
+			`many_faults.toml:10: facility[1].colour: found unknown key "colour", expected one of: name, class, medium, mach_range, speed_range, stagnation_pressure_range, static_pressure_range, stagnation_temperature_range, water_temperature_range, max_dynamic_pressure, min_static_temperature, condensation_check, peak_local_mach, max_reynolds_per_metre, section_width, section_height, balance_max_normal_force, balance_max_pitching_moment, operating_rule, rule_temperature, rule_q, model, campaign`,
 			`many_faults.toml:12: facility[2].section_height: missing, expected a length with its unit, e.g. "1.2 m" ` + lengthUnits,
 			`many_faults.toml:15: facility[2].speed_range: found ["10 m/s", "1 m/s"] (low above high), expected the low value first`,
 			`many_faults.toml:17: facility[2].water_temperature_range low: found "-5 degC", expected a water temperature from 0 degC to 100 degC`,

@@ -74,6 +74,16 @@ func (u unit) si() string {
 		return "N"
 	case u.dim == atmos.Moment:
 		return "N·m"
+	case u.dim == atmos.Time:
+		return "s"
+	case u.dim == atmos.TimePerTemperature:
+		return "s/K"
+	case u.dim == atmos.Volume:
+		return "m3"
+	case u.dim == atmos.Mass:
+		return "kg"
+	case u.dim == atmos.MassRate:
+		return "kg/s"
 	}
 	return ""
 }

@@ -113,6 +113,8 @@ type Facility struct {
 	Rule OperatingRule
 	// Balance is the optional balance and sting capacity (loads.go).
 	Balance BalanceLimits
+	// Campaign is the optional time and cost data (campaign.go).
+	Campaign Campaign
 }
 
 // GasLimits are the operating limits of a gas facility.

@@ -8,7 +8,7 @@ import (
 
 var reportCommand = commandSpec{
 	name:      "report",
-	usage:     "likewind report [VEHICLE.toml FACILITIES.toml...] [--session FILE] -o FILE.html [--force] [--customary] [--date YYYY-MM-DD]",
+	usage:     "likewind report [VEHICLE.toml FACILITIES.toml...] [--session FILE] -o FILE.html [--force] [--customary] [--date YYYY-MM-DD] [--shift DURATION]",
 	session:   "session file whose what-if values apply and whose marked test points the run lists hold",
 	customary: "altitudes in ft, airspeeds in kt, pressures in psi and psf, temperatures in °F",
 	date:      "date written into the page, YYYY-MM-DD (default today)",
@@ -19,7 +19,12 @@ var reportCommand = commandSpec{
 // Reynolds–Mach chart, the run lists, time and cost, and the cautions.
 func runReport(args []string, stdout, stderr io.Writer) int {
 	c := newCommand(reportCommand, stdout, stderr)
+	shiftText := shiftFlag(c)
 	return c.run(args, func() error {
+		shift, err := parseShift(c, *shiftText)
+		if err != nil {
+			return err
+		}
 		if err := c.load(); err != nil {
 			return err
 		}
@@ -36,6 +41,7 @@ func runReport(args []string, stdout, stderr io.Writer) int {
 			Eval:    ev.e,
 			Marks:   ev.marks,
 			Units:   c.units(),
+			Cost:    report.CampaignSource{Shift: shift, Units: c.units()},
 		})
 		if err != nil {
 			return c.errorf("%w", err)

@@ -49,9 +49,31 @@ func TestReportWritesPage(t *testing.T) {
 	}
 	text := pageText(doc)
 	for _, want := range []string{"Review pack: Corvane SX-3", "Planning caution", "likewind " + version + " review pack, 2025-01-01",
-		"built-in demo data", "Run lists", "No time or cost data for this facility", "Cautions raised"} {
+		"built-in demo data", "Run lists", "Cautions raised",
+		// The demo facilities carry invented campaign data: the time and
+		// cost columns and summary are fed from it.
+		"run time min", "total h", "blow s", "campaign time", "shifts (8 h)", "occupancy cost", "coolant", "facility order saves"} {
 		if !strings.Contains(text, want) {
 			t.Errorf("the page lacks %q", want)
+		}
+	}
+	if strings.Contains(text, "No time or cost data for this facility") {
+		t.Error("the demo page says a facility has no time or cost data; every demo facility has some")
+	}
+	// Facilities without campaign data: the page says so.
+	doc, _ = outReportPage(t, "../../testdata/corvane-sx3.toml", "../../testdata/examples/rules-facilities.toml")
+	if text := pageText(doc); !strings.Contains(text, "No time or cost data for this facility") || strings.Contains(text, "campaign time") {
+		t.Error("a page of facilities without campaign data lacks the no-data words, or shows a campaign time")
+	}
+	// --shift sets the shift length the summary counts in; a bad one is
+	// a usage error.
+	doc, _ = outReportPage(t, "--shift", "12 h")
+	if !strings.Contains(pageText(doc), "shifts (12 h)") {
+		t.Error("report --shift 12 h: the page lacks \"shifts (12 h)\"")
+	}
+	for _, bad := range []string{"0 h", "25 h", "8", "8 kg"} {
+		if code, _, errs := outCmd("report", "--shift", bad); code != 2 || !strings.Contains(errs, "--shift") {
+			t.Errorf("report --shift %q: exit %d, %q; want a usage error naming --shift", bad, code, errs)
 		}
 	}
 	dir := t.TempDir()

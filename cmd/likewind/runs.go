@@ -5,6 +5,7 @@ import (
 	"io"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"likewind/atmos"
 	"likewind/envelope"
@@ -14,7 +15,7 @@ import (
 
 var runsCommand = commandSpec{
 	name:      "runs",
-	usage:     "likewind runs [VEHICLE.toml FACILITIES.toml...] [--session FILE] [--format text|csv|json] [--facility NAME] [-o FILE] [--force] [--customary]",
+	usage:     "likewind runs [VEHICLE.toml FACILITIES.toml...] [--session FILE] [--format text|csv|json] [--facility NAME] [-o FILE] [--force] [--customary] [--shift DURATION]",
 	format:    "text, csv or json",
 	formats:   []string{"text", "csv", "json"},
 	session:   "session file whose marked test points to list (and whose what-if values apply)",
@@ -29,7 +30,12 @@ var runsCommand = commandSpec{
 // number of set-point changes.
 func runRuns(args []string, stdout, stderr io.Writer) int {
 	c := newCommand(runsCommand, stdout, stderr)
+	shiftText := shiftFlag(c)
 	return c.run(args, func() error {
+		shift, err := parseShift(c, *shiftText)
+		if err != nil {
+			return err
+		}
 		if err := c.load(); err != nil {
 			return err
 		}
@@ -42,6 +48,7 @@ func runRuns(args []string, stdout, stderr io.Writer) int {
 			return c.errorf("%w", err)
 		}
 		plan.date = c.day
+		plan.Shift = shift
 		return c.write(func(w io.Writer) error {
 			switch c.format {
 			case "csv":
@@ -124,6 +131,7 @@ func (p *runPlan) writeText(w io.Writer, u units.System) error {
 	fmt.Fprintf(&b, "%-9s %s\n", "rule", rule)
 	fmt.Fprintf(&b, "%-9s %s\n", "caution", envelope.SafetyNote)
 	t := newRunText(u, g.SpeedKind)
+	t.cost = report.CampaignSource{Shift: p.Shift, Units: u}
 	for _, rl := range p.Lists {
 		t.writeList(&b, rl)
 	}
@@ -140,6 +148,9 @@ type runText struct {
 	// unit labels of altitude, pressure, dynamic pressure, temperature
 	// and speed
 	altU, pU, qU, tU, vU string
+	// cost gives the campaign time and cost of a list whose facility has
+	// campaign data.
+	cost report.CampaignSource
 }
 
 func newRunText(u units.System, kind atmos.SpeedKind) runText {
@@ -190,6 +201,7 @@ func (t runText) writeList(b *strings.Builder, rl report.RunList) {
 	fmt.Fprintf(b, "\n%s (%s, model scale %.3g)\n", rl.Facility, rl.Medium, rl.Scale)
 	fmt.Fprintf(b, "operating rule: %s; runs grouped by %s\n", rl.Rule.Describe(rl.Medium, t.u), orderWords(rl.Order))
 	c := rl.Changes
+	fc, hasCost := t.cost.RunListCost(rl)
 	if len(rl.Runs) == 0 {
 		b.WriteString("no points to run\n")
 	} else if water {
@@ -211,11 +223,21 @@ func (t runText) writeList(b *strings.Builder, rl report.RunList) {
 			head = append(head, "T0 "+t.tU, "p0 "+t.pU, "test Mach")
 		}
 		head = append(head, "model Re", "Re ratio", "q "+t.qU, "class", "changes")
+		if hasCost {
+			head = append(head, fc.Columns...)
+		}
 		var rows [][]string
 		for k := range rl.Runs {
-			rows = append(rows, t.row(rl.Runs, k, rl.Order))
+			row := t.row(rl.Runs, k, rl.Order)
+			if hasCost {
+				row = append(row, fc.Cells[k]...)
+			}
+			rows = append(rows, row)
 		}
 		report.WriteTable(b, head, rows, func(k int) bool { return k == 11 || k == 12 })
+	}
+	if hasCost {
+		writeCost(b, fc)
 	}
 	if len(rl.Unrunnable) > 0 {
 		fmt.Fprintf(b, "not runnable (%s):\n", plural(len(rl.Unrunnable), "point", "points"))
@@ -227,6 +249,39 @@ func (t runText) writeList(b *strings.Builder, rl report.RunList) {
 			fmt.Fprintf(b, "  %s, %s %s: %s\n", t.u.Alt(r.Altitude), t.speedTitle, t.speedLabel(r.GridSpeed), why)
 		}
 	}
+}
+
+// writeCost writes a list's campaign summary and notes under its table.
+func writeCost(b *strings.Builder, fc report.FacilityCost) {
+	b.WriteString("campaign time and cost:\n")
+	w := 0
+	for _, it := range fc.Summary {
+		w = max(w, utf8.RuneCountInString(it.Label))
+	}
+	for _, it := range fc.Summary {
+		fmt.Fprintf(b, "  %s%s  %s\n", it.Label, strings.Repeat(" ", w-utf8.RuneCountInString(it.Label)), it.Value)
+	}
+	for _, n := range fc.Notes {
+		fmt.Fprintf(b, "  note: %s\n", n)
+	}
+}
+
+// shiftFlag adds --shift to c: the shift length the campaign summary
+// counts shifts in.
+func shiftFlag(c *command) *string {
+	return c.fs.String("shift", "8 h", "shift length for the campaign's shift count, a time with its unit, e.g. \"8 h\" or \"450 min\" (above 0, at most 24 h)")
+}
+
+// parseShift reads --shift: a time above 0 and at most 24 h.
+func parseShift(c *command, s string) (float64, error) {
+	v, err := atmos.ParseQuantity(s, atmos.Time)
+	if err != nil {
+		return 0, c.usagef("--shift: %w", err)
+	}
+	if !(v > 0 && v <= 24*atmos.Hour) {
+		return 0, c.usagef("--shift %q: want a shift above 0 and at most 24 h", s)
+	}
+	return v, nil
 }
 
 // row is the table row of run k. A further flight point of the same run

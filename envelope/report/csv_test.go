@@ -24,7 +24,8 @@ func TestCSVColumns(t *testing.T) {
 		{"runs", RunColumns(), "facility,medium,run,row,col,altitude_m,grid_speed,grid_speed_kind," +
 			"flight_mach,flight_tas_m_s,flight_q_pa,flight_reynolds,class,limit,flags," +
 			"test_mach,p0_pa,t0_k,water_temperature_k,static_pressure_pa,test_speed_m_s,test_q_pa," +
-			"model_reynolds,reynolds_ratio,t0_change,p0_change,mach_change,q_change,rule,rule_temperature_k,rule_q_pa"},
+			"model_reynolds,reynolds_ratio,t0_change,p0_change,mach_change,q_change,rule,rule_temperature_k,rule_q_pa," +
+			"run_time_s,total_time_s,blow_duration_s,blows,blow_short"},
 	} {
 		if got := strings.Join(tc.got, ","); got != tc.want {
 			t.Errorf("%s CSV columns\n got %s\nwant %s", tc.what, got, tc.want)

@@ -605,3 +605,78 @@ func TestReviewHostileNames(t *testing.T) {
 		t.Errorf("the inputs do not show the file name escaped: %q", s)
 	}
 }
+
+// TestReviewCampaign: the review pack's time and cost part is fed by the
+// campaign computation (CampaignSource). Three marked points of distinct
+// set points in the transonic tunnel, with invented campaign data of no
+// change time: by hand each run takes its one 6-minute data point (6.0
+// min), the running totals after the 1-hour model installation are 1.10,
+// 1.20 and 1.30 h, one 8-hour shift, and at 1000 EUR/h the occupancy costs
+// 1300.00 EUR; with no change time the order saves nothing.
+func TestReviewCampaign(t *testing.T) {
+	const tunnel = "Harl Cove T2 pressurized transonic tunnel"
+	camp := envelope.Campaign{
+		OccupancyCost: envelope.Money{Amount: 1000.0 / 3600, Currency: "EUR", Set: true},
+		ModelChange:   envelope.Opt{V: 3600, Set: true},
+		DataPoint:     envelope.Opt{V: 360, Set: true},
+		T0PerKelvin:   envelope.Opt{Set: true}, T0Fixed: envelope.Opt{Set: true},
+		P0Change: envelope.Opt{Set: true}, MachChange: envelope.Opt{Set: true},
+	}
+	e := outEvalVehicle(t, 0, func(_ *envelope.Settings, fs []envelope.Facility) {
+		for k := range fs {
+			if fs[k].Name == tunnel {
+				fs[k].Campaign = camp
+			}
+		}
+	})
+	k := e.Facility(tunnel)
+	m := e.Maps[k]
+	pts := DefaultRunPoints(m)
+	marks := []envelope.GridPoint{pts[0], pts[len(pts)/2], pts[len(pts)-1]}
+	rl, err := PlanRuns(m, marks)
+	if err != nil || rl.SetPoints != 3 {
+		t.Fatalf("three marks give %d set points (%v); the test needs 3", rl.SetPoints, err)
+	}
+	doc, _ := outReviewPage(t, ReviewInput{Eval: e, Marks: marks, Cost: CampaignSource{}})
+	var tb *html.Node
+	for _, n := range htmlFind(doc, func(n *html.Node) bool { return n.DataAtom == atom.Table && htmlAttr(n, "class") == "runs" }) {
+		if htmlAttr(n, "data-facility") == strconv.Itoa(k+1) {
+			tb = n
+		}
+	}
+	if tb == nil {
+		t.Fatal("no run table of the transonic tunnel")
+	}
+	head := htmlHead(tb)
+	if got := strings.Join(head[len(head)-2:], "|"); got != ColRunTime+"|"+ColTotal {
+		t.Errorf("run table ends with %q, want the time columns", got)
+	}
+	wantTotal := []string{"1.10", "1.20", "1.30"}
+	rows := htmlRows(tb)
+	if len(rows) != 3 {
+		t.Fatalf("%d rows, want 3", len(rows))
+	}
+	for r, row := range rows {
+		if got := strings.Join(row[len(row)-2:], "|"); got != "6.0|"+wantTotal[r] {
+			t.Errorf("row %d ends with %q, want 6.0|%s (by hand)", r+1, got, wantTotal[r])
+		}
+	}
+	sum := htmlPairs(htmlByID(doc, "campaign-"+strconv.Itoa(k+1)))
+	for label, want := range map[string]string{
+		"model installation":   "1.00 h",
+		"campaign time":        "1.30 h",
+		"shifts (8 h)":         "1",
+		"occupancy cost":       "1300.00 EUR (1000.00 EUR per hour)",
+		"total cost":           "1300.00 EUR",
+		"facility order saves": "0.00 h against the order given (0.30 h of runs there, 0.30 h here)",
+	} {
+		if sum[label] != want {
+			t.Errorf("summary %q = %q, want %q (by hand)", label, sum[label], want)
+		}
+	}
+	// Without a cost source the same facility has no figures.
+	doc, _ = outReviewPage(t, ReviewInput{Eval: e, Marks: marks})
+	if s := htmlText(htmlByID(doc, "campaign-"+strconv.Itoa(k+1))); !strings.Contains(s, "No time or cost data") {
+		t.Errorf("no cost source: %q", s)
+	}
+}

@@ -18,6 +18,9 @@ type RunPlan struct {
 	// RuleOverride is the operating rule a what-if sets for every facility
 	// (Kind RuleDefault: each facility's own).
 	RuleOverride envelope.OperatingRule
+	// Shift is the shift length the campaign summaries count shifts in,
+	// s (0: DefaultShift).
+	Shift float64
 }
 
 // PlanAll builds the run list of facility sel of e, or of every facility
@@ -82,6 +85,16 @@ type RunRecord struct {
 	Rule            string `json:"rule"`
 	RuleTemperature Num    `json:"rule_temperature_k"`
 	RuleQ           Num    `json:"rule_q_pa"`
+	// Campaign time of the run, on its first flight point, where the
+	// facility has campaign data and the figure's data is given (null
+	// otherwise): the run's time and the running total with the model
+	// installation, s; for a blowdown tunnel one blow's duration, s, the
+	// blows the data time needs and whether one blow is too short.
+	RunTime   Num   `json:"run_time_s"`
+	TotalTime Num   `json:"total_time_s"`
+	BlowTime  Num   `json:"blow_duration_s"`
+	Blows     Num   `json:"blows"`
+	BlowShort *bool `json:"blow_short"`
 }
 
 // runCSV is the run list's CSV column table, derived once from
@@ -106,6 +119,7 @@ func (rl RunList) Records() (runs, unrunnable []RunRecord) {
 			TestMach: na, P0: na, T0: na, WaterTemperature: na, StaticPressure: na,
 			TestSpeed: na, TestQ: na, ModelRe: na, ReRatio: na,
 			Rule: ri.Name, RuleTemperature: ri.Temperature, RuleQ: ri.Q,
+			RunTime: na, TotalTime: na, BlowTime: na, Blows: na,
 		}
 		if !r.HasSettings {
 			return rec
@@ -119,8 +133,34 @@ func (rl RunList) Records() (runs, unrunnable []RunRecord) {
 		rec.ModelRe, rec.ReRatio = Num(r.Re), Num(r.ReRatio)
 		return rec
 	}
+	first := map[int]CampaignRun{}
+	if cc, ok := NewCampaignCost(rl, 0); ok {
+		for _, cr := range cc.Runs {
+			first[cr.First] = cr
+		}
+	}
 	for k, r := range rl.Runs {
 		rec := mk(r, r.SetPoint)
+		if cr, ok := first[k]; ok {
+			if cr.Known {
+				rec.RunTime = Num(cr.Time)
+			}
+			if cr.TotalKnown {
+				rec.TotalTime = Num(cr.Total)
+			}
+			if cr.HasBlow {
+				rec.BlowTime = Num(cr.Blow)
+				if cr.Blows > 0 {
+					rec.Blows = Num(cr.Blows)
+					short := cr.Short
+					rec.BlowShort = &short
+				}
+			}
+			if cr.NoBlow {
+				no := true
+				rec.BlowShort = &no
+			}
+		}
 		c := rl.Order.Step(rl.Runs, k)
 		rec.T0Change, rec.P0Change, rec.MachChange = c.T0 > 0, c.P0 > 0, c.Mach > 0
 		if rl.Order.HoldQ {
@@ -178,6 +218,75 @@ type runsFacility struct {
 	Changes    runChanges  `json:"changes"`
 	Runs       []RunRecord `json:"runs"`
 	Unrunnable []RunRecord `json:"unrunnable"`
+	// Campaign is the campaign's time and cost (null: no campaign data).
+	Campaign *campaignDoc `json:"campaign"`
+}
+
+// campaignDoc is a facility's campaign summary in JSON, SI (s, kg) and
+// money in Currency; a figure left out for want of data is null and its
+// key is named in Missing.
+type campaignDoc struct {
+	Time           Num              `json:"time_s"`
+	Shift          Num              `json:"shift_s"`
+	Shifts         *int             `json:"shifts"`
+	ModelChange    Num              `json:"model_change_s"`
+	DataTime       Num              `json:"data_time_s"`
+	ChangeTime     campaignChangeTS `json:"change_time_s"`
+	Blows          *int             `json:"blows"`
+	RechargeTime   Num              `json:"recharge_time_s"`
+	Currency       string           `json:"currency"`
+	OccupancyCost  Num              `json:"occupancy_cost"`
+	Coolant        Num              `json:"coolant_kg"`
+	CoolantCost    Num              `json:"coolant_cost"`
+	TotalCost      Num              `json:"total_cost"`
+	GivenOrderTime Num              `json:"given_order_time_s"`
+	Saved          Num              `json:"ordering_saves_s"`
+	ShortRuns      []int            `json:"short_runs"`
+	UnblowableRuns []int            `json:"unblowable_runs"`
+	Missing        []string         `json:"missing"`
+}
+
+type campaignChangeTS struct {
+	T0   Num `json:"t0"`
+	P0   Num `json:"p0"`
+	Mach Num `json:"mach"`
+}
+
+// newCampaignDoc is the JSON summary of cc.
+func newCampaignDoc(cc CampaignCost) *campaignDoc {
+	opt := func(ok bool, x float64) Num {
+		if !ok {
+			return na
+		}
+		return Num(x)
+	}
+	d := cc.Data
+	doc := &campaignDoc{
+		Time: opt(cc.TimeKnown, cc.Time), Shift: Num(cc.Shift),
+		ModelChange: opt(d.ModelChange.Set, d.ModelChange.V), DataTime: opt(cc.DataKnown, cc.DataTime),
+		RechargeTime: na, Currency: cc.Currency,
+		OccupancyCost: opt(cc.CostKnown, cc.Cost), Coolant: opt(cc.CoolantKnown, cc.Coolant),
+		CoolantCost: opt(cc.CoolantCostKnown, cc.CoolantCost), TotalCost: opt(cc.TotalCostKnown, cc.TotalCost),
+		GivenOrderTime: opt(cc.SavedKnown, cc.GivenTime), Saved: opt(cc.SavedKnown, cc.Saved),
+		ShortRuns: append([]int{}, cc.Short...), UnblowableRuns: append([]int{}, cc.NoBlow...),
+		Missing: append([]string{}, cc.Missing...),
+	}
+	counts := cc.Kinds
+	var ts [3]Num
+	for k := range ts {
+		ts[k] = opt(cc.ChangeKnown[k] || counts[k] == 0, cc.ChangeTime[k])
+	}
+	doc.ChangeTime = campaignChangeTS{T0: ts[ChangeT0], P0: ts[ChangeP0], Mach: ts[ChangeMach]}
+	if cc.TimeKnown {
+		n := cc.Shifts
+		doc.Shifts = &n
+	}
+	if d.Blowdown() && cc.Medium.IsGas() {
+		n := cc.Blows
+		doc.Blows = &n
+		doc.RechargeTime = Num(cc.Recharge)
+	}
+	return doc
 }
 
 type runChanges struct {
@@ -220,11 +329,15 @@ func (p RunPlan) WriteJSON(w io.Writer, info ExportInfo) error {
 			q := c.Q
 			rc.Q = &q
 		}
-		doc.Facilities = append(doc.Facilities, runsFacility{
+		rf := runsFacility{
 			Facility: rl.Facility, Medium: rl.Medium.String(), Scale: Num(rl.Scale),
 			Rule: NewRuleInfo(rl.Rule, rl.Medium), Order: rl.Order.Keys(), SetPoints: rl.SetPoints,
 			Changes: rc, Runs: runs, Unrunnable: un,
-		})
+		}
+		if cc, ok := NewCampaignCost(rl, p.Shift); ok {
+			rf.Campaign = newCampaignDoc(cc)
+		}
+		doc.Facilities = append(doc.Facilities, rf)
 	}
 	b, err := json.MarshalIndent(doc, "", "  ")
 	if err != nil {

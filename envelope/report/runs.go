@@ -153,6 +153,14 @@ type RunList struct {
 	// order.
 	Unrunnable []Run
 	Changes    Changes
+	// Given are the runnable flight points in the order they were given
+	// (marked test points in the session's order, or grid order), for the
+	// time the facility order saves (NewCampaignCost).
+	Given []Run
+	// Campaign is the facility's time and cost data (none: zero) and
+	// SectionArea its test-section area, m², for the blow duration.
+	Campaign    envelope.Campaign
+	SectionArea float64
 }
 
 // FullMatchPoints lists the grid points where m is a full match, in grid
@@ -192,7 +200,8 @@ func DefaultRunPoints(m *envelope.Map) []envelope.GridPoint {
 // operating rule (OrderFor, RunOrder.Order).
 func PlanRuns(m *envelope.Map, points []envelope.GridPoint) (RunList, error) {
 	rl := RunList{Facility: envelope.CleanText(m.Facility.Name), Medium: m.Facility.Medium, Scale: m.Scale,
-		SpeedKind: m.Grid.SpeedKind, Rule: m.Rule, Order: OrderFor(m.Rule, m.Facility.Medium)}
+		SpeedKind: m.Grid.SpeedKind, Rule: m.Rule, Order: OrderFor(m.Rule, m.Facility.Medium),
+		Campaign: m.Facility.Campaign, SectionArea: m.Facility.Width * m.Facility.Height}
 	g := m.Grid
 	seen := map[envelope.GridPoint]bool{}
 	for _, p := range points {
@@ -231,6 +240,7 @@ func PlanRuns(m *envelope.Map, points []envelope.GridPoint) (RunList, error) {
 		}
 		return x.Col < y.Col
 	})
+	rl.Given = append([]Run(nil), rl.Runs...)
 	rl.Changes = rl.Order.Order(rl.Runs)
 	if n := len(rl.Runs); n > 0 {
 		rl.SetPoints = rl.Runs[n-1].SetPoint
