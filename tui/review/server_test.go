@@ -1,0 +1,254 @@
+package review
+
+import (
+	"regexp"
+	"strings"
+	"testing"
+	"time"
+
+	gossh "golang.org/x/crypto/ssh"
+
+	"likewind/tui"
+)
+
+// The reviewers of the tests (invented names).
+func reviewers(t *testing.T) (alice, bob, vera testKey, keys string) {
+	alice = newTestKey(t, "alice@lab-a")
+	bob = newTestKey(t, "bob@lab-b")
+	vera = newTestKey(t, "vera@lab-c")
+	keys = alice.line("likewind-role=editor") + "\n" + bob.line(`likewind-role="editor"`) + "\n" + vera.line("") + "\n"
+	return
+}
+
+func TestReviewerSeesTheInterface(t *testing.T) {
+	alice, _, _, keys := reviewers(t)
+	ts := startServer(t, keys)
+	c := connect(t, ts, alice, 120, 40)
+	s := c.waitFor(0, "review: alice@lab-a (editor)")
+	if !strings.Contains(s, "likewind |") {
+		t.Errorf("no header on the screen:\n%s", tail(s, 2000))
+	}
+}
+
+func TestUnknownKeyRefused(t *testing.T) {
+	_, _, _, keys := reviewers(t)
+	ts := startServer(t, keys)
+	stranger := newTestKey(t, "mallory@elsewhere")
+	conn, err := dial(ts, gossh.PublicKeys(stranger.signer))
+	if err == nil {
+		conn.Close()
+		t.Fatal("a key not in the authorized keys was admitted")
+	}
+	if !strings.Contains(err.Error(), "unable to authenticate") {
+		t.Errorf("dial error = %v, want an authentication failure", err)
+	}
+	if n := ts.hub.Connected(); n != 0 {
+		t.Errorf("%d reviewers in the hub after a refused key, want 0", n)
+	}
+}
+
+func TestPasswordAndKeyboardInteractiveRefused(t *testing.T) {
+	_, _, _, keys := reviewers(t)
+	ts := startServer(t, keys)
+	ki := gossh.KeyboardInteractive(func(string, string, []string, []bool) ([]string, error) { return []string{"secret"}, nil })
+	conn, err := dial(ts, gossh.Password("secret"), ki)
+	if err == nil {
+		conn.Close()
+		t.Fatal("password or keyboard-interactive login was admitted")
+	}
+	// The server offers public keys only: the client has nothing it may
+	// try after "none".
+	if !strings.Contains(err.Error(), "attempted methods [none], no supported methods remain") {
+		t.Errorf("dial error = %v, want no password or keyboard-interactive offered", err)
+	}
+	if n := ts.hub.Connected(); n != 0 {
+		t.Errorf("%d reviewers in the hub after a refused login, want 0", n)
+	}
+}
+
+func TestEditorsSeeEachOthersWhatIf(t *testing.T) {
+	alice, bob, _, keys := reviewers(t)
+	ts := startServer(t, keys)
+	a := connect(t, ts, alice, 120, 40)
+	b := connect(t, ts, bob, 120, 40)
+	a.waitFor(0, "review: alice")
+	b.waitFor(0, "review: bob")
+	scale0 := ts.hub.Current().Settings().Scale
+
+	mb := b.mark()
+	a.send("+") // the model scale a step up, for every facility
+	b.waitFor(mb, "by alice@lab-a")
+	waitHub(t, ts.hub, "alice's scale computed", func(s tui.Shared) bool { return s.Rev() == 1 && !s.Pending() })
+	scale1 := ts.hub.Current().Settings().Scale
+	if !(scale1 > 0) || scale1 == scale0 {
+		t.Fatalf("scale after + = %v (before %v), want a new what-if scale", scale1, scale0)
+	}
+
+	ma := a.mark()
+	b.send("-")
+	a.waitFor(ma, "by bob@lab-b")
+	waitHub(t, ts.hub, "bob's scale computed", func(s tui.Shared) bool { return s.Rev() == 2 && !s.Pending() })
+	if s := ts.hub.Current(); s.By() != "bob@lab-b" || !strings.Contains(s.What(), "model scale") {
+		t.Errorf("latest change = %q by %q, want bob's model scale", s.What(), s.By())
+	}
+	if got := ts.hub.Current().Settings().Scale; got >= scale1 {
+		t.Errorf("scale after bob's - = %v, want below alice's %v", got, scale1)
+	}
+}
+
+func TestViewerCannotChangeSharedState(t *testing.T) {
+	alice, _, vera, keys := reviewers(t)
+	ts := startServer(t, keys)
+	a := connect(t, ts, alice, 120, 40)
+	v := connect(t, ts, vera, 120, 40)
+	a.waitFor(0, "review: alice")
+	v.waitFor(0, "review: vera@lab-c (viewer)")
+	unit := []string{"altitude ft", "altitude m"}
+	refused := func(n int, k string) {
+		t.Helper()
+		m := v.mark()
+		v.send(k)
+		v.waitFor(m, "viewer: the shared evaluation is not changed")
+		// A key of the viewer's own view clears the message, so the
+		// next refusal is drawn anew.
+		m = v.mark()
+		v.send("u")
+		v.waitFor(m, unit[n%2])
+	}
+	for n, k := range []string{" ", "+", "M"} {
+		refused(n, k)
+	}
+	// Let any change reach the hub before looking.
+	time.Sleep(100 * time.Millisecond)
+	if s := ts.hub.Current(); s.Rev() != 0 || s.Marks() != 0 {
+		t.Errorf("after a viewer's keys: rev %d, %d marks; want 0, 0", s.Rev(), s.Marks())
+	}
+	// An editor's mark does change it, and the viewer sees who.
+	m := v.mark()
+	a.send(" ")
+	v.waitFor(m, "by alice@lab-a")
+	if s := ts.hub.Current(); s.Marks() != 1 {
+		t.Errorf("after alice's mark: %d marks, want 1", s.Marks())
+	}
+	// Neither undo nor clearing takes it away.
+	refused(1, "U")
+	refused(0, "X")
+	time.Sleep(100 * time.Millisecond)
+	if s := ts.hub.Current(); s.Rev() != 1 || s.Marks() != 1 {
+		t.Errorf("after the viewer's U and X: rev %d, %d marks; want 1, 1", s.Rev(), s.Marks())
+	}
+}
+
+var flightAlt = regexp.MustCompile(`FLIGHT (\d+) m`)
+
+func TestFollowTracksThePresenter(t *testing.T) {
+	alice, _, vera, keys := reviewers(t)
+	ts := startServer(t, keys)
+	a := connect(t, ts, alice, 120, 40)
+	a.waitFor(0, "review: alice")
+	v := connect(t, ts, vera, 120, 40)
+	// A viewer joining with a presenter in follows at once.
+	v.waitFor(0, "following the presenter")
+	start := v.waitMatch(0, flightAlt)
+
+	ma, mv := a.mark(), v.mark()
+	a.keys("k", "k", "k") // three rows up
+	want := waitChange(t, a, ma, start)
+	if got := waitValue(t, v, mv, want); got != want {
+		t.Errorf("follower's flight altitude = %s m, want the presenter's %s m", got, want)
+	}
+
+	// Moving on one's own ends following; the presenter's moves then
+	// leave the view alone.
+	mv = v.mark()
+	v.send("j")
+	v.waitFor(mv, "follow off")
+	own := v.waitMatch(mv, flightAlt)
+	mv = v.mark()
+	a.keys("k", "k")
+	time.Sleep(300 * time.Millisecond)
+	if got := v.text(mv); flightAlt.MatchString(got) {
+		if m := flightAlt.FindAllStringSubmatch(got, -1); m[len(m)-1][1] != own {
+			t.Errorf("not following, the view moved to %s m with the presenter", m[len(m)-1][1])
+		}
+	}
+	// F follows again and jumps to the presenter.
+	aAlt := a.waitMatch(0, flightAlt)
+	mv = v.mark()
+	v.send("F")
+	v.waitFor(mv, "following alice@lab-a")
+	if got := v.waitMatch(mv, flightAlt); got != aAlt {
+		t.Errorf("after F the view is at %s m, want the presenter's %s m", got, aAlt)
+	}
+}
+
+// waitChange waits until c's flight altitude differs from old and returns it.
+func waitChange(t *testing.T, c *client, from int, old string) string {
+	t.Helper()
+	deadline := time.Now().Add(15 * time.Second)
+	for time.Now().Before(deadline) {
+		if m := flightAlt.FindAllStringSubmatch(c.text(from), -1); len(m) > 0 && m[len(m)-1][1] != old {
+			// Let the keys typed together settle.
+			time.Sleep(200 * time.Millisecond)
+			m = flightAlt.FindAllStringSubmatch(c.text(from), -1)
+			return m[len(m)-1][1]
+		}
+		time.Sleep(10 * time.Millisecond)
+	}
+	t.Fatalf("flight altitude never changed from %s", old)
+	return ""
+}
+
+// waitValue waits until c's flight altitude is want (or times out) and
+// returns the last one shown.
+func waitValue(t *testing.T, c *client, from int, want string) string {
+	t.Helper()
+	deadline := time.Now().Add(5 * time.Second)
+	last := ""
+	for time.Now().Before(deadline) {
+		if m := flightAlt.FindAllStringSubmatch(c.text(from), -1); len(m) > 0 {
+			last = m[len(m)-1][1]
+			if last == want {
+				return last
+			}
+		}
+		time.Sleep(10 * time.Millisecond)
+	}
+	return last
+}
+
+func TestDroppedClientLeavesOthersWorking(t *testing.T) {
+	alice, bob, vera, keys := reviewers(t)
+	ts := startServer(t, keys)
+	a := connect(t, ts, alice, 120, 40)
+	b := connect(t, ts, bob, 120, 40)
+	v := connect(t, ts, vera, 100, 30)
+	a.waitFor(0, "review: alice")
+	b.waitFor(0, "review: bob")
+	v.waitFor(0, "review: vera")
+	// Bob's connection dies mid-session: the TCP connection closed
+	// without a goodbye.
+	b.send("k")
+	b.conn.Conn.Close()
+	waitHubConns(t, ts.hub, 2)
+	mv := v.mark()
+	a.send(" ")
+	v.waitFor(mv, "by alice@lab-a")
+	ma := a.mark()
+	a.send("u")
+	a.waitFor(ma, "altitude ft")
+	if s := ts.hub.Current(); s.Marks() != 1 {
+		t.Errorf("%d marks after alice's mark, want 1", s.Marks())
+	}
+}
+
+func waitHubConns(t *testing.T, h *Hub, n int) {
+	t.Helper()
+	deadline := time.Now().Add(15 * time.Second)
+	for h.Connected() != n {
+		if time.Now().After(deadline) {
+			t.Fatalf("hub has %d reviewers, want %d", h.Connected(), n)
+		}
+		time.Sleep(10 * time.Millisecond)
+	}
+}
