@@ -15,6 +15,8 @@ import (
 	"syscall"
 	"time"
 
+	charmlog "github.com/charmbracelet/log"
+
 	"likewind/envelope/session"
 	"likewind/tui"
 	"likewind/tui/review"
@@ -214,6 +216,10 @@ func runServe(args []string, stdout, stderr io.Writer) int {
 	if !review.IsLoopback(addr) {
 		fmt.Fprintf(stdout, "CAUTION: %s is reachable from the network; listen only on networks the lab trusts\n", addr)
 	}
+
+	// wish logs each ended program as an error; the hub's own lines say
+	// who came and went.
+	charmlog.SetOutput(io.Discard)
 
 	ctx, stop := signal.NotifyContext(context.Background(), syscall.SIGHUP, syscall.SIGTERM, syscall.SIGINT)
 	defer stop()
