@@ -189,15 +189,18 @@ func (c *client) raw() []byte {
 	return append([]byte(nil), c.out...)
 }
 
-func (c *client) mark() int { return len(c.raw()) }
+func (c *client) mark() int {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	return len(c.out)
+}
 
 // text is what came since mark, without escape sequences.
 func (c *client) text(from int) string {
-	r := c.raw()
-	if from > len(r) {
-		from = len(r)
-	}
-	return ansi.Strip(string(r[from:]))
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	from = min(from, len(c.out))
+	return ansi.Strip(string(c.out[from:]))
 }
 
 // send types keys (bytes as a terminal sends them).
