@@ -110,9 +110,8 @@ type client struct {
 	sess  *gossh.Session
 	stdin io.WriteCloser
 
-	mu     sync.Mutex
-	out    []byte
-	closed bool
+	mu  sync.Mutex
+	out []byte
 }
 
 // dial connects with auth and returns the client or the error.
@@ -153,22 +152,26 @@ func connect(t testing.TB, ts *testServer, k testKey, w, h int, env ...string) *
 	if err != nil {
 		t.Fatal(err)
 	}
+	stderr, err := sess.StderrPipe()
+	if err != nil {
+		t.Fatal(err)
+	}
 	c := &client{t: t, conn: conn, sess: sess, stdin: stdin}
-	go func() {
-		buf := make([]byte, 32<<10)
-		for {
-			n, err := stdout.Read(buf)
-			c.mu.Lock()
-			c.out = append(c.out, buf[:n]...)
-			if err != nil {
-				c.closed = true
+	// Standard output and error go to one screen, as in a terminal.
+	for _, r := range []io.Reader{stdout, stderr} {
+		go func() {
+			buf := make([]byte, 32<<10)
+			for {
+				n, err := r.Read(buf)
+				c.mu.Lock()
+				c.out = append(c.out, buf[:n]...)
+				c.mu.Unlock()
+				if err != nil {
+					return
+				}
 			}
-			c.mu.Unlock()
-			if err != nil {
-				return
-			}
-		}
-	}()
+		}()
+	}
 	if err := sess.Shell(); err != nil {
 		t.Fatalf("shell: %v", err)
 	}

@@ -1,7 +1,9 @@
 package review
 
 import (
+	"os"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -250,5 +252,106 @@ func waitHubConns(t *testing.T, h *Hub, n int) {
 			t.Fatalf("hub has %d reviewers, want %d", h.Connected(), n)
 		}
 		time.Sleep(10 * time.Millisecond)
+	}
+}
+
+func TestConnectionLimitRefusesWithOneLine(t *testing.T) {
+	alice, bob, vera, keys := reviewers(t)
+	ts := startServer(t, keys, func(c *Config) { c.MaxConns = 2 })
+	a := connect(t, ts, alice, 100, 30)
+	b := connect(t, ts, bob, 100, 30)
+	a.waitFor(0, "review: alice")
+	b.waitFor(0, "review: bob")
+	v := connect(t, ts, vera, 100, 30)
+	s := v.waitFor(0, "likewind: this review is full (2 reviewers); try again later")
+	if strings.Contains(s, "likewind |") || strings.Count(strings.TrimSpace(s), "\n") > 0 {
+		t.Errorf("past the limit the client got more than the one line:\n%q", s)
+	}
+	if n := ts.hub.Connected(); n != 2 {
+		t.Errorf("%d reviewers in the hub, want the 2 admitted", n)
+	}
+	// One leaving makes room.
+	a.close()
+	waitHubConns(t, ts.hub, 1)
+	v2 := connect(t, ts, vera, 100, 30)
+	v2.waitFor(0, "review: vera")
+}
+
+func TestColourProfilePerConnection(t *testing.T) {
+	alice, bob, _, keys := reviewers(t)
+	ts := startServer(t, keys)
+	colour := connect(t, ts, alice, 120, 40)
+	plain := connect(t, ts, bob, 120, 40, "NO_COLOR=1")
+	colour.waitFor(0, "review: alice")
+	plain.waitFor(0, "review: bob")
+	if !hasColour(colour.raw()) {
+		t.Error("the xterm-256color client got no colour")
+	}
+	if hasColour(plain.raw()) {
+		t.Error("the NO_COLOR client got colour")
+	}
+}
+
+// sgr is a Select Graphic Rendition sequence.
+var sgr = regexp.MustCompile(`\x1b\[([0-9;]*)m`)
+
+// hasColour reports whether b sets a foreground or background colour
+// (SGR 30–38, 40–48, 90–97, 100–107), as opposed to bold, faint or
+// reverse alone.
+func hasColour(b []byte) bool {
+	for _, m := range sgr.FindAllSubmatch(b, -1) {
+		for _, p := range strings.Split(string(m[1]), ";") {
+			n, err := strconv.Atoi(p)
+			if err == nil && (n >= 30 && n <= 38 || n >= 40 && n <= 48 || n >= 90 && n <= 97 || n >= 100 && n <= 107) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+func TestWhatIfDeltaTShownWithWho(t *testing.T) {
+	alice, bob, _, keys := reviewers(t)
+	ts := startServer(t, keys)
+	a := connect(t, ts, alice, 120, 40)
+	b := connect(t, ts, bob, 120, 40)
+	a.waitFor(0, "review: alice")
+	b.waitFor(0, "review: bob")
+	mb := b.mark()
+	// The what-if editor: ΔT is the second field.
+	a.keys("e", "\x1b[B", "\r", "\x15", "-", "1", "0", "K", "\r")
+	s := b.waitFor(mb, "by alice@lab-a")
+	if !strings.Contains(s, "what-if ΔT of day -10.0 K by alice@lab-a") {
+		t.Errorf("bob's status does not name the ΔT change:\n%s", tail(s, 1500))
+	}
+	waitHub(t, ts.hub, "ΔT computed", func(s tui.Shared) bool { return !s.Pending() && s.Settings().DeltaT == -10 })
+}
+
+func TestViewerDumpsOnlyWhenAllowed(t *testing.T) {
+	alice := newTestKey(t, "alice@lab-a")
+	vNo, vYes := newTestKey(t, "vno@lab"), newTestKey(t, "vyes@lab")
+	dir := t.TempDir()
+	ts := startServer(t, alice.line("likewind-role=editor")+"\n"+vNo.line("")+"\n"+vYes.line("likewind-dumps")+"\n",
+		func(c *Config) { c.DumpDir = dir })
+	no := connect(t, ts, vNo, 120, 40)
+	yes := connect(t, ts, vYes, 120, 40)
+	no.waitFor(0, "review: vno")
+	yes.waitFor(0, "review: vyes")
+	m := no.mark()
+	no.send("w")
+	s := no.waitFor(m, "w")
+	time.Sleep(200 * time.Millisecond)
+	s = no.text(m)
+	if strings.Contains(s, "view written to") {
+		t.Errorf("a viewer without likewind-dumps wrote a dump:\n%s", tail(s, 800))
+	}
+	if files, _ := os.ReadDir(dir); len(files) != 0 {
+		t.Errorf("dump folder holds %d files after the refused viewer's w, want 0", len(files))
+	}
+	m = yes.mark()
+	yes.send("w")
+	yes.waitFor(m, "view written to")
+	if files, _ := os.ReadDir(dir); len(files) != 1 || !strings.HasSuffix(files[0].Name(), ".txt") {
+		t.Errorf("dump folder after the allowed viewer's w: %v, want one text dump", files)
 	}
 }
