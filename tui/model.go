@@ -478,7 +478,7 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		}
 	case tea.KeyMsg:
 		if m.rv != nil {
-			cmd = m.reviewKey(msg)
+			cmd = m.reviewKeys(msg)
 		} else {
 			cmd = m.onKey(msg)
 		}

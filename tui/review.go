@@ -280,6 +280,25 @@ func (m *Model) takeState(cur Shared) {
 	}
 }
 
+// reviewKeys handles the keys of a reviewer. Over SSH keys typed quickly
+// can arrive in one packet, which the terminal reader gives as one run of
+// characters; each is taken as its own key, so none is lost (a paste
+// stays whole).
+func (m *Model) reviewKeys(msg tea.KeyMsg) tea.Cmd {
+	if msg.Type != tea.KeyRunes || len(msg.Runes) < 2 || msg.Paste {
+		return m.reviewKey(msg)
+	}
+	cmds := make([]tea.Cmd, 0, len(msg.Runes))
+	for _, r := range msg.Runes {
+		k := tea.KeyMsg{Type: tea.KeyRunes, Runes: []rune{r}, Alt: msg.Alt}
+		if r == ' ' {
+			k.Type = tea.KeySpace
+		}
+		cmds = append(cmds, m.reviewKey(k))
+	}
+	return tea.Batch(cmds...)
+}
+
 // reviewKey handles a key of a reviewer: under the hub's lock it takes
 // the current shared state, handles the key as a single model would, and
 // hands back what the key changed. A viewer's change is put back.

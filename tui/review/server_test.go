@@ -355,3 +355,21 @@ func TestViewerDumpsOnlyWhenAllowed(t *testing.T) {
 		t.Errorf("dump folder after the allowed viewer's w: %v, want one text dump", files)
 	}
 }
+
+func TestKeysArrivingTogetherEachCount(t *testing.T) {
+	alice, _, _, keys := reviewers(t)
+	ts := startServer(t, keys)
+	a := connect(t, ts, alice, 120, 40)
+	a.waitFor(0, "review: alice")
+	start := a.waitMatch(0, flightAlt)
+	// "kkk" in one write arrives as one run of characters: three rows up.
+	m := a.mark()
+	a.send("kkk")
+	got := waitChange(t, a, m, start)
+	m = a.mark()
+	a.keys("j", "j", "j")
+	back := waitChange(t, a, m, got)
+	if back != start {
+		t.Errorf("kkk then j j j ends at %s m, want the start %s m (kkk moved other than three rows)", back, start)
+	}
+}
