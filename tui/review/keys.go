@@ -80,6 +80,10 @@ const maxKeysBytes = 4 << 20
 // half-read file.
 func LoadKeys(path string) (*Keys, error) {
 	f, err := os.Open(path)
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil, fmt.Errorf("authorized keys %s not found: make it with one reviewer's public key a line "+
+			"(the line of their ~/.ssh/id_ed25519.pub; %s=editor before it for those who may change the shared work), or give --authorized-keys FILE", path, OptRole)
+	}
 	if err != nil {
 		return nil, fmt.Errorf("authorized keys: %w", err)
 	}

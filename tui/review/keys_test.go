@@ -128,3 +128,10 @@ func TestIsLoopback(t *testing.T) {
 		}
 	}
 }
+
+func TestLoadKeysMissingFileSaysWhatToDo(t *testing.T) {
+	_, err := LoadKeys(filepath.Join(t.TempDir(), "authorized_keys"))
+	if err == nil || !strings.Contains(err.Error(), "not found: make it") || !strings.Contains(err.Error(), "likewind-role=editor") {
+		t.Errorf("LoadKeys of a missing file: %v; want how to make it", err)
+	}
+}

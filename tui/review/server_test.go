@@ -373,3 +373,35 @@ func TestKeysArrivingTogetherEachCount(t *testing.T) {
 		t.Errorf("kkk then j j j ends at %s m, want the start %s m (kkk moved other than three rows)", back, start)
 	}
 }
+
+func TestIdleConnectionEnds(t *testing.T) {
+	alice, bob, _, keys := reviewers(t)
+	ts := startServer(t, keys, func(c *Config) { c.IdleTimeout = 500 * time.Millisecond })
+	a := connect(t, ts, alice, 100, 30)
+	a.waitFor(0, "review: alice")
+	// Bob keeps typing; alice does nothing.
+	b := connect(t, ts, bob, 100, 30)
+	b.waitFor(0, "review: bob")
+	done := make(chan error, 1)
+	go func() { done <- a.sess.Wait() }()
+	deadline := time.After(10 * time.Second)
+	tick := time.NewTicker(100 * time.Millisecond)
+	defer tick.Stop()
+	for n := 0; ; n++ {
+		select {
+		case <-done:
+			// Bob, who kept typing, is still in.
+			m := b.mark()
+			b.send("u")
+			b.waitFor(m, "altitude")
+			if got := ts.hub.Connected(); got != 1 {
+				t.Errorf("%d reviewers after alice's idle timeout, want 1", got)
+			}
+			return
+		case <-tick.C:
+			b.send([]string{"k", "j"}[n%2])
+		case <-deadline:
+			t.Fatal("an idle connection was still open 10 s after a 0.5 s idle timeout")
+		}
+	}
+}
