@@ -264,3 +264,52 @@ func TestServeSignalSavesAndRestartRestores(t *testing.T) {
 		})
 	}
 }
+
+// TestServeRefusesASessionInUse: a second server on the same session file
+// is refused (the lock the single-user interface takes), and so are bad
+// flags and a missing key file, each with a message saying why.
+func TestServeRefusesASessionInUse(t *testing.T) {
+	if testing.Short() {
+		t.Skip("subprocess test skipped in -short mode")
+	}
+	bin := buildLikewind(t)
+	state := t.TempDir()
+	_, priv, _ := ed25519.GenerateKey(rand.Reader)
+	signer, _ := gossh.NewSignerFromKey(priv)
+	keys := filepath.Join(state, "keys")
+	line := strings.TrimSpace(string(gossh.MarshalAuthorizedKey(signer.PublicKey()))) + " viewer@test-lab\n"
+	if err := os.WriteFile(keys, []byte(line), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	sessPath := filepath.Join(state, "review.json")
+	p := startServe(t, bin, state, "--authorized-keys", keys, "--session", sessPath)
+	defer p.stop(syscall.SIGTERM)
+
+	cases := []struct {
+		name string
+		args []string
+		code int
+		want string
+	}{
+		{"session in use", []string{"--authorized-keys", keys, "--session", sessPath}, 1, "in use by another likewind"},
+		{"no keys file", []string{"--authorized-keys", filepath.Join(state, "none"), "--session", filepath.Join(state, "s2.json")}, 1, "not found: make it"},
+		{"bad listen", []string{"--listen", "2290"}, 2, "expected host:port"},
+		{"bad limit", []string{"--max-conns", "0"}, 2, "--max-conns 0: expected at least 1"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			cmd := exec.Command(bin, append([]string{"serve", "--listen", "127.0.0.1:0"}, c.args...)...)
+			cmd.Env = append(os.Environ(), "XDG_STATE_HOME="+state)
+			var stderr bytes.Buffer
+			cmd.Stderr = &stderr
+			err := cmd.Run()
+			code := 0
+			if ee, ok := err.(*exec.ExitError); ok {
+				code = ee.ExitCode()
+			}
+			if code != c.code || !strings.Contains(stderr.String(), c.want) {
+				t.Errorf("exit %d, stderr %q; want exit %d and %q", code, stderr.String(), c.code, c.want)
+			}
+		})
+	}
+}
