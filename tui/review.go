@@ -183,6 +183,7 @@ func (m Model) SessionOf(s Shared) session.Session {
 type reviewState struct {
 	Review
 	seen      int  // the shared rev last taken
+	seenRes   int  // the work revision of the results last taken
 	following bool // the view tracks the presenter
 	// Set while a key is handled: whether it changed the shared work, and
 	// how to say so.
@@ -212,7 +213,7 @@ func (m Model) Join(r Review, st *Styles, dumpDir string, w, h int) Model {
 	m.status, m.statusErr = "", false
 	cur := r.Hub.Current()
 	m.adoptShared(cur)
-	m.rv.seen = cur.rev
+	m.rv.seen, m.rv.seenRes = cur.rev, cur.resFor
 	m.rv.following = !r.Editor && cur.presenter != 0 && cur.view.ok
 	if m.rv.following {
 		m.follow(cur)
@@ -238,7 +239,7 @@ func (m *Model) adoptShared(s Shared) {
 
 // follow puts the view where the presenter's is.
 func (m *Model) follow(s Shared) {
-	if !s.view.ok || s.presenter == m.rv.ID {
+	if !s.view.ok || s.presenter == 0 || s.presenter == m.rv.ID {
 		return
 	}
 	m.curI, m.curJ, m.layer = s.view.curI, s.view.curJ, s.view.layer
@@ -275,8 +276,12 @@ func (m *Model) takeState(cur Shared) {
 			m.setStatus(cur.what + " by " + cur.by)
 		}
 	}
-	if cur.resErr != "" && !cur.Pending() {
-		m.setError(cur.resErr)
+	if !cur.Pending() && cur.resFor != m.rv.seenRes {
+		// Results that came in: a failure is said once.
+		m.rv.seenRes = cur.resFor
+		if cur.resErr != "" {
+			m.setError(cur.resErr)
+		}
 	}
 }
 
