@@ -213,8 +213,8 @@ func runServe(args []string, stdout, stderr io.Writer) int {
 	} else {
 		fmt.Fprintf(stdout, "session saved to %s on every change\n", o.sessionPath)
 	}
-	if !review.IsLoopback(addr) {
-		fmt.Fprintf(stdout, "CAUTION: %s is reachable from the network; listen only on networks the lab trusts\n", addr)
+	if note := listenCaution(addr); note != "" {
+		fmt.Fprintln(stdout, note)
 	}
 
 	// wish logs each ended program as an error; the hub's own lines say
@@ -245,4 +245,14 @@ func runServe(args []string, stdout, stderr io.Writer) int {
 		return fail(serveErr)
 	}
 	return 0
+}
+
+// listenCaution is the caution printed when the server listens where
+// other machines can reach it ("" on a loopback address).
+func listenCaution(addr string) string {
+	if review.IsLoopback(addr) {
+		return ""
+	}
+	return fmt.Sprintf("CAUTION: %s is reachable from the network: anyone who can reach it can try to log in; "+
+		"listen only on networks the lab trusts (the default, 127.0.0.1, keeps the review on this machine; reviewers elsewhere can use an SSH tunnel)", addr)
 }

@@ -313,3 +313,18 @@ func TestServeRefusesASessionInUse(t *testing.T) {
 		})
 	}
 }
+
+func TestListenCautionOffLoopbackOnly(t *testing.T) {
+	if c := listenCaution("127.0.0.1:2290"); c != "" {
+		t.Errorf("loopback listen gives caution %q, want none", c)
+	}
+	for _, addr := range []string{"0.0.0.0:2290", "[::]:2290", "192.168.4.7:2290"} {
+		if c := listenCaution(addr); !strings.Contains(c, "listen only on networks the lab trusts") {
+			t.Errorf("listen on %s: caution %q, want the network caution", addr, c)
+		}
+	}
+	o, err := parseServeFlags(nil, io.Discard)
+	if err != nil || o.listen != defaultListen || !strings.HasPrefix(o.listen, "127.0.0.1:") {
+		t.Errorf("default listen %q (%v), want a loopback address", o.listen, err)
+	}
+}

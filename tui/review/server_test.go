@@ -403,3 +403,34 @@ func TestIdleConnectionEnds(t *testing.T) {
 		}
 	}
 }
+
+func TestResizeAndQuitPerConnection(t *testing.T) {
+	alice, bob, _, keys := reviewers(t)
+	ts := startServer(t, keys)
+	a := connect(t, ts, alice, 120, 40)
+	b := connect(t, ts, bob, 120, 40)
+	a.waitFor(0, "review: alice")
+	b.waitFor(0, "review: bob")
+	// Alice's window shrinks: her screen says so, bob's stays.
+	ma, mb := a.mark(), b.mark()
+	if err := a.sess.WindowChange(10, 40); err != nil {
+		t.Fatal(err)
+	}
+	a.waitFor(ma, "Terminal too small: 40×10")
+	if s := b.text(mb); strings.Contains(s, "too small") {
+		t.Errorf("bob's screen changed with alice's window:\n%s", s)
+	}
+	// q leaves at once (the server keeps the work); bob stays in.
+	done := make(chan error, 1)
+	go func() { done <- a.sess.Wait() }()
+	a.send("q")
+	select {
+	case <-done:
+	case <-time.After(10 * time.Second):
+		t.Fatal("q did not end alice's session")
+	}
+	waitHubConns(t, ts.hub, 1)
+	mb = b.mark()
+	b.send("u")
+	b.waitFor(mb, "altitude")
+}
