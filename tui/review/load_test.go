@@ -152,3 +152,59 @@ func BenchmarkKeyToFrame(b *testing.B) {
 		}
 	}
 }
+
+// TestLoadFollowers has one presenter and 15 viewers following at
+// 120×40; the presenter sends 200 moves, and the time from each key to
+// the frame on the last follower to draw it is reported (not asserted).
+func TestLoadFollowers(t *testing.T) {
+	if testing.Short() {
+		t.Skip("load test skipped in -short mode")
+	}
+	const n = 16
+	var ks []testKey
+	text := ""
+	for k := range n {
+		key := newTestKey(t, fmt.Sprintf("f%02d@load-test", k))
+		ks = append(ks, key)
+		if k == 0 {
+			text += key.line("likewind-role=editor") + "\n"
+		} else {
+			text += key.line("") + "\n"
+		}
+	}
+	ts := startServer(t, text)
+	clients := make([]*client, n)
+	for k := range n {
+		clients[k] = connect(t, ts, ks[k], 120, 40)
+		clients[k].waitFor(0, fmt.Sprintf("review: f%02d", k))
+	}
+	for _, c := range clients[1:] {
+		c.waitFor(0, "following the presenter")
+	}
+	seq := []string{"k", "l", "j", "h"}
+	var lastFollower []time.Duration
+	for i := range 200 {
+		marks := make([]int, n)
+		for k, c := range clients {
+			marks[k] = c.mark()
+		}
+		t0 := time.Now()
+		clients[0].send(seq[i%len(seq)])
+		deadline := t0.Add(10 * time.Second)
+		for k := 0; k < n; {
+			if clients[k].mark() != marks[k] {
+				k++
+				continue
+			}
+			if time.Now().After(deadline) {
+				t.Fatalf("key %d: reviewer %d drew no frame within 10 s", i, k)
+			}
+			time.Sleep(200 * time.Microsecond)
+		}
+		lastFollower = append(lastFollower, time.Since(t0))
+		time.Sleep(5 * time.Millisecond)
+	}
+	s := slices.Clone(lastFollower)
+	slices.Sort(s)
+	t.Logf("presenter + 15 followers at 120×40, 200 moves: key→frame on the last follower median %v, p95 %v", median(s), s[len(s)*95/100])
+}
