@@ -184,6 +184,7 @@ type reviewState struct {
 	Review
 	seen      int  // the shared rev last taken
 	seenRes   int  // the work revision of the results last taken
+	presenter int  // who presents, as last taken
 	following bool // the view tracks the presenter
 	// Set while a key is handled: whether it changed the shared work, and
 	// how to say so.
@@ -213,7 +214,7 @@ func (m Model) Join(r Review, st *Styles, dumpDir string, w, h int) Model {
 	m.status, m.statusErr = "", false
 	cur := r.Hub.Current()
 	m.adoptShared(cur)
-	m.rv.seen, m.rv.seenRes = cur.rev, cur.resFor
+	m.rv.seen, m.rv.seenRes, m.rv.presenter = cur.rev, cur.resFor, cur.presenter
 	m.rv.following = !r.Editor && cur.presenter != 0 && cur.view.ok
 	if m.rv.following {
 		m.follow(cur)
@@ -267,6 +268,7 @@ func (m *Model) takeShared() {
 
 func (m *Model) takeState(cur Shared) {
 	m.adoptShared(cur)
+	m.rv.presenter = cur.presenter
 	if m.rv.following {
 		m.follow(cur)
 	}
@@ -338,6 +340,7 @@ func (m *Model) reviewKey(msg tea.KeyMsg) tea.Cmd {
 				break
 			}
 			next = next.WithPresenter(r.ID, r.Name)
+			r.presenter = r.ID
 			next.view = m.viewNow()
 			m.rv.following = false
 			ch |= ChangeView
@@ -408,9 +411,12 @@ func (m Model) reviewLine() string {
 		role = "editor"
 	}
 	s := fmt.Sprintf("review: %s (%s)", m.rv.Name, role)
-	if m.rv.following {
+	switch {
+	case m.rv.presenter == m.rv.ID:
+		s += " · presenting: those following see your view"
+	case m.rv.following:
 		s += " · following the presenter"
-	} else {
+	default:
 		s += " · F follows the presenter"
 	}
 	if m.busy {

@@ -392,9 +392,7 @@ func TestIdleConnectionEnds(t *testing.T) {
 			m := b.mark()
 			b.send("u")
 			b.waitFor(m, "altitude")
-			if got := ts.hub.Connected(); got != 1 {
-				t.Errorf("%d reviewers after alice's idle timeout, want 1", got)
-			}
+			waitHubConns(t, ts.hub, 1)
 			return
 		case <-tick.C:
 			b.send([]string{"k", "j"}[n%2])
