@@ -241,6 +241,21 @@ func (c *client) waitFor(from int, want string) string {
 	}
 }
 
+// settle waits until no screen bytes have come for 250 ms (at most 15 s):
+// the keys sent so far are drawn.
+func (c *client) settle() {
+	deadline := time.Now().Add(15 * time.Second)
+	last, since := c.mark(), time.Now()
+	for time.Now().Before(deadline) {
+		time.Sleep(10 * time.Millisecond)
+		if n := c.mark(); n != last {
+			last, since = n, time.Now()
+		} else if time.Since(since) >= 250*time.Millisecond {
+			return
+		}
+	}
+}
+
 // waitMatch waits until the text since from matches re and returns the
 // last match's first group.
 func (c *client) waitMatch(from int, re *regexp.Regexp) string {

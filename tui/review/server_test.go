@@ -168,17 +168,20 @@ func TestFollowTracksThePresenter(t *testing.T) {
 	own := v.waitMatch(mv, flightAlt)
 	mv = v.mark()
 	a.keys("k", "k")
-	time.Sleep(300 * time.Millisecond)
+	a.settle()
+	v.settle()
 	if got := v.text(mv); flightAlt.MatchString(got) {
 		if m := flightAlt.FindAllStringSubmatch(got, -1); m[len(m)-1][1] != own {
 			t.Errorf("not following, the view moved to %s m with the presenter", m[len(m)-1][1])
 		}
 	}
 	// F follows again and jumps to the presenter.
+	a.settle()
 	aAlt := a.waitMatch(0, flightAlt)
 	mv = v.mark()
 	v.send("F")
 	v.waitFor(mv, "following alice@lab-a")
+	v.settle()
 	if got := v.waitMatch(mv, flightAlt); got != aAlt {
 		t.Errorf("after F the view is at %s m, want the presenter's %s m", got, aAlt)
 	}
@@ -191,7 +194,7 @@ func waitChange(t *testing.T, c *client, from int, old string) string {
 	for time.Now().Before(deadline) {
 		if m := flightAlt.FindAllStringSubmatch(c.text(from), -1); len(m) > 0 && m[len(m)-1][1] != old {
 			// Let the keys typed together settle.
-			time.Sleep(200 * time.Millisecond)
+			c.settle()
 			m = flightAlt.FindAllStringSubmatch(c.text(from), -1)
 			return m[len(m)-1][1]
 		}
