@@ -205,7 +205,8 @@ func runServe(args []string, stdout, stderr io.Writer) int {
 	if made {
 		fmt.Fprintf(stdout, "host key made: %s\n", o.hostKey)
 	}
-	fmt.Fprintf(stdout, "likewind review on %s (%d keys, %d editors, up to %d connections)\n", addr, keys.Len(), keys.Editors(), o.maxConns)
+	fmt.Fprintf(stdout, "likewind review on %s (%s: %s, %s; up to %d connections)\n", addr,
+		plural(keys.Len(), "key", "keys"), plural(keys.Editors(), "editor", "editors"), plural(keys.Len()-keys.Editors(), "viewer", "viewers"), o.maxConns)
 	fmt.Fprintf(stdout, "host key fingerprint %s\n", review.Fingerprint(host))
 	fmt.Fprintf(stdout, "reviewers join with: ssh -p %s %s\n", port, hostName)
 	if restored {
@@ -256,3 +257,4 @@ func listenCaution(addr string) string {
 	return fmt.Sprintf("CAUTION: %s is reachable from the network: anyone who can reach it can try to log in; "+
 		"listen only on networks the lab trusts (the default, 127.0.0.1, keeps the review on this machine; reviewers elsewhere can use an SSH tunnel)", addr)
 }
+
