@@ -257,4 +257,3 @@ func listenCaution(addr string) string {
 	return fmt.Sprintf("CAUTION: %s is reachable from the network: anyone who can reach it can try to log in; "+
 		"listen only on networks the lab trusts (the default, 127.0.0.1, keeps the review on this machine; reviewers elsewhere can use an SSH tunnel)", addr)
 }
-
