@@ -111,6 +111,9 @@ func (m *Model) pushUndo(what string, whatIf bool) {
 }
 
 func (m *Model) pushStep(st undoStep) {
+	if m.rv != nil {
+		m.rv.changed = true
+	}
 	n := len(m.undo)
 	if n >= maxUndo {
 		m.undo = m.undo[n-maxUndo+1:]
@@ -131,6 +134,9 @@ func (m *Model) undoLast() tea.Cmd {
 	}
 	st := m.undo[n-1]
 	m.undo = m.undo[: n-1 : n-1]
+	if m.rv != nil {
+		m.rv.changed = true
+	}
 	gridChanged := m.set.DeltaT != st.set.DeltaT || m.set.Regimes != st.set.Regimes
 	m.set, m.facs, m.marks = st.set, st.facs, st.marks
 	m.setStatus(fmt.Sprintf("undone: %s (%d marked)", st.what, len(m.marks)))
@@ -196,5 +202,8 @@ func (m *Model) applyField(edits ...whatif.Edit) tea.Cmd {
 		m.facs = facs
 	}
 	m.pushStep(before)
+	if m.rv != nil {
+		m.rv.what = "what-if " + m.describeEdits(edits)
+	}
 	return m.recompute(kind)
 }

@@ -22,6 +22,8 @@ const helpTextWidth = 96
 type helpView struct {
 	frame
 	h help.Model
+	// extra is a further column of keys (a review's follow and present).
+	extra []key.Binding
 }
 
 func newHelpView(f frame) helpView {
@@ -61,7 +63,11 @@ func (v helpView) Overlay() string {
 	para := func(title, text string) []string {
 		return wrapLines(v.st.HelpKey.Render(title)+" "+text, w, "")
 	}
-	keys := strings.Split(v.h.FullHelpView(v.keys.FullHelp()), "\n")
+	cols := v.keys.FullHelp()
+	if len(v.extra) > 0 {
+		cols = append(cols, v.extra)
+	}
+	keys := strings.Split(v.h.FullHelpView(cols), "\n")
 	layers := para("Layers:", "match class, flow regime, Reynolds ratio (model/flight), "+
 		"tunnel q and model load as shares of their limits (load where there are balance data), "+
 		"flight Mach number. Glyphs differ per value; the legend under the matrix lists them.")
@@ -69,16 +75,23 @@ func (v helpView) Overlay() string {
 	whatIf := para("What-if:", "values take units (3 bar, 45 psi, -150 degC, 10 K); scale 1:20, 5% or fit;"+
 		" q max none; the rule from a list; + and - step every facility's model scale (1:50, 1:40,"+
 		" 1:32...); R restores the files' values, U undoes.")
+	var review []string
+	if len(v.extra) > 0 {
+		review = para("Review:", "what-if values, marks and undo are shared by every reviewer, who made a change"+
+			" is on the status line; cursor, layer, units and facility are your own. F follows the presenter"+
+			" (P makes an editor the presenter); viewers cannot change the shared work; q leaves, the server"+
+			" keeps the session.")
+	}
 	caution := wrapLines(v.st.Caution.Render("CAUTION")+" "+envelope.SafetyNote, w, "")
 	heading := []string{v.st.Section.Render("Keys")}
 	blank := []string{""}
 	hint := []string{v.st.Faint.Render("? or esc closes this screen")}
-	for _, drop := range []*[]string{nil, &hint, &blank, &heading, &whatIf, &layers, &classes} {
+	for _, drop := range []*[]string{nil, &hint, &blank, &heading, &whatIf, &layers, &review, &classes} {
 		if drop != nil {
 			*drop = nil
 		}
 		var all []string
-		for _, part := range [][]string{heading, keys, blank, layers, classes, whatIf, caution, hint} {
+		for _, part := range [][]string{heading, keys, blank, review, layers, classes, whatIf, caution, hint} {
 			all = append(all, part...)
 		}
 		if len(all) <= v.height || drop == &classes {

@@ -32,6 +32,10 @@ type KeyMap struct {
 	MarkMatch key.Binding
 	ClearMark key.Binding
 
+	// Follow and Present work in a review (likewind serve) only: follow
+	// the presenter's view, or become the presenter.
+	Follow, Present key.Binding
+
 	Save      key.Binding
 	WriteView key.Binding
 	Help      key.Binding
@@ -84,6 +88,8 @@ func DefaultKeyMap() KeyMap {
 		Mark:          b([]string{" ", "space"}, "space", "mark point"),
 		MarkMatch:     b([]string{"M"}, "M", "mark matches"),
 		ClearMark:     b([]string{"X"}, "X", "clear marks"),
+		Follow:        b([]string{"F"}, "F", "follow presenter"),
+		Present:       b([]string{"P"}, "P", "present (editors)"),
 		Save:          b([]string{"s", "ctrl+s"}, "s", "save session"),
 		WriteView:     b([]string{"w"}, "w", "write view"),
 		Help:          b([]string{"?"}, "?", "help"),

@@ -174,6 +174,8 @@ type Model struct {
 	dumpDir string
 	version string
 	clock   func() time.Time
+
+	rv *reviewState // nil but in a review (review.go)
 }
 
 // New builds the model and runs the first evaluation synchronously, so the
@@ -239,15 +241,6 @@ func newModel(opts Options) Model {
 	// Names reach the screen: the second wall after the loaders'.
 	veh, facs := envelope.CleanVehicle(opts.Vehicle), envelope.CleanFacilities(opts.Facilities)
 	m := Model{
-		fr:       fr,
-		matrix:   matrixView{frame: fr},
-		details:  detailsView{frame: fr},
-		legend:   legendView{frame: fr},
-		picker:   picker{frame: fr},
-		saveAs:   saveAsPrompt{frame: fr},
-		editor:   newEditor(fr),
-		study:    studyPanel{frame: fr},
-		help:     newHelpView(fr),
 		vehicle:  veh,
 		fileFacs: facs,
 		facs:     append([]envelope.Facility(nil), facs...),
@@ -258,6 +251,7 @@ func newModel(opts Options) Model {
 		version:  opts.Version,
 		clock:    opts.Clock,
 	}
+	m.setComponents(fr)
 	if m.version == "" {
 		m.version = "dev"
 	}
@@ -288,6 +282,20 @@ func newModel(opts Options) Model {
 		m.readOnly, m.holder = m.store.ReadOnly()
 	}
 	return m
+}
+
+// setComponents gives the root and its components the frame fr (styles
+// and keys), each component afresh.
+func (m *Model) setComponents(fr frame) {
+	m.fr = fr
+	m.matrix = matrixView{frame: fr}
+	m.details = detailsView{frame: fr}
+	m.legend = legendView{frame: fr}
+	m.picker = picker{frame: fr}
+	m.saveAs = saveAsPrompt{frame: fr}
+	m.editor = newEditor(fr)
+	m.study = studyPanel{frame: fr}
+	m.help = newHelpView(fr)
 }
 
 // evaluate runs the first evaluation synchronously; with pick it opens on
@@ -409,6 +417,11 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 	m.gen++
 	m.busy = true
 	m.pending, m.pendingFac = kind, fac
+	if m.rv != nil {
+		// In a review the hub computes, once for every reviewer.
+		m.rv.compute = true
+		return nil
+	}
 	gen := m.gen
 	v, facs, set, prev := m.vehicle, m.facs, m.set, m.res
 	return func() tea.Msg {
@@ -459,8 +472,16 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		if msg.gen == m.studyGen {
 			m.studied = msg
 		}
+	case ReviewChangedMsg:
+		if m.rv != nil {
+			m.takeShared()
+		}
 	case tea.KeyMsg:
-		cmd = m.onKey(msg)
+		if m.rv != nil {
+			cmd = m.reviewKeys(msg)
+		} else {
+			cmd = m.onKey(msg)
+		}
 	}
 	m.relayout()
 	return m, tea.Batch(cmd, m.studyCmd())

@@ -41,6 +41,11 @@ func (m *Model) keyConfirm(msg tea.KeyMsg) tea.Cmd {
 // layer, units), it saves and quits; a failed save keeps the program
 // open and asks for another file.
 func (m *Model) askQuit() tea.Cmd {
+	if m.rv != nil {
+		// The hub keeps the review's work: leaving loses nothing.
+		m.quitting = true
+		return tea.Quit
+	}
 	switch {
 	case !m.unsaved(), m.store == nil && !m.hasUnsaved():
 		m.quitting = true
@@ -80,6 +85,10 @@ func (m *Model) hasUnsaved() bool { return workState(m.Session()) != workState(m
 // save is the save key: write the session in a command, or, on a
 // read-only session, ask for another file.
 func (m *Model) save() tea.Cmd {
+	if m.rv != nil {
+		m.setStatus("the review's session is saved by the server on every change of the shared work: " + m.rv.SessionPath)
+		return nil
+	}
 	if m.store == nil {
 		m.setError("no session file was given; nothing saved")
 		return nil

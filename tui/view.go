@@ -280,6 +280,14 @@ func (m Model) changeLines(ch []change, W int) []string {
 // question or the input line, wrapped whole at word boundaries, or one
 // line of key help.
 func (m Model) footer() string {
+	if m.rv != nil {
+		return m.reviewLine() + "\n" + m.footerBody()
+	}
+	return m.footerBody()
+}
+
+// footerBody is the footer but the review line.
+func (m Model) footerBody() string {
 	k := m.fr.keys
 	st := m.fr.st
 	W := m.fr.width

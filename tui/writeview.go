@@ -23,6 +23,10 @@ const maxDumpTries = 100
 // writeView writes the text dump of the current view in a command. The
 // view is taken now; the clock is read in the command.
 func (m *Model) writeView() tea.Cmd {
+	if m.dumpDir == "" && m.rv != nil {
+		m.setError("this key may not write dumps on the server (the server's authorized keys mark those who may with likewind-dumps)")
+		return nil
+	}
 	if m.dumpDir == "" {
 		m.setError("writing the view is not available: no folder was given for it")
 		return nil

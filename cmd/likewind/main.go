@@ -52,6 +52,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			return runRuns(args[1:], stdout, stderr)
 		case "report":
 			return runReport(args[1:], stdout, stderr)
+		case "serve":
+			return runServe(args[1:], stdout, stderr)
 		case "help", "-h", "--help", "-help":
 			return reportWrite(printUsage(stdout), stderr)
 		case "version", "--version":
@@ -88,6 +90,8 @@ usage:
   likewind scales [FILES]                    coverage by model scale per facility
   likewind runs [FILES]                      run list in facility order
   likewind report [FILES] -o FILE.html       one review pack page for print
+  likewind serve [FILES] [--listen ADDR] [--authorized-keys FILE] [--session FILE]
+                                             a shared design review over SSH
   likewind version
 
 Values carry their units: 35000ft, 11km, 250kt, 0.8 (Mach), 3bar, 45psi, -56.5degC.
