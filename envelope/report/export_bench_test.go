@@ -1,0 +1,149 @@
+package report
+
+import (
+	"io"
+	"reflect"
+	"strconv"
+	"sync"
+	"testing"
+
+	"likewind/envelope"
+)
+
+// Speed targets (benchmarks, not timed tests; issue 14): the CSV and JSON
+// exports at 300 MB/s or more on one core, and the plot of a 1000×1000
+// grid (both pictures) under 0.6 s. Read the exports against the floor in
+// the same run, which only formats the export's numbers with
+// strconv.AppendFloat into one buffer:
+//
+//	go test -run '^$' -bench 'Export|Chart' -cpu 1,2 ./envelope/report/
+
+// bench400 is the demo vehicle on a 400×400 grid with every demo
+// facility, evaluated once for all benchmarks of a run.
+var bench400, bench1000 benchGrid
+
+// benchGrid is a demo evaluation made by the first benchmark that needs it.
+type benchGrid struct {
+	once sync.Once
+	e    *envelope.Evaluation
+}
+
+func (g *benchGrid) get(b *testing.B, n int) *envelope.Evaluation {
+	b.Helper()
+	g.once.Do(func() { g.e = evalDemoGrid(b, 0, n, n, nil) })
+	if g.e == nil {
+		b.Fatalf("%d×%d demo evaluation failed", n, n)
+	}
+	return g.e
+}
+
+func benchEval400(b *testing.B) *envelope.Evaluation { return bench400.get(b, 400) }
+
+// exportSize is the byte count of export format ("csv" or "json") of e.
+func exportSize(b *testing.B, e *envelope.Evaluation, format string) int64 {
+	b.Helper()
+	var c countWriter
+	if err := writeExport(&c, e, format); err != nil {
+		b.Fatal(err)
+	}
+	return int64(c)
+}
+
+func writeExport(w io.Writer, e *envelope.Evaluation, format string) error {
+	if format == "csv" {
+		return WriteExportCSV(w, e.Maps)
+	}
+	return WriteExportJSON(w, goldenInfo, e.Maps)
+}
+
+// countWriter counts the bytes written to it and keeps none.
+type countWriter int64
+
+func (c *countWriter) Write(p []byte) (int, error) { *c += countWriter(len(p)); return len(p), nil }
+
+// BenchmarkExportCSV400 and BenchmarkExportJSON400 write the export of the
+// 400×400 demo grid (every facility) to a writer that keeps nothing.
+func BenchmarkExportCSV400(b *testing.B)  { benchExport(b, "csv") }
+func BenchmarkExportJSON400(b *testing.B) { benchExport(b, "json") }
+
+func benchExport(b *testing.B, format string) {
+	e := benchEval400(b)
+	b.SetBytes(exportSize(b, e, format))
+	var c countWriter
+	for b.Loop() {
+		if err := writeExport(&c, e, format); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkExportFloor400 is the floor of the CSV export: only the
+// numbers of every record of the 400×400 demo grid, formatted with
+// strconv.AppendFloat into one reused buffer, comma-separated. Its bytes
+// are set to the CSV export's size, so that its MB/s reads as the export's
+// at no cost but number formatting.
+func BenchmarkExportFloor400(b *testing.B) {
+	e := benchEval400(b)
+	var nums []float64
+	err := EachRecord(e.Maps, func(r ExportRecord) error {
+		for _, x := range recordNums(&r) {
+			if x.Valid() {
+				nums = append(nums, float64(x))
+			}
+		}
+		return nil
+	})
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.SetBytes(exportSize(b, e, "csv"))
+	buf := make([]byte, 0, 1<<16)
+	var c countWriter
+	for b.Loop() {
+		buf = buf[:0]
+		for _, x := range nums {
+			buf = strconv.AppendFloat(buf, x, 'g', -1, 64)
+			buf = append(buf, ',')
+			if len(buf) > 1<<15 {
+				c.Write(buf)
+				buf = buf[:0]
+			}
+		}
+		c.Write(buf)
+	}
+}
+
+// recordNums are the Num fields of r (found by reflection: this is the
+// benchmark's setup, not its loop).
+func recordNums(r *ExportRecord) []Num {
+	var out []Num
+	v := reflect.ValueOf(r).Elem()
+	for k := range v.NumField() {
+		if x, ok := v.Field(k).Interface().(Num); ok {
+			out = append(out, x)
+		}
+	}
+	return out
+}
+
+// BenchmarkPlot1000 draws the two pictures plot writes by default (the
+// class map of the best of all facilities and the Reynolds–Mach chart) of
+// the demo vehicle on a 1000×1000 grid, as PNG.
+func BenchmarkPlot1000(b *testing.B) {
+	e := bench1000.get(b, 1000)
+	for b.Loop() {
+		mc, err := MapChart(e, -1, false)
+		if err != nil {
+			b.Fatal(err)
+		}
+		rc, err := ReMachChart(e, nil)
+		if err != nil {
+			b.Fatal(err)
+		}
+		for _, ch := range []*Chart{mc, rc} {
+			if _, err := ch.Render("png"); err != nil {
+				b.Fatal(err)
+			}
+		}
+	}
+}
