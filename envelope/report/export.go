@@ -388,17 +388,14 @@ func EachRecord(maps []*envelope.Map, fn func(ExportRecord) error) error {
 }
 
 // WriteExportCSV writes a header row of ExportColumns and one row per inside
-// point per map.
+// point per map. Rows are formatted in blocks on every core and written in
+// order, with the bytes encoding/csv would write.
 func WriteExportCSV(w io.Writer, maps []*envelope.Map) error {
-	cw, err := newCSVWriter(w, exportCSV)
-	if err != nil {
+	head := appendCSVRecord(nil, exportCSV.names)
+	if _, err := w.Write(head); err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
-	err = EachRecord(maps, func(r ExportRecord) error { return cw.write(&r, nil) })
-	if err != nil {
-		return fmt.Errorf("csv: %w", err)
-	}
-	if err := cw.flush(); err != nil {
+	if err := writeBlocks(exportBlocks(maps), exportCSV.appendRow, writeAll(w)); err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
 	return nil
@@ -582,20 +579,16 @@ func WriteExportJSON(w io.Writer, info ExportInfo, maps []*envelope.Map) error {
 	if _, err := fmt.Fprintf(w, "%s,\n  \"records\": [", head); err != nil {
 		return fmt.Errorf("json: %w", err)
 	}
+	// Each record follows ",\n    "; the first record's comma is left out.
 	first := true
-	err = EachRecord(maps, func(r ExportRecord) error {
-		b, err := json.Marshal(r)
-		if err != nil {
-			return err
-		}
-		sep := ",\n    "
+	row := func(b []byte, r *ExportRecord, memo []numMemo) []byte {
+		return exportJSON.appendRecord(append(b, ",\n    "...), r, memo)
+	}
+	err = writeBlocks(exportBlocks(maps), row, func(b []byte) error {
 		if first {
-			sep, first = "\n    ", false
+			b, first = b[1:], false
 		}
-		if _, err := io.WriteString(w, sep); err != nil {
-			return err
-		}
-		_, err = w.Write(b)
+		_, err := w.Write(b)
 		return err
 	})
 	if err != nil {
