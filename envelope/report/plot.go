@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"image/color"
+	"image/png"
 	"math"
 	"strconv"
 	"strings"
@@ -78,10 +79,11 @@ func (ch *Chart) Render(format string) ([]byte, error) {
 	w, h := ChartWidth, ChartHeight+legH
 
 	var vc vg.CanvasWriterTo
+	var raster *vgimg.Canvas
 	switch strings.ToLower(format) {
 	case "png":
-		vc = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(ChartDPI),
-			vgimg.UseBackgroundColor(color.White))}
+		raster = vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(ChartDPI), vgimg.UseBackgroundColor(color.White))
+		vc = vgimg.PngCanvas{Canvas: raster}
 	case "svg":
 		vc = vgsvg.NewWith(vgsvg.UseWH(w, h), vgsvg.EmbedFonts(true))
 	default:
@@ -91,6 +93,15 @@ func (ch *Chart) Render(format string) ([]byte, error) {
 	ch.plot.Draw(draw.Crop(dc, pad/2, -pad, legH, -pad/2))
 	ch.legend.Draw(draw.Crop(dc, pad, -pad, pad, -(h - legH)))
 	var b bytes.Buffer
+	if raster != nil {
+		// The fastest compression: a chart is a few flat colours, which
+		// it packs nearly as well as the default (files well under 1 MB).
+		enc := png.Encoder{CompressionLevel: png.BestSpeed}
+		if err := enc.Encode(&b, raster.Image()); err != nil {
+			return nil, fmt.Errorf("render %s chart: %w", format, err)
+		}
+		return b.Bytes(), nil
+	}
 	if _, err := vc.WriteTo(&b); err != nil {
 		return nil, fmt.Errorf("render %s chart: %w", format, err)
 	}
@@ -496,12 +507,7 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 			ch.legend.Add(label+": no reachable setting", swatch{withAlpha(col, 0x50)})
 		}
 	}
-	sc, err := plotter.NewScatter(flight)
-	if err != nil {
-		return nil, fmt.Errorf("Reynolds–Mach chart: %w", err)
-	}
-	sc.GlyphStyle = draw.GlyphStyle{Color: rgb(0x222222), Radius: vg.Points(1.3), Shape: draw.CircleGlyph{}}
-	dots := unboxed{sc}
+	dots := &flightDots{xy: flight, color: rgb(0x222222), radius: vg.Points(1.3)}
 	ch.plot.Add(dots)
 	ch.legend.Add("flight conditions inside the envelope (full scale)", dots)
 	// Whole decades, so every tick lies on the axis.
