@@ -161,19 +161,26 @@ func (st *dotStamps) stamp(img *image.RGBA, qx, qy int, col color.RGBA) {
 	b := img.Bounds()
 	const full = 0xffff
 	cr, cg, cb := uint32(col.R)*0x101, uint32(col.G)*0x101, uint32(col.B)*0x101
+	inside := x0 >= b.Min.X && y0 >= b.Min.Y && x0+st.side <= b.Max.X && y0+st.side <= b.Max.Y
 	for v := range st.side {
 		y := y0 + v
-		if y < b.Min.Y || y >= b.Max.Y {
+		if !inside && (y < b.Min.Y || y >= b.Max.Y) {
 			continue
 		}
-		for u := range st.side {
-			x := x0 + u
-			ma := m[v*st.side+u]
-			if ma == 0 || x < b.Min.X || x >= b.Max.X {
+		row := m[v*st.side : (v+1)*st.side]
+		i := img.PixOffset(x0, y)
+		for u, ma := range row {
+			if ma == 0 {
 				continue
 			}
-			i := img.PixOffset(x, y)
-			p := img.Pix[i : i+4 : i+4]
+			if !inside && (x0+u < b.Min.X || x0+u >= b.Max.X) {
+				continue
+			}
+			p := img.Pix[i+4*u : i+4*u+4 : i+4*u+4]
+			if ma == full {
+				p[0], p[1], p[2], p[3] = col.R, col.G, col.B, 0xff
+				continue
+			}
 			a := (full - ma) * 0x101
 			p[0] = uint8((uint32(p[0])*a + cr*ma) / full >> 8)
 			p[1] = uint8((uint32(p[1])*a + cg*ma) / full >> 8)
