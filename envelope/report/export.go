@@ -189,6 +189,12 @@ func ExportColumns() []string { return exportCSV.header() }
 // NewExportRecord builds the record of inside point (i, j) of m from
 // Map.Detail (full precision).
 func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
+	return exportRecord(m, i, j, envelope.CleanText(m.Facility.Name))
+}
+
+// exportRecord is NewExportRecord with the facility's name already
+// cleaned (once per map, not once per record).
+func exportRecord(m *envelope.Map, i, j int, facility string) (ExportRecord, error) {
 	d, err := m.Detail(i, j)
 	if err != nil {
 		return ExportRecord{}, fmt.Errorf("export %s point (%d, %d): %w", m.Facility.Name, i, j, err)
@@ -201,7 +207,7 @@ func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
 	st := fl.State
 	s := m.Settings
 	r := ExportRecord{
-		Facility: envelope.CleanText(m.Facility.Name),
+		Facility: facility,
 		Medium:   m.Facility.Medium.String(),
 		Row:      i,
 		Col:      j,

@@ -59,13 +59,14 @@ func appendBlock(b []byte, bl exportBlock, row exportRow) ([]byte, error) {
 	g := bl.m.Grid
 	var r ExportRecord
 	memo := make([]numMemo, len(exportCSV.cols))
+	name := envelope.CleanText(bl.m.Facility.Name)
 	for i := bl.i0; i < bl.i1; i++ {
 		for j := 0; j < g.Cols(); j++ {
 			if !g.Inside(i, j) {
 				continue
 			}
 			var err error
-			if r, err = NewExportRecord(bl.m, i, j); err != nil {
+			if r, err = exportRecord(bl.m, i, j, name); err != nil {
 				return b, err
 			}
 			b = row(b, &r, memo)
