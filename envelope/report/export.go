@@ -189,24 +189,28 @@ func ExportColumns() []string { return exportCSV.header() }
 // NewExportRecord builds the record of inside point (i, j) of m from
 // Map.Detail (full precision).
 func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
-	return exportRecord(m, i, j, envelope.CleanText(m.Facility.Name))
+	var r ExportRecord
+	err := exportRecord(&r, m, i, j, envelope.CleanText(m.Facility.Name))
+	return r, err
 }
 
-// exportRecord is NewExportRecord with the facility's name already
-// cleaned (once per map, not once per record).
-func exportRecord(m *envelope.Map, i, j int, facility string) (ExportRecord, error) {
+// exportRecord is NewExportRecord into r, with the facility's name
+// already cleaned (once per map, not once per record).
+func exportRecord(r *ExportRecord, m *envelope.Map, i, j int, facility string) error {
 	d, err := m.Detail(i, j)
 	if err != nil {
-		return ExportRecord{}, fmt.Errorf("export %s point (%d, %d): %w", m.Facility.Name, i, j, err)
+		*r = ExportRecord{}
+		return fmt.Errorf("export %s point (%d, %d): %w", m.Facility.Name, i, j, err)
 	}
 	if !d.Flight.Inside {
-		return ExportRecord{}, fmt.Errorf("export %s point (%d, %d): outside the envelope", m.Facility.Name, i, j)
+		*r = ExportRecord{}
+		return fmt.Errorf("export %s point (%d, %d): outside the envelope", m.Facility.Name, i, j)
 	}
 	g := m.Grid
 	fl := d.Flight
 	st := fl.State
 	s := m.Settings
-	r := ExportRecord{
+	*r = ExportRecord{
 		Facility: facility,
 		Medium:   m.Facility.Medium.String(),
 		Row:      i,
@@ -275,7 +279,7 @@ func exportRecord(m *envelope.Map, i, j int, facility string) (ExportRecord, err
 		r.ReMaxAtTestMach = Num(d.ReMax)
 	}
 	if !d.HasSettings {
-		return r, nil
+		return nil
 	}
 	r.setMatchingSet(d.Set, d.Medium)
 	r.setLoads(m.Grid.Vehicle, d.Load)
@@ -306,7 +310,7 @@ func exportRecord(m *envelope.Map, i, j int, facility string) (ExportRecord, err
 		r.ReSweepMin = Num(d.ReSweepMin)
 		r.ReSweepMax = Num(d.ReSweepMax)
 	}
-	return r, nil
+	return nil
 }
 
 // setRule writes the value fixed rule ru holds.

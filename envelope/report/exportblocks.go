@@ -65,8 +65,7 @@ func appendBlock(b []byte, bl exportBlock, row exportRow) ([]byte, error) {
 			if !g.Inside(i, j) {
 				continue
 			}
-			var err error
-			if r, err = exportRecord(bl.m, i, j, name); err != nil {
+			if err := exportRecord(&r, bl.m, i, j, name); err != nil {
 				return b, err
 			}
 			b = row(b, &r, memo)
