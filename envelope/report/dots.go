@@ -23,7 +23,9 @@ const dotSteps = 4
 // canvas it stamps a dot rendered once (per quarter-pixel offset of its
 // centre) straight into the picture, each distinct quarter-pixel position
 // once; on another canvas (SVG) it draws one circle per distinct position.
-// Like the scatter it stands for, it reports no glyph boxes (see unboxed).
+// It reports no glyph boxes: the plot pads its data area for glyph boxes,
+// and with boxes that cover only the top of a log axis that padding goes
+// wrong.
 type flightDots struct {
 	xy     plotter.XYs
 	color  color.RGBA // opaque

@@ -548,15 +548,6 @@ func (lt logTicks) Ticks(lo, hi float64) []plot.Tick {
 	return ticks
 }
 
-// unboxed draws a scatter without reporting glyph boxes: the plot pads
-// its data area for glyph boxes, and with boxes that cover only the top of
-// a log axis that padding goes wrong.
-type unboxed struct{ s *plotter.Scatter }
-
-func (u unboxed) Plot(c draw.Canvas, p *plot.Plot)            { u.s.Plot(c, p) }
-func (u unboxed) DataRange() (xmin, xmax, ymin, ymax float64) { return u.s.DataRange() }
-func (u unboxed) Thumbnail(c *draw.Canvas)                    { u.s.Thumbnail(c) }
-
 // stepTicks marks a linear axis at 1, 2 or 5 times a power of ten, chosen
 // for about eight labelled ticks, with four unlabelled ticks between.
 type stepTicks struct{}
