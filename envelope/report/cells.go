@@ -34,11 +34,16 @@ type cell struct {
 // numMemo keeps the last number a column formatted and its text: along a
 // grid row the altitude's columns repeat, and the settings' columns repeat
 // throughout a map, so most of them are copied instead of formatted again.
+// For a text column it keeps the last text and whether CSV quotes it.
 type numMemo struct {
 	bits uint64
 	set  bool
 	n    uint8
 	b    [24]byte // the longest shortest form of a float64 has 24 bytes
+
+	text    string
+	textSet bool
+	quote   bool
 }
 
 // appendNum appends x in shortest round-trip form ('g', as

@@ -83,7 +83,11 @@ func TestExportRecordBytes(t *testing.T) {
 	}
 	nums := []float64{0, math.Copysign(0, -1), 1, -2.5, 1e-7, 1e21, 123456789012345678, 5e-324, math.MaxFloat64, math.NaN(), math.Inf(1), 1.0 / 3}
 	j := 0
-	for k, s := range oddTexts {
+	// One memo for every record, as a block uses it: the texts and numbers
+	// change from record to record.
+	memo := make([]numMemo, len(exportCSV.cols))
+	jmemo := make([]numMemo, len(exportCSV.cols))
+	for k, s := range append(oddTexts, oddTexts...) {
 		var r ExportRecord
 		r.Facility, r.Flags, r.Row, r.Col, r.HasSettings = s, s, k, -k, k%2 == 0
 		for _, n := range []*Num{&r.Altitude, &r.Mach, &r.Pressure, &r.Knudsen, &r.TestMach, &r.BalanceQLimit} {
@@ -91,7 +95,6 @@ func TestExportRecordBytes(t *testing.T) {
 			j++
 		}
 		cells := reflectCells(&r)
-		memo := make([]numMemo, len(exportCSV.cols))
 		if got, want := exportCSV.appendRow(nil, &r, memo), csvWant(t, cells); !bytes.Equal(got, want) {
 			t.Errorf("CSV row %d =\n%q\nwant\n%q", k, got, want)
 		}
@@ -99,7 +102,7 @@ func TestExportRecordBytes(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if got := exportJSON.appendRecord(nil, &r, memo); !bytes.Equal(got, want) {
+		if got := exportJSON.appendRecord(nil, &r, jmemo); !bytes.Equal(got, want) {
 			t.Errorf("JSON record %d =\n%s\nwant\n%s", k, got, want)
 		}
 	}

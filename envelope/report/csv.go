@@ -78,7 +78,17 @@ func (t *csvTable[T]) appendRow(b []byte, r *T, memo []numMemo) []byte {
 			b = append(b, ',')
 		}
 		if c.kind == cellString {
-			b = appendCSVField(b, *(*string)(unsafe.Add(p, c.off)))
+			// Most text columns repeat from row to row: whether a
+			// text needs quotes is decided once per change.
+			s, m := *(*string)(unsafe.Add(p, c.off)), &memo[k]
+			if !m.textSet || s != m.text {
+				m.text, m.textSet, m.quote = s, true, csvNeedsQuotes(s)
+			}
+			if m.quote {
+				b = appendCSVQuoted(b, s)
+			} else {
+				b = append(b, s...)
+			}
 			continue
 		}
 		b = c.appendCSVValue(b, p, r, &memo[k])
@@ -131,6 +141,11 @@ func appendCSVField(b []byte, s string) []byte {
 	if !csvNeedsQuotes(s) {
 		return append(b, s...)
 	}
+	return appendCSVQuoted(b, s)
+}
+
+// appendCSVQuoted appends s in quotes, its quotes doubled.
+func appendCSVQuoted(b []byte, s string) []byte {
 	b = append(b, '"')
 	for {
 		i := strings.IndexByte(s, '"')
