@@ -5,6 +5,7 @@ import (
 	"io"
 	"path/filepath"
 	"strings"
+	"sync"
 
 	"likewind/envelope"
 	"likewind/envelope/fileout"
@@ -47,14 +48,22 @@ func runPlot(args []string, stdout, stderr io.Writer) int {
 		if len(c.ev.e.Solved()) == 0 {
 			return c.errorf("no facility could be evaluated")
 		}
-		// Render everything first: a failure then leaves no file at all.
+		// Render everything first, the pictures side by side: a failure
+		// then leaves no file at all.
 		set := make([]fileout.AtomicFile, len(targets))
+		errs := make([]error, len(targets))
+		var wg sync.WaitGroup
 		for k, t := range targets {
-			b, err := renderChart(c.ev.e, t.chart, fac, c.customary, format)
+			wg.Go(func() {
+				b, err := renderChart(c.ev.e, t.chart, fac, c.customary, format)
+				set[k], errs[k] = fileout.AtomicFile{Path: t.path, Data: b}, err
+			})
+		}
+		wg.Wait()
+		for _, err := range errs {
 			if err != nil {
 				return c.errorf("%w", err)
 			}
-			set[k] = fileout.AtomicFile{Path: t.path, Data: b}
 		}
 		if c.out.path == "-" {
 			if _, err := c.stdout.Write(set[0].Data); err != nil {

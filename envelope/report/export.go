@@ -189,19 +189,29 @@ func ExportColumns() []string { return exportCSV.header() }
 // NewExportRecord builds the record of inside point (i, j) of m from
 // Map.Detail (full precision).
 func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
+	var r ExportRecord
+	err := exportRecord(&r, m, i, j, envelope.CleanText(m.Facility.Name))
+	return r, err
+}
+
+// exportRecord is NewExportRecord into r, with the facility's name
+// already cleaned (once per map, not once per record).
+func exportRecord(r *ExportRecord, m *envelope.Map, i, j int, facility string) error {
 	d, err := m.Detail(i, j)
 	if err != nil {
-		return ExportRecord{}, fmt.Errorf("export %s point (%d, %d): %w", m.Facility.Name, i, j, err)
+		*r = ExportRecord{}
+		return fmt.Errorf("export %s point (%d, %d): %w", m.Facility.Name, i, j, err)
 	}
 	if !d.Flight.Inside {
-		return ExportRecord{}, fmt.Errorf("export %s point (%d, %d): outside the envelope", m.Facility.Name, i, j)
+		*r = ExportRecord{}
+		return fmt.Errorf("export %s point (%d, %d): outside the envelope", m.Facility.Name, i, j)
 	}
 	g := m.Grid
 	fl := d.Flight
 	st := fl.State
 	s := m.Settings
-	r := ExportRecord{
-		Facility: envelope.CleanText(m.Facility.Name),
+	*r = ExportRecord{
+		Facility: facility,
 		Medium:   m.Facility.Medium.String(),
 		Row:      i,
 		Col:      j,
@@ -269,7 +279,7 @@ func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
 		r.ReMaxAtTestMach = Num(d.ReMax)
 	}
 	if !d.HasSettings {
-		return r, nil
+		return nil
 	}
 	r.setMatchingSet(d.Set, d.Medium)
 	r.setLoads(m.Grid.Vehicle, d.Load)
@@ -300,7 +310,7 @@ func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
 		r.ReSweepMin = Num(d.ReSweepMin)
 		r.ReSweepMax = Num(d.ReSweepMax)
 	}
-	return r, nil
+	return nil
 }
 
 // setRule writes the value fixed rule ru holds.
@@ -388,17 +398,14 @@ func EachRecord(maps []*envelope.Map, fn func(ExportRecord) error) error {
 }
 
 // WriteExportCSV writes a header row of ExportColumns and one row per inside
-// point per map.
+// point per map. Rows are formatted in blocks on every core and written in
+// order, with the bytes encoding/csv would write.
 func WriteExportCSV(w io.Writer, maps []*envelope.Map) error {
-	cw, err := newCSVWriter(w, exportCSV)
-	if err != nil {
+	head := appendCSVRecord(nil, exportCSV.names)
+	if _, err := w.Write(head); err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
-	err = EachRecord(maps, func(r ExportRecord) error { return cw.write(&r, nil) })
-	if err != nil {
-		return fmt.Errorf("csv: %w", err)
-	}
-	if err := cw.flush(); err != nil {
+	if err := writeBlocks(exportBlocks(maps), exportCSV.appendRow, writeAll(w)); err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
 	return nil
@@ -582,20 +589,16 @@ func WriteExportJSON(w io.Writer, info ExportInfo, maps []*envelope.Map) error {
 	if _, err := fmt.Fprintf(w, "%s,\n  \"records\": [", head); err != nil {
 		return fmt.Errorf("json: %w", err)
 	}
+	// Each record follows ",\n    "; the first record's comma is left out.
 	first := true
-	err = EachRecord(maps, func(r ExportRecord) error {
-		b, err := json.Marshal(r)
-		if err != nil {
-			return err
-		}
-		sep := ",\n    "
+	row := func(b []byte, r *ExportRecord, memo []numMemo) []byte {
+		return exportJSON.appendRecord(append(b, ",\n    "...), r, memo)
+	}
+	err = writeBlocks(exportBlocks(maps), row, func(b []byte) error {
 		if first {
-			sep, first = "\n    ", false
+			b, first = b[1:], false
 		}
-		if _, err := io.WriteString(w, sep); err != nil {
-			return err
-		}
-		_, err = w.Write(b)
+		_, err := w.Write(b)
 		return err
 	})
 	if err != nil {

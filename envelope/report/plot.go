@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"image/color"
+	"image/png"
 	"math"
 	"strconv"
 	"strings"
@@ -78,10 +79,11 @@ func (ch *Chart) Render(format string) ([]byte, error) {
 	w, h := ChartWidth, ChartHeight+legH
 
 	var vc vg.CanvasWriterTo
+	var raster *vgimg.Canvas
 	switch strings.ToLower(format) {
 	case "png":
-		vc = vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(ChartDPI),
-			vgimg.UseBackgroundColor(color.White))}
+		raster = vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(ChartDPI), vgimg.UseBackgroundColor(color.White))
+		vc = vgimg.PngCanvas{Canvas: raster}
 	case "svg":
 		vc = vgsvg.NewWith(vgsvg.UseWH(w, h), vgsvg.EmbedFonts(true))
 	default:
@@ -91,6 +93,15 @@ func (ch *Chart) Render(format string) ([]byte, error) {
 	ch.plot.Draw(draw.Crop(dc, pad/2, -pad, legH, -pad/2))
 	ch.legend.Draw(draw.Crop(dc, pad, -pad, pad, -(h - legH)))
 	var b bytes.Buffer
+	if raster != nil {
+		// The fastest compression: a chart is a few flat colours, which
+		// it packs nearly as well as the default (files well under 1 MB).
+		enc := png.Encoder{CompressionLevel: png.BestSpeed}
+		if err := enc.Encode(&b, raster.Image()); err != nil {
+			return nil, fmt.Errorf("render %s chart: %w", format, err)
+		}
+		return b.Bytes(), nil
+	}
 	if _, err := vc.WriteTo(&b); err != nil {
 		return nil, fmt.Errorf("render %s chart: %w", format, err)
 	}
@@ -496,12 +507,7 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 			ch.legend.Add(label+": no reachable setting", swatch{withAlpha(col, 0x50)})
 		}
 	}
-	sc, err := plotter.NewScatter(flight)
-	if err != nil {
-		return nil, fmt.Errorf("Reynolds–Mach chart: %w", err)
-	}
-	sc.GlyphStyle = draw.GlyphStyle{Color: rgb(0x222222), Radius: vg.Points(1.3), Shape: draw.CircleGlyph{}}
-	dots := unboxed{sc}
+	dots := &flightDots{xy: flight, color: rgb(0x222222), radius: vg.Points(1.3)}
 	ch.plot.Add(dots)
 	ch.legend.Add("flight conditions inside the envelope (full scale)", dots)
 	// Whole decades, so every tick lies on the axis.
@@ -541,15 +547,6 @@ func (lt logTicks) Ticks(lo, hi float64) []plot.Tick {
 	}
 	return ticks
 }
-
-// unboxed draws a scatter without reporting glyph boxes: the plot pads
-// its data area for glyph boxes, and with boxes that cover only the top of
-// a log axis that padding goes wrong.
-type unboxed struct{ s *plotter.Scatter }
-
-func (u unboxed) Plot(c draw.Canvas, p *plot.Plot)            { u.s.Plot(c, p) }
-func (u unboxed) DataRange() (xmin, xmax, ymin, ymax float64) { return u.s.DataRange() }
-func (u unboxed) Thumbnail(c *draw.Canvas)                    { u.s.Thumbnail(c) }
 
 // stepTicks marks a linear axis at 1, 2 or 5 times a power of ten, chosen
 // for about eight labelled ticks, with four unlabelled ticks between.
