@@ -154,6 +154,7 @@ type pointAux struct {
 	// computed once per worker (relaxDone).
 	relaxTop           gasPick
 	relaxOK, relaxDone bool
+	relaxSamples       sampledRange // the relaxed range's samples with their bounds
 }
 
 // colMemo holds values a Solve worker computed for one grid column, each
@@ -750,7 +751,7 @@ func (sv *gasSolver) fullMatch(ps *pointSol, at *atMatch, mm, mf, tFlight float6
 	if sv.mTol > 0 && sv.bandTopRe(mf, col) >= need {
 		lo, hi, _ := sv.machBand(mf)
 		if top, ok := sv.maxOver(lo, hi); ok {
-			pick, _, _ := sv.searchMach(lo, hi, mm, target, &top)
+			pick, _, _ := sv.searchMach(lo, hi, mm, target, &top, nil)
 			ps.class = FullMatch
 			sv.useSearched(ps, &pick, mf, tFlight)
 			return true
