@@ -58,18 +58,31 @@ func sharesOf(rs []Result) Shares {
 // into maps per point (-1 outside the envelope) and the winning results.
 // All maps must be solved on the same grid (that of the first non-nil
 // map); nil maps and maps on another grid are skipped, keeping their index.
-func Best(maps []*Map) ([]int, []Result) {
+func Best(maps []*Map) ([]int, []Result) { return BestReusing(maps, nil, nil) }
+
+// BestReusing is Best writing into idx and best where they hold enough
+// (every point is written); they must not be used by anything else any
+// more (nil: new arrays).
+func BestReusing(maps []*Map, idx []int, best []Result) ([]int, []Result) {
 	bs, ok := newBestSet(maps)
 	if !ok {
 		return nil, nil
 	}
-	idx := make([]int, bs.n)
-	best := make([]Result, bs.n)
+	if cap(idx) >= bs.n {
+		idx = idx[:bs.n]
+	} else {
+		idx = make([]int, bs.n)
+	}
+	if cap(best) >= bs.n {
+		best = best[:bs.n]
+	} else {
+		best = make([]Result, bs.n)
+	}
 	forRanges(bs.n, func(lo, hi int) {
 		for k := lo; k < hi; k++ {
 			w, wr := bs.at(k)
 			if w < 0 {
-				idx[k] = -1
+				idx[k], best[k] = -1, Result{}
 				continue
 			}
 			idx[k], best[k] = bs.index[w], *wr

@@ -215,6 +215,7 @@ func (sv *gasSolver) solveRows(m *Map, i0, i1 int, w *gasWorker) (n [NumClasses]
 		for j := range cols {
 			r := &g.points[base+j]
 			if r.excl != InEnvelope {
+				m.Results[base+j] = Result{} // Outside (the array may be reused)
 				continue
 			}
 			c := &w.cols[j]

@@ -143,7 +143,13 @@ type Grid struct {
 // crossings and limit lines of each row to the grid's kind instead of
 // converting every point; the answer is the same. Settings supply the day (DeltaT) and the
 // regime thresholds (zero Regimes means atmos.DefaultRegimes).
-func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
+func NewGrid(v *Vehicle, s Settings) (*Grid, error) { return NewGridReusing(v, s, nil) }
+
+// NewGridReusing is NewGrid keeping the points in the array of old when
+// it holds enough (every point is written), so that an interface making
+// grid after grid need not allocate, clear and collect a new one each
+// time. old must not be used by anything else any more (nil: a new array).
+func NewGridReusing(v *Vehicle, s Settings, old *Grid) (*Grid, error) {
 	if v == nil {
 		return nil, errors.New("grid: no vehicle")
 	}
@@ -188,7 +194,11 @@ func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 		DeltaT:    s.DeltaT,
 		Regimes:   reg,
 		rows:      make([]atmos.State, len(alts)),
-		points:    make([]flightRec, len(alts)*len(speeds)),
+	}
+	if n := len(alts) * len(speeds); old != nil && cap(old.points) >= n {
+		g.points = old.points[:n]
+	} else {
+		g.points = make([]flightRec, n)
 	}
 	// Rows are independent: they are evaluated side by side in blocks,
 	// each point written to its own slot, so the grid is the same as a
@@ -384,6 +394,7 @@ func (g *Grid) evalPoint(sp float64, st *atmos.State, rl *rowLimits) flightRec {
 
 // evalInto is evalPoint writing into r, which must be zero.
 func (g *Grid) evalInto(r *flightRec, sp float64, st *atmos.State, rl *rowLimits) {
+	*r = flightRec{} // the array may be reused
 	hi := 1 + gridEdgeTol
 	switch {
 	case rl.above:

@@ -144,7 +144,14 @@ type Detail struct {
 // the scale override, the tolerances and the rule. The model scale is
 // s.Scale if set, else the facility's Model.Scale, else the largest that
 // fits (FitScale).
-func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
+func Solve(g *Grid, f *Facility, s Settings) (*Map, error) { return SolveReusing(g, f, s, nil) }
+
+// SolveReusing is Solve writing the results into buf when it holds enough
+// (every point is written, outside ones too), so that a caller solving
+// again and again (the interface's what-ifs) need not allocate, clear and
+// collect a new array each time. buf must not be used by anything else
+// any more; with a nil or short buf a new array is made.
+func SolveReusing(g *Grid, f *Facility, s Settings, buf []Result) (*Map, error) {
 	if g == nil || f == nil {
 		return nil, errors.New("solve: need a grid and a facility")
 	}
@@ -171,7 +178,11 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	sv.setModelLength(m.Scale * g.Vehicle.RefLength)
 	m.LoadQ = m.loads.qCap(m.Scale)
 	sv.setLoadCap(m.LoadQ)
-	m.Results = make([]Result, len(g.points))
+	if cap(buf) >= len(g.points) {
+		m.Results = buf[:len(g.points)]
+	} else {
+		m.Results = make([]Result, len(g.points))
+	}
 	cols := len(g.Speeds)
 	// Points are independent: blocks of rows are solved side by side, each
 	// result written to its own slot, so the map is the same as a

@@ -115,6 +115,7 @@ func (sv *waterSolver) rowSolver(cols int) func(m *Map, i0, i1 int) [NumClasses]
 			for j := range cols {
 				r := &g.points[base+j]
 				if r.excl != InEnvelope {
+					m.Results[base+j] = Result{} // Outside (the array may be reused)
 					continue
 				}
 				if !(r.mach < sv.compMach) {
