@@ -26,17 +26,18 @@ type results struct {
 	errs     []error // per facility: why it has no map (nil map)
 }
 
-// computeGrid evaluates the flight side and every facility.
-func computeGrid(v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings) (results, error) {
-	g, err := envelope.NewGrid(v, s)
+// computeGrid evaluates the flight side and every facility, in arrays
+// from pool where it has them (nil: new arrays).
+func computeGrid(v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
+	g, err := envelope.NewGridReusing(v, s, pool.takeGrid())
 	if err != nil {
 		return results{}, err
 	}
-	return solveAll(g, facs, s)
+	return solveAll(g, facs, s, pool)
 }
 
 // solveAll solves every facility on an existing grid.
-func solveAll(g *envelope.Grid, facs []envelope.Facility, s envelope.Settings) (results, error) {
+func solveAll(g *envelope.Grid, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
 	r := results{grid: g, maps: make([]*envelope.Map, len(facs)), errs: make([]error, len(facs))}
 	// Facilities are independent: Solve only reads the grid, so they run
 	// side by side.
@@ -47,20 +48,20 @@ func solveAll(g *envelope.Grid, facs []envelope.Facility, s envelope.Settings) (
 			defer wg.Done()
 			// One facility that cannot be solved (no model scale, say)
 			// leaves the others usable.
-			r.maps[k], r.errs[k] = envelope.Solve(g, &facs[k], s)
+			r.maps[k], r.errs[k] = envelope.SolveReusing(g, &facs[k], s, pool.takeResults(g.Rows()*g.Cols()))
 		}()
 	}
 	wg.Wait()
-	r.summarise(nil, -1)
+	r.summarise(nil, -1, pool)
 	return r, nil
 }
 
 // solveOne re-solves facility k only, keeping the other maps of prev.
-func solveOne(prev results, facs []envelope.Facility, s envelope.Settings, k int) (results, error) {
+func solveOne(prev results, facs []envelope.Facility, s envelope.Settings, k int, pool *arrays) (results, error) {
 	if prev.grid == nil || k < 0 || k >= len(facs) || len(prev.maps) != len(facs) {
-		return solveAll(prev.grid, facs, s)
+		return solveAll(prev.grid, facs, s, pool)
 	}
-	m, err := envelope.Solve(prev.grid, &facs[k], s)
+	m, err := envelope.SolveReusing(prev.grid, &facs[k], s, pool.takeResults(prev.grid.Rows()*prev.grid.Cols()))
 	if err != nil {
 		return results{}, fmt.Errorf("%s: %w", facs[k].Name, err)
 	}
@@ -71,13 +72,14 @@ func solveOne(prev results, facs []envelope.Facility, s envelope.Settings, k int
 	}
 	r.maps[k] = m
 	r.errs[k] = nil
-	r.summarise(&prev, k)
+	r.summarise(&prev, k, pool)
 	return r, nil
 }
 
-// summarise fills the best-of-all arrays and the coverage shares. With
-// prev given, the shares of every map but changed are taken from it.
-func (r *results) summarise(prev *results, changed int) {
+// summarise fills the best-of-all arrays (in arrays from pool where it
+// has them) and the coverage shares. With prev given, the shares of every
+// map but changed are taken from it.
+func (r *results) summarise(prev *results, changed int, pool *arrays) {
 	if r.grid == nil {
 		return
 	}
@@ -100,8 +102,9 @@ func (r *results) summarise(prev *results, changed int) {
 	if solved == 0 {
 		return
 	}
-	if prev == nil || changed < 0 || !r.incrementalBest(prev, changed) {
-		r.best, r.bestRes = BestOfAll(r.maps)
+	if prev == nil || changed < 0 || !r.incrementalBest(prev, changed, pool) {
+		n := r.grid.Rows() * r.grid.Cols()
+		r.best, r.bestRes = bestOfAllInto(r.maps, pool.takeInts(n), pool.takeResults(n))
 	}
 	var n, full, inside int
 	for _, res := range r.bestRes {
@@ -126,7 +129,7 @@ func (r *results) summarise(prev *results, changed int) {
 // answer of k beats it, and points k used to win are decided afresh. The
 // outcome equals envelope.Best (ties go to the lower facility index). It
 // reports false when prev cannot be reused.
-func (r *results) incrementalBest(prev *results, k int) bool {
+func (r *results) incrementalBest(prev *results, k int, pool *arrays) bool {
 	n := len(r.grid.Alts) * len(r.grid.Speeds)
 	if prev.grid != r.grid || len(prev.best) != n || len(prev.maps) != len(r.maps) || r.maps[k] == nil {
 		return false
@@ -136,10 +139,19 @@ func (r *results) incrementalBest(prev *results, k int) bool {
 			return false
 		}
 	}
-	best := append([]int(nil), prev.best...)
-	bestRes := append([]envelope.Result(nil), prev.bestRes...)
+	best := pool.takeInts(n)
+	bestRes := pool.takeResults(n)
+	if best == nil {
+		best = make([]int, n)
+	}
+	if bestRes == nil {
+		bestRes = make([]envelope.Result, n)
+	}
+	best, bestRes = best[:n], bestRes[:n]
 	newK := r.maps[k].Results
 	update := func(lo, hi int) {
+		copy(best[lo:hi], prev.best[lo:hi])
+		copy(bestRes[lo:hi], prev.bestRes[lo:hi])
 		for p := lo; p < hi; p++ {
 			nk := newK[p]
 			if nk.Class == envelope.Outside {

@@ -116,6 +116,9 @@ type Model struct {
 	res      results
 	gen      int  // generation of the latest recompute request
 	busy     bool // a recompute is running
+	// arrays keeps replaced result arrays for the next recompute (set by
+	// Run only; nil: every recompute makes new ones).
+	arrays *arrays
 	// pending is the kind of the running recompute and pendingFac its
 	// facility, so a newer request still covers what the one it
 	// supersedes would have done.
@@ -297,7 +300,7 @@ func (m *Model) evaluate(pick bool) {
 		m.setError("no vehicle loaded")
 		return
 	}
-	r, err := computeGrid(m.vehicle, m.facs, m.set)
+	r, err := computeGrid(m.vehicle, m.facs, m.set, nil)
 	if err != nil {
 		m.setError("evaluation failed: " + err.Error())
 		return
@@ -410,17 +413,18 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 	m.busy = true
 	m.pending, m.pendingFac = kind, fac
 	gen := m.gen
-	v, facs, set, prev := m.vehicle, m.facs, m.set, m.res
+	v, facs, set, prev, pool := m.vehicle, m.facs, m.set, m.res, m.arrays
+	pool.begin() // until onComputed takes the message
 	return func() tea.Msg {
 		var r results
 		var err error
 		switch {
 		case kind == recomputeGrid || prev.grid == nil:
-			r, err = computeGrid(v, facs, set)
+			r, err = computeGrid(v, facs, set, pool)
 		case kind == recomputeOneFac && fac >= 0:
-			r, err = solveOne(prev, facs, set, fac)
+			r, err = solveOne(prev, facs, set, fac, pool)
 		default:
-			r, err = solveAll(prev.grid, facs, set)
+			r, err = solveAll(prev.grid, facs, set, pool)
 		}
 		return computedMsg{gen: gen, res: r, err: err}
 	}
@@ -450,12 +454,14 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	case savedMsg:
 		cmd = m.onSaved(msg)
 	case viewWrittenMsg:
+		m.arrays.end()
 		if msg.err != nil {
 			m.setError("view not written: " + msg.err.Error())
 		} else {
 			m.setStatus("view written to " + msg.path)
 		}
 	case studiedMsg:
+		m.arrays.end()
 		if msg.gen == m.studyGen {
 			m.studied = msg
 		}
@@ -467,15 +473,21 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 }
 
 func (m *Model) onComputed(msg computedMsg) {
+	defer m.arrays.end()
 	if msg.gen != m.gen {
-		return // an older request; a newer one is running
+		// An older request; a newer one is running. What it made is
+		// no one's.
+		m.arrays.retire(&msg.res, &m.res)
+		return
 	}
 	m.busy = false
 	if msg.err != nil {
 		m.setError("recompute failed: " + msg.err.Error())
 		return
 	}
+	old := m.res
 	m.res = msg.res
+	m.arrays.retire(&old, &m.res)
 	m.clampCursor()
 }
 

@@ -182,6 +182,7 @@ func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Mode
 		opts.SessionFile = sf
 	}
 	m := New(opts)
+	m.arrays = newArrays()
 	// The renderer writes the latest frame at its frame rate: at the
 	// highest it takes (120 a second) a finished recompute waits at most
 	// about 8 ms for the screen instead of 17.

@@ -572,7 +572,7 @@ func TestIncrementalBestMatchesBest(t *testing.T) {
 		facs := append([]envelope.Facility(nil), m.facs...)
 		facs[k].SetPressureMax(facs[k].PressureMin() + 0.7*(facs[k].PressureMax()-facs[k].PressureMin()))
 		facs[k].QMax *= 0.5
-		got, err := solveOne(m.res, facs, m.set, k)
+		got, err := solveOne(m.res, facs, m.set, k, nil)
 		if err != nil {
 			t.Fatal(err)
 		}
