@@ -1,6 +1,7 @@
 package envelope
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -143,13 +144,17 @@ type Grid struct {
 // crossings and limit lines of each row to the grid's kind instead of
 // converting every point; the answer is the same. Settings supply the day (DeltaT) and the
 // regime thresholds (zero Regimes means atmos.DefaultRegimes).
-func NewGrid(v *Vehicle, s Settings) (*Grid, error) { return NewGridReusing(v, s, nil) }
+func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
+	return NewGridReusing(context.Background(), v, s, nil)
+}
 
 // NewGridReusing is NewGrid keeping the points in the array of old when
 // it holds enough (every point is written), so that an interface making
 // grid after grid need not allocate, clear and collect a new one each
 // time. old must not be used by anything else any more (nil: a new array).
-func NewGridReusing(v *Vehicle, s Settings, old *Grid) (*Grid, error) {
+// When ctx ends first (a newer what-if made this grid stale) it stops
+// between blocks of rows and returns ctx's error.
+func NewGridReusing(ctx context.Context, v *Vehicle, s Settings, old *Grid) (*Grid, error) {
 	if v == nil {
 		return nil, errors.New("grid: no vehicle")
 	}
@@ -205,10 +210,12 @@ func NewGridReusing(v *Vehicle, s Settings, old *Grid) (*Grid, error) {
 	// row-by-row evaluation. The first failing row (lowest index) is
 	// reported.
 	acc := rowsAcc{errRow: -1}
-	forRowBlocks(len(alts), len(speeds), func() func(i0, i1 int) {
+	if !forRowBlocksUntil(ctx, len(alts), len(speeds), func() func(i0, i1 int) {
 		var spans []envSpan // scratch space of one worker
 		return func(i0, i1 int) { g.evalRows(i0, i1, s.DeltaT, &spans, &acc) }
-	})
+	}) {
+		return nil, ctx.Err()
+	}
 	if acc.errRow >= 0 {
 		return nil, fmt.Errorf("grid for %q: row %d: %w", v.Name, acc.errRow, acc.err)
 	}
@@ -280,11 +287,18 @@ const (
 // its work function from newWorker, once, so that it can keep scratch
 // space of its own.
 func forRowBlocks(rows, cols int, newWorker func() func(i0, i1 int)) {
+	forRowBlocksUntil(context.Background(), rows, cols, newWorker)
+}
+
+// forRowBlocksUntil is forRowBlocks that takes no new block once ctx has
+// ended; it reports whether every block was done.
+func forRowBlocksUntil(ctx context.Context, rows, cols int, newWorker func() func(i0, i1 int)) bool {
 	workers := runtime.GOMAXPROCS(0)
 	if workers < 2 || rows < 2 || rows*cols < parallelMin {
 		newWorker()(0, rows)
-		return
+		return ctx.Err() == nil
 	}
+	var stopped atomic.Bool
 	workers = min(workers, rows)
 	size := max(1, rows/(workers*blocksPerWorker))
 	var next atomic.Int64
@@ -297,11 +311,16 @@ func forRowBlocks(rows, cols int, newWorker func() func(i0, i1 int)) {
 				if i0 >= rows {
 					return
 				}
+				if ctx.Err() != nil {
+					stopped.Store(true)
+					return
+				}
 				work(i0, min(i0+size, rows))
 			}
 		})
 	}
 	wg.Wait()
+	return !stopped.Load()
 }
 
 // rowLimits is the envelope on one altitude row expressed in the grid's

@@ -1,6 +1,7 @@
 package envelope
 
 import (
+	"context"
 	"slices"
 	"testing"
 )
@@ -48,7 +49,7 @@ func TestReusingEqualsFresh(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		reused, err := NewGridReusing(v, s, old)
+		reused, err := NewGridReusing(context.Background(), v, s, old)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -64,7 +65,7 @@ func TestReusingEqualsFresh(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			b, err := SolveReusing(reused, &facs[k], s, bufs[k])
+			b, err := SolveReusing(context.Background(), reused, &facs[k], s, bufs[k])
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -88,5 +89,29 @@ func TestReusingEqualsFresh(t *testing.T) {
 			bufs[k] = reusedMaps[k].Results
 		}
 		old = reused
+	}
+}
+
+// TestStopsWhenCancelled: a grid or a map asked for with a context that
+// has ended is not made (ctx's error), so a stale what-if stops early.
+func TestStopsWhenCancelled(t *testing.T) {
+	v, facs, err := Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	v.Grid.Altitude.Count, v.Grid.Altitude.Step = 200, 0
+	v.Grid.Speed.Count, v.Grid.Speed.Step = 200, 0
+	s := DefaultSettings(v)
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	if g, err := NewGridReusing(ctx, v, s, nil); g != nil || err != context.Canceled {
+		t.Errorf("NewGridReusing after cancel = %v, %v; want no grid and context.Canceled", g != nil, err)
+	}
+	g, err := NewGrid(v, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if m, err := SolveReusing(ctx, g, &facs[0], s, nil); m != nil || err != context.Canceled {
+		t.Errorf("SolveReusing after cancel = %v, %v; want no map and context.Canceled", m != nil, err)
 	}
 }

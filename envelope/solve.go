@@ -1,6 +1,7 @@
 package envelope
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"reflect"
@@ -144,14 +145,18 @@ type Detail struct {
 // the scale override, the tolerances and the rule. The model scale is
 // s.Scale if set, else the facility's Model.Scale, else the largest that
 // fits (FitScale).
-func Solve(g *Grid, f *Facility, s Settings) (*Map, error) { return SolveReusing(g, f, s, nil) }
+func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
+	return SolveReusing(context.Background(), g, f, s, nil)
+}
 
 // SolveReusing is Solve writing the results into buf when it holds enough
 // (every point is written, outside ones too), so that a caller solving
 // again and again (the interface's what-ifs) need not allocate, clear and
 // collect a new array each time. buf must not be used by anything else
-// any more; with a nil or short buf a new array is made.
-func SolveReusing(g *Grid, f *Facility, s Settings, buf []Result) (*Map, error) {
+// any more; with a nil or short buf a new array is made. When ctx ends
+// first (a newer what-if made this map stale) it stops between blocks of
+// rows and returns ctx's error.
+func SolveReusing(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Result) (*Map, error) {
 	if g == nil || f == nil {
 		return nil, errors.New("solve: need a grid and a facility")
 	}
@@ -188,7 +193,7 @@ func SolveReusing(g *Grid, f *Facility, s Settings, buf []Result) (*Map, error) 
 	// result written to its own slot, so the map is the same as a
 	// point-by-point solve.
 	var mu sync.Mutex // guards m.shares while workers add their counts
-	forRowBlocks(len(g.Alts), cols, func() func(i0, i1 int) {
+	done := forRowBlocksUntil(ctx, len(g.Alts), cols, func() func(i0, i1 int) {
 		solveRows := sv.rowSolver(cols)
 		return func(i0, i1 int) {
 			n := solveRows(m, i0, i1)
@@ -199,6 +204,9 @@ func SolveReusing(g *Grid, f *Facility, s Settings, buf []Result) (*Map, error) 
 			mu.Unlock()
 		}
 	})
+	if !done {
+		return nil, ctx.Err()
+	}
 	m.shares.Total = len(m.Results)
 	m.shares.Inside = g.inside
 	m.shares.Count[Outside] = m.shares.Total - m.shares.Inside

@@ -1,6 +1,8 @@
 package tui
 
 import (
+	"context"
+	"errors"
 	"slices"
 	"testing"
 
@@ -164,4 +166,33 @@ func TestArraysReusedStayCorrect(t *testing.T) {
 	if reused == 0 {
 		t.Error("no result array was reused")
 	}
+}
+
+// TestStaleRecomputeStops: a recompute superseded by a newer one stops
+// (its message carries context.Canceled and is dropped), while the
+// cursor moves as usual before either is back; the newer one's results
+// are those of a fresh evaluation.
+func TestStaleRecomputeStops(t *testing.T) {
+	m := newDemo(t, 120, 40)
+	m.arrays = newArrays()
+	m.set.DeltaT = 4
+	c1 := m.recompute(recomputeGrid)
+	i, j := m.curI, m.curJ
+	next, _ := m.Update(keyMsg("up"))
+	m = next.(Model)
+	if !m.busy || m.curI == i && m.curJ == j {
+		t.Fatalf("while computing: busy %v, cursor (%d,%d) → (%d,%d); want the cursor moved", m.busy, i, j, m.curI, m.curJ)
+	}
+	m.set.DeltaT = 8
+	c2 := m.recompute(recomputeGrid)
+	out1 := c1()
+	if msg, ok := out1.(computedMsg); !ok || !errors.Is(msg.err, context.Canceled) {
+		t.Fatalf("the superseded recompute gave %#v, want its context.Canceled", out1)
+	}
+	m, _ = drive(m, out1)
+	if !m.busy || m.statusErr {
+		t.Fatalf("the stale message changed the state: busy %v, status %q", m.busy, m.status)
+	}
+	m, _ = drive(m, c2())
+	checkFresh(t, m, "after the stale one stopped")
 }

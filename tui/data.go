@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"context"
 	"fmt"
 	"runtime"
 	"sync"
@@ -28,16 +29,17 @@ type results struct {
 
 // computeGrid evaluates the flight side and every facility, in arrays
 // from pool where it has them (nil: new arrays).
-func computeGrid(v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
-	g, err := envelope.NewGridReusing(v, s, pool.takeGrid())
+func computeGrid(ctx context.Context, v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
+	g, err := envelope.NewGridReusing(ctx, v, s, pool.takeGrid())
 	if err != nil {
 		return results{}, err
 	}
-	return solveAll(g, facs, s, pool)
+	return solveAll(ctx, g, facs, s, pool)
 }
 
-// solveAll solves every facility on an existing grid.
-func solveAll(g *envelope.Grid, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
+// solveAll solves every facility on an existing grid. When ctx ends
+// first (the results are stale) it returns ctx's error.
+func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
 	r := results{grid: g, maps: make([]*envelope.Map, len(facs)), errs: make([]error, len(facs))}
 	// Facilities are independent: Solve only reads the grid, so they run
 	// side by side.
@@ -48,20 +50,23 @@ func solveAll(g *envelope.Grid, facs []envelope.Facility, s envelope.Settings, p
 			defer wg.Done()
 			// One facility that cannot be solved (no model scale, say)
 			// leaves the others usable.
-			r.maps[k], r.errs[k] = envelope.SolveReusing(g, &facs[k], s, pool.takeResults(g.Rows()*g.Cols()))
+			r.maps[k], r.errs[k] = envelope.SolveReusing(ctx, g, &facs[k], s, pool.takeResults(g.Rows()*g.Cols()))
 		}()
 	}
 	wg.Wait()
+	if err := ctx.Err(); err != nil {
+		return r, err
+	}
 	r.summarise(nil, -1, pool)
 	return r, nil
 }
 
 // solveOne re-solves facility k only, keeping the other maps of prev.
-func solveOne(prev results, facs []envelope.Facility, s envelope.Settings, k int, pool *arrays) (results, error) {
+func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s envelope.Settings, k int, pool *arrays) (results, error) {
 	if prev.grid == nil || k < 0 || k >= len(facs) || len(prev.maps) != len(facs) {
-		return solveAll(prev.grid, facs, s, pool)
+		return solveAll(ctx, prev.grid, facs, s, pool)
 	}
-	m, err := envelope.SolveReusing(prev.grid, &facs[k], s, pool.takeResults(prev.grid.Rows()*prev.grid.Cols()))
+	m, err := envelope.SolveReusing(ctx, prev.grid, &facs[k], s, pool.takeResults(prev.grid.Rows()*prev.grid.Cols()))
 	if err != nil {
 		return results{}, fmt.Errorf("%s: %w", facs[k].Name, err)
 	}

@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"strings"
@@ -119,6 +120,9 @@ type Model struct {
 	// arrays keeps replaced result arrays for the next recompute (set by
 	// Run only; nil: every recompute makes new ones).
 	arrays *arrays
+	// cancelRun stops the running recompute when a newer one supersedes
+	// it (nil: none running).
+	cancelRun context.CancelFunc
 	// pending is the kind of the running recompute and pendingFac its
 	// facility, so a newer request still covers what the one it
 	// supersedes would have done.
@@ -300,7 +304,7 @@ func (m *Model) evaluate(pick bool) {
 		m.setError("no vehicle loaded")
 		return
 	}
-	r, err := computeGrid(m.vehicle, m.facs, m.set, nil)
+	r, err := computeGrid(context.Background(), m.vehicle, m.facs, m.set, nil)
 	if err != nil {
 		m.setError("evaluation failed: " + err.Error())
 		return
@@ -408,25 +412,39 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 	fac := m.fac
 	if m.busy {
 		kind, fac = mergeRecompute(m.pending, m.pendingFac, kind, fac)
+		// The running one is stale: it stops at its next block of rows
+		// and leaves both processors to this one.
+		m.stopRunning()
 	}
 	m.gen++
 	m.busy = true
 	m.pending, m.pendingFac = kind, fac
 	gen := m.gen
+	ctx, cancel := context.WithCancel(context.Background())
+	m.cancelRun = cancel
 	v, facs, set, prev, pool := m.vehicle, m.facs, m.set, m.res, m.arrays
 	pool.begin() // until onComputed takes the message
 	return func() tea.Msg {
+		defer cancel()
 		var r results
 		var err error
 		switch {
 		case kind == recomputeGrid || prev.grid == nil:
-			r, err = computeGrid(v, facs, set, pool)
+			r, err = computeGrid(ctx, v, facs, set, pool)
 		case kind == recomputeOneFac && fac >= 0:
-			r, err = solveOne(prev, facs, set, fac, pool)
+			r, err = solveOne(ctx, prev, facs, set, fac, pool)
 		default:
-			r, err = solveAll(prev.grid, facs, set, pool)
+			r, err = solveAll(ctx, prev.grid, facs, set, pool)
 		}
 		return computedMsg{gen: gen, res: r, err: err}
+	}
+}
+
+// stopRunning ends the context of the running recompute, if any.
+func (m *Model) stopRunning() {
+	if m.cancelRun != nil {
+		m.cancelRun()
+		m.cancelRun = nil
 	}
 }
 
@@ -481,6 +499,7 @@ func (m *Model) onComputed(msg computedMsg) {
 		return
 	}
 	m.busy = false
+	m.cancelRun = nil
 	if msg.err != nil {
 		m.setError("recompute failed: " + msg.err.Error())
 		return

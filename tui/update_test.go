@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"context"
 	"math"
 	"path/filepath"
 	"strings"
@@ -572,7 +573,7 @@ func TestIncrementalBestMatchesBest(t *testing.T) {
 		facs := append([]envelope.Facility(nil), m.facs...)
 		facs[k].SetPressureMax(facs[k].PressureMin() + 0.7*(facs[k].PressureMax()-facs[k].PressureMin()))
 		facs[k].QMax *= 0.5
-		got, err := solveOne(m.res, facs, m.set, k, nil)
+		got, err := solveOne(context.Background(), m.res, facs, m.set, k, nil)
 		if err != nil {
 			t.Fatal(err)
 		}
