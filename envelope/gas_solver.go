@@ -176,6 +176,7 @@ type colMemo struct {
 	outM   float64
 	outLim Limit
 	out    bool
+	outRes Result // what such a point gets (when out)
 	// bandRe is bandTopRe of flight Mach number bandM (NaN: none yet).
 	bandM, bandRe float64
 }
@@ -222,9 +223,12 @@ func (sv *gasSolver) solveRows(m *Map, i0, i1 int, w *gasWorker) (n [NumClasses]
 			if c.outM != r.mach {
 				c.outM = r.mach
 				c.outLim, c.out = sv.outOfRange(r.mach)
+				if c.out {
+					c.outRes = Result{Class: NoMatch, Limit: c.outLim, Flags: m.sizeFlag(m.sizeMach(r.mach, false, 0))}
+				}
 			}
 			if c.out {
-				m.Results[base+j] = Result{Class: NoMatch, Limit: c.outLim, Flags: m.sizeFlag(m.sizeMach(r.mach, false, 0))}
+				m.Results[base+j] = c.outRes
 				n[NoMatch]++
 				continue
 			}
