@@ -168,10 +168,10 @@ func TestArraysReusedStayCorrect(t *testing.T) {
 	}
 }
 
-// TestStaleRecomputeStops: a recompute superseded by a newer one stops
-// (its message carries context.Canceled and is dropped), while the
-// cursor moves as usual before either is back; the newer one's results
-// are those of a fresh evaluation.
+// TestStaleRecomputeStops: a recompute superseded by a newer one is
+// cancelled and its message dropped, while the cursor moves as usual
+// before either is back; the newer one's results are those of a fresh
+// evaluation. (That a cancelled solve stops: TestStopsWhenCancelled.)
 func TestStaleRecomputeStops(t *testing.T) {
 	m := newDemo(t, 120, 40)
 	m.arrays = newArrays()
@@ -186,8 +186,10 @@ func TestStaleRecomputeStops(t *testing.T) {
 	m.set.DeltaT = 8
 	c2 := m.recompute(recomputeGrid)
 	out1 := c1()
-	if msg, ok := out1.(computedMsg); !ok || !errors.Is(msg.err, context.Canceled) {
-		t.Fatalf("the superseded recompute gave %#v, want its context.Canceled", out1)
+	// It was running already: it stopped (context.Canceled) or, on this
+	// small grid, may have finished first; either way it is dropped.
+	if msg, ok := out1.(computedMsg); !ok || msg.err != nil && !errors.Is(msg.err, context.Canceled) {
+		t.Fatalf("the superseded recompute gave %#v, want results or its context.Canceled", out1)
 	}
 	m, _ = drive(m, out1)
 	if !m.busy || m.statusErr {

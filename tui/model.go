@@ -424,7 +424,11 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 	m.cancelRun = cancel
 	v, facs, set, prev, pool := m.vehicle, m.facs, m.set, m.res, m.arrays
 	pool.begin() // until onComputed takes the message
-	return func() tea.Msg {
+	// The work starts now, beside the frame the runtime draws after this
+	// Update, and the command only waits for it: started by the command,
+	// it would begin only after that frame.
+	done := make(chan tea.Msg, 1)
+	go func() {
 		defer cancel()
 		var r results
 		var err error
@@ -436,8 +440,9 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 		default:
 			r, err = solveAll(ctx, prev.grid, facs, set, pool)
 		}
-		return computedMsg{gen: gen, res: r, err: err}
-	}
+		done <- computedMsg{gen: gen, res: r, err: err}
+	}()
+	return func() tea.Msg { return <-done }
 }
 
 // stopRunning ends the context of the running recompute, if any.
