@@ -154,35 +154,42 @@ func (r *results) incrementalBest(prev *results, k int, pool *arrays) bool {
 	}
 	best, bestRes = best[:n], bestRes[:n]
 	newK := r.maps[k].Results
+	prevBest, prevRes := prev.best, prev.bestRes
+	var none envelope.Result
 	update := func(lo, hi int) {
-		copy(best[lo:hi], prev.best[lo:hi])
-		copy(bestRes[lo:hi], prev.bestRes[lo:hi])
 		for p := lo; p < hi; p++ {
-			nk := newK[p]
-			if nk.Class == envelope.Outside {
-				continue
-			}
-			w := best[p]
+			w, wr := prevBest[p], &prevRes[p]
+			nk := &newK[p]
 			switch {
+			case nk.Class == envelope.Outside:
+				// as before
+			case w == k && !envelope.Better(*wr, *nk):
+				// k won and its new answer is at least as good as the
+				// old one: Better orders answers by one key (class
+				// rank, then the ratio's distance from 1), so it still
+				// beats every map the old one beat and ties those it
+				// tied.
+				wr = nk
 			case w == k || w < 0:
-				// k was the winner (or none was): decide the point again.
-				bi, br := -1, envelope.Result{}
+				// k's answer got worse (or no map had won): decide the
+				// point again.
+				w, wr = -1, &none
 				for j, m := range r.maps {
-					res := m.Results[p]
+					res := &m.Results[p]
 					if res.Class == envelope.Outside {
 						continue
 					}
-					if bi < 0 || envelope.Better(res, br) {
-						bi, br = j, res
+					if w < 0 || envelope.Better(*res, *wr) {
+						w, wr = j, res
 					}
 				}
-				best[p], bestRes[p] = bi, br
-			case envelope.Better(nk, bestRes[p]):
-				best[p], bestRes[p] = k, nk
-			case k < w && !envelope.Better(bestRes[p], nk):
+			case envelope.Better(*nk, *wr):
+				w, wr = k, nk
+			case k < w && !envelope.Better(*wr, *nk):
 				// a tie goes to the lower index
-				best[p], bestRes[p] = k, nk
+				w, wr = k, nk
 			}
+			best[p], bestRes[p] = w, *wr
 		}
 	}
 	// Points are independent: split them over the processors.
