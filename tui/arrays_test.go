@@ -29,6 +29,11 @@ func checkFresh(t *testing.T, m Model, step string) {
 	if !slices.Equal(m.res.best, best) || !slices.Equal(m.res.bestRes, bestRes) {
 		t.Fatalf("%s: the best of all differs from a fresh evaluation", step)
 	}
+	sh := envelope.BestShares(e.Solved())
+	if m.res.union != sh.Matched() || m.res.bestFull != sh.Share(envelope.FullMatch) {
+		t.Fatalf("%s: union %v, best full %v; a fresh evaluation gives %v, %v", step, m.res.union, m.res.bestFull,
+			sh.Matched(), sh.Share(envelope.FullMatch))
+	}
 	if a := m.arrays; a != nil {
 		// No array the results use is shared between two of their parts
 		// or waiting to be handed out, and every array waiting is there

@@ -107,26 +107,58 @@ func (r *results) summarise(prev *results, changed int, pool *arrays) {
 	if solved == 0 {
 		return
 	}
-	if prev == nil || changed < 0 || !r.incrementalBest(prev, changed, pool) {
+	var c bestCounts
+	ok := prev != nil && changed >= 0
+	if ok {
+		c, ok = r.incrementalBest(prev, changed, pool)
+	}
+	if !ok {
 		n := r.grid.Rows() * r.grid.Cols()
 		r.best, r.bestRes = bestOfAllInto(r.maps, pool.takeInts(n), pool.takeResults(n))
+		c = byParts(len(r.bestRes), func(lo, hi int) (c bestCounts) {
+			for p := lo; p < hi; p++ {
+				c.add(&r.bestRes[p])
+			}
+			return c
+		})
 	}
-	var n, full, inside int
-	for _, res := range r.bestRes {
-		if res.Class != envelope.Outside {
-			inside++
-		}
-		if res.Class.Matched() {
-			n++
-		}
-		if res.Class == envelope.FullMatch {
-			full++
-		}
+	if c.inside > 0 {
+		r.union = float64(c.matched) / float64(c.inside)
+		r.bestFull = float64(c.full) / float64(c.inside)
 	}
-	if inside > 0 {
-		r.union = float64(n) / float64(inside)
-		r.bestFull = float64(full) / float64(inside)
+}
+
+// bestCounts counts the best-of-all answers: inside the envelope,
+// matched, full match.
+type bestCounts struct{ inside, matched, full int }
+
+func (c *bestCounts) add(res *envelope.Result) {
+	if res.Class != envelope.Outside {
+		c.inside++
 	}
+	if res.Class.Matched() {
+		c.matched++
+	}
+	if res.Class == envelope.FullMatch {
+		c.full++
+	}
+}
+
+// byParts splits points 0..n-1 over the processors (points are
+// independent) and adds up what each part counts.
+func byParts(n int, part func(lo, hi int) bestCounts) bestCounts {
+	parts := min(runtime.GOMAXPROCS(0), 8)
+	counts := make([]bestCounts, parts)
+	var wg sync.WaitGroup
+	for c := range parts {
+		wg.Go(func() { counts[c] = part(c*n/parts, (c+1)*n/parts) })
+	}
+	wg.Wait()
+	var sum bestCounts
+	for _, c := range counts {
+		sum.inside, sum.matched, sum.full = sum.inside+c.inside, sum.matched+c.matched, sum.full+c.full
+	}
+	return sum
 }
 
 // incrementalBest updates the best-of-all arrays of prev after facility k
@@ -134,14 +166,14 @@ func (r *results) summarise(prev *results, changed int, pool *arrays) {
 // answer of k beats it, and points k used to win are decided afresh. The
 // outcome equals envelope.Best (ties go to the lower facility index). It
 // reports false when prev cannot be reused.
-func (r *results) incrementalBest(prev *results, k int, pool *arrays) bool {
+func (r *results) incrementalBest(prev *results, k int, pool *arrays) (bestCounts, bool) {
 	n := len(r.grid.Alts) * len(r.grid.Speeds)
 	if prev.grid != r.grid || len(prev.best) != n || len(prev.maps) != len(r.maps) || r.maps[k] == nil {
-		return false
+		return bestCounts{}, false
 	}
 	for j, m := range r.maps {
 		if m == nil || len(m.Results) != n || (j != k && prev.maps[j] != m) {
-			return false
+			return bestCounts{}, false
 		}
 	}
 	best := pool.takeInts(n)
@@ -156,7 +188,7 @@ func (r *results) incrementalBest(prev *results, k int, pool *arrays) bool {
 	newK := r.maps[k].Results
 	prevBest, prevRes := prev.best, prev.bestRes
 	var none envelope.Result
-	update := func(lo, hi int) {
+	update := func(lo, hi int) (c bestCounts) {
 		for p := lo; p < hi; p++ {
 			w, wr := prevBest[p], &prevRes[p]
 			nk := &newK[p]
@@ -190,21 +222,13 @@ func (r *results) incrementalBest(prev *results, k int, pool *arrays) bool {
 				w, wr = k, nk
 			}
 			best[p], bestRes[p] = w, *wr
+			c.add(wr)
 		}
+		return c
 	}
-	// Points are independent: split them over the processors.
-	parts := min(runtime.GOMAXPROCS(0), 8)
-	var wg sync.WaitGroup
-	for c := range parts {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			update(c*n/parts, (c+1)*n/parts)
-		}()
-	}
-	wg.Wait()
+	c := byParts(n, update)
 	r.best, r.bestRes = best, bestRes
-	return true
+	return c, true
 }
 
 // result returns the facility answer at (i, j) for facility fac (-1 =

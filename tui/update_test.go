@@ -589,6 +589,10 @@ func TestIncrementalBestMatchesBest(t *testing.T) {
 					t.Fatalf("%s: point %d: best = %d %+v, want %d %+v", name, p, got.best[p], got.bestRes[p], wantIdx[p], wantRes[p])
 				}
 			}
+			sh := envelope.BestShares(got.maps)
+			if got.union != sh.Matched() || got.bestFull != sh.Share(envelope.FullMatch) {
+				t.Fatalf("%s: union %v, best full %v; want %v, %v", name, got.union, got.bestFull, sh.Matched(), sh.Share(envelope.FullMatch))
+			}
 			m.res = got
 			m.facs = facs
 		}
