@@ -121,7 +121,9 @@ func BenchmarkTmuxEdit(b *testing.B) {
 					b.Fatalf("tmux new-session: %v\n%s", err, out)
 				}
 				b.Cleanup(func() { _, _ = p.run("kill-server") })
-				p.waitScreen(func(s string) bool { return strings.Contains(s, "likewind") && !strings.Contains(header(s), "computing") })
+				p.waitScreen(func(s string) bool {
+					return strings.Contains(s, "likewind") && !strings.Contains(header(s), "computing")
+				})
 				p.send("e")
 				for range c.downs {
 					p.send("Down")
