@@ -18,8 +18,8 @@ import (
 // The interface's what-if edits measured the way a user sees them: the
 // built command in tmux at 200×60, keys sent with send-keys, the screen
 // read with capture-pane until the edited value is in the header and
-// "computing" has gone (polled, so each figure is late by up to one
-// capture, a few ms). The pseudo-terminal benchmark in tui
+// "computing" has gone (polled every 2 ms, so each figure is late by up to
+// one capture and pause, a few ms). The pseudo-terminal benchmark in tui
 // (BenchmarkTerminalEdit) times the same edits without tmux in between.
 // Skips without tmux.
 //
@@ -60,6 +60,9 @@ func (p *tmuxPane) waitScreen(done func(string) bool) string {
 		if time.Now().After(deadline) {
 			p.tb.Fatalf("screen never came; last screen:\n%s", scr)
 		}
+		// Each capture is a tmux client process: polling without a
+		// pause would take a processor from the program measured.
+		time.Sleep(2 * time.Millisecond)
 	}
 }
 
