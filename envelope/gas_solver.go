@@ -216,7 +216,9 @@ func (sv *gasSolver) solveRows(m *Map, i0, i1 int, w *gasWorker) (n [NumClasses]
 		for j := range cols {
 			r := &g.points[base+j]
 			if r.excl != InEnvelope {
-				m.Results[base+j] = Result{} // Outside (the array may be reused)
+				if m.reused {
+					m.Results[base+j] = Result{} // Outside
+				}
 				continue
 			}
 			c := &w.cols[j]

@@ -129,6 +129,9 @@ type Grid struct {
 	points  []flightRec   // per point, Index(i, j)
 	inside  int
 	maxMach float64 // highest inside flight Mach number (0 when none)
+	// reused: points is an array handed in (NewGridReusing), cleared
+	// point by point as it is filled; a new one is zero already.
+	reused bool
 
 }
 
@@ -201,7 +204,7 @@ func NewGridReusing(ctx context.Context, v *Vehicle, s Settings, old *Grid) (*Gr
 		rows:      make([]atmos.State, len(alts)),
 	}
 	if n := len(alts) * len(speeds); old != nil && cap(old.points) >= n {
-		g.points = old.points[:n]
+		g.points, g.reused = old.points[:n], true
 	} else {
 		g.points = make([]flightRec, n)
 	}
@@ -258,6 +261,9 @@ func (g *Grid) evalRows(i0, i1 int, dT float64, spans *[]envSpan, acc *rowsAcc) 
 		row := g.points[i*cols : (i+1)*cols]
 		for j, sp := range g.Speeds {
 			r := &row[j]
+			if g.reused {
+				*r = flightRec{} // evalInto fills in a zero record
+			}
 			g.evalInto(r, sp, &st, &rl)
 			if r.excl == InEnvelope {
 				inside++
@@ -413,7 +419,6 @@ func (g *Grid) evalPoint(sp float64, st *atmos.State, rl *rowLimits) flightRec {
 
 // evalInto is evalPoint writing into r, which must be zero.
 func (g *Grid) evalInto(r *flightRec, sp float64, st *atmos.State, rl *rowLimits) {
-	*r = flightRec{} // the array may be reused
 	hi := 1 + gridEdgeTol
 	switch {
 	case rl.above:

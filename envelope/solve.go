@@ -47,6 +47,11 @@ type Map struct {
 	// points outside the envelope, with shares counted while solving.
 	solved bool
 	shares Shares
+	// reused: Results was handed in (SolveReusing), so outside points are
+	// written too; a new array is left zero (Outside) there, so that its
+	// pages outside the envelope are never touched (a coverage report of
+	// a large grid keeps less resident).
+	reused bool
 }
 
 // Detail is the full-precision facility answer for one grid point.
@@ -184,7 +189,7 @@ func SolveReusing(ctx context.Context, g *Grid, f *Facility, s Settings, buf []R
 	m.LoadQ = m.loads.qCap(m.Scale)
 	sv.setLoadCap(m.LoadQ)
 	if cap(buf) >= len(g.points) {
-		m.Results = buf[:len(g.points)]
+		m.Results, m.reused = buf[:len(g.points)], true
 	} else {
 		m.Results = make([]Result, len(g.points))
 	}
