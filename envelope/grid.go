@@ -132,7 +132,6 @@ type Grid struct {
 	// reused: points is an array handed in (NewGridReusing), cleared
 	// point by point as it is filled; a new one is zero already.
 	reused bool
-
 }
 
 // NewGrid evaluates the flight side of vehicle v on its grid: the
