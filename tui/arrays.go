@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"slices"
 	"sync"
 
 	"likewind/envelope"
@@ -40,8 +41,10 @@ type arraySet struct {
 	grids   []*envelope.Grid
 }
 
-// maxFree caps how many arrays of each kind are kept.
-const maxFree = 16
+// maxFree caps how many free arrays of each kind are kept: one
+// recompute of every facility takes a map per facility and the best of
+// all, so a few more than the demo's six facilities and one to spare.
+const maxFree = 8
 
 func newArrays() *arrays { return &arrays{held: map[any]bool{}} }
 
@@ -80,14 +83,17 @@ func (a *arrays) trim() {
 	f := &a.free
 	for len(f.results) > maxFree {
 		delete(a.held, &f.results[0][0])
+		f.results[0] = nil // let the collector have it
 		f.results = f.results[1:]
 	}
 	for len(f.ints) > maxFree {
 		delete(a.held, &f.ints[0][0])
+		f.ints[0] = nil
 		f.ints = f.ints[1:]
 	}
 	for len(f.grids) > maxFree {
 		delete(a.held, f.grids[0])
+		f.grids[0] = nil
 		f.grids = f.grids[1:]
 	}
 }
@@ -140,7 +146,7 @@ func (a *arrays) takeResults(n int) []envelope.Result {
 	f := &a.free
 	for k := len(f.results) - 1; k >= 0; k-- {
 		if rs := f.results[k]; cap(rs) >= n {
-			f.results = append(f.results[:k], f.results[k+1:]...)
+			f.results = slices.Delete(f.results, k, k+1) // clears the freed slot
 			delete(a.held, &rs[0])
 			return rs
 		}
@@ -158,7 +164,7 @@ func (a *arrays) takeInts(n int) []int {
 	f := &a.free
 	for k := len(f.ints) - 1; k >= 0; k-- {
 		if is := f.ints[k]; cap(is) >= n {
-			f.ints = append(f.ints[:k], f.ints[k+1:]...)
+			f.ints = slices.Delete(f.ints, k, k+1)
 			delete(a.held, &is[0])
 			return is
 		}
@@ -179,6 +185,7 @@ func (a *arrays) takeGrid() *envelope.Grid {
 		return nil
 	}
 	g := f.grids[len(f.grids)-1]
+	f.grids[len(f.grids)-1] = nil
 	f.grids = f.grids[:len(f.grids)-1]
 	delete(a.held, g)
 	return g
