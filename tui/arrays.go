@@ -134,6 +134,25 @@ func (a *arrays) retire(old, keep *results) {
 		a.held[g] = true
 		a.pending.grids = append(a.pending.grids, g)
 	}
+	// While edits keep commands out, retired arrays wait; past a bound
+	// the oldest go to the collector (an array dropped here is no
+	// one's, so retiring it again later is as safe as the first time).
+	p := &a.pending
+	for len(p.results) > 2*maxFree {
+		delete(a.held, &p.results[0][0])
+		p.results[0] = nil
+		p.results = p.results[1:]
+	}
+	for len(p.ints) > 2*maxFree {
+		delete(a.held, &p.ints[0][0])
+		p.ints[0] = nil
+		p.ints = p.ints[1:]
+	}
+	for len(p.grids) > 2*maxFree {
+		delete(a.held, p.grids[0])
+		p.grids[0] = nil
+		p.grids = p.grids[1:]
+	}
 }
 
 // takeResults is a free results array of at least n points, or nil.
