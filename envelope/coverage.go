@@ -1,5 +1,7 @@
 package envelope
 
+import "sync"
+
 // Shares counts the points of a map by class.
 type Shares struct {
 	Total  int             // grid points
@@ -56,7 +58,51 @@ func sharesOf(rs []Result) Shares {
 // into maps per point (-1 outside the envelope) and the winning results.
 // All maps must be solved on the same grid (that of the first non-nil
 // map); nil maps and maps on another grid are skipped, keeping their index.
-func Best(maps []*Map) ([]int, []Result) {
+func Best(maps []*Map) ([]int, []Result) { return BestReusing(maps, nil, nil) }
+
+// BestReusing is Best writing into idx and best where they hold enough
+// (every point is written); they must not be used by anything else any
+// more (nil: new arrays).
+func BestReusing(maps []*Map, idx []int, best []Result) ([]int, []Result) {
+	bs, ok := newBestSet(maps)
+	if !ok {
+		return nil, nil
+	}
+	if cap(idx) >= bs.n {
+		idx = idx[:bs.n]
+	} else {
+		idx = make([]int, bs.n)
+	}
+	if cap(best) >= bs.n {
+		best = best[:bs.n]
+	} else {
+		best = make([]Result, bs.n)
+	}
+	forRanges(bs.n, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			w, wr := bs.at(k)
+			if w < 0 {
+				idx[k], best[k] = -1, Result{}
+				continue
+			}
+			idx[k], best[k] = bs.index[w], *wr
+		}
+	})
+	return idx, best
+}
+
+// bestSet is what Best decides points from: the results of the maps
+// taking part, with their index in the maps given.
+type bestSet struct {
+	n         int
+	rs        [][]Result
+	index     []int
+	allSolved bool
+}
+
+// newBestSet takes the maps solved on the grid of the first non-nil map
+// (ok false when there is none).
+func newBestSet(maps []*Map) (bestSet, bool) {
 	var first *Map
 	for _, m := range maps {
 		if m != nil {
@@ -65,59 +111,72 @@ func Best(maps []*Map) ([]int, []Result) {
 		}
 	}
 	if first == nil {
-		return nil, nil
+		return bestSet{}, false
 	}
 	g := first.Grid
-	n := len(first.Results)
-	idx := make([]int, n)
-	best := make([]Result, n)
-	var use []*Map // the maps taking part, with their index in maps
-	var at []int
-	allSolved := true
+	bs := bestSet{n: len(first.Results), allSolved: true}
 	for f, m := range maps {
-		if m == nil || m.Grid != g || len(m.Results) != n {
+		if m == nil || m.Grid != g || len(m.Results) != bs.n {
 			continue
 		}
-		use, at = append(use, m), append(at, f)
-		allSolved = allSolved && m.solved
+		bs.rs, bs.index = append(bs.rs, m.Results), append(bs.index, f)
+		bs.allSolved = bs.allSolved && m.solved
 	}
-	// Points are independent: ranges of points are decided side by side,
-	// each writing only its own slots. Per point the maps are taken in
-	// order and a later one replaces the winner only when Better, so ties
-	// go to the lower index, as in a map-by-map pass.
-	rs := make([][]Result, len(use))
-	for u, m := range use {
-		rs[u] = m.Results
+	return bs, true
+}
+
+// at is the winner at point k: its position in bs.rs and its result, or
+// -1 when no map has the point inside. Points are independent, so ranges
+// of points are decided side by side. Per point the maps are taken in
+// order and a later one replaces the winner only when Better, so ties go
+// to the lower index, as in a map-by-map pass.
+func (bs *bestSet) at(k int) (int, *Result) {
+	rs := bs.rs
+	if bs.allSolved && len(rs) > 0 && rs[0][k].Class == Outside {
+		// Outside the envelope, so Outside in every map Solve made on
+		// this grid.
+		return -1, nil
 	}
-	forRanges(n, func(lo, hi int) {
-		for k := lo; k < hi; k++ {
-			if allSolved && len(rs) > 0 && rs[0][k].Class == Outside {
-				// Outside the envelope, so Outside in every map Solve made
-				// on this grid.
-				idx[k] = -1
-				continue
-			}
-			w, wRank := -1, 0
-			var wr *Result
-			for u := range rs {
-				r := &rs[u][k]
-				if r.Class == Outside {
-					continue
-				}
-				// better(r, wr), with the winner's rank kept
-				rank := r.Class.Rank()
-				if w < 0 || rank < wRank || (rank == wRank && closerToOne(r.ReRatio, wr.ReRatio)) {
-					w, wr, wRank = u, r, rank
-				}
-			}
-			if w < 0 {
-				idx[k] = -1
-				continue
-			}
-			idx[k], best[k] = at[w], *wr
+	w, wRank := -1, 0
+	var wr *Result
+	for u := range rs {
+		r := &rs[u][k]
+		if r.Class == Outside {
+			continue
 		}
+		// better(r, wr), with the winner's rank kept
+		rank := r.Class.Rank()
+		if w < 0 || rank < wRank || (rank == wRank && closerToOne(r.ReRatio, wr.ReRatio)) {
+			w, wr, wRank = u, r, rank
+		}
+	}
+	return w, wr
+}
+
+// shares counts the winners per class without keeping them (a point
+// without one counts as Outside, as Best's zero result does).
+func (bs *bestSet) shares() Shares {
+	s := Shares{Total: bs.n}
+	var mu sync.Mutex
+	forRanges(bs.n, func(lo, hi int) {
+		var n [NumClasses]int
+		for k := lo; k < hi; k++ {
+			c := Outside
+			if w, wr := bs.at(k); w >= 0 {
+				c = wr.Class
+			}
+			if int(c) < NumClasses {
+				n[c]++
+			}
+		}
+		mu.Lock()
+		for c := range n {
+			s.Count[c] += n[c]
+		}
+		mu.Unlock()
 	})
-	return idx, best
+	s.Inside = s.Total - s.Count[Outside]
+	return s
 }
 
 // forRanges calls work(lo, hi) for consecutive ranges covering 0..n-1,
@@ -132,13 +191,14 @@ func forRanges(n int, work func(lo, hi int)) {
 
 // UnionCoverage is the fraction of inside points that at least one of the
 // maps matches (full match or Mach relaxed); maps must share one grid.
-func UnionCoverage(maps []*Map) float64 {
-	_, best := Best(maps)
-	return sharesOf(best).Matched()
-}
+func UnionCoverage(maps []*Map) float64 { return BestShares(maps).Matched() }
 
-// BestShares counts the best results of Best per class.
+// BestShares counts the best results of Best per class (without making
+// Best's arrays: a coverage report of a large grid keeps less at once).
 func BestShares(maps []*Map) Shares {
-	_, best := Best(maps)
-	return sharesOf(best)
+	bs, ok := newBestSet(maps)
+	if !ok {
+		return sharesOf(nil)
+	}
+	return bs.shares()
 }

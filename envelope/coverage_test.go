@@ -84,6 +84,20 @@ func TestUnionOfRealMaps(t *testing.T) {
 		}
 	}
 	idx, best := Best(maps)
+	// BestShares counts without Best's arrays: the same counts as the
+	// winners Best keeps, with the points no map has inside as Outside.
+	want := Shares{Total: len(best)}
+	for k, r := range best {
+		if idx[k] < 0 {
+			want.Count[Outside]++
+			continue
+		}
+		want.Count[r.Class]++
+	}
+	want.Inside = want.Total - want.Count[Outside]
+	if got := BestShares(maps); got != want {
+		t.Errorf("BestShares = %+v, want the counts of Best's winners %+v", got, want)
+	}
 	for k, r := range best {
 		if idx[k] < 0 {
 			continue

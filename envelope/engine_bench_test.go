@@ -208,7 +208,17 @@ func BenchmarkDemoSolve400(b *testing.B) {
 					b.Fatal(err)
 				}
 			}
+			reportPerPoint(b, g)
 		})
+	}
+}
+
+// reportPerPoint adds the time per grid point (ns/point, wall time with
+// every processor): read it against atmos BenchmarkBareMath/exp-or-pow
+// (one core) measured in the same run.
+func reportPerPoint(b *testing.B, g *Grid) {
+	if b.N > 0 {
+		b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(g.Rows()*g.Cols()), "ns/point")
 	}
 }
 
@@ -261,5 +271,7 @@ func BenchmarkDemoDeltaT400(b *testing.B) {
 			}
 			Best(maps)
 		}
+		g, _ := NewGrid(v, s)
+		reportPerPoint(b, g)
 	})
 }

@@ -55,16 +55,36 @@ func (sv *gasSolver) relaxFor(mf, target float64, aux *pointAux) (pick gasPick, 
 		return gasPick{}, false, false
 	}
 	var top *gasPick
+	var pre *sampledRange
 	if aux != nil {
 		if !aux.relaxDone {
 			aux.relaxDone = true
 			aux.relaxTop, aux.relaxOK = sv.maxOver(lo, hi)
+			aux.relaxSamples = sv.sampleRange(lo, hi)
 		}
 		if aux.relaxOK {
 			top = &aux.relaxTop
 		}
+		pre = &aux.relaxSamples
 	}
-	return sv.searchMach(lo, hi, mf, target, top)
+	return sv.searchMach(lo, hi, mf, target, top, pre)
+}
+
+// sampledRange is the Mach samples of a range (machSamples) with the
+// bounds at each: they do not depend on the point, so a Solve worker
+// makes them once for the relaxed range.
+type sampledRange struct {
+	ms []float64
+	b  []gasBounds
+}
+
+func (sv *gasSolver) sampleRange(lo, hi float64) sampledRange {
+	ms := machSamples(lo, hi, nil)
+	r := sampledRange{ms: ms, b: make([]gasBounds, len(ms))}
+	for k, M := range ms {
+		r.b[k] = sv.bounds(M)
+	}
+	return r
 }
 
 // machBand is the range of facility Mach numbers that match flight Mach
@@ -90,10 +110,13 @@ func (sv *gasSolver) machBand(mf float64) (lo, hi float64, ok bool) {
 // nearest Mach number that reaches.
 //
 // top, when not nil, is maxOver(lo, hi) already known; the search then
-// skips what it can. If no Mach number reaches target, pick is that
+// skips what it can. pre, when not nil, is sampleRange(lo, hi). The
+// samples are tried nearest m0 first (at equal distances the lower), so
+// the search stops at the first that reaches: the one the whole scan
+// would pick. If no Mach number reaches target, pick is that
 // highest setting and hit is false; found is false when no Mach number in
 // the range is usable.
-func (sv *gasSolver) searchMach(lo, hi, m0, target float64, top *gasPick) (pick gasPick, found, hit bool) {
+func (sv *gasSolver) searchMach(lo, hi, m0, target float64, top *gasPick, pre *sampledRange) (pick gasPick, found, hit bool) {
 	m0 = min(max(m0, lo), hi)
 	reaches := func(M float64) (gasBounds, bool) {
 		b := sv.bounds(M)
@@ -106,15 +129,15 @@ func (sv *gasSolver) searchMach(lo, hi, m0, target float64, top *gasPick) (pick 
 	if top != nil && top.re < target*(1-solveSlack) {
 		return *top, true, false
 	}
-	nearest, nearestD := math.NaN(), math.Inf(1)
 	var samples [machSampleCap]float64
-	for _, M := range machSamples(lo, hi, samples[:0]) {
-		if _, yes := reaches(M); yes {
-			if d := math.Abs(M - m0); d < nearestD {
-				nearest, nearestD = M, d
-			}
-		}
+	var ms []float64
+	var bs []gasBounds
+	if pre != nil {
+		ms, bs = pre.ms, pre.b
+	} else {
+		ms = machSamples(lo, hi, samples[:0])
 	}
+	nearest := sv.nearestReaching(ms, bs, m0, target)
 	if math.IsNaN(nearest) {
 		if top == nil {
 			t, ok := sv.maxOver(lo, hi)
@@ -142,6 +165,36 @@ func (sv *gasSolver) searchMach(lo, hi, m0, target float64, top *gasPick) (pick 
 	}
 	b := sv.bounds(pass)
 	return sv.relaxAt(&b, target), true, true
+}
+
+// nearestReaching is the sample of ms nearest m0 (at equal distances the
+// lower) whose best setting reaches target, NaN when none does; bs, when
+// not nil, holds the bounds at each sample. The samples at or below m0
+// (down from i) and above it (up from j) are taken merged by distance, so
+// the first that reaches is the answer.
+func (sv *gasSolver) nearestReaching(ms []float64, bs []gasBounds, m0, target float64) float64 {
+	j := 0
+	for j < len(ms) && ms[j] <= m0 {
+		j++
+	}
+	for i := j - 1; i >= 0 || j < len(ms); {
+		var k int
+		if j >= len(ms) || (i >= 0 && m0-ms[i] <= ms[j]-m0) {
+			k, i = i, i-1
+		} else {
+			k, j = j, j+1
+		}
+		var b gasBounds
+		if bs != nil {
+			b = bs[k]
+		} else {
+			b = sv.bounds(ms[k])
+		}
+		if _, yes := sv.tryHit(&b, target); yes {
+			return ms[k]
+		}
+	}
+	return math.NaN()
 }
 
 // machSampleCap bounds the number of Mach samples of one search: the whole

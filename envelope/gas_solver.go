@@ -154,6 +154,7 @@ type pointAux struct {
 	// computed once per worker (relaxDone).
 	relaxTop           gasPick
 	relaxOK, relaxDone bool
+	relaxSamples       sampledRange // the relaxed range's samples with their bounds
 }
 
 // colMemo holds values a Solve worker computed for one grid column, each
@@ -175,6 +176,7 @@ type colMemo struct {
 	outM   float64
 	outLim Limit
 	out    bool
+	outRes Result // what such a point gets (when out)
 	// bandRe is bandTopRe of flight Mach number bandM (NaN: none yet).
 	bandM, bandRe float64
 }
@@ -214,15 +216,21 @@ func (sv *gasSolver) solveRows(m *Map, i0, i1 int, w *gasWorker) (n [NumClasses]
 		for j := range cols {
 			r := &g.points[base+j]
 			if r.excl != InEnvelope {
+				if m.reused {
+					m.Results[base+j] = Result{} // Outside
+				}
 				continue
 			}
 			c := &w.cols[j]
 			if c.outM != r.mach {
 				c.outM = r.mach
 				c.outLim, c.out = sv.outOfRange(r.mach)
+				if c.out {
+					c.outRes = Result{Class: NoMatch, Limit: c.outLim, Flags: m.sizeFlag(m.sizeMach(r.mach, false, 0))}
+				}
 			}
 			if c.out {
-				m.Results[base+j] = Result{Class: NoMatch, Limit: c.outLim, Flags: m.sizeFlag(m.sizeMach(r.mach, false, 0))}
+				m.Results[base+j] = c.outRes
 				n[NoMatch]++
 				continue
 			}
@@ -750,7 +758,7 @@ func (sv *gasSolver) fullMatch(ps *pointSol, at *atMatch, mm, mf, tFlight float6
 	if sv.mTol > 0 && sv.bandTopRe(mf, col) >= need {
 		lo, hi, _ := sv.machBand(mf)
 		if top, ok := sv.maxOver(lo, hi); ok {
-			pick, _, _ := sv.searchMach(lo, hi, mm, target, &top)
+			pick, _, _ := sv.searchMach(lo, hi, mm, target, &top, nil)
 			ps.class = FullMatch
 			sv.useSearched(ps, &pick, mf, tFlight)
 			return true

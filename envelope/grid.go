@@ -1,6 +1,7 @@
 package envelope
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -128,7 +129,9 @@ type Grid struct {
 	points  []flightRec   // per point, Index(i, j)
 	inside  int
 	maxMach float64 // highest inside flight Mach number (0 when none)
-
+	// reused: points is an array handed in (NewGridReusing), cleared
+	// point by point as it is filled; a new one is zero already.
+	reused bool
 }
 
 // NewGrid evaluates the flight side of vehicle v on its grid: the
@@ -144,6 +147,16 @@ type Grid struct {
 // converting every point; the answer is the same. Settings supply the day (DeltaT) and the
 // regime thresholds (zero Regimes means atmos.DefaultRegimes).
 func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
+	return NewGridReusing(context.Background(), v, s, nil)
+}
+
+// NewGridReusing is NewGrid keeping the points in the array of old when
+// it holds enough (every point is written), so that an interface making
+// grid after grid need not allocate, clear and collect a new one each
+// time. old must not be used by anything else any more (nil: a new array).
+// When ctx ends first (a newer what-if made this grid stale) it stops
+// between blocks of rows and returns ctx's error.
+func NewGridReusing(ctx context.Context, v *Vehicle, s Settings, old *Grid) (*Grid, error) {
 	if v == nil {
 		return nil, errors.New("grid: no vehicle")
 	}
@@ -188,17 +201,23 @@ func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 		DeltaT:    s.DeltaT,
 		Regimes:   reg,
 		rows:      make([]atmos.State, len(alts)),
-		points:    make([]flightRec, len(alts)*len(speeds)),
+	}
+	if n := len(alts) * len(speeds); old != nil && cap(old.points) >= n {
+		g.points, g.reused = old.points[:n], true
+	} else {
+		g.points = make([]flightRec, n)
 	}
 	// Rows are independent: they are evaluated side by side in blocks,
 	// each point written to its own slot, so the grid is the same as a
 	// row-by-row evaluation. The first failing row (lowest index) is
 	// reported.
 	acc := rowsAcc{errRow: -1}
-	forRowBlocks(len(alts), len(speeds), func() func(i0, i1 int) {
+	if !forRowBlocksUntil(ctx, len(alts), len(speeds), func() func(i0, i1 int) {
 		var spans []envSpan // scratch space of one worker
 		return func(i0, i1 int) { g.evalRows(i0, i1, s.DeltaT, &spans, &acc) }
-	})
+	}) {
+		return nil, ctx.Err()
+	}
 	if acc.errRow >= 0 {
 		return nil, fmt.Errorf("grid for %q: row %d: %w", v.Name, acc.errRow, acc.err)
 	}
@@ -241,6 +260,9 @@ func (g *Grid) evalRows(i0, i1 int, dT float64, spans *[]envSpan, acc *rowsAcc) 
 		row := g.points[i*cols : (i+1)*cols]
 		for j, sp := range g.Speeds {
 			r := &row[j]
+			if g.reused {
+				*r = flightRec{} // evalInto fills in a zero record
+			}
 			g.evalInto(r, sp, &st, &rl)
 			if r.excl == InEnvelope {
 				inside++
@@ -270,11 +292,18 @@ const (
 // its work function from newWorker, once, so that it can keep scratch
 // space of its own.
 func forRowBlocks(rows, cols int, newWorker func() func(i0, i1 int)) {
+	forRowBlocksUntil(context.Background(), rows, cols, newWorker)
+}
+
+// forRowBlocksUntil is forRowBlocks that takes no new block once ctx has
+// ended; it reports whether every block was done.
+func forRowBlocksUntil(ctx context.Context, rows, cols int, newWorker func() func(i0, i1 int)) bool {
 	workers := runtime.GOMAXPROCS(0)
 	if workers < 2 || rows < 2 || rows*cols < parallelMin {
 		newWorker()(0, rows)
-		return
+		return ctx.Err() == nil
 	}
+	var stopped atomic.Bool
 	workers = min(workers, rows)
 	size := max(1, rows/(workers*blocksPerWorker))
 	var next atomic.Int64
@@ -287,11 +316,16 @@ func forRowBlocks(rows, cols int, newWorker func() func(i0, i1 int)) {
 				if i0 >= rows {
 					return
 				}
+				if ctx.Err() != nil {
+					stopped.Store(true)
+					return
+				}
 				work(i0, min(i0+size, rows))
 			}
 		})
 	}
 	wg.Wait()
+	return !stopped.Load()
 }
 
 // rowLimits is the envelope on one altitude row expressed in the grid's

@@ -373,3 +373,76 @@ func TestWaterAtSectionPressure(t *testing.T) {
 		t.Fatal("no Wenlow point with settings")
 	}
 }
+
+// TestNearestReachingIsNearestOfAll: the search tries the Mach samples
+// nearest first and stops at the first that reaches; that must be the
+// sample a scan of all of them picks (the least distance from m0, at equal
+// distances the lower Mach number), with and without the bounds made
+// beforehand. Every demo gas facility over the relaxed range and a band,
+// at starting Mach numbers across the range (ends, samples, midpoints
+// and points exactly between two samples) and targets from below the
+// lowest to above the highest reachable Reynolds number.
+func TestNearestReachingIsNearestOfAll(t *testing.T) {
+	v, facs, err := Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := DefaultSettings(v)
+	g, err := NewGrid(v, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	checked := 0
+	for k := range facs {
+		if facs[k].Medium == MediumWater {
+			continue
+		}
+		m, err := Solve(g, &facs[k], s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		sv := m.sv.(*gasSolver)
+		ranges := [][2]float64{{sv.lim.MachMin, math.Min(sv.lim.MachMax, sv.compMach)},
+			{sv.lim.MachMin, sv.lim.MachMin + 0.0137}, {sv.lim.MachMin, sv.lim.MachMax}}
+		for _, r := range ranges {
+			lo, hi := r[0], r[1]
+			if !(hi > lo) {
+				continue
+			}
+			pre := sv.sampleRange(lo, hi)
+			top, ok := sv.maxOver(lo, hi)
+			if !ok {
+				continue
+			}
+			for _, frac := range []float64{0, 0.001, 0.25, 0.5, 0.618, 0.99, 1} {
+				for _, tf := range []float64{0.05, 0.3, 0.7, 0.95, 1, 1.2} {
+					target := tf * top.re
+					for _, m0 := range []float64{lo + frac*(hi-lo), 0.5 * (pre.ms[len(pre.ms)/2] + pre.ms[len(pre.ms)/2-1])} {
+						// The whole scan, ascending, keeping the first of
+						// the least distance.
+						want, wantD := math.NaN(), math.Inf(1)
+						for _, M := range pre.ms {
+							b := sv.bounds(M)
+							if _, yes := sv.tryHit(&b, target); yes {
+								if d := math.Abs(M - m0); d < wantD {
+									want, wantD = M, d
+								}
+							}
+						}
+						for _, bs := range [][]gasBounds{nil, pre.b} {
+							got := sv.nearestReaching(pre.ms, bs, m0, target)
+							if !(got == want || math.IsNaN(got) && math.IsNaN(want)) {
+								t.Errorf("%s range %g–%g m0 %g target %g: nearest %v, whole scan %v",
+									facs[k].Name, lo, hi, m0, target, got, want)
+							}
+						}
+						checked++
+					}
+				}
+			}
+		}
+	}
+	if checked < 100 {
+		t.Fatalf("only %d cases checked", checked)
+	}
+}

@@ -1,6 +1,7 @@
 package envelope
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"reflect"
@@ -46,6 +47,11 @@ type Map struct {
 	// points outside the envelope, with shares counted while solving.
 	solved bool
 	shares Shares
+	// reused: Results was handed in (SolveReusing), so outside points are
+	// written too; a new array is left zero (Outside) there, so that its
+	// pages outside the envelope are never touched (a coverage report of
+	// a large grid keeps less resident).
+	reused bool
 }
 
 // Detail is the full-precision facility answer for one grid point.
@@ -145,6 +151,17 @@ type Detail struct {
 // s.Scale if set, else the facility's Model.Scale, else the largest that
 // fits (FitScale).
 func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
+	return SolveReusing(context.Background(), g, f, s, nil)
+}
+
+// SolveReusing is Solve writing the results into buf when it holds enough
+// (every point is written, outside ones too), so that a caller solving
+// again and again (the interface's what-ifs) need not allocate, clear and
+// collect a new array each time. buf must not be used by anything else
+// any more; with a nil or short buf a new array is made. When ctx ends
+// first (a newer what-if made this map stale) it stops between blocks of
+// rows and returns ctx's error.
+func SolveReusing(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Result) (*Map, error) {
 	if g == nil || f == nil {
 		return nil, errors.New("solve: need a grid and a facility")
 	}
@@ -171,13 +188,17 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 	sv.setModelLength(m.Scale * g.Vehicle.RefLength)
 	m.LoadQ = m.loads.qCap(m.Scale)
 	sv.setLoadCap(m.LoadQ)
-	m.Results = make([]Result, len(g.points))
+	if cap(buf) >= len(g.points) {
+		m.Results, m.reused = buf[:len(g.points)], true
+	} else {
+		m.Results = make([]Result, len(g.points))
+	}
 	cols := len(g.Speeds)
 	// Points are independent: blocks of rows are solved side by side, each
 	// result written to its own slot, so the map is the same as a
 	// point-by-point solve.
 	var mu sync.Mutex // guards m.shares while workers add their counts
-	forRowBlocks(len(g.Alts), cols, func() func(i0, i1 int) {
+	done := forRowBlocksUntil(ctx, len(g.Alts), cols, func() func(i0, i1 int) {
 		solveRows := sv.rowSolver(cols)
 		return func(i0, i1 int) {
 			n := solveRows(m, i0, i1)
@@ -188,6 +209,9 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 			mu.Unlock()
 		}
 	})
+	if !done {
+		return nil, ctx.Err()
+	}
 	m.shares.Total = len(m.Results)
 	m.shares.Inside = g.inside
 	m.shares.Count[Outside] = m.shares.Total - m.shares.Inside

@@ -115,6 +115,9 @@ func (sv *waterSolver) rowSolver(cols int) func(m *Map, i0, i1 int) [NumClasses]
 			for j := range cols {
 				r := &g.points[base+j]
 				if r.excl != InEnvelope {
+					if m.reused {
+						m.Results[base+j] = Result{} // Outside
+					}
 					continue
 				}
 				if !(r.mach < sv.compMach) {

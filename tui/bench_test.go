@@ -79,9 +79,15 @@ func reportTarget(b *testing.B) {
 // facility), with the recompute run in the command as the runtime would
 // run it. Compare the x16ms metrics of one run.
 func BenchmarkKeyToFrame(b *testing.B) {
-	base := bigDemo(b, 200, 60)
+	// A model of its own per part, reusing replaced arrays as Run does
+	// (a copy of a model with arrays must not be driven beside it).
+	fresh := func() Model {
+		m := bigDemo(b, 200, 60)
+		m.arrays = newArrays()
+		return m
+	}
 	b.Run("move", func(b *testing.B) {
-		m := base
+		m := fresh()
 		keys := []tea.Msg{keyMsg("right"), keyMsg("left")}
 		b.ResetTimer()
 		for k := range b.N {
@@ -92,14 +98,14 @@ func BenchmarkKeyToFrame(b *testing.B) {
 	})
 	for _, fc := range []string{"Aldmoor", "Bracken Ness", "Harl Cove", "Kellen Fold", "Skerrow", "Wenlow"} {
 		b.Run("p0max/"+fc, func(b *testing.B) {
-			m := base
+			m := fresh()
 			m.fac = facilityNamed(b, m, fc)
 			p0 := m.facs[m.fac].PressureMax()
 			lower := max(0.9*p0, 0.5*(m.facs[m.fac].PressureMin()+p0)) // stays above P0Min
 			benchEdit(b, m, whatif.P0Max, units.Sig(lower/1000, 4)+" kPa", units.Sig(p0/1000, 4)+" kPa")
 		})
 	}
-	b.Run("deltaT", func(b *testing.B) { benchEdit(b, base, whatif.DeltaT, "5 K", "0 K") })
+	b.Run("deltaT", func(b *testing.B) { benchEdit(b, fresh(), whatif.DeltaT, "5 K", "0 K") })
 }
 
 // benchEdit times enter on the what-if line of field f, holding each of

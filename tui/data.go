@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"context"
 	"fmt"
 	"runtime"
 	"sync"
@@ -26,17 +27,19 @@ type results struct {
 	errs     []error // per facility: why it has no map (nil map)
 }
 
-// computeGrid evaluates the flight side and every facility.
-func computeGrid(v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings) (results, error) {
-	g, err := envelope.NewGrid(v, s)
+// computeGrid evaluates the flight side and every facility, in arrays
+// from pool where it has them (nil: new arrays).
+func computeGrid(ctx context.Context, v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
+	g, err := envelope.NewGridReusing(ctx, v, s, pool.takeGrid())
 	if err != nil {
 		return results{}, err
 	}
-	return solveAll(g, facs, s)
+	return solveAll(ctx, g, facs, s, pool)
 }
 
-// solveAll solves every facility on an existing grid.
-func solveAll(g *envelope.Grid, facs []envelope.Facility, s envelope.Settings) (results, error) {
+// solveAll solves every facility on an existing grid. When ctx ends
+// first (the results are stale) it returns ctx's error.
+func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
 	r := results{grid: g, maps: make([]*envelope.Map, len(facs)), errs: make([]error, len(facs))}
 	// Facilities are independent: Solve only reads the grid, so they run
 	// side by side.
@@ -47,20 +50,23 @@ func solveAll(g *envelope.Grid, facs []envelope.Facility, s envelope.Settings) (
 			defer wg.Done()
 			// One facility that cannot be solved (no model scale, say)
 			// leaves the others usable.
-			r.maps[k], r.errs[k] = envelope.Solve(g, &facs[k], s)
+			r.maps[k], r.errs[k] = envelope.SolveReusing(ctx, g, &facs[k], s, pool.takeResults(g.Rows()*g.Cols()))
 		}()
 	}
 	wg.Wait()
-	r.summarise(nil, -1)
+	if err := ctx.Err(); err != nil {
+		return r, err
+	}
+	r.summarise(nil, -1, pool)
 	return r, nil
 }
 
 // solveOne re-solves facility k only, keeping the other maps of prev.
-func solveOne(prev results, facs []envelope.Facility, s envelope.Settings, k int) (results, error) {
+func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s envelope.Settings, k int, pool *arrays) (results, error) {
 	if prev.grid == nil || k < 0 || k >= len(facs) || len(prev.maps) != len(facs) {
-		return solveAll(prev.grid, facs, s)
+		return solveAll(ctx, prev.grid, facs, s, pool)
 	}
-	m, err := envelope.Solve(prev.grid, &facs[k], s)
+	m, err := envelope.SolveReusing(ctx, prev.grid, &facs[k], s, pool.takeResults(prev.grid.Rows()*prev.grid.Cols()))
 	if err != nil {
 		return results{}, fmt.Errorf("%s: %w", facs[k].Name, err)
 	}
@@ -71,13 +77,14 @@ func solveOne(prev results, facs []envelope.Facility, s envelope.Settings, k int
 	}
 	r.maps[k] = m
 	r.errs[k] = nil
-	r.summarise(&prev, k)
+	r.summarise(&prev, k, pool)
 	return r, nil
 }
 
-// summarise fills the best-of-all arrays and the coverage shares. With
-// prev given, the shares of every map but changed are taken from it.
-func (r *results) summarise(prev *results, changed int) {
+// summarise fills the best-of-all arrays (in arrays from pool where it
+// has them) and the coverage shares. With prev given, the shares of every
+// map but changed are taken from it.
+func (r *results) summarise(prev *results, changed int, pool *arrays) {
 	if r.grid == nil {
 		return
 	}
@@ -100,25 +107,58 @@ func (r *results) summarise(prev *results, changed int) {
 	if solved == 0 {
 		return
 	}
-	if prev == nil || changed < 0 || !r.incrementalBest(prev, changed) {
-		r.best, r.bestRes = BestOfAll(r.maps)
+	var c bestCounts
+	ok := prev != nil && changed >= 0
+	if ok {
+		c, ok = r.incrementalBest(prev, changed, pool)
 	}
-	var n, full, inside int
-	for _, res := range r.bestRes {
-		if res.Class != envelope.Outside {
-			inside++
-		}
-		if res.Class.Matched() {
-			n++
-		}
-		if res.Class == envelope.FullMatch {
-			full++
-		}
+	if !ok {
+		n := r.grid.Rows() * r.grid.Cols()
+		r.best, r.bestRes = bestOfAllInto(r.maps, pool.takeInts(n), pool.takeResults(n))
+		c = byParts(len(r.bestRes), func(lo, hi int) (c bestCounts) {
+			for p := lo; p < hi; p++ {
+				c.add(&r.bestRes[p])
+			}
+			return c
+		})
 	}
-	if inside > 0 {
-		r.union = float64(n) / float64(inside)
-		r.bestFull = float64(full) / float64(inside)
+	if c.inside > 0 {
+		r.union = float64(c.matched) / float64(c.inside)
+		r.bestFull = float64(c.full) / float64(c.inside)
 	}
+}
+
+// bestCounts counts the best-of-all answers: inside the envelope,
+// matched, full match.
+type bestCounts struct{ inside, matched, full int }
+
+func (c *bestCounts) add(res *envelope.Result) {
+	if res.Class != envelope.Outside {
+		c.inside++
+	}
+	if res.Class.Matched() {
+		c.matched++
+	}
+	if res.Class == envelope.FullMatch {
+		c.full++
+	}
+}
+
+// byParts splits points 0..n-1 over the processors (points are
+// independent) and adds up what each part counts.
+func byParts(n int, part func(lo, hi int) bestCounts) bestCounts {
+	parts := min(runtime.GOMAXPROCS(0), 8)
+	counts := make([]bestCounts, parts)
+	var wg sync.WaitGroup
+	for c := range parts {
+		wg.Go(func() { counts[c] = part(c*n/parts, (c+1)*n/parts) })
+	}
+	wg.Wait()
+	var sum bestCounts
+	for _, c := range counts {
+		sum.inside, sum.matched, sum.full = sum.inside+c.inside, sum.matched+c.matched, sum.full+c.full
+	}
+	return sum
 }
 
 // incrementalBest updates the best-of-all arrays of prev after facility k
@@ -126,61 +166,69 @@ func (r *results) summarise(prev *results, changed int) {
 // answer of k beats it, and points k used to win are decided afresh. The
 // outcome equals envelope.Best (ties go to the lower facility index). It
 // reports false when prev cannot be reused.
-func (r *results) incrementalBest(prev *results, k int) bool {
+func (r *results) incrementalBest(prev *results, k int, pool *arrays) (bestCounts, bool) {
 	n := len(r.grid.Alts) * len(r.grid.Speeds)
 	if prev.grid != r.grid || len(prev.best) != n || len(prev.maps) != len(r.maps) || r.maps[k] == nil {
-		return false
+		return bestCounts{}, false
 	}
 	for j, m := range r.maps {
 		if m == nil || len(m.Results) != n || (j != k && prev.maps[j] != m) {
-			return false
+			return bestCounts{}, false
 		}
 	}
-	best := append([]int(nil), prev.best...)
-	bestRes := append([]envelope.Result(nil), prev.bestRes...)
+	best := pool.takeInts(n)
+	bestRes := pool.takeResults(n)
+	if best == nil {
+		best = make([]int, n)
+	}
+	if bestRes == nil {
+		bestRes = make([]envelope.Result, n)
+	}
+	best, bestRes = best[:n], bestRes[:n]
 	newK := r.maps[k].Results
-	update := func(lo, hi int) {
+	prevBest, prevRes := prev.best, prev.bestRes
+	var none envelope.Result
+	update := func(lo, hi int) (c bestCounts) {
 		for p := lo; p < hi; p++ {
-			nk := newK[p]
-			if nk.Class == envelope.Outside {
-				continue
-			}
-			w := best[p]
+			w, wr := prevBest[p], &prevRes[p]
+			nk := &newK[p]
 			switch {
+			case nk.Class == envelope.Outside:
+				// as before
+			case w == k && !envelope.Better(*wr, *nk):
+				// k won and its new answer is at least as good as the
+				// old one: Better orders answers by one key (class
+				// rank, then the ratio's distance from 1), so it still
+				// beats every map the old one beat and ties those it
+				// tied.
+				wr = nk
 			case w == k || w < 0:
-				// k was the winner (or none was): decide the point again.
-				bi, br := -1, envelope.Result{}
+				// k's answer got worse (or no map had won): decide the
+				// point again.
+				w, wr = -1, &none
 				for j, m := range r.maps {
-					res := m.Results[p]
+					res := &m.Results[p]
 					if res.Class == envelope.Outside {
 						continue
 					}
-					if bi < 0 || envelope.Better(res, br) {
-						bi, br = j, res
+					if w < 0 || envelope.Better(*res, *wr) {
+						w, wr = j, res
 					}
 				}
-				best[p], bestRes[p] = bi, br
-			case envelope.Better(nk, bestRes[p]):
-				best[p], bestRes[p] = k, nk
-			case k < w && !envelope.Better(bestRes[p], nk):
+			case envelope.Better(*nk, *wr):
+				w, wr = k, nk
+			case k < w && !envelope.Better(*wr, *nk):
 				// a tie goes to the lower index
-				best[p], bestRes[p] = k, nk
+				w, wr = k, nk
 			}
+			best[p], bestRes[p] = w, *wr
+			c.add(wr)
 		}
+		return c
 	}
-	// Points are independent: split them over the processors.
-	parts := min(runtime.GOMAXPROCS(0), 8)
-	var wg sync.WaitGroup
-	for c := range parts {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			update(c*n/parts, (c+1)*n/parts)
-		}()
-	}
-	wg.Wait()
+	c := byParts(n, update)
 	r.best, r.bestRes = best, bestRes
-	return true
+	return c, true
 }
 
 // result returns the facility answer at (i, j) for facility fac (-1 =

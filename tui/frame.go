@@ -33,7 +33,7 @@ func clip(s string, w, h int) string {
 		lines = lines[:h]
 	}
 	for i, l := range lines {
-		if ansi.StringWidth(l) > w {
+		if visibleWidth(l) > w {
 			lines[i] = ansi.Truncate(l, w, "")
 		}
 	}
@@ -46,14 +46,23 @@ func box(s string, w, h int) string {
 	if w <= 0 || h <= 0 {
 		return ""
 	}
-	lines := strings.Split(clip(s, w, h), "\n")
+	lines := strings.Split(s, "\n")
+	if len(lines) > h {
+		lines = lines[:h]
+	}
 	for len(lines) < h {
 		lines = append(lines, "")
 	}
 	for i, l := range lines {
-		if n := ansi.StringWidth(l); n < w {
-			lines[i] = l + strings.Repeat(" ", w-n)
+		n := visibleWidth(l)
+		if n > w {
+			l = ansi.Truncate(l, w, "")
+			n = visibleWidth(l)
 		}
+		if n < w {
+			l += strings.Repeat(" ", w-n)
+		}
+		lines[i] = l
 	}
 	return strings.Join(lines, "\n")
 }
@@ -66,8 +75,37 @@ func lineCount(s string) int {
 	return strings.Count(s, "\n") + 1
 }
 
-// visibleWidth is the display width of s without escape sequences.
-func visibleWidth(s string) int { return ansi.StringWidth(s) }
+// visibleWidth is the display width of s without escape sequences, as
+// ansi.StringWidth gives it. A frame is measured line by line several
+// times while it is drawn, so the common case is counted directly: text
+// of printable ASCII and CSI sequences (the styles' colours) is one cell
+// a byte outside the sequences; anything else goes to ansi.StringWidth.
+func visibleWidth(s string) int {
+	n := 0
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		switch {
+		case c >= 0x20 && c < 0x7f:
+			n++
+		case c == 0x1b && i+1 < len(s) && s[i+1] == '[':
+			// CSI: parameter and intermediate bytes, then a final byte.
+			j := i + 2
+			for j < len(s) && s[j] >= 0x30 && s[j] <= 0x3f {
+				j++
+			}
+			for j < len(s) && s[j] >= 0x20 && s[j] <= 0x2f {
+				j++
+			}
+			if j >= len(s) || s[j] < 0x40 || s[j] > 0x7e {
+				return ansi.StringWidth(s)
+			}
+			i = j
+		default:
+			return ansi.StringWidth(s)
+		}
+	}
+	return n
+}
 
 // wrapText wraps s to lines of at most w cells (see wrapLines).
 func wrapText(s string, w int) string { return strings.Join(wrapLines(s, w, ""), "\n") }

@@ -42,7 +42,11 @@ type GridView struct {
 
 // BestOfAll is envelope.Best over the solved maps (nil entries skipped),
 // with facility indices into maps.
-func BestOfAll(maps []*envelope.Map) ([]int, []envelope.Result) {
+func BestOfAll(maps []*envelope.Map) ([]int, []envelope.Result) { return bestOfAllInto(maps, nil, nil) }
+
+// bestOfAllInto is BestOfAll made in idx and res where they hold enough
+// (envelope.BestReusing).
+func bestOfAllInto(maps []*envelope.Map, idx []int, res []envelope.Result) ([]int, []envelope.Result) {
 	var solved []*envelope.Map
 	var index []int
 	for k, m := range maps {
@@ -54,7 +58,7 @@ func BestOfAll(maps []*envelope.Map) ([]int, []envelope.Result) {
 	if len(solved) == 0 {
 		return nil, nil
 	}
-	best, res := envelope.Best(solved)
+	best, res := envelope.BestReusing(solved, idx, res)
 	for p, b := range best {
 		if b >= 0 {
 			best[p] = index[b]

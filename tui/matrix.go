@@ -63,7 +63,7 @@ func geometry(in MatrixInput, width, height int) matrixGeom {
 	g := matrixGeom{overhead: matrixOverhead}
 	g.gutter = len([]rune(in.SpeedTitle))
 	for _, s := range in.AltLabels {
-		if n := ansi.StringWidth(s); n > g.gutter {
+		if n := visibleWidth(s); n > g.gutter {
 			g.gutter = n
 		}
 	}
@@ -76,7 +76,7 @@ func geometry(in MatrixInput, width, height int) matrixGeom {
 		g.cw++
 	}
 	for _, s := range in.SpeedLabel {
-		if n := ansi.StringWidth(s); n > g.labelW {
+		if n := visibleWidth(s); n > g.labelW {
 			g.labelW = n
 		}
 	}
@@ -177,7 +177,7 @@ func matrixTitle(in MatrixInput, g matrixGeom, sr, sc, width int) string {
 	if sr > 0 || sc > 0 || g.rows < in.Rows || g.cols < in.Cols {
 		info := fmt.Sprintf("rows %d-%d/%d  cols %d-%d/%d",
 			sr+1, sr+g.rows, in.Rows, sc+1, sc+g.cols, in.Cols)
-		if pad := width - ansi.StringWidth(title) - ansi.StringWidth(info); pad >= 2 {
+		if pad := width - visibleWidth(title) - visibleWidth(info); pad >= 2 {
 			title += strings.Repeat(" ", pad) + info
 		}
 	}
@@ -327,7 +327,7 @@ func writeRuns(b *strings.Builder, line []byte, ids []int, paints []paint) {
 
 // padLeft right-aligns s in n columns (s is cut if longer).
 func padLeft(s string, n int) string {
-	w := ansi.StringWidth(s)
+	w := visibleWidth(s)
 	if w >= n {
 		return ansi.Truncate(s, max(n, 0), "")
 	}
@@ -336,7 +336,7 @@ func padLeft(s string, n int) string {
 
 // padRight left-aligns s in n columns (s is cut if longer).
 func padRight(s string, n int) string {
-	w := ansi.StringWidth(s)
+	w := visibleWidth(s)
 	if w >= n {
 		return ansi.Truncate(s, max(n, 0), "")
 	}
@@ -385,10 +385,10 @@ func wrapItems(lead string, items []string, sep string, width int) string {
 	}
 	var lines []string
 	cur := lead
-	curW := ansi.StringWidth(lead)
-	sepW := ansi.StringWidth(sep)
+	curW := visibleWidth(lead)
+	sepW := visibleWidth(sep)
 	for _, it := range items {
-		w := ansi.StringWidth(it)
+		w := visibleWidth(it)
 		if curW > 0 && curW+sepW+w > width {
 			lines = append(lines, cur)
 			cur, curW = "", 0
@@ -397,7 +397,7 @@ func wrapItems(lead string, items []string, sep string, width int) string {
 			parts := wrapLines(it, width, "  ")
 			lines = append(lines, parts[:len(parts)-1]...)
 			it = parts[len(parts)-1]
-			w = ansi.StringWidth(it)
+			w = visibleWidth(it)
 		}
 		if curW > 0 {
 			cur += sep

@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"strings"
@@ -116,6 +117,12 @@ type Model struct {
 	res      results
 	gen      int  // generation of the latest recompute request
 	busy     bool // a recompute is running
+	// arrays keeps replaced result arrays for the next recompute (set by
+	// Run only; nil: every recompute makes new ones).
+	arrays *arrays
+	// cancelRun stops the running recompute when a newer one supersedes
+	// it (nil: none running).
+	cancelRun context.CancelFunc
 	// pending is the kind of the running recompute and pendingFac its
 	// facility, so a newer request still covers what the one it
 	// supersedes would have done.
@@ -305,7 +312,7 @@ func (m *Model) evaluate(pick bool) {
 		m.setError("no vehicle loaded")
 		return
 	}
-	r, err := computeGrid(m.vehicle, m.facs, m.set)
+	r, err := computeGrid(context.Background(), m.vehicle, m.facs, m.set, nil)
 	if err != nil {
 		m.setError("evaluation failed: " + err.Error())
 		return
@@ -413,6 +420,9 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 	fac := m.fac
 	if m.busy {
 		kind, fac = mergeRecompute(m.pending, m.pendingFac, kind, fac)
+		// The running one is stale: it stops at its next block of rows
+		// and leaves both processors to this one.
+		m.stopRunning()
 	}
 	m.gen++
 	m.busy = true
@@ -423,19 +433,36 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 		return nil
 	}
 	gen := m.gen
-	v, facs, set, prev := m.vehicle, m.facs, m.set, m.res
-	return func() tea.Msg {
+	ctx, cancel := context.WithCancel(context.Background())
+	m.cancelRun = cancel
+	v, facs, set, prev, pool := m.vehicle, m.facs, m.set, m.res, m.arrays
+	pool.begin() // until onComputed takes the message
+	// The work starts now, beside the frame the runtime draws after this
+	// Update, and the command only waits for it: started by the command,
+	// it would begin only after that frame.
+	done := make(chan tea.Msg, 1)
+	go func() {
+		defer cancel()
 		var r results
 		var err error
 		switch {
 		case kind == recomputeGrid || prev.grid == nil:
-			r, err = computeGrid(v, facs, set)
+			r, err = computeGrid(ctx, v, facs, set, pool)
 		case kind == recomputeOneFac && fac >= 0:
-			r, err = solveOne(prev, facs, set, fac)
+			r, err = solveOne(ctx, prev, facs, set, fac, pool)
 		default:
-			r, err = solveAll(prev.grid, facs, set)
+			r, err = solveAll(ctx, prev.grid, facs, set, pool)
 		}
-		return computedMsg{gen: gen, res: r, err: err}
+		done <- computedMsg{gen: gen, res: r, err: err}
+	}()
+	return func() tea.Msg { return <-done }
+}
+
+// stopRunning ends the context of the running recompute, if any.
+func (m *Model) stopRunning() {
+	if m.cancelRun != nil {
+		m.cancelRun()
+		m.cancelRun = nil
 	}
 }
 
@@ -463,12 +490,14 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	case savedMsg:
 		cmd = m.onSaved(msg)
 	case viewWrittenMsg:
+		m.arrays.end()
 		if msg.err != nil {
 			m.setError("view not written: " + msg.err.Error())
 		} else {
 			m.setStatus("view written to " + msg.path)
 		}
 	case studiedMsg:
+		m.arrays.end()
 		if msg.gen == m.studyGen {
 			m.studied = msg
 		}
@@ -488,15 +517,22 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 }
 
 func (m *Model) onComputed(msg computedMsg) {
+	defer m.arrays.end()
 	if msg.gen != m.gen {
-		return // an older request; a newer one is running
+		// An older request; a newer one is running. What it made is
+		// no one's.
+		m.arrays.retire(&msg.res, &m.res)
+		return
 	}
 	m.busy = false
+	m.cancelRun = nil
 	if msg.err != nil {
 		m.setError("recompute failed: " + msg.err.Error())
 		return
 	}
+	old := m.res
 	m.res = msg.res
+	m.arrays.retire(&old, &m.res)
 	m.clampCursor()
 }
 

@@ -191,7 +191,11 @@ func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Mode
 		opts.SessionFile = sf
 	}
 	m := New(opts)
-	all := append([]tea.ProgramOption{tea.WithAltScreen(), tea.WithContext(ctx), tea.WithoutSignalHandler()}, progOpts...)
+	m.arrays = newArrays()
+	// The renderer writes the latest frame at its frame rate: at the
+	// highest it takes (120 a second) a finished recompute waits at most
+	// about 8 ms for the screen instead of 17.
+	all := append([]tea.ProgramOption{tea.WithAltScreen(), tea.WithContext(ctx), tea.WithoutSignalHandler(), tea.WithFPS(120)}, progOpts...)
 	final, err := tea.NewProgram(m, all...).Run()
 	if fm, ok := final.(Model); ok {
 		m = fm

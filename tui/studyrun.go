@@ -63,6 +63,7 @@ func (m *Model) studyCmd() tea.Cmd {
 	m.studyFor = cur
 	m.studyGen++
 	gen, others := m.studyGen, m.res.maps
+	m.arrays.begin() // until Update takes studiedMsg
 	return func() tea.Msg {
 		st, err := envelope.StudyMap(cur, others, envelope.StudyOptions{})
 		return studiedMsg{gen: gen, of: cur, fac: fac, study: st, err: err}

@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"context"
 	"math"
 	"path/filepath"
 	"strings"
@@ -564,26 +565,50 @@ func TestInputLineLimit(t *testing.T) {
 }
 
 // TestIncrementalBestMatchesBest checks the best-of-all update after a
-// single-facility edit against envelope.Best over all maps.
+// single-facility edit against envelope.Best over all maps: limits made
+// tighter (answers get worse, the winner may change), then put back one
+// by one (answers get better), on the demo grid and on a finer one.
 func TestIncrementalBestMatchesBest(t *testing.T) {
-	m := newDemo(t, 80, 24)
-	for _, name := range []string{"Harl Cove", "Kellen Fold", "Aldmoor", "Wenlow"} {
-		k := facilityNamed(t, m, name)
-		facs := append([]envelope.Facility(nil), m.facs...)
-		facs[k].SetPressureMax(facs[k].PressureMin() + 0.7*(facs[k].PressureMax()-facs[k].PressureMin()))
-		facs[k].QMax *= 0.5
-		got, err := solveOne(m.res, facs, m.set, k)
-		if err != nil {
-			t.Fatal(err)
-		}
-		wantIdx, wantRes := envelope.Best(got.maps)
-		for p := range wantIdx {
-			if got.best[p] != wantIdx[p] || got.bestRes[p] != wantRes[p] {
-				t.Fatalf("%s: point %d: best = %d %+v, want %d %+v", name, p, got.best[p], got.bestRes[p], wantIdx[p], wantRes[p])
+	fine := func(o *Options) {
+		v := *o.Vehicle
+		v.Grid.Altitude.Count, v.Grid.Altitude.Step = 150, 0
+		v.Grid.Speed.Count, v.Grid.Speed.Step = 150, 0
+		o.Vehicle = &v
+	}
+	for _, m := range []Model{newDemo(t, 80, 24), newDemo(t, 80, 24, fine)} {
+		names := []string{"Harl Cove", "Kellen Fold", "Skerrow", "Aldmoor", "Wenlow", "Bracken Ness"}
+		check := func(name string, k int, facs []envelope.Facility) {
+			t.Helper()
+			got, err := solveOne(context.Background(), m.res, facs, m.set, k, nil)
+			if err != nil {
+				t.Fatal(err)
 			}
+			wantIdx, wantRes := envelope.Best(got.maps)
+			for p := range wantIdx {
+				if got.best[p] != wantIdx[p] || got.bestRes[p] != wantRes[p] {
+					t.Fatalf("%s: point %d: best = %d %+v, want %d %+v", name, p, got.best[p], got.bestRes[p], wantIdx[p], wantRes[p])
+				}
+			}
+			sh := envelope.BestShares(got.maps)
+			if got.union != sh.Matched() || got.bestFull != sh.Share(envelope.FullMatch) {
+				t.Fatalf("%s: union %v, best full %v; want %v, %v", name, got.union, got.bestFull, sh.Matched(), sh.Share(envelope.FullMatch))
+			}
+			m.res = got
+			m.facs = facs
 		}
-		m.res = got
-		m.facs = facs
+		for _, name := range names {
+			k := facilityNamed(t, m, name)
+			facs := append([]envelope.Facility(nil), m.facs...)
+			facs[k].SetPressureMax(facs[k].PressureMin() + 0.7*(facs[k].PressureMax()-facs[k].PressureMin()))
+			facs[k].QMax *= 0.5
+			check(name+" tighter", k, facs)
+		}
+		for _, name := range names {
+			k := facilityNamed(t, m, name)
+			facs := append([]envelope.Facility(nil), m.facs...)
+			facs[k] = m.fileFacs[k]
+			check(name+" put back", k, facs)
+		}
 	}
 }
 

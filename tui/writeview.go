@@ -41,6 +41,7 @@ func (m *Model) writeView() tea.Cmd {
 		return nil
 	}
 	dir, clock := m.dumpDir, m.clock
+	m.arrays.begin() // the dump reads the results; until Update takes viewWrittenMsg
 	return func() tea.Msg {
 		path, err := WriteDumpFile(dir, in, clock())
 		return viewWrittenMsg{path: path, err: err}
