@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"context"
 	"fmt"
 	"strings"
 
@@ -141,11 +142,11 @@ func (s Shared) Compute() Shared {
 	case s.vehicle == nil:
 		err = fmt.Errorf("no vehicle loaded")
 	case s.kind == recomputeGrid || s.res.grid == nil:
-		r, err = computeGrid(s.vehicle, s.facs, s.set)
+		r, err = computeGrid(context.Background(), s.vehicle, s.facs, s.set, nil)
 	case s.kind == recomputeOneFac && s.kindFac >= 0:
-		r, err = solveOne(s.res, s.facs, s.set, s.kindFac)
+		r, err = solveOne(context.Background(), s.res, s.facs, s.set, s.kindFac, nil)
 	default:
-		r, err = solveAll(s.res.grid, s.facs, s.set)
+		r, err = solveAll(context.Background(), s.res.grid, s.facs, s.set, nil)
 	}
 	s.resFor, s.resErr = s.work, ""
 	if err != nil {
