@@ -180,17 +180,9 @@ func isTerminal(f any) bool {
 // $XDG_STATE_HOME/likewind (or ~/.local/state/likewind, created 0700)
 // named by the data's hash, so the next start on the same files finds it.
 func defaultSessionPath(hash string) (string, error) {
-	dir := os.Getenv("XDG_STATE_HOME")
-	if dir == "" {
-		home, err := os.UserHomeDir()
-		if err != nil {
-			return "", fmt.Errorf("session folder: %w", err)
-		}
-		dir = filepath.Join(home, ".local", "state")
-	}
-	dir = filepath.Join(dir, "likewind")
-	if err := os.MkdirAll(dir, 0o700); err != nil {
-		return "", fmt.Errorf("session folder: %w", err)
+	dir, err := stateDir()
+	if err != nil {
+		return "", err
 	}
 	sum := sha256.Sum256([]byte(hash))
 	return filepath.Join(dir, "session-"+hex.EncodeToString(sum[:6])+".json"), nil
