@@ -39,6 +39,10 @@ type serveOptions struct {
 // machine only.
 const defaultListen = "127.0.0.1:2290"
 
+// errFlagsPrinted is a bad flag whose message and usage the flag package
+// has printed already.
+var errFlagsPrinted = errors.New("bad flag")
+
 func parseServeFlags(args []string, stderr io.Writer) (serveOptions, error) {
 	fs := flag.NewFlagSet("likewind serve", flag.ContinueOnError)
 	fs.SetOutput(stderr)
@@ -56,20 +60,14 @@ func parseServeFlags(args []string, stderr io.Writer) (serveOptions, error) {
 		fmt.Fprintln(stderr, "\nserve options:")
 		fs.PrintDefaults()
 	}
-	rest := args
-	for {
-		if err := fs.Parse(rest); err != nil {
-			if errors.Is(err, flag.ErrHelp) {
-				return serveOptions{}, err
-			}
-			return serveOptions{}, usageError{err}
-		}
-		if fs.NArg() == 0 {
-			break
-		}
-		o.files = append(o.files, fs.Arg(0))
-		rest = fs.Args()[1:]
+	files, code := parseArgs(fs, args, stderr)
+	switch code {
+	case 0:
+		return serveOptions{}, flag.ErrHelp
+	case 2:
+		return serveOptions{}, errFlagsPrinted
 	}
+	o.files = files
 	if o.maxConns < 1 {
 		return serveOptions{}, usagef("--max-conns %d: expected at least 1", o.maxConns)
 	}
@@ -105,6 +103,9 @@ func runServe(args []string, stdout, stderr io.Writer) int {
 	o, err := parseServeFlags(args, stderr)
 	if errors.Is(err, flag.ErrHelp) {
 		return 0
+	}
+	if errors.Is(err, errFlagsPrinted) {
+		return 2
 	}
 	if err != nil {
 		fmt.Fprintln(stderr, "likewind:", err)
