@@ -282,7 +282,7 @@ func BenchmarkPressureRatio(b *testing.B) {
 func TestMassFlowParameter(t *testing.T) {
 	const tol = 1e-4 // relative; the hand values carry five figures
 	// Hand calculation, NACA Report 1135 isentropic relations, γ = 1.4, R =
-	// 287.05 J/(kg·K): √(1.4/287.05) = 0.069837; (2/2.4)^3 = 0.578704;
+	// 287.05 J/(kg·K) (U.S. Standard Atmosphere 1976: 287.053): √(1.4/287.05) = 0.069837; (2/2.4)^3 = 0.578704;
 	// product 0.040415 s·K^0.5/m, the usual "0.0404" for choked air.
 	if got := MassFlowParameter(1, 1.4, 287.05); mediaRelErr(got, 0.040415) > tol {
 		t.Errorf("MassFlowParameter(1, air) = %.6f, want 0.040415 (NACA 1135, by hand)", got)
@@ -291,7 +291,9 @@ func TestMassFlowParameter(t *testing.T) {
 	if got := MassFlowParameter(2, 1.4, 287.05); mediaRelErr(got, 0.023950) > tol {
 		t.Errorf("MassFlowParameter(2, air) = %.6f, want 0.023950 (NACA 1135, by hand)", got)
 	}
-	// Nitrogen, γ = 1.4, R = 8.314462618/0.0280134 = 296.80 J/(kg·K):
+	// Nitrogen, γ = 1.4, R = 8.314462618/0.0280134 = 296.80 J/(kg·K) (molar
+	// gas constant: CODATA 2018, exact; N2 molar mass 28.0134 g/mol from
+	// the IUPAC standard atomic weight of nitrogen, from memory):
 	// √(1.4/296.80) · 0.578704 = 0.039745 (by hand).
 	if got := MassFlowParameter(1, 1.4, 296.80); mediaRelErr(got, 0.039745) > tol {
 		t.Errorf("MassFlowParameter(1, nitrogen) = %.6f, want 0.039745 (by hand)", got)
