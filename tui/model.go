@@ -3,6 +3,7 @@ package tui
 import (
 	"context"
 	"fmt"
+	"io"
 	"math"
 	"strings"
 	"time"
@@ -75,8 +76,13 @@ type Options struct {
 	Keys   *KeyMap
 
 	// Width and Height are the size before the first resize message
-	// (default 80×24).
+	// (default 80×24). Run takes the terminal's own size where it has one.
 	Width, Height int
+
+	// Input and Output are the terminal Run reads keys from and draws on
+	// (os.Stdin and os.Stdout when nil).
+	Input  io.Reader
+	Output io.Writer
 }
 
 // mode is what has the keyboard.

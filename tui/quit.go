@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"os"
 
 	tea "github.com/charmbracelet/bubbletea"
 
@@ -190,15 +191,39 @@ func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Mode
 		defer sf.Close()
 		opts.SessionFile = sf
 	}
+	in, out := opts.Input, opts.Output
+	if in == nil {
+		in = os.Stdin
+	}
+	if out == nil {
+		out = os.Stdout
+	}
+	tt, err := openTerminal(in, out)
+	if err != nil {
+		return New(opts), err
+	}
+	defer tt.restore()
+	if w, h, ok := tt.size(); ok {
+		opts.Width, opts.Height = w, h
+	}
 	m := New(opts)
 	m.arrays = newArrays()
-	// The renderer writes the latest frame at its frame rate: at the
-	// highest it takes (120 a second) a finished recompute waits at most
-	// about 8 ms for the screen instead of 17.
-	all := append([]tea.ProgramOption{tea.WithAltScreen(), tea.WithContext(ctx), tea.WithoutSignalHandler(), tea.WithFPS(120)}, progOpts...)
-	final, err := tea.NewProgram(m, all...).Run()
-	if fm, ok := final.(Model); ok {
-		m = fm
+	// The program draws its own frames (screen.go): Bubble Tea's renderer
+	// is off, and with it its handling of the terminal, which tt does.
+	scr := newScreen(out)
+	if _, _, ok := tt.size(); ok {
+		scr.resize(opts.Width, opts.Height)
+	}
+	all := append([]tea.ProgramOption{tea.WithContext(ctx), tea.WithoutSignalHandler(), tea.WithoutRenderer(),
+		tea.WithInput(in), tea.WithOutput(out)}, progOpts...)
+	p := tea.NewProgram(drawn{m: m, scr: scr}, all...)
+	scr.enter()
+	stopSizes := tt.sendSizes(p)
+	final, err := p.Run()
+	stopSizes()
+	scr.leave()
+	if fd, ok := final.(drawn); ok {
+		m = fd.m
 	}
 	if m.WantsSave() {
 		s := m.Session()

@@ -95,7 +95,8 @@ func runOnPipe(t *testing.T, opts Options, keys string) (Model, error) {
 	}
 	done := make(chan result, 1)
 	go func() {
-		m, err := Run(ctx, opts, tea.WithInput(inR), tea.WithOutput(io.Discard))
+		opts.Input, opts.Output = inR, io.Discard
+		m, err := Run(ctx, opts)
 		done <- result{m, err}
 	}()
 	time.Sleep(200 * time.Millisecond)

@@ -192,7 +192,8 @@ func newPTYDriver(tb testing.TB, opts Options, cols, rows int) *ptyDriver {
 	d.cancel = cancel
 	go func() {
 		defer close(d.done)
-		_, _ = Run(ctx, opts, tea.WithInput(slave), tea.WithOutput(slave))
+		opts.Input, opts.Output = slave, slave
+		_, _ = Run(ctx, opts)
 	}()
 	tb.Cleanup(func() {
 		cancel()

@@ -1,0 +1,204 @@
+package tui
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"os/signal"
+	"strconv"
+	"strings"
+
+	tea "github.com/charmbracelet/bubbletea"
+	"github.com/charmbracelet/x/ansi"
+	"github.com/charmbracelet/x/term"
+)
+
+// The running program draws its own frames. Bubble Tea's renderer writes
+// the latest frame on a clock (at most 120 times a second), so a finished
+// recompute waited up to 8 ms for the screen, and while both processors
+// solved, the clock's goroutine could wait for one of them longer still.
+// Run turns that renderer off and wraps the model in a drawing model: the
+// event loop calls View right after each Update, and the wrapper writes
+// the lines of that frame that differ from the one on screen, there and
+// then, in one write.
+
+// Terminal sequences the screen uses: the alternate screen with the
+// cursor hidden while the program runs, and back on exit.
+const (
+	screenEnter = "\x1b[?1049h\x1b[?25l\x1b[2J"
+	screenLeave = "\x1b[?25h\x1b[?1049l"
+)
+
+// screen is what the terminal shows: the lines last written, and the size
+// they were written for.
+type screen struct {
+	out   io.Writer
+	lines []string
+	w, h  int
+	fresh bool // the next frame repaints every line
+	buf   []byte
+	err   error // the first failed write; later frames are not written
+}
+
+func newScreen(out io.Writer) *screen { return &screen{out: out, fresh: true} }
+
+// resize sets the terminal size; the next frame repaints everything (the
+// terminal may have moved what it showed).
+func (s *screen) resize(w, h int) {
+	s.w, s.h = w, h
+	s.fresh = true
+}
+
+// draw writes frame: each line that differs from the line on screen at
+// the same row (all of them after a resize), cut to the width and
+// cleared to the right, and clears rows the frame no longer reaches. Of a
+// frame taller than the terminal the bottom rows are shown.
+func (s *screen) draw(frame string) {
+	if s.err != nil {
+		return
+	}
+	lines := strings.Split(frame, "\n")
+	if s.h > 0 && len(lines) > s.h {
+		lines = lines[len(lines)-s.h:]
+	}
+	b := s.buf[:0]
+	if s.fresh {
+		b = append(b, "\x1b[2J"...)
+		s.lines = s.lines[:0]
+	}
+	for i, l := range lines {
+		if !s.fresh && i < len(s.lines) && s.lines[i] == l {
+			continue
+		}
+		if s.w > 0 && visibleWidth(l) > s.w {
+			l = ansi.Truncate(l, s.w, "")
+			lines[i] = l
+		}
+		b = moveTo(b, i)
+		b = append(b, l...)
+		b = append(b, "\x1b[K"...)
+	}
+	for i := len(lines); i < len(s.lines); i++ {
+		b = moveTo(b, i)
+		b = append(b, "\x1b[K"...)
+	}
+	s.fresh = false
+	s.lines = append(s.lines[:0], lines...)
+	if len(b) > 0 {
+		_, s.err = s.out.Write(b)
+	}
+	s.buf = b[:0]
+}
+
+// moveTo appends the sequence that puts the cursor at the start of row
+// (from 0).
+func moveTo(b []byte, row int) []byte {
+	b = append(b, "\x1b["...)
+	b = strconv.AppendInt(b, int64(row+1), 10)
+	return append(b, ";1H"...)
+}
+
+// drawn is the model the program runs: the interface's model, drawn to
+// the screen by View (the one place the event loop calls after every
+// Update) instead of by Bubble Tea's renderer.
+type drawn struct {
+	m   Model
+	scr *screen
+}
+
+func (d drawn) Init() tea.Cmd { return d.m.Init() }
+
+func (d drawn) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
+	if ws, ok := msg.(tea.WindowSizeMsg); ok {
+		d.scr.resize(ws.Width, ws.Height)
+	}
+	next, cmd := d.m.Update(msg)
+	d.m = next.(Model)
+	return d, cmd
+}
+
+// View writes the frame of the state it holds and gives the (turned off)
+// renderer nothing.
+func (d drawn) View() string {
+	d.scr.draw(d.m.View())
+	return ""
+}
+
+// terminal is the input and output Run uses, with what it changed of
+// them: the input's mode before the program made it raw.
+type terminal struct {
+	in     io.Reader
+	out    io.Writer
+	inFile *os.File // the input when it is a terminal
+	outFd  uintptr
+	isTerm bool // the output is a terminal (it has a size)
+	before *term.State
+}
+
+// openTerminal puts a terminal input into raw mode (keys arrive one at a
+// time, unechoed) and notes whether the output is a terminal.
+func openTerminal(in io.Reader, out io.Writer) (*terminal, error) {
+	t := &terminal{in: in, out: out}
+	if f, ok := in.(*os.File); ok && term.IsTerminal(f.Fd()) {
+		st, err := term.MakeRaw(f.Fd())
+		if err != nil {
+			return nil, fmt.Errorf("terminal input: %w", err)
+		}
+		t.inFile, t.before = f, st
+	}
+	if f, ok := out.(*os.File); ok && term.IsTerminal(f.Fd()) {
+		t.outFd, t.isTerm = f.Fd(), true
+	}
+	return t, nil
+}
+
+// size is the output terminal's size; ok is false when it has none.
+func (t *terminal) size() (w, h int, ok bool) {
+	if !t.isTerm {
+		return 0, 0, false
+	}
+	w, h, err := term.GetSize(t.outFd)
+	return w, h, err == nil && w > 0 && h > 0
+}
+
+// restore gives the input back its mode.
+func (t *terminal) restore() {
+	if t.inFile != nil && t.before != nil {
+		_ = term.Restore(t.inFile.Fd(), t.before)
+	}
+}
+
+// sendSizes sends p the terminal's size each time it changes, until stop
+// is called.
+func (t *terminal) sendSizes(p *tea.Program) (stop func()) {
+	if !t.isTerm {
+		return func() {}
+	}
+	changed, quit := make(chan os.Signal, 1), make(chan struct{})
+	notifyResize(changed)
+	done := make(chan struct{})
+	go func() {
+		defer close(done)
+		for {
+			select {
+			case <-quit:
+				return
+			case <-changed:
+				if w, h, ok := t.size(); ok {
+					p.Send(tea.WindowSizeMsg{Width: w, Height: h})
+				}
+			}
+		}
+	}()
+	return func() {
+		signal.Stop(changed)
+		close(quit)
+		<-done
+	}
+}
+
+// enter switches the terminal to the alternate screen, cursor hidden.
+func (s *screen) enter() { _, _ = io.WriteString(s.out, screenEnter) }
+
+// leave gives the terminal back its main screen and cursor.
+func (s *screen) leave() { _, _ = io.WriteString(s.out, screenLeave) }
