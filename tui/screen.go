@@ -65,6 +65,8 @@ func (s *screen) draw(frame string) {
 	if s.fresh {
 		b = append(b, "\x1b[2J"...)
 		s.lines = s.lines[:0]
+	} else {
+		b = s.shift(b, lines)
 	}
 	for i, l := range lines {
 		if !s.fresh && i < len(s.lines) && s.lines[i] == l {
@@ -88,6 +90,81 @@ func (s *screen) draw(frame string) {
 		_, s.err = s.out.Write(b)
 	}
 	s.buf = b[:0]
+}
+
+// Moving a block of rows: when a line of the header comes or goes (the
+// first what-if, the last one undone) or the matrix scrolls a row, most
+// lines of the new frame are lines of the old one a few rows up or down.
+// The terminal moves them itself (a scrolling region set round them, and
+// lines inserted or deleted at its top), and only the rows left over are
+// written. The sequences are those of ECMA-48 and the VT100: DECSTBM
+// "ESC [ top ; bottom r", IL "ESC [ n L", DL "ESC [ n M".
+const (
+	maxShift = 3 // rows a block may move
+	minRun   = 8 // rows a block must have to be moved
+)
+
+// shift appends the sequences that move the longest block of rows of the
+// screen that reappears in frame lines up to maxShift rows away, if it
+// saves writing at least minRun rows, and changes s.lines to what the
+// terminal shows then.
+func (s *screen) shift(b []byte, lines []string) []byte {
+	old := s.lines
+	n := min(len(old), len(lines))
+	bestK, bestStart, bestLen := 0, 0, 0
+	for k := -maxShift; k <= maxShift; k++ {
+		if k == 0 {
+			continue
+		}
+		// Rows i of the new frame equal to row i-k of the old.
+		run := 0
+		for i := 0; i < n; i++ {
+			if j := i - k; j >= 0 && j < n && lines[i] == old[j] && lines[i] != old[i] {
+				run++
+				if run > bestLen {
+					bestK, bestStart, bestLen = k, i-run+1, run
+				}
+				continue
+			}
+			run = 0
+		}
+	}
+	if bestLen < minRun {
+		return b
+	}
+	k, start, end := bestK, bestStart, bestStart+bestLen-1 // new rows start..end
+	var top, bottom int                                    // the region, old rows moved within it
+	if k > 0 {
+		// Old rows start-k..end-k move down k: insert k lines at start-k.
+		top, bottom = start-k, end
+	} else {
+		// Old rows start-k..end-k move up -k: delete -k lines at start.
+		top, bottom = start, end-k
+	}
+	b = append(b, "\x1b["...)
+	b = strconv.AppendInt(b, int64(top+1), 10)
+	b = append(b, ';')
+	b = strconv.AppendInt(b, int64(bottom+1), 10)
+	b = append(b, 'r')
+	b = moveTo(b, top)
+	b = append(b, "\x1b["...)
+	b = strconv.AppendInt(b, int64(max(k, -k)), 10)
+	if k > 0 {
+		b = append(b, 'L')
+	} else {
+		b = append(b, 'M')
+	}
+	b = append(b, "\x1b[r"...)
+	// What the terminal shows now: the block moved, blank rows where it
+	// left, the region's far rows gone.
+	moved := make([]string, bottom-top+1)
+	for i := range moved {
+		if j := top + i - k; j >= top && j <= bottom {
+			moved[i] = old[j]
+		}
+	}
+	copy(old[top:bottom+1], moved)
+	return b
 }
 
 // moveTo appends the sequence that puts the cursor at the start of row

@@ -73,3 +73,35 @@ func TestScreenStopsAfterAFailedWrite(t *testing.T) {
 		t.Errorf("%d writes after the terminal failed, want 1", w.n)
 	}
 }
+
+// A frame whose lines are the old ones a row lower (a header line added
+// above) moves them with a scrolling region and an inserted line, and
+// writes the new row alone; one a row higher deletes a line instead.
+func TestScreenMovesShiftedRows(t *testing.T) {
+	rows := make([]string, 12)
+	for i := range rows {
+		rows[i] = "row " + string(rune('a'+i))
+	}
+	var out bytes.Buffer
+	s := newScreen(&out)
+	s.resize(20, 14)
+	s.draw("title\n" + strings.Join(rows, "\n"))
+	out.Reset()
+	s.draw("title\nwhat-if\n" + strings.Join(rows[:11], "\n"))
+	// Old rows 2..12 (1-based) move to 3..13: region 2..13, one line
+	// inserted at row 2, then row 2 written.
+	if got, want := out.String(), "\x1b[2;13r\x1b[2;1H\x1b[1L\x1b[r\x1b[2;1Hwhat-if\x1b[K"; got != want {
+		t.Fatalf("shift down wrote %q, want %q", got, want)
+	}
+	out.Reset()
+	s.draw("title\n" + strings.Join(rows, "\n"))
+	// Back: rows 3..13 move to 2..12 (one line deleted at row 2 of region
+	// 2..13), and row 13 gets the last row.
+	if got, want := out.String(), "\x1b[2;13r\x1b[2;1H\x1b[1M\x1b[r\x1b[13;1Hrow l\x1b[K"; got != want {
+		t.Fatalf("shift up wrote %q, want %q", got, want)
+	}
+	// The screen's own picture of the terminal is the frame.
+	if got := strings.Join(s.lines, "\n"); got != "title\n"+strings.Join(rows, "\n") {
+		t.Errorf("screen holds %q", got)
+	}
+}

@@ -1,0 +1,74 @@
+package main
+
+import (
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+)
+
+// The frames the program writes line by line (changed lines only, blocks
+// of rows moved by the terminal) leave tmux's screen as a full repaint of
+// the same state would: after what-if edits that add and remove a header
+// line, scrolling and a layer change, the screen is captured, then a
+// resize there and back makes the program repaint every row, and the two
+// captures must be the same. Skips without tmux.
+func TestTmuxFramesMatchRepaint(t *testing.T) {
+	if testing.Short() {
+		t.Skip("builds the command and drives tmux")
+	}
+	if _, err := exec.LookPath("tmux"); err != nil {
+		t.Skip("tmux not installed")
+	}
+	bin := filepath.Join(t.TempDir(), "likewind")
+	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
+		t.Fatalf("go build: %v\n%s", err, out)
+	}
+	p := &tmuxPane{tb: t, socket: filepath.Join(t.TempDir(), "tmux.sock"), name: "frames"}
+	cmd := exec.Command("tmux", "-S", p.socket, "new-session", "-d", "-s", p.name, "-x", "150", "-y", "45",
+		"env", "XDG_STATE_HOME="+t.TempDir(), bin, "--fresh")
+	cmd.Env = append(os.Environ(), "TERM=xterm-256color")
+	if out, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("tmux new-session: %v\n%s", err, out)
+	}
+	t.Cleanup(func() { _, _ = p.run("kill-server") })
+	idle := func(s string) bool { return strings.Contains(s, "likewind") && !strings.Contains(header(s), "computing") }
+	settle := func() string {
+		time.Sleep(150 * time.Millisecond)
+		return p.waitScreen(idle)
+	}
+	settle()
+	edit := func(val string) {
+		p.send("Enter")
+		p.send("C-u")
+		p.send("-l", val)
+		p.send("Enter")
+		settle()
+	}
+	p.send("e")
+	p.send("Down")
+	edit("5K") // a what-if line comes into the header
+	edit("0K") // and goes
+	edit("8K")
+	p.send("Escape")
+	for _, k := range []string{"Up", "Up", "Up", "Down", "Right", "Tab", "Down", "Down"} {
+		p.send(k)
+	}
+	before := settle()
+	if _, err := p.run("resize-window", "-t", p.name, "-x", "149", "-y", "45"); err != nil {
+		t.Skipf("tmux cannot resize: %v", err)
+	}
+	settle()
+	if _, err := p.run("resize-window", "-t", p.name, "-x", "150", "-y", "45"); err != nil {
+		t.Fatal(err)
+	}
+	after := settle()
+	if before != after {
+		t.Errorf("the screen built from changed lines differs from a repaint\nbuilt:\n%s\nrepainted:\n%s", before, after)
+	}
+	if !strings.Contains(header(before), "what-if:") {
+		t.Errorf("the last edit's what-if line is not in the header:\n%s", header(before))
+	}
+}
