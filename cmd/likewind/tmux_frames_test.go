@@ -34,7 +34,9 @@ func TestTmuxFramesMatchRepaint(t *testing.T) {
 		t.Fatalf("tmux new-session: %v\n%s", err, out)
 	}
 	t.Cleanup(func() { _, _ = p.run("kill-server") })
-	idle := func(s string) bool { return strings.Contains(s, "likewind") && !strings.Contains(header(s), "computing") }
+	idle := func(s string) bool {
+		return strings.Contains(s, "likewind") && !strings.Contains(header(s), "computing")
+	}
 	settle := func() string {
 		time.Sleep(150 * time.Millisecond)
 		return p.waitScreen(idle)
