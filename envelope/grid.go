@@ -298,14 +298,26 @@ func forRowBlocks(rows, cols int, newWorker func() func(i0, i1 int)) {
 // forRowBlocksUntil is forRowBlocks that takes no new block once ctx has
 // ended; it reports whether every block was done.
 func forRowBlocksUntil(ctx context.Context, rows, cols int, newWorker func() func(i0, i1 int)) bool {
+	workers := min(runtime.GOMAXPROCS(0), rows)
+	return forRowBlocksSized(ctx, rows, cols, max(1, rows/(max(workers, 1)*blocksPerWorker)), newWorker)
+}
+
+// forRowBlocksSized is forRowBlocksUntil with blocks of size rows (the
+// last one shorter).
+func forRowBlocksSized(ctx context.Context, rows, cols, size int, newWorker func() func(i0, i1 int)) bool {
 	workers := runtime.GOMAXPROCS(0)
 	if workers < 2 || rows < 2 || rows*cols < parallelMin {
-		newWorker()(0, rows)
+		work := newWorker()
+		for i0 := 0; i0 < rows; i0 += size {
+			if i0 > 0 && ctx.Err() != nil {
+				return false
+			}
+			work(i0, min(i0+size, rows))
+		}
 		return ctx.Err() == nil
 	}
 	var stopped atomic.Bool
 	workers = min(workers, rows)
-	size := max(1, rows/(workers*blocksPerWorker))
 	var next atomic.Int64
 	var wg sync.WaitGroup
 	for range workers {

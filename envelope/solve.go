@@ -162,6 +162,37 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 // first (a newer what-if made this map stale) it stops between blocks of
 // rows and returns ctx's error.
 func SolveReusing(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Result) (*Map, error) {
+	m, err := newMap(g, f, s, buf)
+	if err != nil {
+		return nil, err
+	}
+	// Points are independent: blocks of rows are solved side by side, each
+	// result written to its own slot, so the map is the same as a
+	// point-by-point solve.
+	var mu sync.Mutex // guards the counts while workers add theirs
+	var counts [NumClasses]int
+	done := forRowBlocksUntil(ctx, len(g.Alts), len(g.Speeds), func() func(i0, i1 int) {
+		solveRows := m.sv.rowSolver(len(g.Speeds))
+		return func(i0, i1 int) {
+			n := solveRows(m, i0, i1)
+			mu.Lock()
+			for c := range n {
+				counts[c] += n[c]
+			}
+			mu.Unlock()
+		}
+	})
+	if !done {
+		return nil, ctx.Err()
+	}
+	m.finish(counts)
+	return m, nil
+}
+
+// newMap makes the map of facility f on g under s, ready to be solved:
+// its solver, model scale and balance cap set, its results in buf when
+// it holds enough (see SolveReusing).
+func newMap(g *Grid, f *Facility, s Settings, buf []Result) (*Map, error) {
 	if g == nil || f == nil {
 		return nil, errors.New("solve: need a grid and a facility")
 	}
@@ -193,30 +224,17 @@ func SolveReusing(ctx context.Context, g *Grid, f *Facility, s Settings, buf []R
 	} else {
 		m.Results = make([]Result, len(g.points))
 	}
-	cols := len(g.Speeds)
-	// Points are independent: blocks of rows are solved side by side, each
-	// result written to its own slot, so the map is the same as a
-	// point-by-point solve.
-	var mu sync.Mutex // guards m.shares while workers add their counts
-	done := forRowBlocksUntil(ctx, len(g.Alts), cols, func() func(i0, i1 int) {
-		solveRows := sv.rowSolver(cols)
-		return func(i0, i1 int) {
-			n := solveRows(m, i0, i1)
-			mu.Lock()
-			for c := range n {
-				m.shares.Count[c] += n[c]
-			}
-			mu.Unlock()
-		}
-	})
-	if !done {
-		return nil, ctx.Err()
-	}
+	return m, nil
+}
+
+// finish records the class counts of the solved inside points (from the
+// row solvers) as the map's shares, and marks it solved.
+func (m *Map) finish(counts [NumClasses]int) {
+	m.shares.Count = counts
 	m.shares.Total = len(m.Results)
-	m.shares.Inside = g.inside
+	m.shares.Inside = m.Grid.inside
 	m.shares.Count[Outside] = m.shares.Total - m.shares.Inside
 	m.solved = true
-	return m, nil
 }
 
 // At returns the stored result of point (i, j).

@@ -2,6 +2,7 @@ package tui
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"runtime"
 	"sync"
@@ -37,27 +38,30 @@ func computeGrid(ctx context.Context, v *envelope.Vehicle, facs []envelope.Facil
 	return solveAll(ctx, g, facs, s, pool)
 }
 
-// solveAll solves every facility on an existing grid. When ctx ends
-// first (the results are stale) it returns ctx's error.
+// solveAll solves every facility on an existing grid with the best of
+// all, in one pass (envelope.SolveAllReusing). When ctx ends first (the
+// results are stale) it returns ctx's error.
 func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
-	r := results{grid: g, maps: make([]*envelope.Map, len(facs)), errs: make([]error, len(facs))}
-	// Facilities are independent: Solve only reads the grid, so they run
-	// side by side.
-	var wg sync.WaitGroup
+	if g == nil {
+		return results{}, errors.New("no flight grid to solve on")
+	}
+	n := g.Rows() * g.Cols()
+	buf := envelope.Buffers{Results: make([][]envelope.Result, len(facs)), Best: pool.takeInts(n), BestRes: pool.takeResults(n)}
 	for k := range facs {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			// One facility that cannot be solved (no model scale, say)
-			// leaves the others usable.
-			r.maps[k], r.errs[k] = envelope.SolveReusing(ctx, g, &facs[k], s, pool.takeResults(g.Rows()*g.Cols()))
-		}()
+		buf.Results[k] = pool.takeResults(n)
 	}
-	wg.Wait()
-	if err := ctx.Err(); err != nil {
-		return r, err
+	a, err := envelope.SolveAllReusing(ctx, g, facs, s, buf)
+	if err != nil {
+		// The arrays taken are left to the collector.
+		return results{}, err
 	}
-	r.summarise(nil, -1, pool)
+	r := results{grid: g, maps: a.Maps, errs: a.Errs, best: a.Best, bestRes: a.BestRes}
+	r.shares(nil, -1)
+	sh := a.BestShares
+	if sh.Inside > 0 {
+		r.union = sh.Matched()
+		r.bestFull = sh.Share(envelope.FullMatch)
+	}
 	return r, nil
 }
 
@@ -88,23 +92,7 @@ func (r *results) summarise(prev *results, changed int, pool *arrays) {
 	if r.grid == nil {
 		return
 	}
-	r.full = make([]float64, len(r.maps))
-	r.matched = make([]float64, len(r.maps))
-	solved := 0
-	for k, m := range r.maps {
-		if m == nil {
-			continue
-		}
-		if prev != nil && k != changed && k < len(prev.full) && prev.maps[k] == m {
-			r.full[k], r.matched[k] = prev.full[k], prev.matched[k]
-		} else {
-			sh := m.Shares()
-			r.full[k] = sh.Share(envelope.FullMatch)
-			r.matched[k] = sh.Matched()
-		}
-		solved++
-	}
-	if solved == 0 {
+	if r.shares(prev, changed) == 0 {
 		return
 	}
 	var c bestCounts
@@ -257,4 +245,27 @@ func facilityTag(k int) byte {
 		return 0
 	}
 	return tags[k%len(tags)]
+}
+
+// shares fills the coverage shares of each map (taken from prev for every
+// map but changed, where prev has them) and returns how many maps there
+// are.
+func (r *results) shares(prev *results, changed int) int {
+	r.full = make([]float64, len(r.maps))
+	r.matched = make([]float64, len(r.maps))
+	solved := 0
+	for k, m := range r.maps {
+		if m == nil {
+			continue
+		}
+		if prev != nil && k != changed && k < len(prev.full) && prev.maps[k] == m {
+			r.full[k], r.matched[k] = prev.full[k], prev.matched[k]
+		} else {
+			sh := m.Shares()
+			r.full[k] = sh.Share(envelope.FullMatch)
+			r.matched[k] = sh.Matched()
+		}
+		solved++
+	}
+	return solved
 }

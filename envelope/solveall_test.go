@@ -1,0 +1,137 @@
+package envelope
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"runtime"
+	"testing"
+)
+
+// SolveAll must give every map exactly as Solve does (results and shares)
+// and the best of all exactly as Best and BestShares do, on both demo
+// vehicles, at several grid sizes (a block smaller than, equal to and
+// larger than a row), on one processor and on several, and when the
+// arrays handed in hold older results.
+func TestSolveAllEqualsSolveAndBest(t *testing.T) {
+	vs, err := DemoVehicles()
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, facs, err := Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, procs := range []int{1, runtime.GOMAXPROCS(0), 3} {
+		for vi, v0 := range vs {
+			for _, n := range []int{0, 37, 230} {
+				t.Run(fmt.Sprintf("procs%d/vehicle%d/%d", procs, vi, n), func(t *testing.T) {
+					defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
+					v := *v0
+					if n > 0 {
+						v.Grid.Altitude.Count, v.Grid.Altitude.Step = n, 0
+						v.Grid.Speed.Count, v.Grid.Speed.Step = n+3, 0
+					}
+					s := DefaultSettings(&v)
+					g, err := NewGrid(&v, s)
+					if err != nil {
+						t.Fatal(err)
+					}
+					var want []*Map
+					for k := range facs {
+						m, err := Solve(g, &facs[k], s)
+						if err != nil {
+							t.Fatalf("Solve(%s): %v", facs[k].Name, err)
+						}
+						want = append(want, m)
+					}
+					wantBest, wantRes := Best(want)
+					wantShares := BestShares(want)
+					// Dirty buffers: the results of another day.
+					s2 := s
+					s2.DeltaT = 12
+					g2, err := NewGrid(&v, s2)
+					if err != nil {
+						t.Fatal(err)
+					}
+					old, err := SolveAll(g2, facs, s2)
+					if err != nil {
+						t.Fatal(err)
+					}
+					buf := Buffers{Best: old.Best, BestRes: old.BestRes}
+					for _, m := range old.Maps {
+						buf.Results = append(buf.Results, m.Results)
+					}
+					for _, b := range []Buffers{{}, buf} {
+						got, err := SolveAllReusing(context.Background(), g, facs, s, b)
+						if err != nil {
+							t.Fatal(err)
+						}
+						for k, m := range got.Maps {
+							if got.Errs[k] != nil || m == nil {
+								t.Fatalf("%s: %v", facs[k].Name, got.Errs[k])
+							}
+							if m.Scale != want[k].Scale || m.LoadQ != want[k].LoadQ || m.Shares() != want[k].Shares() {
+								t.Errorf("%s: scale %v load q %v shares %+v, want %v %v %+v", facs[k].Name,
+									m.Scale, m.LoadQ, m.Shares(), want[k].Scale, want[k].LoadQ, want[k].Shares())
+							}
+							for p := range m.Results {
+								if m.Results[p] != want[k].Results[p] {
+									t.Fatalf("%s point %d: %+v, want %+v", facs[k].Name, p, m.Results[p], want[k].Results[p])
+								}
+							}
+						}
+						for p := range wantBest {
+							if got.Best[p] != wantBest[p] || got.BestRes[p] != wantRes[p] {
+								t.Fatalf("best at %d: %d %+v, want %d %+v", p, got.Best[p], got.BestRes[p], wantBest[p], wantRes[p])
+							}
+						}
+						if got.BestShares != wantShares {
+							t.Errorf("best shares %+v, want %+v", got.BestShares, wantShares)
+						}
+					}
+				})
+			}
+		}
+	}
+}
+
+// A facility that cannot be solved has a nil map and its error, and the
+// best of all is that of the others; a cancelled context stops the work.
+func TestSolveAllUnsolvableAndCancelled(t *testing.T) {
+	v, facs, err := Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := DefaultSettings(v)
+	g, err := NewGrid(v, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	bad := facs[1]
+	bad.Model.Scale = 0
+	bad.Width, bad.Height = 0, 0
+	two := []Facility{facs[0], bad, facs[2]}
+	a, err := SolveAll(g, two, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if a.Maps[1] != nil || a.Errs[1] == nil {
+		t.Fatalf("unsolvable facility: map %v, error %v", a.Maps[1], a.Errs[1])
+	}
+	wantBest, wantRes := Best([]*Map{a.Maps[0], a.Maps[2]})
+	for p := range wantBest {
+		w := wantBest[p]
+		if w == 1 {
+			w = 2 // index among the two solved, 1 is facility 2
+		}
+		if a.Best[p] != w || a.BestRes[p] != wantRes[p] {
+			t.Fatalf("best at %d: %d, want %d", p, a.Best[p], w)
+		}
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	if _, err := SolveAllReusing(ctx, g, facs, s, Buffers{}); !errors.Is(err, context.Canceled) {
+		t.Errorf("cancelled: error %v, want context.Canceled", err)
+	}
+}
