@@ -7,6 +7,7 @@ import (
 	"os/signal"
 	"strconv"
 	"strings"
+	"time"
 
 	tea "github.com/charmbracelet/bubbletea"
 	"github.com/charmbracelet/x/ansi"
@@ -178,26 +179,61 @@ func moveTo(b []byte, row int) []byte {
 // drawn is the model the program runs: the interface's model, drawn to
 // the screen by View (the one place the event loop calls after every
 // Update) instead of by Bubble Tea's renderer.
+//
+// A key that starts a recompute holds its frame for up to holdFrame: a
+// result that comes in that time (a facility what-if on a large grid
+// takes a few ms) is drawn at once, in place of the frame that would only
+// have said "computing", and that frame's drawing does not take a
+// processor from the solve. A result that takes longer finds the
+// "computing" frame on screen after holdFrame.
 type drawn struct {
-	m   Model
-	scr *screen
+	m    Model
+	scr  *screen
+	hold int // the recompute generation whose frame is held, 0 none
 }
+
+// holdFrame is the longest a key's frame waits for the recompute the key
+// started.
+const holdFrame = 6 * time.Millisecond
+
+// heldMsg ends the hold of the frame of recompute gen.
+type heldMsg struct{ gen int }
 
 func (d drawn) Init() tea.Cmd { return d.m.Init() }
 
 func (d drawn) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
-	if ws, ok := msg.(tea.WindowSizeMsg); ok {
-		d.scr.resize(ws.Width, ws.Height)
+	switch msg := msg.(type) {
+	case tea.WindowSizeMsg:
+		d.scr.resize(msg.Width, msg.Height)
+		d.hold = 0
+	case heldMsg:
+		if msg.gen == d.hold {
+			d.hold = 0
+		}
+		return d, nil
 	}
+	gen := d.m.gen
 	next, cmd := d.m.Update(msg)
 	d.m = next.(Model)
+	switch {
+	case !d.m.busy:
+		d.hold = 0
+	case d.m.gen != gen && d.hold == 0:
+		if _, key := msg.(tea.KeyMsg); key {
+			d.hold = d.m.gen
+			g := d.m.gen
+			cmd = tea.Batch(cmd, tea.Tick(holdFrame, func(time.Time) tea.Msg { return heldMsg{gen: g} }))
+		}
+	}
 	return d, cmd
 }
 
-// View writes the frame of the state it holds and gives the (turned off)
-// renderer nothing.
+// View writes the frame of the state it holds (unless the frame is held)
+// and gives the (turned off) renderer nothing.
 func (d drawn) View() string {
-	d.scr.draw(d.m.View())
+	if d.hold == 0 {
+		d.scr.draw(d.m.View())
+	}
 	return ""
 }
 

@@ -5,6 +5,8 @@ import (
 	"errors"
 	"strings"
 	"testing"
+
+	tea "github.com/charmbracelet/bubbletea"
 )
 
 // The screen writes a frame's changed lines only, each at its row and
@@ -103,5 +105,84 @@ func TestScreenMovesShiftedRows(t *testing.T) {
 	// The screen's own picture of the terminal is the frame.
 	if got := strings.Join(s.lines, "\n"); got != "title\n"+strings.Join(rows, "\n") {
 		t.Errorf("screen holds %q", got)
+	}
+}
+
+// cmdMsgs runs cmd and, for a batch, each command in it, and returns the
+// messages they give.
+func cmdMsgs(cmd tea.Cmd) []tea.Msg {
+	if cmd == nil {
+		return nil
+	}
+	msg := cmd()
+	if b, ok := msg.(tea.BatchMsg); ok {
+		var out []tea.Msg
+		for _, c := range b {
+			out = append(out, cmdMsgs(c)...)
+		}
+		return out
+	}
+	if msg == nil {
+		return nil
+	}
+	return []tea.Msg{msg}
+}
+
+// The frame of a key that starts a recompute is held until the result
+// comes (then the result's frame is drawn) or holdFrame has passed (then
+// the frame as it is, saying "computing").
+func TestDrawnHoldsTheKeysFrameForItsResult(t *testing.T) {
+	for _, endBy := range []string{"result", "clock"} {
+		t.Run(endBy, func(t *testing.T) {
+			var out bytes.Buffer
+			d := drawn{m: newDemo(t, 120, 40), scr: newScreen(&out)}
+			step := func(msg tea.Msg) tea.Cmd {
+				next, cmd := d.Update(msg)
+				d = next.(drawn)
+				d.View()
+				return cmd
+			}
+			step(tea.WindowSizeMsg{Width: 120, Height: 40})
+			for _, k := range []string{"e", "down", "enter", "ctrl+u", "5", "K"} {
+				if cmd := step(keyMsg(k)); cmd != nil {
+					for _, msg := range cmdMsgs(cmd) {
+						step(msg)
+					}
+				}
+			}
+			out.Reset()
+			cmd := step(keyMsg("enter"))
+			if d.hold == 0 || out.Len() != 0 {
+				t.Fatalf("the key that starts a recompute: hold %d, %d bytes drawn; want held, none", d.hold, out.Len())
+			}
+			var result, clock tea.Msg
+			for _, msg := range cmdMsgs(cmd) {
+				switch msg.(type) {
+				case computedMsg:
+					result = msg
+				case heldMsg:
+					clock = msg
+				}
+			}
+			if result == nil || clock == nil {
+				t.Fatalf("the key's commands gave result %v and clock %v", result, clock)
+			}
+			if endBy == "result" {
+				step(result)
+				if d.hold != 0 || !strings.Contains(out.String(), "ΔT +5.0 K") || strings.Contains(out.String(), "computing") {
+					t.Errorf("after the result: hold %d, drawn %q; want the result's frame, never computing", d.hold, out.String())
+				}
+				return
+			}
+			step(clock)
+			if d.hold != 0 || !strings.Contains(out.String(), "computing") {
+				t.Errorf("after the clock: hold %d, drawn %q; want the computing frame", d.hold, out.String())
+			}
+			out.Reset()
+			step(result)
+			if strings.Contains(out.String(), "computing") || out.Len() == 0 {
+				t.Errorf("the result after the clock drew %q", out.String())
+			}
+		})
 	}
 }
