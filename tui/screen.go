@@ -189,7 +189,8 @@ func moveTo(b []byte, row int) []byte {
 type drawn struct {
 	m    Model
 	scr  *screen
-	hold int // the recompute generation whose frame is held, 0 none
+	hold int  // the recompute generation whose frame is held, 0 none
+	same bool // the last message changed nothing to draw
 }
 
 // holdFrame is the longest a key's frame waits for the recompute the key
@@ -207,11 +208,14 @@ func (d drawn) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		d.scr.resize(msg.Width, msg.Height)
 		d.hold = 0
 	case heldMsg:
-		if msg.gen == d.hold {
+		// A hold the result ended already leaves the frame as it is.
+		d.same = msg.gen != d.hold
+		if !d.same {
 			d.hold = 0
 		}
 		return d, nil
 	}
+	d.same = false
 	gen := d.m.gen
 	next, cmd := d.m.Update(msg)
 	d.m = next.(Model)
@@ -231,7 +235,7 @@ func (d drawn) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 // View writes the frame of the state it holds (unless the frame is held)
 // and gives the (turned off) renderer nothing.
 func (d drawn) View() string {
-	if d.hold == 0 {
+	if d.hold == 0 && !d.same {
 		d.scr.draw(d.m.View())
 	}
 	return ""
