@@ -31,44 +31,33 @@ type openOptions struct {
 	fresh       bool
 }
 
-func parseOpenFlags(args []string, stderr io.Writer) (openOptions, error) {
+// parseOpenFlags reads the interface command line, options before or
+// after the file names (parseArgs). code is -1 to go on, else the exit
+// code: 0 after help, 2 after a bad flag (the flag package has printed
+// it) or a bad combination (printed here).
+func parseOpenFlags(args []string, stderr io.Writer) (o openOptions, code int) {
 	fs := flag.NewFlagSet("likewind", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	sessionPath := fs.String("session", "", "session file to save to and restore from (default: one per set of input files in the user state folder)")
 	restore := fs.Bool("restore", false, "restore the saved session without asking")
 	fresh := fs.Bool("fresh", false, "start from the files' values and ignore a saved session")
 	fs.Usage = func() { printUsage(stderr); fmt.Fprintln(stderr, "\ninterface options:"); fs.PrintDefaults() }
-	// Allow options before or after the file names.
-	var files []string
-	rest := args
-	for {
-		if err := fs.Parse(rest); err != nil {
-			if errors.Is(err, flag.ErrHelp) {
-				return openOptions{}, err
-			}
-			return openOptions{}, usageError{err}
-		}
-		if fs.NArg() == 0 {
-			break
-		}
-		files = append(files, fs.Arg(0))
-		rest = fs.Args()[1:]
+	files, code := parseArgs(fs, args, stderr)
+	if code >= 0 {
+		return openOptions{}, code
 	}
 	if *restore && *fresh {
-		return openOptions{}, usagef("give at most one of --restore and --fresh")
+		fmt.Fprintln(stderr, "likewind:", usagef("give at most one of --restore and --fresh"))
+		return openOptions{}, 2
 	}
-	return openOptions{files: files, sessionPath: *sessionPath, restore: *restore, fresh: *fresh}, nil
+	return openOptions{files: files, sessionPath: *sessionPath, restore: *restore, fresh: *fresh}, -1
 }
 
 // runOpen opens the interactive interface on the given files or the demo.
 func runOpen(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
-	o, err := parseOpenFlags(args, stderr)
-	if errors.Is(err, flag.ErrHelp) {
-		return 0
-	}
-	if err != nil {
-		fmt.Fprintln(stderr, "likewind:", err)
-		return 2
+	o, code := parseOpenFlags(args, stderr)
+	if code >= 0 {
+		return code
 	}
 	in, err := loadInputs(o.files)
 	if err != nil {

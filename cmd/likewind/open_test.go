@@ -36,3 +36,17 @@ func TestOpenRefusesBadInput(t *testing.T) {
 		}
 	}
 }
+
+// The interface's flags are read as every subcommand's (parseArgs): a bad
+// flag is reported once with exit status 2, flags may follow the file
+// names, and -- ends the flags.
+func TestOpenFlags(t *testing.T) {
+	code, _, errs := runCmd("--no-such-flag")
+	if code != 2 || strings.Count(errs, "no-such-flag") != 1 {
+		t.Errorf("bad flag: exit %d, stderr %q; want 2 and the flag named once", code, errs)
+	}
+	o, code := parseOpenFlags([]string{"v.toml", "--fresh", "f.toml", "--", "--restore"}, &strings.Builder{})
+	if code >= 0 || !o.fresh || o.restore || strings.Join(o.files, " ") != "v.toml f.toml --restore" {
+		t.Errorf("parseOpenFlags = %+v, code %d; want fresh and files v.toml f.toml --restore", o, code)
+	}
+}
