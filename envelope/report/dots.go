@@ -10,7 +10,6 @@ import (
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
-	"gonum.org/v1/plot/vg/vgimg"
 )
 
 // dotSteps is how finely a dot's centre is placed within a pixel: a
@@ -42,12 +41,9 @@ func (d *flightDots) Thumbnail(c *draw.Canvas) { c.DrawGlyph(d.style(), c.Center
 
 func (d *flightDots) Plot(c draw.Canvas, p *plot.Plot) {
 	trX, trY := p.Transforms(&c)
-	dpi := float64(ChartDPI)
-	var img *image.RGBA
-	pc, raster := rootCanvas(c.Canvas).(vgimg.PngCanvas)
-	if raster {
-		dpi = pc.DPI()
-		img, raster = pc.Image().(*image.RGBA)
+	img, dpi, raster := rasterOf(c)
+	if !raster {
+		dpi = ChartDPI
 	}
 	// Positions are in quarter pixels of the picture, y down from top
 	// (the picture's top for a raster, the area's top otherwise), counted
@@ -85,21 +81,6 @@ func (d *flightDots) Plot(c draw.Canvas, p *plot.Plot) {
 			st.stamp(img, int(px0)*dotSteps+qx, int(py0)*dotSteps+qy, d.color)
 		} else {
 			c.DrawGlyph(sty, pt)
-		}
-	}
-}
-
-// rootCanvas is the canvas under any draw.Canvas wrapping (a cropped
-// canvas wraps the one it crops).
-func rootCanvas(c vg.Canvas) vg.Canvas {
-	for {
-		switch w := c.(type) {
-		case draw.Canvas:
-			c = w.Canvas
-		case *draw.Canvas:
-			c = w.Canvas
-		default:
-			return c
 		}
 	}
 }

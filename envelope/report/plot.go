@@ -5,16 +5,15 @@ import (
 	"errors"
 	"fmt"
 	"image/color"
-	"image/png"
 	"math"
 	"strconv"
 	"strings"
+	"sync"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
-	"gonum.org/v1/plot/vg/vgimg"
 	"gonum.org/v1/plot/vg/vgsvg"
 
 	"likewind/atmos"
@@ -72,40 +71,41 @@ type Chart struct {
 // The plot fills ChartWidth × ChartHeight; the legend is added below it.
 func (ch *Chart) Render(format string) ([]byte, error) {
 	pad := 0.4 * vg.Centimeter
-	// Measure the legend on a scratch canvas of the final width.
-	probe := draw.NewCanvas(vgimg.New(ChartWidth, ChartHeight), ChartWidth, ChartHeight)
+	// Measure the legend in an area of the final width (it measures its
+	// text by the font alone: the area needs no canvas).
+	probe := draw.Canvas{Rectangle: vg.Rectangle{Max: vg.Point{X: ChartWidth, Y: ChartHeight}}}
 	lr := ch.legend.Rectangle(probe)
 	legH := lr.Max.Y - lr.Min.Y + 2*pad
 	w, h := ChartWidth, ChartHeight+legH
 
-	var vc vg.CanvasWriterTo
-	var raster *vgimg.Canvas
+	var b bytes.Buffer
 	switch strings.ToLower(format) {
 	case "png":
-		raster = vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(ChartDPI), vgimg.UseBackgroundColor(color.White))
-		vc = vgimg.PngCanvas{Canvas: raster}
+		pc := newPictureCanvas(w, h, ChartDPI)
+		ch.draw(draw.NewCanvas(pc, w, h), pad, legH)
+		// The fastest compression: a chart is a few flat colours, which
+		// it packs nearly as well as the default (files well under 1 MB).
+		if err := encodePNG(&b, pc.img); err != nil {
+			return nil, fmt.Errorf("render %s chart: %w", format, err)
+		}
 	case "svg":
-		vc = vgsvg.NewWith(vgsvg.UseWH(w, h), vgsvg.EmbedFonts(true))
+		vc := vgsvg.NewWith(vgsvg.UseWH(w, h), vgsvg.EmbedFonts(true))
+		ch.draw(draw.NewCanvas(vc, w, h), pad, legH)
+		if _, err := vc.WriteTo(&b); err != nil {
+			return nil, fmt.Errorf("render %s chart: %w", format, err)
+		}
 	default:
 		return nil, fmt.Errorf("chart format %q: want png or svg", format)
 	}
-	dc := draw.NewCanvas(vc, w, h)
+	return b.Bytes(), nil
+}
+
+// draw draws the plot on dc with the legend in a strip legH tall under
+// it, pad from the edges.
+func (ch *Chart) draw(dc draw.Canvas, pad, legH vg.Length) {
+	h := dc.Max.Y - dc.Min.Y
 	ch.plot.Draw(draw.Crop(dc, pad/2, -pad, legH, -pad/2))
 	ch.legend.Draw(draw.Crop(dc, pad, -pad, pad, -(h - legH)))
-	var b bytes.Buffer
-	if raster != nil {
-		// The fastest compression: a chart is a few flat colours, which
-		// it packs nearly as well as the default (files well under 1 MB).
-		enc := png.Encoder{CompressionLevel: png.BestSpeed}
-		if err := enc.Encode(&b, raster.Image()); err != nil {
-			return nil, fmt.Errorf("render %s chart: %w", format, err)
-		}
-		return b.Bytes(), nil
-	}
-	if _, err := vc.WriteTo(&b); err != nil {
-		return nil, fmt.Errorf("render %s chart: %w", format, err)
-	}
-	return b.Bytes(), nil
 }
 
 // newChart is a plot with the common look: title, axis labels, legend
@@ -281,24 +281,80 @@ func (cc *classCells) DataRange() (xmin, xmax, ymin, ymax float64) {
 	return cc.xs[0], cc.xs[len(cc.xs)-1], cc.ys[0], cc.ys[len(cc.ys)-1]
 }
 
+// cellSeam is how far each cell is drawn over its right and upper
+// neighbours, which are drawn after it: a hair of overlap hides
+// anti-aliasing seams between cells.
+const cellSeam = 0.3 // points
+
+// cellBands is how many bands of picture rows the cells are painted in,
+// side by side, on a PNG canvas.
+const cellBands = 4
+
 func (cc *classCells) Plot(c draw.Canvas, p *plot.Plot) {
 	trX, trY := p.Transforms(&c)
-	rows, cols := len(cc.ys)-1, len(cc.xs)-1
-	for i := 0; i < rows; i++ {
-		y0, y1 := trY(cc.ys[i]), trY(cc.ys[i+1])
+	img, dpi, raster := rasterOf(c)
+	if !raster {
+		cc.eachRun(0, len(cc.ys)-1, func(i, j, end int, k envelope.Class) {
+			x0, x1, y0, y1 := cc.runCorners(trX, trY, i, j, end)
+			c.FillPolygon(classColor(k), []vg.Point{{X: x0, Y: y0}, {X: x1, Y: y0}, {X: x1, Y: y1}, {X: x0, Y: y1}})
+		})
+		return
+	}
+	// On a picture each run is painted as the rectangle it is, pixel by
+	// pixel, in the order the polygons would be drawn; each band of
+	// picture rows takes the cell rows that reach it, clipped to it, so
+	// every pixel sees its cells in the same order.
+	h := float64(img.Bounds().Dy())
+	rowPx := func(i int) (top, bot float64) {
+		r := toPixels(0, trY(cc.ys[i]), 0, trY(cc.ys[i+1])+vg.Points(cellSeam), dpi, h)
+		return r.y0, r.y1
+	}
+	var wg sync.WaitGroup
+	for band := range cellBands {
+		lo, hi := band*img.Bounds().Dy()/cellBands, (band+1)*img.Bounds().Dy()/cellBands
+		wg.Go(func() {
+			first, last := -1, -1
+			for i := 0; i < len(cc.ys)-1; i++ {
+				if top, bot := rowPx(i); bot > float64(lo) && top < float64(hi) {
+					if first < 0 {
+						first = i
+					}
+					last = i
+				}
+			}
+			if first < 0 {
+				return
+			}
+			cc.eachRun(first, last+1, func(i, j, end int, k envelope.Class) {
+				x0, x1, y0, y1 := cc.runCorners(trX, trY, i, j, end)
+				fillRect(img, toPixels(x0, y0, x1, y1, dpi, h), classColor(k).(color.RGBA), lo, hi)
+			})
+		})
+	}
+	wg.Wait()
+}
+
+// eachRun calls f for each run of equal classes in rows i0..i1-1, row by
+// row, left to right: columns j..end-1 of row i have class k.
+func (cc *classCells) eachRun(i0, i1 int, f func(i, j, end int, k envelope.Class)) {
+	cols := len(cc.xs) - 1
+	for i := i0; i < i1; i++ {
 		for j := 0; j < cols; {
 			k := cc.class(i, j)
 			end := j + 1
 			for end < cols && cc.class(i, end) == k {
 				end++
 			}
-			x0, x1 := trX(cc.xs[j]), trX(cc.xs[end])
-			// A hair of overlap hides anti-aliasing seams between rows.
-			x1e, y1e := x1+vg.Points(0.3), y1+vg.Points(0.3)
-			c.FillPolygon(classColor(k), []vg.Point{{X: x0, Y: y0}, {X: x1e, Y: y0}, {X: x1e, Y: y1e}, {X: x0, Y: y1e}})
+			f(i, j, end, k)
 			j = end
 		}
 	}
+}
+
+// runCorners are the corners on the canvas of the run of columns j..end-1
+// in row i, with the seam overlap.
+func (cc *classCells) runCorners(trX, trY func(float64) vg.Length, i, j, end int) (x0, x1, y0, y1 vg.Length) {
+	return trX(cc.xs[j]), trX(cc.xs[end]) + vg.Points(cellSeam), trY(cc.ys[i]), trY(cc.ys[i+1]) + vg.Points(cellSeam)
 }
 
 // swatch is a legend thumbnail filled with one colour.
