@@ -508,22 +508,12 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 	span := func(y float64) {
 		ylo, yhi = math.Min(ylo, y), math.Max(yhi, y)
 	}
-	var flight plotter.XYs
-	for i := 0; i < g.Rows(); i++ {
-		for j := 0; j < g.Cols(); j++ {
-			if !g.Inside(i, j) {
-				continue
-			}
-			f := g.Flight(i, j)
-			if f.Re > 0 {
-				flight = append(flight, plotter.XY{X: float64(f.Mach), Y: lg(float64(f.Re))})
-				span(float64(f.Re))
-			}
-		}
-	}
+	flight, relo, rehi := flightReMach(g)
 	if len(flight) == 0 {
 		return nil, errors.New("Reynolds–Mach chart: no flight points inside the envelope")
 	}
+	span(relo)
+	span(rehi)
 	for _, k := range facs {
 		if k < 0 || k >= len(e.Maps) || e.Maps[k] == nil {
 			continue
@@ -571,6 +561,65 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 	ch.plot.Y.Max = math.Ceil(lg(yhi))
 	ch.plot.X.Min = 0
 	return ch, nil
+}
+
+// flightBlocks is how many blocks of grid rows flightReMach reads side by
+// side.
+const flightBlocks = 8
+
+// flightReMach is the flight Mach number and log10 of the Reynolds number
+// of every grid point inside the envelope that has a Reynolds number, row
+// by row, with the least and largest Reynolds number. The rows are read
+// in blocks side by side, each into its place in the one slice.
+func flightReMach(g *envelope.Grid) (xy plotter.XYs, lo, hi float64) {
+	rows, cols := g.Rows(), g.Cols()
+	blocks := min(flightBlocks, rows)
+	// Each block's place: the count of inside points before it.
+	start := make([]int, blocks+1)
+	for b := range blocks {
+		n := 0
+		for i := b * rows / blocks; i < (b+1)*rows/blocks; i++ {
+			for j := range cols {
+				if g.Inside(i, j) {
+					n++
+				}
+			}
+		}
+		start[b+1] = start[b] + n
+	}
+	xy = make(plotter.XYs, start[blocks])
+	got := make([]int, blocks)
+	los, his := make([]float64, blocks), make([]float64, blocks)
+	var wg sync.WaitGroup
+	for b := range blocks {
+		wg.Go(func() {
+			out := xy[start[b]:start[b+1]]
+			n, l, h := 0, math.Inf(1), math.Inf(-1)
+			for i := b * rows / blocks; i < (b+1)*rows/blocks; i++ {
+				for j := range cols {
+					if !g.Inside(i, j) {
+						continue
+					}
+					f := g.Flight(i, j)
+					if re := float64(f.Re); re > 0 {
+						out[n] = plotter.XY{X: float64(f.Mach), Y: math.Log10(re)}
+						n++
+						l, h = math.Min(l, re), math.Max(h, re)
+					}
+				}
+			}
+			got[b], los[b], his[b] = n, l, h
+		})
+	}
+	wg.Wait()
+	// Close the gaps left by inside points without a Reynolds number.
+	n := 0
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for b := range blocks {
+		n += copy(xy[n:], xy[start[b]:start[b]+got[b]])
+		lo, hi = math.Min(lo, los[b]), math.Max(hi, his[b])
+	}
+	return xy[:n], lo, hi
 }
 
 // logTicks marks an axis of log10 values at every whole multiple of each

@@ -176,3 +176,34 @@ func TestPictureClassColours(t *testing.T) {
 		t.Errorf("classColor(Outside) = %v, want a light grey", classColor(envelope.Outside))
 	}
 }
+
+// TestFlightReMach: the points read in blocks side by side are the inside
+// points with a Reynolds number, in row order, as one loop over the grid
+// gives them, with the Reynolds range of those points.
+func TestFlightReMach(t *testing.T) {
+	for _, e := range []*envelope.Evaluation{outDemoEval(t), evalDemoGrid(t, 1, 5, 300, nil)} {
+		g := e.Grid
+		var want []float64
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for i := 0; i < g.Rows(); i++ {
+			for j := 0; j < g.Cols(); j++ {
+				if f := g.Flight(i, j); g.Inside(i, j) && f.Re > 0 {
+					want = append(want, float64(f.Mach), math.Log10(float64(f.Re)))
+					lo, hi = math.Min(lo, float64(f.Re)), math.Max(hi, float64(f.Re))
+				}
+			}
+		}
+		xy, glo, ghi := flightReMach(g)
+		if len(want) == 0 || 2*len(xy) != len(want) {
+			t.Fatalf("%d points, want %d (and more than none)", len(xy), len(want)/2)
+		}
+		for k, p := range xy {
+			if p.X != want[2*k] || p.Y != want[2*k+1] {
+				t.Fatalf("point %d = %v, want (%g, %g)", k, p, want[2*k], want[2*k+1])
+			}
+		}
+		if glo != lo || ghi != hi {
+			t.Errorf("Reynolds range %g..%g, want %g..%g", glo, ghi, lo, hi)
+		}
+	}
+}

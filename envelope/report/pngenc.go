@@ -46,12 +46,12 @@ func encodePNG(b *bytes.Buffer, img *image.RGBA) error {
 		wg.Go(func() {
 			y0, y1 := k*h/bands, (k+1)*h/bands
 			bd := &out[k]
-			bd.data.Grow((y1 - y0) * w / 2)
-			fw, err := flate.NewWriter(&bd.data, flate.BestSpeed)
+			fw, err := newDeflater(&bd.data)
 			if err != nil {
 				bd.err = err
 				return
 			}
+			defer deflaters.Put(fw)
 			ad := adler32.New()
 			rowLen := 1 + 3*w
 			prev, cur := make([]byte, rowLen), make([]byte, rowLen)
@@ -82,11 +82,14 @@ func encodePNG(b *bytes.Buffer, img *image.RGBA) error {
 		})
 	}
 	wg.Wait()
+	size := 0
 	for k := range out {
 		if out[k].clear {
 			return fallback()
 		}
+		size += out[k].data.Len() + 12
 	}
+	b.Grow(size + 64)
 	b.WriteString("\x89PNG\r\n\x1a\n")
 	var ihdr [13]byte
 	binary.BigEndian.PutUint32(ihdr[0:4], uint32(w))
@@ -108,6 +111,19 @@ func encodePNG(b *bytes.Buffer, img *image.RGBA) error {
 	writeChunk(b, "IDAT", tail[:])
 	writeChunk(b, "IEND", nil)
 	return nil
+}
+
+// deflaters keeps the deflate writers of finished bands for the next
+// picture (a writer is over a megabyte to make).
+var deflaters sync.Pool
+
+// newDeflater is a deflate writer at the fastest level writing to dst.
+func newDeflater(dst *bytes.Buffer) (*flate.Writer, error) {
+	if fw, ok := deflaters.Get().(*flate.Writer); ok {
+		fw.Reset(dst)
+		return fw, nil
+	}
+	return flate.NewWriter(dst, flate.BestSpeed)
 }
 
 // rgbRow puts row y of img into dst as a PNG scanline of RGB samples,
@@ -133,45 +149,54 @@ const (
 )
 
 // filterRow returns scanline cur (RGB samples after the type byte)
-// filtered against the previous scanline prev: by Up or Sub, whichever
-// has the smaller sum of absolute differences (the heuristic of the PNG
-// specification, section 12.8, over two of its filters), or cur itself
-// (None) where that is smaller still.
+// filtered against the previous scanline prev: by Up, None or Sub,
+// whichever has the smallest sum of absolute differences (the heuristic
+// of the PNG specification, section 12.8, over three of its filters), the
+// first of them on a tie. A row equal to the one above (most of a chart)
+// is all zeros by Up.
 func filterRow(cur, prev, up, sub []byte) []byte {
 	const bpp = 3
-	c, p := cur[1:], prev[1:]
-	u, s := up[1:], sub[1:]
-	su, ss, sn := 0, 0, 0
-	for i := range c {
-		u[i] = c[i] - p[i]
-		su += abs8(u[i])
-		sn += abs8(c[i])
-	}
-	copy(s[:bpp], c[:bpp])
-	for i := bpp; i < len(c); i++ {
-		s[i] = c[i] - c[i-bpp]
-	}
-	for _, v := range s {
-		ss += abs8(v)
-	}
-	switch {
-	case sn <= su && sn <= ss:
-		cur[0] = pngFilterNone
-		return cur
-	case su <= ss:
-		up[0] = pngFilterUp
+	c := cur[1:]
+	p, u, s := prev[1:len(c)+1], up[1:len(c)+1], sub[1:len(c)+1]
+	up[0], cur[0], sub[0] = pngFilterUp, pngFilterNone, pngFilterSub
+	if bytes.Equal(c, p) {
+		clear(u)
 		return up
 	}
-	sub[0] = pngFilterSub
-	return sub
+	best, row := 0, up
+	for i := range c {
+		u[i] = c[i] - p[i]
+		best += abs8(u[i])
+	}
+	sum := 0
+	for _, v := range c {
+		if sum += abs8(v); sum >= best {
+			break
+		}
+	}
+	if sum < best {
+		best, row = sum, cur
+	}
+	sum = 0
+	copy(s[:bpp], c[:bpp])
+	for i := bpp; i < len(c) && sum < best; i++ {
+		s[i] = c[i] - c[i-bpp]
+		sum += abs8(s[i])
+	}
+	for _, v := range s[:bpp] {
+		sum += abs8(v)
+	}
+	if sum < best {
+		row = sub
+	}
+	return row
 }
 
 // abs8 is the size of a filtered byte read as a signed difference.
 func abs8(d uint8) int {
-	if d < 128 {
-		return int(d)
-	}
-	return 256 - int(d)
+	v := int(int8(d))
+	m := v >> 63
+	return (v ^ m) - m
 }
 
 // writeChunk appends a PNG chunk: length, type, data, CRC-32 of type and

@@ -5,8 +5,10 @@ import (
 	"hash/adler32"
 	"image"
 	"image/color"
+	"image/draw"
 	"image/png"
 	"math/rand/v2"
+	"os"
 	"testing"
 )
 
@@ -98,5 +100,42 @@ func TestEncodePNGBytesFixed(t *testing.T) {
 	}
 	if !bytes.Equal(a.Bytes(), b.Bytes()) {
 		t.Error("two encodings of one picture differ")
+	}
+}
+
+// BenchmarkEncodePNG writes the demo's recorded Reynolds–Mach picture
+// (testdata/golden) with encodePNG, and with image/png at its fastest
+// level for comparison.
+func BenchmarkEncodePNG(b *testing.B) {
+	data, err := os.ReadFile(goldenPath("chart_remach.png"))
+	if err != nil {
+		b.Fatal(err)
+	}
+	m, err := png.Decode(bytes.NewReader(data))
+	if err != nil {
+		b.Fatal(err)
+	}
+	img := image.NewRGBA(m.Bounds())
+	draw.Draw(img, img.Rect, m, image.Point{}, draw.Src)
+	b.SetBytes(int64(len(img.Pix)))
+	for _, c := range []struct {
+		name string
+		enc  func(*bytes.Buffer) error
+	}{
+		{"bands", func(buf *bytes.Buffer) error { return encodePNG(buf, img) }},
+		{"image-png", func(buf *bytes.Buffer) error {
+			return (&png.Encoder{CompressionLevel: png.BestSpeed}).Encode(buf, img)
+		}},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			var buf bytes.Buffer
+			for b.Loop() {
+				buf.Reset()
+				if err := c.enc(&buf); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(buf.Len()), "file-B")
+		})
 	}
 }
