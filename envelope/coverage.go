@@ -91,6 +91,28 @@ func BestReusing(maps []*Map, idx []int, best []Result) ([]int, []Result) {
 	return idx, best
 }
 
+// BestClasses is the class of Best's winner at each point (Outside where
+// no map has the point inside), without Best's arrays of indices and
+// results: what a class map of the best of all needs (nil when there is
+// no map).
+func BestClasses(maps []*Map) []Class {
+	bs, ok := newBestSet(maps)
+	if !ok {
+		return nil
+	}
+	out := make([]Class, bs.n)
+	forRanges(bs.n, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			c := Outside
+			if w, wr := bs.at(k); w >= 0 {
+				c = wr.Class
+			}
+			out[k] = c
+		}
+	})
+	return out
+}
+
 // bestSet is what Best decides points from: the results of the maps
 // taking part, with their index in the maps given.
 type bestSet struct {

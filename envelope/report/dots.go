@@ -33,13 +33,21 @@ type flightDots struct {
 	xy     plotter.XYs
 	color  color.RGBA // opaque
 	radius vg.Length
+	// box is the range of xy (x min, max, y min, max) where it is known
+	// (nil: found from the points).
+	box *[4]float64
 }
 
 func (d *flightDots) style() draw.GlyphStyle {
 	return draw.GlyphStyle{Color: d.color, Radius: d.radius, Shape: draw.CircleGlyph{}}
 }
 
-func (d *flightDots) DataRange() (xmin, xmax, ymin, ymax float64) { return plotter.XYRange(d.xy) }
+func (d *flightDots) DataRange() (xmin, xmax, ymin, ymax float64) {
+	if d.box != nil {
+		return d.box[0], d.box[1], d.box[2], d.box[3]
+	}
+	return plotter.XYRange(d.xy)
+}
 
 func (d *flightDots) Thumbnail(c *draw.Canvas) { c.DrawGlyph(d.style(), c.Center()) }
 

@@ -186,8 +186,8 @@ func MapChart(e *envelope.Evaluation, fac int, customary bool) (*Chart, error) {
 		if len(solved) == 0 {
 			return nil, errors.New("map chart: no facility could be evaluated")
 		}
-		_, best := envelope.Best(solved)
-		class = func(i, j int) envelope.Class { return best[g.Index(i, j)].Class }
+		best := envelope.BestClasses(solved)
+		class = func(i, j int) envelope.Class { return best[g.Index(i, j)] }
 	case fac >= len(e.Facilities):
 		return nil, fmt.Errorf("map chart: facility %d of %d", fac+1, len(e.Facilities))
 	case e.Maps[fac] == nil:
@@ -508,12 +508,12 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 	span := func(y float64) {
 		ylo, yhi = math.Min(ylo, y), math.Max(yhi, y)
 	}
-	flight, relo, rehi := flightReMach(g)
-	if len(flight) == 0 {
+	flight := flightReMach(g)
+	if len(flight.xy) == 0 {
 		return nil, errors.New("Reynolds–Mach chart: no flight points inside the envelope")
 	}
-	span(relo)
-	span(rehi)
+	span(flight.reLo)
+	span(flight.reHi)
 	for _, k := range facs {
 		if k < 0 || k >= len(e.Maps) || e.Maps[k] == nil {
 			continue
@@ -553,7 +553,8 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 			ch.legend.Add(label+": no reachable setting", swatch{withAlpha(col, 0x50)})
 		}
 	}
-	dots := &flightDots{xy: flight, color: rgb(0x222222), radius: vg.Points(1.3)}
+	dots := &flightDots{xy: flight.xy, color: rgb(0x222222), radius: vg.Points(1.3),
+		box: &[4]float64{flight.machLo, flight.machHi, lg(flight.reLo), lg(flight.reHi)}}
 	ch.plot.Add(dots)
 	ch.legend.Add("flight conditions inside the envelope (full scale)", dots)
 	// Whole decades, so every tick lies on the axis.
@@ -567,11 +568,19 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 // side.
 const flightBlocks = 8
 
+// flightPoints are the flight points of the Reynolds–Mach chart: Mach
+// number and log10 of the Reynolds number, with the ranges of both.
+type flightPoints struct {
+	xy             plotter.XYs
+	machLo, machHi float64
+	reLo, reHi     float64 // Reynolds number (not its log)
+}
+
 // flightReMach is the flight Mach number and log10 of the Reynolds number
 // of every grid point inside the envelope that has a Reynolds number, row
-// by row, with the least and largest Reynolds number. The rows are read
-// in blocks side by side, each into its place in the one slice.
-func flightReMach(g *envelope.Grid) (xy plotter.XYs, lo, hi float64) {
+// by row. The rows are read in blocks side by side, each into its place
+// in the one slice.
+func flightReMach(g *envelope.Grid) flightPoints {
 	rows, cols := g.Rows(), g.Cols()
 	blocks := min(flightBlocks, rows)
 	// Each block's place: the count of inside points before it.
@@ -587,14 +596,15 @@ func flightReMach(g *envelope.Grid) (xy plotter.XYs, lo, hi float64) {
 		}
 		start[b+1] = start[b] + n
 	}
-	xy = make(plotter.XYs, start[blocks])
+	xy := make(plotter.XYs, start[blocks])
 	got := make([]int, blocks)
-	los, his := make([]float64, blocks), make([]float64, blocks)
+	box := make([]flightPoints, blocks)
 	var wg sync.WaitGroup
 	for b := range blocks {
 		wg.Go(func() {
 			out := xy[start[b]:start[b+1]]
-			n, l, h := 0, math.Inf(1), math.Inf(-1)
+			n := 0
+			bx := flightPoints{machLo: math.Inf(1), machHi: math.Inf(-1), reLo: math.Inf(1), reHi: math.Inf(-1)}
 			for i := b * rows / blocks; i < (b+1)*rows/blocks; i++ {
 				for j := range cols {
 					if !g.Inside(i, j) {
@@ -602,24 +612,29 @@ func flightReMach(g *envelope.Grid) (xy plotter.XYs, lo, hi float64) {
 					}
 					f := g.Flight(i, j)
 					if re := float64(f.Re); re > 0 {
-						out[n] = plotter.XY{X: float64(f.Mach), Y: math.Log10(re)}
+						m := float64(f.Mach)
+						out[n] = plotter.XY{X: m, Y: math.Log10(re)}
 						n++
-						l, h = math.Min(l, re), math.Max(h, re)
+						bx.machLo, bx.machHi = min(bx.machLo, m), max(bx.machHi, m)
+						bx.reLo, bx.reHi = min(bx.reLo, re), max(bx.reHi, re)
 					}
 				}
 			}
-			got[b], los[b], his[b] = n, l, h
+			got[b], box[b] = n, bx
 		})
 	}
 	wg.Wait()
 	// Close the gaps left by inside points without a Reynolds number.
+	fp := flightPoints{machLo: math.Inf(1), machHi: math.Inf(-1), reLo: math.Inf(1), reHi: math.Inf(-1)}
 	n := 0
-	lo, hi = math.Inf(1), math.Inf(-1)
 	for b := range blocks {
 		n += copy(xy[n:], xy[start[b]:start[b]+got[b]])
-		lo, hi = math.Min(lo, los[b]), math.Max(hi, his[b])
+		bx := box[b]
+		fp.machLo, fp.machHi = min(fp.machLo, bx.machLo), max(fp.machHi, bx.machHi)
+		fp.reLo, fp.reHi = min(fp.reLo, bx.reLo), max(fp.reHi, bx.reHi)
 	}
-	return xy[:n], lo, hi
+	fp.xy = xy[:n]
+	return fp
 }
 
 // logTicks marks an axis of log10 values at every whole multiple of each

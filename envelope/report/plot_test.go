@@ -9,6 +9,7 @@ import (
 	"math"
 	"testing"
 
+	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 
 	"likewind/envelope"
@@ -193,7 +194,11 @@ func TestFlightReMach(t *testing.T) {
 				}
 			}
 		}
-		xy, glo, ghi := flightReMach(g)
+		fp := flightReMach(g)
+		xy, glo, ghi := fp.xy, fp.reLo, fp.reHi
+		if xmin, xmax, ymin, ymax := plotter.XYRange(xy); fp.machLo != xmin || fp.machHi != xmax || math.Log10(glo) != ymin || math.Log10(ghi) != ymax {
+			t.Errorf("ranges Mach %g..%g, log Re %g..%g; the points' %g..%g, %g..%g", fp.machLo, fp.machHi, math.Log10(glo), math.Log10(ghi), xmin, xmax, ymin, ymax)
+		}
 		if len(want) == 0 || 2*len(xy) != len(want) {
 			t.Fatalf("%d points, want %d (and more than none)", len(xy), len(want)/2)
 		}
