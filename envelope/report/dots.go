@@ -59,7 +59,7 @@ const (
 )
 
 func (d *flightDots) Plot(c draw.Canvas, p *plot.Plot) {
-	trX, trY := p.Transforms(&c)
+	trX, trY := transforms(&c, p)
 	img, dpi, raster := rasterOf(c)
 	if !raster {
 		dpi = ChartDPI

@@ -291,7 +291,7 @@ const cellSeam = 0.3 // points
 const cellBands = 4
 
 func (cc *classCells) Plot(c draw.Canvas, p *plot.Plot) {
-	trX, trY := p.Transforms(&c)
+	trX, trY := transforms(&c, p)
 	img, dpi, raster := rasterOf(c)
 	if !raster {
 		cc.eachRun(0, len(cc.ys)-1, func(i, j, end int, k envelope.Class) {

@@ -6,6 +6,7 @@ import (
 	"math"
 
 	"git.sr.ht/~sbinet/gg"
+	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/font"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
@@ -72,6 +73,24 @@ func rootCanvas(c vg.Canvas) vg.Canvas {
 	}
 }
 
+// transforms is p.Transforms(c): data to canvas coordinates. Where an
+// axis has the linear scale (every axis of the charts) its transform is
+// the same arithmetic written out, without the copy of the axis and the
+// call through its scale that p's makes per value (a plotter of a million
+// points calls it two million times).
+func transforms(c *draw.Canvas, p *plot.Plot) (x, y func(float64) vg.Length) {
+	x, y = p.Transforms(c)
+	if _, ok := p.X.Scale.(plot.LinearScale); ok {
+		lo, hi, c0, c1 := p.X.Min, p.X.Max, c.Min.X, c.Max.X
+		x = func(v float64) vg.Length { return vg.Length((v-lo)/(hi-lo))*(c1-c0) + c0 }
+	}
+	if _, ok := p.Y.Scale.(plot.LinearScale); ok {
+		lo, hi, c0, c1 := p.Y.Min, p.Y.Max, c.Min.Y, c.Max.Y
+		y = func(v float64) vg.Length { return vg.Length((v-lo)/(hi-lo))*(c1-c0) + c0 }
+	}
+	return x, y
+}
+
 // pixelRect is an axis-aligned rectangle in the pixels of a picture, x
 // right and y down from its top left corner, at the 1/64 pixel the vector
 // rasteriser places corners at.
@@ -110,9 +129,8 @@ func fillRect(img *image.RGBA, r pixelRect, col color.RGBA, ylo, yhi int) {
 		return
 	}
 	const full = 0xffff
-	cr, cg, cb := uint32(col.R)*0x101, uint32(col.G)*0x101, uint32(col.B)*0x101
 	// Coverage of the first and last columns (the others are covered
-	// whole).
+	// whole, so a row's inner pixels share its coverage).
 	cx0 := min(r.x1, float64(px0+1)) - max(r.x0, float64(px0))
 	cx1 := min(r.x1, float64(px1)) - max(r.x0, float64(px1-1))
 	for py := py0; py < py1; py++ {
@@ -122,26 +140,40 @@ func fillRect(img *image.RGBA, r pixelRect, col color.RGBA, ylo, yhi int) {
 		}
 		i := img.PixOffset(px0, py)
 		row := img.Pix[i : i+4*(px1-px0) : i+4*(px1-px0)]
-		for x := px0; x < px1; x++ {
-			cx := 1.0
-			switch x {
-			case px0:
-				cx = cx0
-			case px1 - 1:
-				cx = cx1
+		n := px1 - px0
+		blendPixel(row[:4], col, uint32(math.Round(cx0*cy*full)))
+		if n > 1 {
+			blendPixel(row[4*(n-1):], col, uint32(math.Round(cx1*cy*full)))
+		}
+		if n > 2 {
+			inner := row[4 : 4*(n-1)]
+			ma := uint32(math.Round(cy * full))
+			if ma >= full {
+				for k := 0; k < len(inner); k += 4 {
+					p := inner[k : k+4 : k+4]
+					p[0], p[1], p[2], p[3] = col.R, col.G, col.B, 0xff
+				}
+				continue
 			}
-			ma := uint32(math.Round(cx * cy * full))
-			p := row[4*(x-px0) : 4*(x-px0)+4 : 4*(x-px0)+4]
-			switch {
-			case ma >= full:
-				p[0], p[1], p[2], p[3] = col.R, col.G, col.B, 0xff
-			case ma > 0:
-				a := (full - ma) * 0x101
-				p[0] = uint8((uint32(p[0])*a + cr*ma) / full >> 8)
-				p[1] = uint8((uint32(p[1])*a + cg*ma) / full >> 8)
-				p[2] = uint8((uint32(p[2])*a + cb*ma) / full >> 8)
-				p[3] = uint8((uint32(p[3])*a + full*ma) / full >> 8)
+			for k := 0; k < len(inner); k += 4 {
+				blendPixel(inner[k:k+4:k+4], col, ma)
 			}
 		}
+	}
+}
+
+// blendPixel blends opaque colour col over pixel p (4 bytes RGBA) by
+// coverage ma (0..0xffff), as the vector rasteriser's painter does.
+func blendPixel(p []byte, col color.RGBA, ma uint32) {
+	const full = 0xffff
+	switch {
+	case ma >= full:
+		p[0], p[1], p[2], p[3] = col.R, col.G, col.B, 0xff
+	case ma > 0:
+		a := (full - ma) * 0x101
+		p[0] = uint8((uint32(p[0])*a + uint32(col.R)*0x101*ma) / full >> 8)
+		p[1] = uint8((uint32(p[1])*a + uint32(col.G)*0x101*ma) / full >> 8)
+		p[2] = uint8((uint32(p[2])*a + uint32(col.B)*0x101*ma) / full >> 8)
+		p[3] = uint8((uint32(p[3])*a + full*ma) / full >> 8)
 	}
 }

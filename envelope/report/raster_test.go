@@ -7,6 +7,9 @@ import (
 	"testing"
 
 	"git.sr.ht/~sbinet/gg"
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
 )
 
 // TestFillRectAsVector: rectangles painted by fillRect, overlapping, at
@@ -59,4 +62,28 @@ func TestFillRectAsVector(t *testing.T) {
 		t.Errorf("fillRect differs from the vector fill by up to %d/255 a channel, want at most 2", worst)
 	}
 	t.Logf("largest difference from the vector fill: %d/255", worst)
+}
+
+// TestTransformsAsPlot: the written-out linear transforms give the plot's
+// own values bit for bit, and a log axis keeps the plot's transform.
+func TestTransformsAsPlot(t *testing.T) {
+	p := plot.New()
+	p.X.Min, p.X.Max = -0.3, 4.7
+	p.Y.Min, p.Y.Max = 3, 9.25
+	c := draw.Canvas{Rectangle: vg.Rectangle{Min: vg.Point{X: 31.5, Y: 12.25}, Max: vg.Point{X: 700.1, Y: 433}}}
+	for _, logY := range []bool{false, true} {
+		if logY {
+			p.Y.Min, p.Y.Max, p.Y.Scale = 10, 1e7, plot.LogScale{}
+		}
+		wx, wy := p.Transforms(&c)
+		gx, gy := transforms(&c, p)
+		for _, v := range []float64{0.1, 1.0 / 3, 2.5, 4.7, 9.25, 11, 1e3, 1e7} {
+			if gx(v) != wx(v) {
+				t.Errorf("x(%g) = %v, plot's %v", v, gx(v), wx(v))
+			}
+			if gy(v) != wy(v) {
+				t.Errorf("log %v: y(%g) = %v, plot's %v", logY, v, gy(v), wy(v))
+			}
+		}
+	}
 }
