@@ -244,8 +244,11 @@ func (st *dotStamps) cover(left []uint16, w, qx, qy, ylo, yhi int) {
 		}
 		row := left[y*w+x0+u0 : y*w+x0+u1]
 		k := keep[r*st.side+u0 : r*st.side+u1]
-		for u := range row {
-			row[u] = uint16((uint32(row[u])*k[u] + full/2) / full)
+		k = k[:len(row)]
+		for u, l := range row {
+			if l != 0 {
+				row[u] = uint16((uint32(l)*k[u] + full/2) / full)
+			}
 		}
 	}
 }
