@@ -113,6 +113,40 @@ func BestClasses(maps []*Map) []Class {
 	return out
 }
 
+// bestFold is the best of all made one map at a time: the winner's class
+// and Reynolds ratio at each point so far (Outside: no winner yet).
+type bestFold struct {
+	class []Class
+	ratio []float32
+}
+
+func newBestFold(n int) *bestFold {
+	f := &bestFold{class: make([]Class, n), ratio: make([]float32, n)}
+	for k := range f.class {
+		f.class[k] = Outside
+	}
+	return f
+}
+
+// add takes the next map's results (maps in facility order): a result
+// replaces the winner only when better (class rank, then Reynolds ratio
+// nearest 1), so ties go to the earlier map, as in Best.
+func (f *bestFold) add(rs []Result) {
+	forRanges(len(rs), func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			r := &rs[k]
+			if r.Class == Outside {
+				continue
+			}
+			w := f.class[k]
+			rank, wRank := r.Class.Rank(), w.Rank()
+			if w == Outside || rank < wRank || (rank == wRank && closerToOne(r.ReRatio, f.ratio[k])) {
+				f.class[k], f.ratio[k] = r.Class, r.ReRatio
+			}
+		}
+	})
+}
+
 // bestSet is what Best decides points from: the results of the maps
 // taking part, with their index in the maps given.
 type bestSet struct {

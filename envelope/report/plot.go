@@ -186,12 +186,17 @@ func MapChart(e *envelope.Evaluation, fac int, customary bool) (*Chart, error) {
 		if len(solved) == 0 {
 			return nil, errors.New("map chart: no facility could be evaluated")
 		}
-		best := envelope.BestClasses(solved)
+		best := e.Best // kept by EvaluateBest
+		if best == nil {
+			best = envelope.BestClasses(solved)
+		}
 		class = func(i, j int) envelope.Class { return best[g.Index(i, j)] }
 	case fac >= len(e.Facilities):
 		return nil, fmt.Errorf("map chart: facility %d of %d", fac+1, len(e.Facilities))
 	case e.Maps[fac] == nil:
 		return nil, fmt.Errorf("map chart: %s was not evaluated: %v", e.Facilities[fac].Name, e.Errs[fac])
+	case e.Maps[fac].Results == nil:
+		return nil, fmt.Errorf("map chart: the results of %s were not kept (an evaluation of the best of all only)", e.Facilities[fac].Name)
 	default:
 		m := e.Maps[fac]
 		what = fmt.Sprintf("%s, model scale %.3g", m.Facility.Name, m.Scale)

@@ -212,3 +212,55 @@ func TestFlightReMach(t *testing.T) {
 		}
 	}
 }
+
+// TestChartsOfEvaluateBest: the map of the best of all and the
+// Reynolds–Mach chart drawn from EvaluateBest (no results kept per
+// facility) are the same files as from Evaluate; a one-facility map,
+// which needs that facility's results, is refused.
+func TestChartsOfEvaluateBest(t *testing.T) {
+	vs, err := envelope.DemoVehicles()
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, facs, err := envelope.Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	v := vs[0]
+	s := envelope.DefaultSettings(v)
+	full, err := envelope.Evaluate(v, facs, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	lean, err := envelope.EvaluateBest(v, facs, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	render := func(e *envelope.Evaluation, format string) (m, r []byte) {
+		mc, err := MapChart(e, -1, false)
+		if err != nil {
+			t.Fatal(err)
+		}
+		rc, err := ReMachChart(e, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if m, err = mc.Render(format); err != nil {
+			t.Fatal(err)
+		}
+		if r, err = rc.Render(format); err != nil {
+			t.Fatal(err)
+		}
+		return m, r
+	}
+	for _, format := range []string{"png", "svg"} {
+		fm, fr := render(full, format)
+		lm, lr := render(lean, format)
+		if !bytes.Equal(fm, lm) || !bytes.Equal(fr, lr) {
+			t.Errorf("%s: the pictures of EvaluateBest differ from Evaluate's (map equal %v, Reynolds–Mach equal %v)", format, bytes.Equal(fm, lm), bytes.Equal(fr, lr))
+		}
+	}
+	if _, err := MapChart(lean, 0, false); err == nil {
+		t.Error("MapChart(one facility) of EvaluateBest = nil error, want results not kept")
+	}
+}
