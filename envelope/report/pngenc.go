@@ -8,7 +8,10 @@ import (
 	"hash/crc32"
 	"image"
 	"image/png"
+	"io"
+	"runtime"
 	"sync"
+	"sync/atomic"
 )
 
 // pngBands is how many bands of rows a picture is filtered and compressed
@@ -19,7 +22,7 @@ const pngBands = 8
 // encodePNG writes img as a PNG file. An opaque picture (every chart: the
 // canvas starts white and everything is drawn over it) is written as 8-bit
 // RGB, its rows in pngBands bands each filtered and deflated (at the
-// fastest level) on its own goroutine, the bands' deflate streams joined
+// fastest level), the bands side by side, the bands' deflate streams joined
 // at byte-aligned flush points into the one zlib stream of the file, as
 // parallel compressors do. Any other picture goes to image/png.
 func encodePNG(b *bytes.Buffer, img *image.RGBA) error {
@@ -41,44 +44,60 @@ func encodePNG(b *bytes.Buffer, img *image.RGBA) error {
 		clear bool // a pixel is not opaque
 	}
 	out := make([]band, bands)
-	var wg sync.WaitGroup
-	for k := range out {
-		wg.Go(func() {
-			y0, y1 := k*h/bands, (k+1)*h/bands
-			bd := &out[k]
-			fw, err := newDeflater(&bd.data)
-			if err != nil {
+	// encodeBand filters and deflates band k with fw.
+	encodeBand := func(k int, fw *flate.Writer) {
+		y0, y1 := k*h/bands, (k+1)*h/bands
+		bd := &out[k]
+		fw.Reset(&bd.data)
+		ad := adler32.New()
+		rowLen := 1 + 3*w
+		prev, cur := make([]byte, rowLen), make([]byte, rowLen)
+		up, sub := make([]byte, rowLen), make([]byte, rowLen)
+		if y0 > 0 {
+			rgbRow(prev, img, y0-1)
+		}
+		for y := y0; y < y1; y++ {
+			if !rgbRow(cur, img, y) {
+				bd.clear = true
+				return
+			}
+			row := filterRow(cur, prev, up, sub)
+			ad.Write(row)
+			if _, err := fw.Write(row); err != nil {
 				bd.err = err
 				return
 			}
-			defer deflaters.Put(fw)
-			ad := adler32.New()
-			rowLen := 1 + 3*w
-			prev, cur := make([]byte, rowLen), make([]byte, rowLen)
-			up, sub := make([]byte, rowLen), make([]byte, rowLen)
-			if y0 > 0 {
-				rgbRow(prev, img, y0-1)
+			bd.n += len(row)
+			prev, cur = cur, prev
+		}
+		if k == bands-1 {
+			bd.err = fw.Close()
+		} else {
+			bd.err = fw.Flush()
+		}
+		bd.sum = ad.Sum32()
+	}
+	// One worker per processor takes the bands in turn, each with one
+	// deflate writer (a writer is over half a megabyte to make).
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for range min(runtime.GOMAXPROCS(0), bands) {
+		wg.Go(func() {
+			fw, err := newDeflater()
+			if err == nil {
+				defer deflaters.Put(fw)
 			}
-			for y := y0; y < y1; y++ {
-				if !rgbRow(cur, img, y) {
-					bd.clear = true
+			for {
+				k := int(next.Add(1) - 1)
+				if k >= bands {
 					return
 				}
-				row := filterRow(cur, prev, up, sub)
-				ad.Write(row)
-				if _, err := fw.Write(row); err != nil {
-					bd.err = err
-					return
+				if err != nil {
+					out[k].err = err
+					continue
 				}
-				bd.n += len(row)
-				prev, cur = cur, prev
+				encodeBand(k, fw)
 			}
-			if k == bands-1 {
-				bd.err = fw.Close()
-			} else {
-				bd.err = fw.Flush()
-			}
-			bd.sum = ad.Sum32()
 		})
 	}
 	wg.Wait()
@@ -113,17 +132,16 @@ func encodePNG(b *bytes.Buffer, img *image.RGBA) error {
 	return nil
 }
 
-// deflaters keeps the deflate writers of finished bands for the next
-// picture (a writer is over a megabyte to make).
+// deflaters keeps the deflate writers of finished pictures for the next.
 var deflaters sync.Pool
 
-// newDeflater is a deflate writer at the fastest level writing to dst.
-func newDeflater(dst *bytes.Buffer) (*flate.Writer, error) {
+// newDeflater is a deflate writer at the fastest level (to be Reset to
+// its output).
+func newDeflater() (*flate.Writer, error) {
 	if fw, ok := deflaters.Get().(*flate.Writer); ok {
-		fw.Reset(dst)
 		return fw, nil
 	}
-	return flate.NewWriter(dst, flate.BestSpeed)
+	return flate.NewWriter(io.Discard, flate.BestSpeed)
 }
 
 // rgbRow puts row y of img into dst as a PNG scanline of RGB samples,
