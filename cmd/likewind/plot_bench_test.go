@@ -38,6 +38,7 @@ func BenchmarkPlotCommand1000(b *testing.B) {
 			b.Fatalf("plot exit %d: %s", code, stderr.String())
 		}
 	}
+	b.ReportMetric(float64(b.Elapsed().Microseconds())/1e3/float64(b.N), "ms/op")
 	for _, name := range []string{"out-map.png", "out-remach.png"} {
 		st, err := os.Stat(filepath.Join(dir, name))
 		if err != nil {
