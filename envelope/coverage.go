@@ -91,6 +91,62 @@ func BestReusing(maps []*Map, idx []int, best []Result) ([]int, []Result) {
 	return idx, best
 }
 
+// BestClasses is the class of Best's winner at each point (Outside where
+// no map has the point inside), without Best's arrays of indices and
+// results: what a class map of the best of all needs (nil when there is
+// no map).
+func BestClasses(maps []*Map) []Class {
+	bs, ok := newBestSet(maps)
+	if !ok {
+		return nil
+	}
+	out := make([]Class, bs.n)
+	forRanges(bs.n, func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			c := Outside
+			if w, wr := bs.at(k); w >= 0 {
+				c = wr.Class
+			}
+			out[k] = c
+		}
+	})
+	return out
+}
+
+// bestFold is the best of all made one map at a time: the winner's class
+// and Reynolds ratio at each point so far (Outside: no winner yet).
+type bestFold struct {
+	class []Class
+	ratio []float32
+}
+
+func newBestFold(n int) *bestFold {
+	f := &bestFold{class: make([]Class, n), ratio: make([]float32, n)}
+	for k := range f.class {
+		f.class[k] = Outside
+	}
+	return f
+}
+
+// add takes the next map's results (maps in facility order): a result
+// replaces the winner only when better (class rank, then Reynolds ratio
+// nearest 1), so ties go to the earlier map, as in Best.
+func (f *bestFold) add(rs []Result) {
+	forRanges(len(rs), func(lo, hi int) {
+		for k := lo; k < hi; k++ {
+			r := &rs[k]
+			if r.Class == Outside {
+				continue
+			}
+			w := f.class[k]
+			rank, wRank := r.Class.Rank(), w.Rank()
+			if w == Outside || rank < wRank || (rank == wRank && closerToOne(r.ReRatio, f.ratio[k])) {
+				f.class[k], f.ratio[k] = r.Class, r.ReRatio
+			}
+		}
+	})
+}
+
 // bestSet is what Best decides points from: the results of the maps
 // taking part, with their index in the maps given.
 type bestSet struct {

@@ -59,6 +59,44 @@ func TestBestAndUnion(t *testing.T) {
 	if idx, best := Best(nil); idx != nil || best != nil {
 		t.Error("Best(nil) should return nil slices")
 	}
+	// BestClasses: the winners' classes alone, Outside where there is
+	// none.
+	got := BestClasses([]*Map{a, b})
+	for k, want := range wantClass {
+		if got[k] != want {
+			t.Errorf("BestClasses point %d = %v, want %v", k, got[k], want)
+		}
+	}
+	if BestClasses(nil) != nil {
+		t.Error("BestClasses(nil) should be nil")
+	}
+}
+
+// TestBestClassesOfRealMaps: on a solved grid, BestClasses is the class
+// of Best's winner at every point.
+func TestBestClassesOfRealMaps(t *testing.T) {
+	g, err := NewGrid(testTransport(), testSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	var maps []*Map
+	for _, f := range []Facility{cryoTunnel(), benchFacilities()[1], waterTunnel()} {
+		m, err := Solve(g, &f, testSettings())
+		if err != nil {
+			t.Fatal(err)
+		}
+		maps = append(maps, m)
+	}
+	_, best := Best(maps)
+	classes := BestClasses(maps)
+	if len(classes) != len(best) {
+		t.Fatalf("%d classes, want %d", len(classes), len(best))
+	}
+	for k := range best {
+		if classes[k] != best[k].Class {
+			t.Fatalf("point %d: class %v, Best's winner %v", k, classes[k], best[k].Class)
+		}
+	}
 }
 
 // TestUnionOfRealMaps: the union over facilities covers at least what

@@ -1,6 +1,7 @@
 package envelope
 
 import (
+	"context"
 	"errors"
 	"strings"
 )
@@ -14,6 +15,10 @@ type Evaluation struct {
 	Settings   Settings
 	Maps       []*Map  // per facility, nil when Errs has the reason
 	Errs       []error // per facility
+	// Best is the class of the best of all facilities at each point
+	// (BestClasses of the maps) when the evaluation was made by
+	// EvaluateBest, whose maps keep no Results; nil from Evaluate.
+	Best []Class
 }
 
 // Evaluate builds the grid of v and solves every facility on it.
@@ -27,6 +32,37 @@ func Evaluate(v *Vehicle, facs []Facility, s Settings) (*Evaluation, error) {
 	for k := range facs {
 		e.Maps[k], e.Errs[k] = Solve(g, &facs[k], s)
 	}
+	return e, nil
+}
+
+// EvaluateBest is Evaluate for a caller that needs of the maps only the
+// class of the best of all at each point and each map's own values (its
+// facility, settings, scale and reachable Reynolds range), such as a
+// picture of the best of all: the facilities are solved one after the
+// other into one array of results, each folded into the best of all as it
+// is done (the same winners as Best), so that one facility's results are
+// held instead of one array per facility. The maps it returns have no
+// Results (nil); e.Best has the classes.
+func EvaluateBest(v *Vehicle, facs []Facility, s Settings) (*Evaluation, error) {
+	g, err := NewGrid(v, s)
+	if err != nil {
+		return nil, err
+	}
+	e := &Evaluation{Grid: g, Facilities: facs, Settings: s,
+		Maps: make([]*Map, len(facs)), Errs: make([]error, len(facs))}
+	best := newBestFold(g.Len())
+	var buf []Result
+	for k := range facs {
+		m, err := SolveReusing(context.Background(), g, &facs[k], s, buf)
+		if err != nil {
+			e.Errs[k] = err
+			continue
+		}
+		best.add(m.Results)
+		buf, m.Results = m.Results, nil
+		e.Maps[k] = m
+	}
+	e.Best = best.class
 	return e, nil
 }
 

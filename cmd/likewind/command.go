@@ -73,7 +73,14 @@ type command struct {
 	// evs are the evaluations of every vehicle (spec.vehicles; ev is the
 	// first).
 	evs []*evaluated
+	// evaluate is how load evaluates the facilities (nil:
+	// envelope.Evaluate, every map with its results).
+	evaluate evaluator
 }
+
+// evaluator evaluates every facility on a vehicle's grid
+// (envelope.Evaluate or envelope.EvaluateBest).
+type evaluator func(*envelope.Vehicle, []envelope.Facility, envelope.Settings) (*envelope.Evaluation, error)
 
 // newCommand makes the flag set of spec with its common flags; the
 // command may add its own flags to c.fs before run.
@@ -201,8 +208,11 @@ func (c *command) load() error {
 		c.evs, c.ev = evs, evs[0]
 		return nil
 	}
-	ev, err := evaluateInputs(c.files, c.session, c.stderr)
-	c.ev = ev
+	in, err := loadInputs(c.files)
+	if err != nil {
+		return err
+	}
+	c.ev, err = evaluateLoadedWith(in, c.session, c.stderr, c.evaluate)
 	return err
 }
 
@@ -336,6 +346,15 @@ func evaluateInputs(files []string, sessionPath string, stderr io.Writer) (*eval
 
 // evaluateLoaded is evaluateInputs on inputs already loaded.
 func evaluateLoaded(in inputs, sessionPath string, stderr io.Writer) (*evaluated, error) {
+	return evaluateLoadedWith(in, sessionPath, stderr, nil)
+}
+
+// evaluateLoadedWith is evaluateLoaded evaluating by evaluate (nil:
+// envelope.Evaluate).
+func evaluateLoadedWith(in inputs, sessionPath string, stderr io.Writer, evaluate evaluator) (*evaluated, error) {
+	if evaluate == nil {
+		evaluate = envelope.Evaluate
+	}
 	ev := &evaluated{in: in}
 	s := envelope.DefaultSettings(in.vehicle)
 	facs := append([]envelope.Facility(nil), in.facilities...)
@@ -353,7 +372,7 @@ func evaluateLoaded(in inputs, sessionPath string, stderr io.Writer) (*evaluated
 			return nil, fmt.Errorf("session %s: %w", sessionPath, err)
 		}
 	}
-	e, err := envelope.Evaluate(in.vehicle, facs, s)
+	e, err := evaluate(in.vehicle, facs, s)
 	if err != nil {
 		return nil, fmt.Errorf("evaluate %s: %w", in.vehicle.Name, err)
 	}

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"path/filepath"
+	"slices"
 	"strings"
 	"sync"
 
@@ -37,6 +38,12 @@ func runPlot(args []string, stdout, stderr io.Writer) int {
 		}
 		for _, t := range targets {
 			c.targets = append(c.targets, t.path)
+		}
+		if c.facility == "" && !slices.ContainsFunc(targets, func(t plotTarget) bool { return t.chart == "scales" }) {
+			// The map of the best of all and the Reynolds–Mach chart
+			// of every facility need no facility's results: solve
+			// them one after the other in one array.
+			c.evaluate = envelope.EvaluateBest
 		}
 		if err := c.load(); err != nil {
 			return err

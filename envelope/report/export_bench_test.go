@@ -163,7 +163,15 @@ func recordNums(r *ExportRecord) []Num {
 // BenchmarkPlot1000 draws the two pictures plot writes by default (the
 // class map of the best of all facilities and the Reynolds–Mach chart) of
 // the demo vehicle on a 1000×1000 grid, as PNG (the grid is solved once,
-// outside the loop).
+// outside the loop). The whole command is cmd/likewind's
+// BenchmarkPlotCommand1000.
+//
+// Measured 2026-12-03 on the shared 2-core machine (load average 2–2.6
+// from other work), main at 8da994f and the pictures' rewrite run back to
+// back, the least of three rounds (-cpu 1 / -cpu 2):
+//
+//	plot 1000²   308 / 339 ms  →  148 / 154 ms  (0.48× / 0.45×)
+//	whole command (BenchmarkPlotCommand1000)  414 → 276 ms  (0.67×)
 func BenchmarkPlot1000(b *testing.B) {
 	e := bench1000.get(b, 1000)
 	for b.Loop() {

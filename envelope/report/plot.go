@@ -5,16 +5,15 @@ import (
 	"errors"
 	"fmt"
 	"image/color"
-	"image/png"
 	"math"
 	"strconv"
 	"strings"
+	"sync"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
-	"gonum.org/v1/plot/vg/vgimg"
 	"gonum.org/v1/plot/vg/vgsvg"
 
 	"likewind/atmos"
@@ -72,40 +71,41 @@ type Chart struct {
 // The plot fills ChartWidth × ChartHeight; the legend is added below it.
 func (ch *Chart) Render(format string) ([]byte, error) {
 	pad := 0.4 * vg.Centimeter
-	// Measure the legend on a scratch canvas of the final width.
-	probe := draw.NewCanvas(vgimg.New(ChartWidth, ChartHeight), ChartWidth, ChartHeight)
+	// Measure the legend in an area of the final width (it measures its
+	// text by the font alone: the area needs no canvas).
+	probe := draw.Canvas{Rectangle: vg.Rectangle{Max: vg.Point{X: ChartWidth, Y: ChartHeight}}}
 	lr := ch.legend.Rectangle(probe)
 	legH := lr.Max.Y - lr.Min.Y + 2*pad
 	w, h := ChartWidth, ChartHeight+legH
 
-	var vc vg.CanvasWriterTo
-	var raster *vgimg.Canvas
+	var b bytes.Buffer
 	switch strings.ToLower(format) {
 	case "png":
-		raster = vgimg.NewWith(vgimg.UseWH(w, h), vgimg.UseDPI(ChartDPI), vgimg.UseBackgroundColor(color.White))
-		vc = vgimg.PngCanvas{Canvas: raster}
+		pc := newPictureCanvas(w, h, ChartDPI)
+		ch.draw(draw.NewCanvas(pc, w, h), pad, legH)
+		// The fastest compression: a chart is a few flat colours, which
+		// it packs nearly as well as the default (files well under 1 MB).
+		if err := encodePNG(&b, pc.img); err != nil {
+			return nil, fmt.Errorf("render %s chart: %w", format, err)
+		}
 	case "svg":
-		vc = vgsvg.NewWith(vgsvg.UseWH(w, h), vgsvg.EmbedFonts(true))
+		vc := vgsvg.NewWith(vgsvg.UseWH(w, h), vgsvg.EmbedFonts(true))
+		ch.draw(draw.NewCanvas(vc, w, h), pad, legH)
+		if _, err := vc.WriteTo(&b); err != nil {
+			return nil, fmt.Errorf("render %s chart: %w", format, err)
+		}
 	default:
 		return nil, fmt.Errorf("chart format %q: want png or svg", format)
 	}
-	dc := draw.NewCanvas(vc, w, h)
+	return b.Bytes(), nil
+}
+
+// draw draws the plot on dc with the legend in a strip legH tall under
+// it, pad from the edges.
+func (ch *Chart) draw(dc draw.Canvas, pad, legH vg.Length) {
+	h := dc.Max.Y - dc.Min.Y
 	ch.plot.Draw(draw.Crop(dc, pad/2, -pad, legH, -pad/2))
 	ch.legend.Draw(draw.Crop(dc, pad, -pad, pad, -(h - legH)))
-	var b bytes.Buffer
-	if raster != nil {
-		// The fastest compression: a chart is a few flat colours, which
-		// it packs nearly as well as the default (files well under 1 MB).
-		enc := png.Encoder{CompressionLevel: png.BestSpeed}
-		if err := enc.Encode(&b, raster.Image()); err != nil {
-			return nil, fmt.Errorf("render %s chart: %w", format, err)
-		}
-		return b.Bytes(), nil
-	}
-	if _, err := vc.WriteTo(&b); err != nil {
-		return nil, fmt.Errorf("render %s chart: %w", format, err)
-	}
-	return b.Bytes(), nil
 }
 
 // newChart is a plot with the common look: title, axis labels, legend
@@ -186,12 +186,17 @@ func MapChart(e *envelope.Evaluation, fac int, customary bool) (*Chart, error) {
 		if len(solved) == 0 {
 			return nil, errors.New("map chart: no facility could be evaluated")
 		}
-		_, best := envelope.Best(solved)
-		class = func(i, j int) envelope.Class { return best[g.Index(i, j)].Class }
+		best := e.Best // kept by EvaluateBest
+		if best == nil {
+			best = envelope.BestClasses(solved)
+		}
+		class = func(i, j int) envelope.Class { return best[g.Index(i, j)] }
 	case fac >= len(e.Facilities):
 		return nil, fmt.Errorf("map chart: facility %d of %d", fac+1, len(e.Facilities))
 	case e.Maps[fac] == nil:
 		return nil, fmt.Errorf("map chart: %s was not evaluated: %v", e.Facilities[fac].Name, e.Errs[fac])
+	case e.Maps[fac].Results == nil:
+		return nil, fmt.Errorf("map chart: the results of %s were not kept (an evaluation of the best of all only)", e.Facilities[fac].Name)
 	default:
 		m := e.Maps[fac]
 		what = fmt.Sprintf("%s, model scale %.3g", m.Facility.Name, m.Scale)
@@ -281,24 +286,80 @@ func (cc *classCells) DataRange() (xmin, xmax, ymin, ymax float64) {
 	return cc.xs[0], cc.xs[len(cc.xs)-1], cc.ys[0], cc.ys[len(cc.ys)-1]
 }
 
+// cellSeam is how far each cell is drawn over its right and upper
+// neighbours, which are drawn after it: a hair of overlap hides
+// anti-aliasing seams between cells.
+const cellSeam = 0.3 // points
+
+// cellBands is how many bands of picture rows the cells are painted in,
+// side by side, on a PNG canvas.
+const cellBands = 4
+
 func (cc *classCells) Plot(c draw.Canvas, p *plot.Plot) {
-	trX, trY := p.Transforms(&c)
-	rows, cols := len(cc.ys)-1, len(cc.xs)-1
-	for i := 0; i < rows; i++ {
-		y0, y1 := trY(cc.ys[i]), trY(cc.ys[i+1])
+	trX, trY := transforms(&c, p)
+	img, dpi, raster := rasterOf(c)
+	if !raster {
+		cc.eachRun(0, len(cc.ys)-1, func(i, j, end int, k envelope.Class) {
+			x0, x1, y0, y1 := cc.runCorners(trX, trY, i, j, end)
+			c.FillPolygon(classColor(k), []vg.Point{{X: x0, Y: y0}, {X: x1, Y: y0}, {X: x1, Y: y1}, {X: x0, Y: y1}})
+		})
+		return
+	}
+	// On a picture each run is painted as the rectangle it is, pixel by
+	// pixel, in the order the polygons would be drawn; each band of
+	// picture rows takes the cell rows that reach it, clipped to it, so
+	// every pixel sees its cells in the same order.
+	h := float64(img.Bounds().Dy())
+	rowPx := func(i int) (top, bot float64) {
+		r := toPixels(0, trY(cc.ys[i]), 0, trY(cc.ys[i+1])+vg.Points(cellSeam), dpi, h)
+		return r.y0, r.y1
+	}
+	var wg sync.WaitGroup
+	for band := range cellBands {
+		lo, hi := band*img.Bounds().Dy()/cellBands, (band+1)*img.Bounds().Dy()/cellBands
+		wg.Go(func() {
+			first, last := -1, -1
+			for i := 0; i < len(cc.ys)-1; i++ {
+				if top, bot := rowPx(i); bot > float64(lo) && top < float64(hi) {
+					if first < 0 {
+						first = i
+					}
+					last = i
+				}
+			}
+			if first < 0 {
+				return
+			}
+			cc.eachRun(first, last+1, func(i, j, end int, k envelope.Class) {
+				x0, x1, y0, y1 := cc.runCorners(trX, trY, i, j, end)
+				fillRect(img, toPixels(x0, y0, x1, y1, dpi, h), classColor(k).(color.RGBA), lo, hi)
+			})
+		})
+	}
+	wg.Wait()
+}
+
+// eachRun calls f for each run of equal classes in rows i0..i1-1, row by
+// row, left to right: columns j..end-1 of row i have class k.
+func (cc *classCells) eachRun(i0, i1 int, f func(i, j, end int, k envelope.Class)) {
+	cols := len(cc.xs) - 1
+	for i := i0; i < i1; i++ {
 		for j := 0; j < cols; {
 			k := cc.class(i, j)
 			end := j + 1
 			for end < cols && cc.class(i, end) == k {
 				end++
 			}
-			x0, x1 := trX(cc.xs[j]), trX(cc.xs[end])
-			// A hair of overlap hides anti-aliasing seams between rows.
-			x1e, y1e := x1+vg.Points(0.3), y1+vg.Points(0.3)
-			c.FillPolygon(classColor(k), []vg.Point{{X: x0, Y: y0}, {X: x1e, Y: y0}, {X: x1e, Y: y1e}, {X: x0, Y: y1e}})
+			f(i, j, end, k)
 			j = end
 		}
 	}
+}
+
+// runCorners are the corners on the canvas of the run of columns j..end-1
+// in row i, with the seam overlap.
+func (cc *classCells) runCorners(trX, trY func(float64) vg.Length, i, j, end int) (x0, x1, y0, y1 vg.Length) {
+	return trX(cc.xs[j]), trX(cc.xs[end]) + vg.Points(cellSeam), trY(cc.ys[i]), trY(cc.ys[i+1]) + vg.Points(cellSeam)
 }
 
 // swatch is a legend thumbnail filled with one colour.
@@ -452,22 +513,12 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 	span := func(y float64) {
 		ylo, yhi = math.Min(ylo, y), math.Max(yhi, y)
 	}
-	var flight plotter.XYs
-	for i := 0; i < g.Rows(); i++ {
-		for j := 0; j < g.Cols(); j++ {
-			if !g.Inside(i, j) {
-				continue
-			}
-			f := g.Flight(i, j)
-			if f.Re > 0 {
-				flight = append(flight, plotter.XY{X: float64(f.Mach), Y: lg(float64(f.Re))})
-				span(float64(f.Re))
-			}
-		}
-	}
-	if len(flight) == 0 {
+	flight := flightReMach(g)
+	if len(flight.xy) == 0 {
 		return nil, errors.New("Reynolds–Mach chart: no flight points inside the envelope")
 	}
+	span(flight.reLo)
+	span(flight.reHi)
 	for _, k := range facs {
 		if k < 0 || k >= len(e.Maps) || e.Maps[k] == nil {
 			continue
@@ -507,7 +558,8 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 			ch.legend.Add(label+": no reachable setting", swatch{withAlpha(col, 0x50)})
 		}
 	}
-	dots := &flightDots{xy: flight, color: rgb(0x222222), radius: vg.Points(1.3)}
+	dots := &flightDots{xy: flight.xy, color: rgb(0x222222), radius: vg.Points(1.3),
+		box: &[4]float64{flight.machLo, flight.machHi, lg(flight.reLo), lg(flight.reHi)}}
 	ch.plot.Add(dots)
 	ch.legend.Add("flight conditions inside the envelope (full scale)", dots)
 	// Whole decades, so every tick lies on the axis.
@@ -515,6 +567,79 @@ func ReMachChart(e *envelope.Evaluation, facs []int) (*Chart, error) {
 	ch.plot.Y.Max = math.Ceil(lg(yhi))
 	ch.plot.X.Min = 0
 	return ch, nil
+}
+
+// flightBlocks is how many blocks of grid rows flightReMach reads side by
+// side.
+const flightBlocks = 8
+
+// flightPoints are the flight points of the Reynolds–Mach chart: Mach
+// number and log10 of the Reynolds number, with the ranges of both.
+type flightPoints struct {
+	xy             plotter.XYs
+	machLo, machHi float64
+	reLo, reHi     float64 // Reynolds number (not its log)
+}
+
+// flightReMach is the flight Mach number and log10 of the Reynolds number
+// of every grid point inside the envelope that has a Reynolds number, row
+// by row. The rows are read in blocks side by side, each into its place
+// in the one slice.
+func flightReMach(g *envelope.Grid) flightPoints {
+	rows, cols := g.Rows(), g.Cols()
+	blocks := min(flightBlocks, rows)
+	// Each block's place: the count of inside points before it.
+	start := make([]int, blocks+1)
+	for b := range blocks {
+		n := 0
+		for i := b * rows / blocks; i < (b+1)*rows/blocks; i++ {
+			for j := range cols {
+				if g.Inside(i, j) {
+					n++
+				}
+			}
+		}
+		start[b+1] = start[b] + n
+	}
+	xy := make(plotter.XYs, start[blocks])
+	got := make([]int, blocks)
+	box := make([]flightPoints, blocks)
+	var wg sync.WaitGroup
+	for b := range blocks {
+		wg.Go(func() {
+			out := xy[start[b]:start[b+1]]
+			n := 0
+			bx := flightPoints{machLo: math.Inf(1), machHi: math.Inf(-1), reLo: math.Inf(1), reHi: math.Inf(-1)}
+			for i := b * rows / blocks; i < (b+1)*rows/blocks; i++ {
+				for j := range cols {
+					if !g.Inside(i, j) {
+						continue
+					}
+					f := g.Flight(i, j)
+					if re := float64(f.Re); re > 0 {
+						m := float64(f.Mach)
+						out[n] = plotter.XY{X: m, Y: math.Log10(re)}
+						n++
+						bx.machLo, bx.machHi = min(bx.machLo, m), max(bx.machHi, m)
+						bx.reLo, bx.reHi = min(bx.reLo, re), max(bx.reHi, re)
+					}
+				}
+			}
+			got[b], box[b] = n, bx
+		})
+	}
+	wg.Wait()
+	// Close the gaps left by inside points without a Reynolds number.
+	fp := flightPoints{machLo: math.Inf(1), machHi: math.Inf(-1), reLo: math.Inf(1), reHi: math.Inf(-1)}
+	n := 0
+	for b := range blocks {
+		n += copy(xy[n:], xy[start[b]:start[b]+got[b]])
+		bx := box[b]
+		fp.machLo, fp.machHi = min(fp.machLo, bx.machLo), max(fp.machHi, bx.machHi)
+		fp.reLo, fp.reHi = min(fp.reLo, bx.reLo), max(fp.reHi, bx.reHi)
+	}
+	fp.xy = xy[:n]
+	return fp
 }
 
 // logTicks marks an axis of log10 values at every whole multiple of each

@@ -9,6 +9,7 @@ import (
 	"math"
 	"testing"
 
+	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 
 	"likewind/envelope"
@@ -174,5 +175,92 @@ func TestPictureClassColours(t *testing.T) {
 	out, ok := classColor(envelope.Outside).(color.RGBA)
 	if !ok || out.R < 0xE0 || out.G < 0xE0 || out.B < 0xE0 || out.R != out.G || out.G != out.B {
 		t.Errorf("classColor(Outside) = %v, want a light grey", classColor(envelope.Outside))
+	}
+}
+
+// TestFlightReMach: the points read in blocks side by side are the inside
+// points with a Reynolds number, in row order, as one loop over the grid
+// gives them, with the Reynolds range of those points.
+func TestFlightReMach(t *testing.T) {
+	for _, e := range []*envelope.Evaluation{outDemoEval(t), evalDemoGrid(t, 1, 5, 300, nil)} {
+		g := e.Grid
+		var want []float64
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for i := 0; i < g.Rows(); i++ {
+			for j := 0; j < g.Cols(); j++ {
+				if f := g.Flight(i, j); g.Inside(i, j) && f.Re > 0 {
+					want = append(want, float64(f.Mach), math.Log10(float64(f.Re)))
+					lo, hi = math.Min(lo, float64(f.Re)), math.Max(hi, float64(f.Re))
+				}
+			}
+		}
+		fp := flightReMach(g)
+		xy, glo, ghi := fp.xy, fp.reLo, fp.reHi
+		if xmin, xmax, ymin, ymax := plotter.XYRange(xy); fp.machLo != xmin || fp.machHi != xmax || math.Log10(glo) != ymin || math.Log10(ghi) != ymax {
+			t.Errorf("ranges Mach %g..%g, log Re %g..%g; the points' %g..%g, %g..%g", fp.machLo, fp.machHi, math.Log10(glo), math.Log10(ghi), xmin, xmax, ymin, ymax)
+		}
+		if len(want) == 0 || 2*len(xy) != len(want) {
+			t.Fatalf("%d points, want %d (and more than none)", len(xy), len(want)/2)
+		}
+		for k, p := range xy {
+			if p.X != want[2*k] || p.Y != want[2*k+1] {
+				t.Fatalf("point %d = %v, want (%g, %g)", k, p, want[2*k], want[2*k+1])
+			}
+		}
+		if glo != lo || ghi != hi {
+			t.Errorf("Reynolds range %g..%g, want %g..%g", glo, ghi, lo, hi)
+		}
+	}
+}
+
+// TestChartsOfEvaluateBest: the map of the best of all and the
+// Reynolds–Mach chart drawn from EvaluateBest (no results kept per
+// facility) are the same files as from Evaluate; a one-facility map,
+// which needs that facility's results, is refused.
+func TestChartsOfEvaluateBest(t *testing.T) {
+	vs, err := envelope.DemoVehicles()
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, facs, err := envelope.Demo()
+	if err != nil {
+		t.Fatal(err)
+	}
+	v := vs[0]
+	s := envelope.DefaultSettings(v)
+	full, err := envelope.Evaluate(v, facs, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	lean, err := envelope.EvaluateBest(v, facs, s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	render := func(e *envelope.Evaluation, format string) (m, r []byte) {
+		mc, err := MapChart(e, -1, false)
+		if err != nil {
+			t.Fatal(err)
+		}
+		rc, err := ReMachChart(e, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if m, err = mc.Render(format); err != nil {
+			t.Fatal(err)
+		}
+		if r, err = rc.Render(format); err != nil {
+			t.Fatal(err)
+		}
+		return m, r
+	}
+	for _, format := range []string{"png", "svg"} {
+		fm, fr := render(full, format)
+		lm, lr := render(lean, format)
+		if !bytes.Equal(fm, lm) || !bytes.Equal(fr, lr) {
+			t.Errorf("%s: the pictures of EvaluateBest differ from Evaluate's (map equal %v, Reynolds–Mach equal %v)", format, bytes.Equal(fm, lm), bytes.Equal(fr, lr))
+		}
+	}
+	if _, err := MapChart(lean, 0, false); err == nil {
+		t.Error("MapChart(one facility) of EvaluateBest = nil error, want results not kept")
 	}
 }
