@@ -190,25 +190,42 @@ func ExportColumns() []string { return exportCSV.header() }
 // Map.Detail (full precision).
 func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
 	var r ExportRecord
-	err := exportRecord(&r, m, i, j, envelope.CleanText(m.Facility.Name))
+	err := newRecordMaker(m).record(&r, i, j)
 	return r, err
 }
 
-// exportRecord is NewExportRecord into r, with the facility's name
-// already cleaned (once per map, not once per record).
-func exportRecord(r *ExportRecord, m *envelope.Map, i, j int, facility string) error {
-	d, err := m.Detail(i, j)
+// recordMaker builds the records of one map point after point, keeping
+// what does not change from one to the next: the facility's cleaned name
+// (cleaned once per map, not once per record) and the Detail it fills
+// (one per maker, not one per record).
+type recordMaker struct {
+	m        *envelope.Map
+	facility string
+	d        envelope.Detail
+}
+
+func newRecordMaker(m *envelope.Map) *recordMaker {
+	return &recordMaker{m: m, facility: envelope.CleanText(m.Facility.Name)}
+}
+
+// record is NewExportRecord into r. The record has no cautions, so it is
+// built from Map.DetailFrom, which leaves them out.
+func (k *recordMaker) record(r *ExportRecord, i, j int) error {
+	m := k.m
+	fd, err := m.Grid.FlightDetail(i, j)
 	if err != nil {
 		*r = ExportRecord{}
 		return fmt.Errorf("export %s point (%d, %d): %w", m.Facility.Name, i, j, err)
 	}
-	if !d.Flight.Inside {
+	if !fd.Inside {
 		*r = ExportRecord{}
 		return fmt.Errorf("export %s point (%d, %d): outside the envelope", m.Facility.Name, i, j)
 	}
+	m.DetailFrom(&k.d, &fd, i, j)
+	d, facility := &k.d, k.facility
 	g := m.Grid
-	fl := d.Flight
-	st := fl.State
+	fl := &d.Flight
+	st := &fl.State
 	s := m.Settings
 	*r = ExportRecord{
 		Facility: facility,
@@ -378,14 +395,14 @@ func (r *ExportRecord) setLoads(v *envelope.Vehicle, l envelope.Load) {
 // slowest. It stops at the first error.
 func EachRecord(maps []*envelope.Map, fn func(ExportRecord) error) error {
 	for _, m := range maps {
-		g := m.Grid
+		g, k := m.Grid, newRecordMaker(m)
 		for i := 0; i < g.Rows(); i++ {
 			for j := 0; j < g.Cols(); j++ {
 				if !g.Inside(i, j) {
 					continue
 				}
-				r, err := NewExportRecord(m, i, j)
-				if err != nil {
+				var r ExportRecord
+				if err := k.record(&r, i, j); err != nil {
 					return err
 				}
 				if err := fn(r); err != nil {

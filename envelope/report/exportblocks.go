@@ -59,13 +59,13 @@ func appendBlock(b []byte, bl exportBlock, row exportRow) ([]byte, error) {
 	g := bl.m.Grid
 	var r ExportRecord
 	memo := make([]numMemo, len(exportCSV.cols))
-	name := envelope.CleanText(bl.m.Facility.Name)
+	k := newRecordMaker(bl.m)
 	for i := bl.i0; i < bl.i1; i++ {
 		for j := 0; j < g.Cols(); j++ {
 			if !g.Inside(i, j) {
 				continue
 			}
-			if err := exportRecord(&r, bl.m, i, j, name); err != nil {
+			if err := k.record(&r, i, j); err != nil {
 				return b, err
 			}
 			b = row(b, &r, memo)
