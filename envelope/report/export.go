@@ -222,44 +222,12 @@ func (k *recordMaker) record(r *ExportRecord, i, j int) error {
 		return fmt.Errorf("export %s point (%d, %d): outside the envelope", m.Facility.Name, i, j)
 	}
 	m.DetailFrom(&k.d, &fd, i, j)
-	d, facility := &k.d, k.facility
-	g := m.Grid
-	fl := &d.Flight
-	st := &fl.State
-	s := m.Settings
+	d, s := &k.d, m.Settings
 	*r = ExportRecord{
-		Facility: facility,
+		Facility: k.facility,
 		Medium:   m.Facility.Medium.String(),
 		Row:      i,
 		Col:      j,
-
-		Altitude:      Num(fl.Altitude),
-		AltitudeKind:  g.Vehicle.AltitudeKind.String(),
-		GridSpeed:     Num(fl.Speed),
-		GridSpeedKind: g.SpeedKind.String(),
-
-		PressureAltitude:   Num(st.PressureAltitude),
-		DeltaT:             Num(st.DeltaT),
-		Temperature:        Num(st.Temperature),
-		Pressure:           Num(st.Pressure),
-		Density:            Num(st.Density),
-		SpeedOfSound:       Num(st.SpeedOfSound),
-		Viscosity:          Num(st.Viscosity),
-		KinematicViscosity: Num(st.KinematicViscosity),
-		MeanFreePath:       Num(st.MeanFreePath),
-
-		Mach:              Num(fl.Airspeeds.Mach),
-		TAS:               Num(fl.Airspeeds.TAS),
-		EAS:               Num(fl.Airspeeds.EAS),
-		CAS:               Num(fl.Airspeeds.CAS),
-		Q:                 Num(fl.Q),
-		Reynolds:          Num(fl.Re),
-		ReynoldsPerM:      Num(fl.RePerM),
-		Knudsen:           Num(fl.Kn),
-		FlightT0:          Num(fl.T0),
-		FlightP0:          Num(fl.P0),
-		SpeedRegime:       fl.SpeedRegime.String(),
-		RarefactionRegime: fl.Rarefaction.String(),
 
 		Scale:               Num(d.Scale),
 		ModelLength:         Num(d.ModelLength),
@@ -290,6 +258,7 @@ func (k *recordMaker) record(r *ExportRecord, i, j int) error {
 		NormalForce: na, PitchMoment: na, LoadShare: na,
 		BalanceMaxNormalForce: na, BalanceMaxPitchMoment: na, BalanceQLimit: na,
 	}
+	r.setFlight(m.Grid, &d.Flight)
 	r.setRule(d.Rule)
 	r.setBalance(m)
 	if d.ReMax > 0 {
@@ -328,6 +297,39 @@ func (k *recordMaker) record(r *ExportRecord, i, j int) error {
 		r.ReSweepMax = Num(d.ReSweepMax)
 	}
 	return nil
+}
+
+// setFlight writes the grid point and the flight side of it, fl, on grid
+// g: the fields that are the same in every map on the grid.
+func (r *ExportRecord) setFlight(g *envelope.Grid, fl *envelope.FlightDetail) {
+	st := &fl.State
+	r.Altitude = Num(fl.Altitude)
+	r.AltitudeKind = g.Vehicle.AltitudeKind.String()
+	r.GridSpeed = Num(fl.Speed)
+	r.GridSpeedKind = g.SpeedKind.String()
+
+	r.PressureAltitude = Num(st.PressureAltitude)
+	r.DeltaT = Num(st.DeltaT)
+	r.Temperature = Num(st.Temperature)
+	r.Pressure = Num(st.Pressure)
+	r.Density = Num(st.Density)
+	r.SpeedOfSound = Num(st.SpeedOfSound)
+	r.Viscosity = Num(st.Viscosity)
+	r.KinematicViscosity = Num(st.KinematicViscosity)
+	r.MeanFreePath = Num(st.MeanFreePath)
+
+	r.Mach = Num(fl.Airspeeds.Mach)
+	r.TAS = Num(fl.Airspeeds.TAS)
+	r.EAS = Num(fl.Airspeeds.EAS)
+	r.CAS = Num(fl.Airspeeds.CAS)
+	r.Q = Num(fl.Q)
+	r.Reynolds = Num(fl.Re)
+	r.ReynoldsPerM = Num(fl.RePerM)
+	r.Knudsen = Num(fl.Kn)
+	r.FlightT0 = Num(fl.T0)
+	r.FlightP0 = Num(fl.P0)
+	r.SpeedRegime = fl.SpeedRegime.String()
+	r.RarefactionRegime = fl.Rarefaction.String()
 }
 
 // setRule writes the value fixed rule ru holds.
@@ -422,7 +424,7 @@ func WriteExportCSV(w io.Writer, maps []*envelope.Map) error {
 	if _, err := w.Write(head); err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
-	if err := writeBlocks(exportBlocks(maps), exportCSV.appendRow, writeAll(w)); err != nil {
+	if err := writeBlocks(exportBlocks(maps), exportFormat{exportCSV.appendRow, exportCSV.cols}, writeAll(w)); err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
 	return nil
@@ -611,7 +613,7 @@ func WriteExportJSON(w io.Writer, info ExportInfo, maps []*envelope.Map) error {
 	row := func(b []byte, r *ExportRecord, memo []numMemo) []byte {
 		return exportJSON.appendRecord(append(b, ",\n    "...), r, memo)
 	}
-	err = writeBlocks(exportBlocks(maps), row, func(b []byte) error {
+	err = writeBlocks(exportBlocks(maps), exportFormat{row, exportJSON.cols}, func(b []byte) error {
 		if first {
 			b, first = b[1:], false
 		}
