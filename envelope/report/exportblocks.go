@@ -121,7 +121,7 @@ func exportNumFields(names ...string) []uintptr {
 // run of rows of a grid, made by the first block over those rows that
 // needs it: for each inside point in block order, for each point field in
 // field order, the length of its shortest form (one byte; 0 where the
-// value is not a finite number) and the form. It holds about 180 bytes
+// value is not a finite number) and the form. It holds about 190 bytes
 // per inside point, as long as the export runs.
 type pointText struct {
 	once sync.Once
