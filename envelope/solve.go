@@ -277,7 +277,7 @@ func (m *Map) DetailFrom(d *Detail, fd *FlightDetail, i, j int) {
 	if ps.has && ps.mu > 0 {
 		d.RePerM = ps.rho * ps.v / ps.mu
 	}
-	m.sv.addDetail(d, &ps)
+	m.sv.addDetail(d, ps)
 	if ps.has && m.loads.forcePerQ+m.loads.momentPerQ > 0 {
 		d.Load = m.loads.at(ps.q, m.Scale)
 	}
