@@ -196,12 +196,25 @@ func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
 
 // recordMaker builds the records of one map point after point, keeping
 // what does not change from one to the next: the facility's cleaned name
-// (cleaned once per map, not once per record) and the Detail it fills
-// (one per maker, not one per record).
+// (cleaned once per map, not once per record), the Detail it fills (one
+// per maker, not one per record) and the text of the last flags (they
+// repeat from point to point, and Flags.String allocates).
 type recordMaker struct {
 	m        *envelope.Map
 	facility string
 	d        envelope.Detail
+
+	flags     envelope.Flags
+	flagsText string
+	flagsSet  bool
+}
+
+// flagText is f.String(), remembered for the next record.
+func (k *recordMaker) flagText(f envelope.Flags) string {
+	if !k.flagsSet || f != k.flags {
+		k.flags, k.flagsText, k.flagsSet = f, f.String(), true
+	}
+	return k.flagsText
 }
 
 func newRecordMaker(m *envelope.Map) *recordMaker {
@@ -239,7 +252,7 @@ func (k *recordMaker) record(r *ExportRecord, i, j int) error {
 		Limit:            d.Limit.String(),
 		PressureLimit:    d.PressureLimit.String(),
 		TemperatureLimit: d.TemperatureLimit.String(),
-		Flags:            d.Flags.String(),
+		Flags:            k.flagText(d.Flags),
 		HasSettings:      d.HasSettings,
 
 		TestMach: na, P0: na, T0: na, WaterTemperature: na,

@@ -133,7 +133,17 @@ type pointText struct {
 func (pt *pointText) build(g *envelope.Grid, i0, i1 int) {
 	var r ExportRecord
 	p := unsafe.Pointer(&r)
-	var b []byte
+	// Room for the block's text at once (a number takes up to 25 bytes
+	// with its length, 17 or so on the demo), not regrown from empty.
+	n := 0
+	for i := i0; i < i1; i++ {
+		for j := 0; j < g.Cols(); j++ {
+			if g.Inside(i, j) {
+				n++
+			}
+		}
+	}
+	b := make([]byte, 0, n*len(pointFields)*20)
 	for i := i0; i < i1; i++ {
 		for j := 0; j < g.Cols(); j++ {
 			if !g.Inside(i, j) {
