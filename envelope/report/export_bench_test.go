@@ -6,7 +6,6 @@ import (
 	"strconv"
 	"sync"
 	"testing"
-	"time"
 
 	"likewind/envelope"
 )
@@ -76,10 +75,6 @@ func (c *countWriter) Write(p []byte) (int, error) { *c += countWriter(len(p)); 
 
 // BenchmarkExportCSV400 and BenchmarkExportJSON400 write the export of the
 // 400×400 demo grid (every facility) to a writer that keeps nothing.
-// Besides MB/s they report cpus, the processors the export kept busy on
-// average (processor time over wall time, both over the timed loop): on
-// the shared machine a -cpu 2 run that gains nothing with cpus near 2 was
-// slowed by the machine, not held to one processor by the export.
 func BenchmarkExportCSV400(b *testing.B)  { benchExport(b, "csv") }
 func BenchmarkExportJSON400(b *testing.B) { benchExport(b, "json") }
 
@@ -87,14 +82,10 @@ func benchExport(b *testing.B, format string) {
 	e := benchEval400(b)
 	b.SetBytes(exportSize(b, e, format))
 	var c countWriter
-	cpu0, wall0 := processCPU(), time.Now()
 	for b.Loop() {
 		if err := writeExport(&c, e, format); err != nil {
 			b.Fatal(err)
 		}
-	}
-	if cpu := processCPU() - cpu0; cpu > 0 {
-		b.ReportMetric(cpu.Seconds()/time.Since(wall0).Seconds(), "cpus")
 	}
 }
 
