@@ -29,8 +29,32 @@ import (
 //	floor        225–264 MB/s; records alone (the engine's Map.Detail) 388 MB/s
 //	plot 1000²   6.66 / 4.94 s →  0.379 / 0.389 s (17.6× / 12.7×)
 //
-// The CSV export on one core is bound by the records (Map.Detail solves
-// each point again, with its cautions): formatting is about a third of it.
+// Then the CSV export on one core was bound by the records (Map.Detail
+// solved each point again, with caution texts the records do not hold).
+//
+// Measured again 2026-12-03, after the records were built with
+// Map.DetailFrom (no cautions, no allocation per record) and the point
+// fields formatted once per grid point for all maps on the grid: the tree
+// at 8da994f (with this file copied in) and the new one back to back,
+// three rounds, the best of each (-cpu 1 / -cpu 2):
+//
+//	go test -run '^$' -bench 'ExportCSV400|ExportJSON400|ExportFloor400|Records400|SpareCore400' -cpu 1,2 -benchtime 5x ./envelope/report/
+//
+//	CSV 400²     300 / 272 MB/s  →   591 / 648 MB/s  (1.97× / 2.39×)
+//	JSON 400²    891 / 1015 MB/s → 1574 / 1685 MB/s  (1.77× / 1.66×)
+//	floor        315 / 294 MB/s  and 348 / 329 MB/s (the machine, 1.1×)
+//	records      417 / 413 MB/s  →   967 / 943 MB/s  (2.3×)
+//
+// Against the floor of the same run the CSV export went from 0.95 to
+// 1.70 of it on one core. Neither tree gains much at -cpu 2 on this
+// machine, and not because of the export: BenchmarkSpareCore400 took as
+// long at -cpu 2 as at -cpu 1 in four of the six runs (0.99–1.01 of it;
+// 0.84 and 1.62 in the other two), that is, other work held the second
+// core. The export has no serial part but
+// the writes, in block order: each block's records are built and
+// formatted by one goroutine with its own Detail, memo and buffer, and
+// the goroutines share nothing but the point text (made once per run of
+// rows, under a sync.Once) and the channels that order the blocks.
 
 // bench400 is the demo vehicle on a 400×400 grid with every demo
 // facility, evaluated once for all benchmarks of a run.
