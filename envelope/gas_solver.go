@@ -918,7 +918,7 @@ func (sv *gasSolver) setEnd(c *gasBounds, p0, t0 float64, lim Limit) SetEnd {
 		Q: 0.5 * sv.gamma * p0 * c.pi * c.M * c.M, Limit: lim}
 }
 
-func (sv *gasSolver) addDetail(d *Detail, ps *pointSol) {
+func (sv *gasSolver) addDetail(d *Detail, ps pointSol) {
 	if !ps.has {
 		return
 	}

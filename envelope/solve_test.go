@@ -3,6 +3,7 @@ package envelope
 import (
 	"math"
 	"math/rand/v2"
+	"reflect"
 	"testing"
 
 	"likewind/atmos"
@@ -725,6 +726,42 @@ func TestDetailAgreesWithMap(t *testing.T) {
 				}
 				if d.Class != Outside && (len(d.Cautions) == 0 || d.Cautions[0] != PlanningNote) {
 					t.Errorf("%s (%d,%d): cautions %q, want the planning note first", f.Name, i, j, d.Cautions)
+				}
+			}
+		}
+	}
+}
+
+// TestDetailFromIsDetail: DetailFrom, given the point's flight side and
+// one Detail reused from point to point (a stale field would show), writes
+// what Detail returns but the cautions, at inside and outside points.
+func TestDetailFromIsDetail(t *testing.T) {
+	g, err := NewGrid(testTransport(), testSettings())
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, f := range []Facility{cryoTunnel(), classTunnel(), waterTunnel()} {
+		s := testSettings()
+		s.Scale = 0.05
+		m, err := Solve(g, &f, s)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var got Detail
+		for i := 0; i < g.Rows(); i++ {
+			for j := 0; j < g.Cols(); j++ {
+				want, err := m.Detail(i, j)
+				if err != nil {
+					t.Fatal(err)
+				}
+				fd, err := g.FlightDetail(i, j)
+				if err != nil {
+					t.Fatal(err)
+				}
+				m.DetailFrom(&got, &fd, i, j)
+				want.Cautions = nil
+				if !reflect.DeepEqual(got, want) {
+					t.Fatalf("%s (%d,%d): DetailFrom\n%+v\nwant Detail without cautions\n%+v", f.Name, i, j, got, want)
 				}
 			}
 		}

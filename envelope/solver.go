@@ -37,8 +37,10 @@ type solver interface {
 	// addDetail adds to d what the medium tells about the answer ps: the
 	// matching set, the Reynolds sweep at the chosen dynamic pressure, and
 	// the condensation floor (gas) or the vapour pressure and cavitation
-	// number (water).
-	addDetail(d *Detail, ps *pointSol)
+	// number (water). ps is passed by value: a pointer passed through the
+	// interface would move each point's answer to the heap, an allocation
+	// per point of every export (BenchmarkExportCSV400 with -benchmem).
+	addDetail(d *Detail, ps pointSol)
 	// matchQ is the lowest test-section dynamic pressure of a setting that
 	// reaches Reynolds number target at flight Mach number mf (gas: at
 	// the Mach number a match is tried at; water: below the

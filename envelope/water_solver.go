@@ -296,7 +296,7 @@ func (sv *waterSolver) coolFor(V, target float64) (atmos.WaterState, bool) {
 	return best, false
 }
 
-func (sv *waterSolver) addDetail(d *Detail, ps *pointSol) {
+func (sv *waterSolver) addDetail(d *Detail, ps pointSol) {
 	d.VapourPressure, d.Cavitation = ps.pv, ps.sigma
 	if ps.has {
 		fs := sv.free()

@@ -190,59 +190,57 @@ func ExportColumns() []string { return exportCSV.header() }
 // Map.Detail (full precision).
 func NewExportRecord(m *envelope.Map, i, j int) (ExportRecord, error) {
 	var r ExportRecord
-	err := exportRecord(&r, m, i, j, envelope.CleanText(m.Facility.Name))
+	err := newRecordMaker(m).record(&r, i, j)
 	return r, err
 }
 
-// exportRecord is NewExportRecord into r, with the facility's name
-// already cleaned (once per map, not once per record).
-func exportRecord(r *ExportRecord, m *envelope.Map, i, j int, facility string) error {
-	d, err := m.Detail(i, j)
+// recordMaker builds the records of one map point after point, keeping
+// what does not change from one to the next: the facility's cleaned name
+// (cleaned once per map, not once per record), the Detail it fills (one
+// per maker, not one per record) and the text of the last flags (they
+// repeat from point to point, and Flags.String allocates).
+type recordMaker struct {
+	m        *envelope.Map
+	facility string
+	d        envelope.Detail
+
+	flags     envelope.Flags
+	flagsText string
+	flagsSet  bool
+}
+
+// flagText is f.String(), remembered for the next record.
+func (k *recordMaker) flagText(f envelope.Flags) string {
+	if !k.flagsSet || f != k.flags {
+		k.flags, k.flagsText, k.flagsSet = f, f.String(), true
+	}
+	return k.flagsText
+}
+
+func newRecordMaker(m *envelope.Map) *recordMaker {
+	return &recordMaker{m: m, facility: envelope.CleanText(m.Facility.Name)}
+}
+
+// record is NewExportRecord into r. The record has no cautions, so it is
+// built from Map.DetailFrom, which leaves them out.
+func (k *recordMaker) record(r *ExportRecord, i, j int) error {
+	m := k.m
+	fd, err := m.Grid.FlightDetail(i, j)
 	if err != nil {
 		*r = ExportRecord{}
 		return fmt.Errorf("export %s point (%d, %d): %w", m.Facility.Name, i, j, err)
 	}
-	if !d.Flight.Inside {
+	if !fd.Inside {
 		*r = ExportRecord{}
 		return fmt.Errorf("export %s point (%d, %d): outside the envelope", m.Facility.Name, i, j)
 	}
-	g := m.Grid
-	fl := d.Flight
-	st := fl.State
-	s := m.Settings
+	m.DetailFrom(&k.d, &fd, i, j)
+	d, s := &k.d, m.Settings
 	*r = ExportRecord{
-		Facility: facility,
+		Facility: k.facility,
 		Medium:   m.Facility.Medium.String(),
 		Row:      i,
 		Col:      j,
-
-		Altitude:      Num(fl.Altitude),
-		AltitudeKind:  g.Vehicle.AltitudeKind.String(),
-		GridSpeed:     Num(fl.Speed),
-		GridSpeedKind: g.SpeedKind.String(),
-
-		PressureAltitude:   Num(st.PressureAltitude),
-		DeltaT:             Num(st.DeltaT),
-		Temperature:        Num(st.Temperature),
-		Pressure:           Num(st.Pressure),
-		Density:            Num(st.Density),
-		SpeedOfSound:       Num(st.SpeedOfSound),
-		Viscosity:          Num(st.Viscosity),
-		KinematicViscosity: Num(st.KinematicViscosity),
-		MeanFreePath:       Num(st.MeanFreePath),
-
-		Mach:              Num(fl.Airspeeds.Mach),
-		TAS:               Num(fl.Airspeeds.TAS),
-		EAS:               Num(fl.Airspeeds.EAS),
-		CAS:               Num(fl.Airspeeds.CAS),
-		Q:                 Num(fl.Q),
-		Reynolds:          Num(fl.Re),
-		ReynoldsPerM:      Num(fl.RePerM),
-		Knudsen:           Num(fl.Kn),
-		FlightT0:          Num(fl.T0),
-		FlightP0:          Num(fl.P0),
-		SpeedRegime:       fl.SpeedRegime.String(),
-		RarefactionRegime: fl.Rarefaction.String(),
 
 		Scale:               Num(d.Scale),
 		ModelLength:         Num(d.ModelLength),
@@ -254,7 +252,7 @@ func exportRecord(r *ExportRecord, m *envelope.Map, i, j int, facility string) e
 		Limit:            d.Limit.String(),
 		PressureLimit:    d.PressureLimit.String(),
 		TemperatureLimit: d.TemperatureLimit.String(),
-		Flags:            d.Flags.String(),
+		Flags:            k.flagText(d.Flags),
 		HasSettings:      d.HasSettings,
 
 		TestMach: na, P0: na, T0: na, WaterTemperature: na,
@@ -273,6 +271,7 @@ func exportRecord(r *ExportRecord, m *envelope.Map, i, j int, facility string) e
 		NormalForce: na, PitchMoment: na, LoadShare: na,
 		BalanceMaxNormalForce: na, BalanceMaxPitchMoment: na, BalanceQLimit: na,
 	}
+	r.setFlight(m.Grid, &d.Flight)
 	r.setRule(d.Rule)
 	r.setBalance(m)
 	if d.ReMax > 0 {
@@ -311,6 +310,39 @@ func exportRecord(r *ExportRecord, m *envelope.Map, i, j int, facility string) e
 		r.ReSweepMax = Num(d.ReSweepMax)
 	}
 	return nil
+}
+
+// setFlight writes the grid point and the flight side of it, fl, on grid
+// g: the fields that are the same in every map on the grid.
+func (r *ExportRecord) setFlight(g *envelope.Grid, fl *envelope.FlightDetail) {
+	st := &fl.State
+	r.Altitude = Num(fl.Altitude)
+	r.AltitudeKind = g.Vehicle.AltitudeKind.String()
+	r.GridSpeed = Num(fl.Speed)
+	r.GridSpeedKind = g.SpeedKind.String()
+
+	r.PressureAltitude = Num(st.PressureAltitude)
+	r.DeltaT = Num(st.DeltaT)
+	r.Temperature = Num(st.Temperature)
+	r.Pressure = Num(st.Pressure)
+	r.Density = Num(st.Density)
+	r.SpeedOfSound = Num(st.SpeedOfSound)
+	r.Viscosity = Num(st.Viscosity)
+	r.KinematicViscosity = Num(st.KinematicViscosity)
+	r.MeanFreePath = Num(st.MeanFreePath)
+
+	r.Mach = Num(fl.Airspeeds.Mach)
+	r.TAS = Num(fl.Airspeeds.TAS)
+	r.EAS = Num(fl.Airspeeds.EAS)
+	r.CAS = Num(fl.Airspeeds.CAS)
+	r.Q = Num(fl.Q)
+	r.Reynolds = Num(fl.Re)
+	r.ReynoldsPerM = Num(fl.RePerM)
+	r.Knudsen = Num(fl.Kn)
+	r.FlightT0 = Num(fl.T0)
+	r.FlightP0 = Num(fl.P0)
+	r.SpeedRegime = fl.SpeedRegime.String()
+	r.RarefactionRegime = fl.Rarefaction.String()
 }
 
 // setRule writes the value fixed rule ru holds.
@@ -378,14 +410,14 @@ func (r *ExportRecord) setLoads(v *envelope.Vehicle, l envelope.Load) {
 // slowest. It stops at the first error.
 func EachRecord(maps []*envelope.Map, fn func(ExportRecord) error) error {
 	for _, m := range maps {
-		g := m.Grid
+		g, k := m.Grid, newRecordMaker(m)
 		for i := 0; i < g.Rows(); i++ {
 			for j := 0; j < g.Cols(); j++ {
 				if !g.Inside(i, j) {
 					continue
 				}
-				r, err := NewExportRecord(m, i, j)
-				if err != nil {
+				var r ExportRecord
+				if err := k.record(&r, i, j); err != nil {
 					return err
 				}
 				if err := fn(r); err != nil {
@@ -405,7 +437,7 @@ func WriteExportCSV(w io.Writer, maps []*envelope.Map) error {
 	if _, err := w.Write(head); err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
-	if err := writeBlocks(exportBlocks(maps), exportCSV.appendRow, writeAll(w)); err != nil {
+	if err := writeBlocks(exportBlocks(maps), exportFormat{exportCSV.appendRow, exportCSV.cols}, writeAll(w)); err != nil {
 		return fmt.Errorf("csv: %w", err)
 	}
 	return nil
@@ -594,7 +626,7 @@ func WriteExportJSON(w io.Writer, info ExportInfo, maps []*envelope.Map) error {
 	row := func(b []byte, r *ExportRecord, memo []numMemo) []byte {
 		return exportJSON.appendRecord(append(b, ",\n    "...), r, memo)
 	}
-	err = writeBlocks(exportBlocks(maps), row, func(b []byte) error {
+	err = writeBlocks(exportBlocks(maps), exportFormat{row, exportJSON.cols}, func(b []byte) error {
 		if first {
 			b, first = b[1:], false
 		}

@@ -6,6 +6,9 @@ import (
 	"runtime"
 	"testing"
 	"time"
+	"unsafe"
+
+	"likewind/envelope"
 )
 
 // TestExportBlocksOrder: the blocks cover every inside point once, map by
@@ -105,4 +108,83 @@ func TestExportWriteError(t *testing.T) {
 		}
 		runtime.GOMAXPROCS(prev)
 	}
+}
+
+// TestExportPointTextSame: maps that share a grid share the text of their
+// point fields, and the export is the same bytes as with every record
+// formatted on its own, with the maps of two grids interleaved, on one
+// goroutine or several.
+func TestExportPointTextSame(t *testing.T) {
+	a, b := evalDemoGrid(t, 0, 50, 60, nil), evalDemoGrid(t, 1, 40, 30, nil)
+	maps := []*envelope.Map{a.Maps[0], b.Maps[0], a.Maps[1], b.Maps[1], a.Maps[2]}
+	shared := exportBlocks(maps)
+	alone := make([]exportBlock, len(shared))
+	texts := map[*pointText]*envelope.Grid{}
+	for k, bl := range shared {
+		if bl.pt == nil {
+			t.Fatalf("block %d (rows %d..%d) has no point text; every grid here has two maps or more", k, bl.i0, bl.i1)
+		}
+		if g, ok := texts[bl.pt]; ok && g != bl.m.Grid {
+			t.Fatalf("block %d shares its point text with a block of another grid", k)
+		}
+		texts[bl.pt] = bl.m.Grid
+		alone[k] = bl
+		alone[k].pt = nil
+	}
+	if want := len(shared) / 2; len(texts) > want+1 {
+		t.Errorf("%d point texts for %d blocks of five maps on two grids, want about %d", len(texts), len(shared), want)
+	}
+	formats := map[string]exportFormat{
+		"csv":  {exportCSV.appendRow, exportCSV.cols},
+		"json": {exportJSON.appendRecord, exportJSON.cols},
+	}
+	for name, f := range formats {
+		for _, procs := range []int{1, 3} {
+			prev := runtime.GOMAXPROCS(procs)
+			var got, want bytes.Buffer
+			if err := writeBlocks(exportBlocks(maps), f, writeAll(&got)); err != nil {
+				t.Fatal(err)
+			}
+			if err := writeBlocks(alone, f, writeAll(&want)); err != nil {
+				t.Fatal(err)
+			}
+			runtime.GOMAXPROCS(prev)
+			if !bytes.Equal(got.Bytes(), want.Bytes()) {
+				t.Errorf("%s on %d goroutines: %d bytes with shared point text, %d with each record formatted alone", name, procs, got.Len(), want.Len())
+			}
+		}
+	}
+}
+
+// TestPointFieldsAreFlight: every point field is one setFlight writes
+// (from the grid and the flight side only, so it is the same in every
+// map on the grid).
+func TestPointFieldsAreFlight(t *testing.T) {
+	e := evalDemoGrid(t, 0, 20, 20, nil)
+	g := e.Grid
+	for i := 0; i < g.Rows(); i++ {
+		for j := 0; j < g.Cols(); j++ {
+			if !g.Inside(i, j) {
+				continue
+			}
+			fd, err := g.FlightDetail(i, j)
+			if err != nil {
+				t.Fatal(err)
+			}
+			const sentinel = Num(-12345.5)
+			var r ExportRecord
+			p := unsafe.Pointer(&r)
+			for _, off := range pointFields {
+				*(*Num)(unsafe.Add(p, off)) = sentinel
+			}
+			r.setFlight(g, &fd)
+			for k, off := range pointFields {
+				if *(*Num)(unsafe.Add(p, off)) == sentinel {
+					t.Errorf("point field %d (offset %d) is not written by setFlight", k, off)
+				}
+			}
+			return
+		}
+	}
+	t.Fatal("no inside point")
 }
