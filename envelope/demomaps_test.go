@@ -65,3 +65,19 @@ func outSecondDemoMaps(t testing.TB) (*Grid, []*Map) {
 	}
 	return g, maps
 }
+
+// demoGridCase is the demo vehicle's grid under its default settings,
+// with the demo facilities (invented data).
+func demoGridCase(t testing.TB) (*Grid, []Facility, Settings) {
+	t.Helper()
+	v, facs, err := Demo()
+	if err != nil {
+		t.Fatalf("Demo() = %v", err)
+	}
+	s := DefaultSettings(v)
+	g, err := NewGrid(v, s)
+	if err != nil {
+		t.Fatalf("NewGrid = %v", err)
+	}
+	return g, facs, s
+}

@@ -1,6 +1,7 @@
 package envelope
 
 import (
+	"context"
 	"sync"
 	"testing"
 
@@ -270,6 +271,30 @@ func BenchmarkDemoDeltaT400(b *testing.B) {
 				}
 			}
 			Best(maps)
+		}
+		g, _ := NewGrid(v, s)
+		reportPerPoint(b, g)
+	})
+	// The same in one pass (SolveAllReusing), the arrays reused as the
+	// interface reuses them.
+	b.Run("one-pass", func(b *testing.B) {
+		var buf Buffers
+		var grid *Grid
+		for i := 0; b.Loop(); i++ {
+			s.DeltaT = 5 * float64(i%2)
+			g, err := NewGridReusing(context.Background(), v, s, grid)
+			if err != nil {
+				b.Fatal(err)
+			}
+			a, err := SolveAllReusing(context.Background(), g, facs, s, buf)
+			if err != nil {
+				b.Fatal(err)
+			}
+			buf = Buffers{Best: a.Best, BestRes: a.BestRes}
+			for _, m := range a.Maps {
+				buf.Results = append(buf.Results, m.Results)
+			}
+			grid = g
 		}
 		g, _ := NewGrid(v, s)
 		reportPerPoint(b, g)

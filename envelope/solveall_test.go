@@ -99,15 +99,7 @@ func TestSolveAllEqualsSolveAndBest(t *testing.T) {
 // A facility that cannot be solved has a nil map and its error, and the
 // best of all is that of the others; a cancelled context stops the work.
 func TestSolveAllUnsolvableAndCancelled(t *testing.T) {
-	v, facs, err := Demo()
-	if err != nil {
-		t.Fatal(err)
-	}
-	s := DefaultSettings(v)
-	g, err := NewGrid(v, s)
-	if err != nil {
-		t.Fatal(err)
-	}
+	g, facs, s := demoGridCase(t)
 	bad := facs[1]
 	bad.Model.Scale = 0
 	bad.Width, bad.Height = 0, 0
