@@ -129,10 +129,10 @@ func cmdMsgs(cmd tea.Cmd) []tea.Msg {
 }
 
 // The frame of a key that starts a recompute is held until the result
-// comes (then the result's frame is drawn) or holdFrame has passed (then
-// the frame as it is, saying "computing").
+// comes (then the result's frame is drawn), holdFrame has passed or
+// another key comes (then the frame as it is, saying "computing").
 func TestDrawnHoldsTheKeysFrameForItsResult(t *testing.T) {
-	for _, endBy := range []string{"result", "clock"} {
+	for _, endBy := range []string{"result", "clock", "key"} {
 		t.Run(endBy, func(t *testing.T) {
 			var out bytes.Buffer
 			d := drawn{m: newDemo(t, 120, 40), scr: newScreen(&out)}
@@ -166,6 +166,13 @@ func TestDrawnHoldsTheKeysFrameForItsResult(t *testing.T) {
 			}
 			if result == nil || clock == nil {
 				t.Fatalf("the key's commands gave result %v and clock %v", result, clock)
+			}
+			if endBy == "key" {
+				step(keyMsg("down"))
+				if d.hold != 0 || !strings.Contains(out.String(), "computing") {
+					t.Errorf("after another key: hold %d, drawn %q; want the frame drawn at once", d.hold, out.String())
+				}
+				return
 			}
 			if endBy == "result" {
 				step(result)
