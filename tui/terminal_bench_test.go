@@ -226,8 +226,9 @@ func (d *ptyDriver) keys(keys ...string) {
 // timedKey sends one key whose command recomputes and returns the time to
 // the frame with the result. The frame right after the key (interim: the
 // header says computing) may or may not be written before it: the
-// program's renderer writes only the lines that differ from the frame it
-// wrote last, at its own frame rate. So where an interim line was written,
+// program writes only the lines that differ from the frame it wrote last,
+// and holds the frame of a key that starts a recompute for a while
+// (holdFrame in screen.go). So where an interim line was written,
 // the wait ends when the last line the result changes from the interim
 // has been written after it; where none was, when the last line the result
 // changes from the frame before the key has been.
