@@ -15,7 +15,7 @@ type All struct {
 	// Best is, per grid point, the index in the facilities of the one
 	// with the best answer (-1 where none has the point inside), and
 	// BestRes that answer (zero, Outside, where none): as Best of the
-	// solved maps.
+	// solved maps. Nil when asked for the index alone (Buffers.IndexOnly).
 	Best    []int
 	BestRes []Result
 	// BestShares counts BestRes per class (as BestShares of the maps).
@@ -30,6 +30,10 @@ type Buffers struct {
 	Results [][]Result
 	Best    []int
 	BestRes []Result
+	// IndexOnly leaves All.BestRes nil: the caller reads each winner's
+	// answer in its map (Maps[Best[p]].Results[p]), and the pass writes
+	// 8 bytes a point instead of 36.
+	IndexOnly bool
 }
 
 // SolveAll solves every facility on g under s and decides the best of
@@ -74,7 +78,10 @@ func SolveAllReusing(ctx context.Context, g *Grid, facs []Facility, s Settings, 
 		return a, nil
 	}
 	n := len(g.points)
-	a.Best, a.BestRes = sized(buf.Best, n), sized(buf.BestRes, n)
+	a.Best = sized(buf.Best, n)
+	if !buf.IndexOnly {
+		a.BestRes = sized(buf.BestRes, n)
+	}
 	cols := len(g.Speeds)
 	var mu sync.Mutex // guards counts and best while workers add theirs
 	counts := make([][NumClasses]int, len(maps))
@@ -98,11 +105,17 @@ func SolveAllReusing(ctx context.Context, g *Grid, facs []Facility, s Settings, 
 			for p := i0 * cols; p < i1*cols; p++ {
 				w, wr := bs.at(p)
 				if w < 0 {
-					a.Best[p], a.BestRes[p] = -1, Result{}
+					a.Best[p] = -1
+					if a.BestRes != nil {
+						a.BestRes[p] = Result{}
+					}
 					nb[Outside]++
 					continue
 				}
-				a.Best[p], a.BestRes[p] = bs.index[w], *wr
+				a.Best[p] = bs.index[w]
+				if a.BestRes != nil {
+					a.BestRes[p] = *wr
+				}
 				if c := wr.Class; int(c) < NumClasses {
 					nb[c]++
 				}

@@ -62,7 +62,7 @@ func TestSolveAllEqualsSolveAndBest(t *testing.T) {
 					for _, m := range old.Maps {
 						buf.Results = append(buf.Results, m.Results)
 					}
-					for _, b := range []Buffers{{}, buf} {
+					for _, b := range []Buffers{{}, buf, {IndexOnly: true}} {
 						got, err := SolveAllReusing(context.Background(), g, facs, s, b)
 						if err != nil {
 							t.Fatal(err)
@@ -81,9 +81,18 @@ func TestSolveAllEqualsSolveAndBest(t *testing.T) {
 								}
 							}
 						}
+						if b.IndexOnly != (got.BestRes == nil) {
+							t.Fatalf("IndexOnly %v: best results %d long", b.IndexOnly, len(got.BestRes))
+						}
 						for p := range wantBest {
-							if got.Best[p] != wantBest[p] || got.BestRes[p] != wantRes[p] {
-								t.Fatalf("best at %d: %d %+v, want %d %+v", p, got.Best[p], got.BestRes[p], wantBest[p], wantRes[p])
+							res := Result{}
+							if w := got.Best[p]; b.IndexOnly && w >= 0 {
+								res = got.Maps[w].Results[p]
+							} else if !b.IndexOnly {
+								res = got.BestRes[p]
+							}
+							if got.Best[p] != wantBest[p] || res != wantRes[p] {
+								t.Fatalf("best at %d: %d %+v, want %d %+v", p, got.Best[p], res, wantBest[p], wantRes[p])
 							}
 						}
 						if got.BestShares != wantShares {

@@ -125,7 +125,6 @@ func (a *arrays) retire(old, keep *results) {
 			addResults(m.Results, nil)
 		}
 	}
-	addResults(old.bestRes, keep.bestRes)
 	if is := old.best; len(is) > 0 && (len(keep.best) == 0 || &keep.best[0] != &is[0]) && !a.held[&is[0]] {
 		a.held[&is[0]] = true
 		a.pending.ints = append(a.pending.ints, is)

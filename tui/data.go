@@ -15,10 +15,11 @@ import (
 // point. It is replaced as a whole, never changed in place, so a view of
 // an older results stays consistent while a recompute runs.
 type results struct {
-	grid    *envelope.Grid
-	maps    []*envelope.Map
-	best    []int // facility index per point, -1 outside
-	bestRes []envelope.Result
+	grid *envelope.Grid
+	maps []*envelope.Map
+	// best is the facility index of the best answer per point, -1
+	// outside; the answer itself is that map's result there (bestAt).
+	best    []int
 	full    []float64 // full-match share of inside points, per facility
 	matched []float64 // full match or Mach relaxed, per facility
 	union   float64   // share of inside points some facility matches
@@ -46,7 +47,7 @@ func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s
 		return results{}, errors.New("no flight grid to solve on")
 	}
 	n := g.Rows() * g.Cols()
-	buf := envelope.Buffers{Results: make([][]envelope.Result, len(facs)), Best: pool.takeInts(n), BestRes: pool.takeResults(n)}
+	buf := envelope.Buffers{Results: make([][]envelope.Result, len(facs)), Best: pool.takeInts(n), IndexOnly: true}
 	for k := range facs {
 		buf.Results[k] = pool.takeResults(n)
 	}
@@ -55,7 +56,7 @@ func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s
 		// The arrays taken are left to the collector.
 		return results{}, err
 	}
-	r := results{grid: g, maps: a.Maps, errs: a.Errs, best: a.Best, bestRes: a.BestRes}
+	r := results{grid: g, maps: a.Maps, errs: a.Errs, best: a.Best}
 	r.shares(nil, -1)
 	sh := a.BestShares
 	if sh.Inside > 0 {
@@ -102,10 +103,11 @@ func (r *results) summarise(prev *results, changed int, pool *arrays) {
 	}
 	if !ok {
 		n := r.grid.Rows() * r.grid.Cols()
-		r.best, r.bestRes = bestOfAllInto(r.maps, pool.takeInts(n), pool.takeResults(n))
-		c = byParts(len(r.bestRes), func(lo, hi int) (c bestCounts) {
+		var res []envelope.Result
+		r.best, res = bestOfAllInto(r.maps, pool.takeInts(n), nil)
+		c = byParts(len(res), func(lo, hi int) (c bestCounts) {
 			for p := lo; p < hi; p++ {
-				c.add(&r.bestRes[p])
+				c.add(&res[p])
 			}
 			return c
 		})
@@ -165,20 +167,21 @@ func (r *results) incrementalBest(prev *results, k int, pool *arrays) (bestCount
 		}
 	}
 	best := pool.takeInts(n)
-	bestRes := pool.takeResults(n)
 	if best == nil {
 		best = make([]int, n)
 	}
-	if bestRes == nil {
-		bestRes = make([]envelope.Result, n)
-	}
-	best, bestRes = best[:n], bestRes[:n]
+	best = best[:n]
 	newK := r.maps[k].Results
-	prevBest, prevRes := prev.best, prev.bestRes
+	prevBest, prevMaps := prev.best, prev.maps
 	var none envelope.Result
 	update := func(lo, hi int) (c bestCounts) {
 		for p := lo; p < hi; p++ {
-			w, wr := prevBest[p], &prevRes[p]
+			// The previous winner's answer is in its previous map (for
+			// k the old one).
+			w, wr := prevBest[p], &none
+			if w >= 0 {
+				wr = &prevMaps[w].Results[p]
+			}
 			nk := &newK[p]
 			switch {
 			case nk.Class == envelope.Outside:
@@ -209,13 +212,13 @@ func (r *results) incrementalBest(prev *results, k int, pool *arrays) (bestCount
 				// a tie goes to the lower index
 				w, wr = k, nk
 			}
-			best[p], bestRes[p] = w, *wr
+			best[p] = w
 			c.add(wr)
 		}
 		return c
 	}
 	c := byParts(n, update)
-	r.best, r.bestRes = best, bestRes
+	r.best = best
 	return c, true
 }
 
@@ -227,10 +230,7 @@ func (r *results) result(fac, i, j int) (envelope.Result, int) {
 	}
 	idx := r.grid.Index(i, j)
 	if fac < 0 {
-		if idx >= len(r.best) {
-			return envelope.Result{}, -1
-		}
-		return r.bestRes[idx], r.best[idx]
+		return r.bestAt(idx)
 	}
 	if fac >= len(r.maps) || r.maps[fac] == nil {
 		return envelope.Result{}, -1
@@ -268,4 +268,17 @@ func (r *results) shares(prev *results, changed int) int {
 		solved++
 	}
 	return solved
+}
+
+// bestAt is the best-of-all answer at grid index p and the facility that
+// gave it (-1 and the zero result, Outside, when none).
+func (r *results) bestAt(p int) (envelope.Result, int) {
+	if p < 0 || p >= len(r.best) {
+		return envelope.Result{}, -1
+	}
+	w := r.best[p]
+	if w < 0 || w >= len(r.maps) || r.maps[w] == nil {
+		return envelope.Result{}, -1
+	}
+	return r.maps[w].Results[p], w
 }

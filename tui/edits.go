@@ -44,15 +44,15 @@ func (m *Model) markFullMatches() {
 		m.setError("no facility results to mark")
 		return
 	}
-	var src []envelope.Result
-	if m.fac < 0 {
-		src = m.res.bestRes
-	} else {
-		src = m.res.maps[m.fac].Results
-	}
 	marks := cloneMarks(m.marks)
 	added := 0
-	for idx, r := range src {
+	for idx := range g.Rows() * g.Cols() {
+		var r envelope.Result
+		if m.fac < 0 {
+			r, _ = m.res.bestAt(idx)
+		} else if mp := m.res.maps[m.fac]; mp != nil {
+			r = mp.Results[idx]
+		}
 		if r.Class == envelope.FullMatch && !marks[idx] {
 			marks[idx] = true
 			added++

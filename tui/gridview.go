@@ -23,7 +23,8 @@ type GridView struct {
 	// the best facility (best of all) with its letter.
 	Facility int
 	// Best and BestRes are the best-of-all answer (BestOfAll(Maps)); when
-	// nil and needed, Matrix computes them.
+	// Best is nil and needed, Matrix computes them. With Best alone, the
+	// answer at a point is its winner's result in Maps.
 	Best    []int
 	BestRes []envelope.Result
 
@@ -142,7 +143,14 @@ func (v *GridView) answer(p int) (envelope.Result, int) {
 		if p >= len(v.Best) {
 			return envelope.Result{}, -1
 		}
-		return v.BestRes[p], v.Best[p]
+		w := v.Best[p]
+		if p < len(v.BestRes) {
+			return v.BestRes[p], w
+		}
+		if w < 0 || w >= len(v.Maps) || v.Maps[w] == nil {
+			return envelope.Result{}, -1
+		}
+		return v.Maps[w].Results[p], w
 	}
 	if v.Facility >= len(v.Maps) || v.Maps[v.Facility] == nil {
 		return envelope.Result{}, -1

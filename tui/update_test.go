@@ -585,8 +585,8 @@ func TestIncrementalBestMatchesBest(t *testing.T) {
 			}
 			wantIdx, wantRes := envelope.Best(got.maps)
 			for p := range wantIdx {
-				if got.best[p] != wantIdx[p] || got.bestRes[p] != wantRes[p] {
-					t.Fatalf("%s: point %d: best = %d %+v, want %d %+v", name, p, got.best[p], got.bestRes[p], wantIdx[p], wantRes[p])
+				if r, w := got.bestAt(p); w != wantIdx[p] || r != wantRes[p] {
+					t.Fatalf("%s: point %d: best = %d %+v, want %d %+v", name, p, w, r, wantIdx[p], wantRes[p])
 				}
 			}
 			sh := envelope.BestShares(got.maps)

@@ -379,7 +379,6 @@ func (m Model) gridView() GridView {
 		Facilities: m.facs,
 		Facility:   m.fac,
 		Best:       m.res.best,
-		BestRes:    m.res.bestRes,
 		Layer:      m.layer,
 		Units:      m.units,
 		ReTol:      m.set.ReTol,
