@@ -272,13 +272,18 @@ func (r *results) shares(prev *results, changed int) int {
 
 // bestAt is the best-of-all answer at grid index p and the facility that
 // gave it (-1 and the zero result, Outside, when none).
-func (r *results) bestAt(p int) (envelope.Result, int) {
-	if p < 0 || p >= len(r.best) {
+func (r *results) bestAt(p int) (envelope.Result, int) { return winnerAt(r.best, r.maps, p) }
+
+// winnerAt is the answer at grid index p of the facility best names there
+// (its result in maps) and that facility; -1 and the zero result,
+// Outside, when there is none.
+func winnerAt(best []int, maps []*envelope.Map, p int) (envelope.Result, int) {
+	if p < 0 || p >= len(best) {
 		return envelope.Result{}, -1
 	}
-	w := r.best[p]
-	if w < 0 || w >= len(r.maps) || r.maps[w] == nil {
+	w := best[p]
+	if w < 0 || w >= len(maps) || maps[w] == nil {
 		return envelope.Result{}, -1
 	}
-	return r.maps[w].Results[p], w
+	return maps[w].Results[p], w
 }

@@ -140,17 +140,10 @@ func (v GridView) withBest() GridView {
 // that gave it (-1 when none).
 func (v *GridView) answer(p int) (envelope.Result, int) {
 	if v.Facility < 0 {
-		if p >= len(v.Best) {
-			return envelope.Result{}, -1
+		if p < len(v.BestRes) && p < len(v.Best) {
+			return v.BestRes[p], v.Best[p]
 		}
-		w := v.Best[p]
-		if p < len(v.BestRes) {
-			return v.BestRes[p], w
-		}
-		if w < 0 || w >= len(v.Maps) || v.Maps[w] == nil {
-			return envelope.Result{}, -1
-		}
-		return v.Maps[w].Results[p], w
+		return winnerAt(v.Best, v.Maps, p)
 	}
 	if v.Facility >= len(v.Maps) || v.Maps[v.Facility] == nil {
 		return envelope.Result{}, -1

@@ -203,7 +203,8 @@ func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Mode
 		return New(opts), err
 	}
 	defer tt.restore()
-	if w, h, ok := tt.size(); ok {
+	w, h, sized := tt.size()
+	if sized {
 		opts.Width, opts.Height = w, h
 	}
 	m := New(opts)
@@ -211,8 +212,8 @@ func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Mode
 	// The program draws its own frames (screen.go): Bubble Tea's renderer
 	// is off, and with it its handling of the terminal, which tt does.
 	scr := newScreen(out)
-	if _, _, ok := tt.size(); ok {
-		scr.resize(opts.Width, opts.Height)
+	if sized {
+		scr.resize(w, h)
 	}
 	all := append([]tea.ProgramOption{tea.WithContext(ctx), tea.WithoutSignalHandler(), tea.WithoutRenderer(),
 		tea.WithInput(in), tea.WithOutput(out)}, progOpts...)

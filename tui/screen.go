@@ -248,8 +248,6 @@ func (d drawn) View() string {
 // terminal is the input and output Run uses, with what it changed of
 // them: the input's mode before the program made it raw.
 type terminal struct {
-	in     io.Reader
-	out    io.Writer
 	inFile *os.File // the input when it is a terminal
 	outFd  uintptr
 	isTerm bool // the output is a terminal (it has a size)
@@ -259,7 +257,7 @@ type terminal struct {
 // openTerminal puts a terminal input into raw mode (keys arrive one at a
 // time, unechoed) and notes whether the output is a terminal.
 func openTerminal(in io.Reader, out io.Writer) (*terminal, error) {
-	t := &terminal{in: in, out: out}
+	t := &terminal{}
 	if f, ok := in.(*os.File); ok && term.IsTerminal(f.Fd()) {
 		st, err := term.MakeRaw(f.Fd())
 		if err != nil {
