@@ -68,16 +68,7 @@ func BestReusing(maps []*Map, idx []int, best []Result) ([]int, []Result) {
 	if !ok {
 		return nil, nil
 	}
-	if cap(idx) >= bs.n {
-		idx = idx[:bs.n]
-	} else {
-		idx = make([]int, bs.n)
-	}
-	if cap(best) >= bs.n {
-		best = best[:bs.n]
-	} else {
-		best = make([]Result, bs.n)
-	}
+	idx, best = sized(idx, bs.n), sized(best, bs.n)
 	forRanges(bs.n, func(lo, hi int) {
 		for k := lo; k < hi; k++ {
 			w, wr := bs.at(k)

@@ -58,10 +58,10 @@ const fusedPoints = 8192
 // in Errs and takes no part. When ctx ends first it stops between blocks
 // and returns ctx's error.
 func SolveAllReusing(ctx context.Context, g *Grid, facs []Facility, s Settings, buf Buffers) (All, error) {
-	a := All{Maps: make([]*Map, len(facs)), Errs: make([]error, len(facs))}
 	if g == nil {
 		return All{}, errors.New("solve: need a grid")
 	}
+	a := All{Maps: make([]*Map, len(facs)), Errs: make([]error, len(facs))}
 	var maps []*Map // the solved ones, in facility order
 	var index []int // their facility index
 	for k := range facs {
