@@ -22,10 +22,7 @@ func TestTmuxFramesMatchRepaint(t *testing.T) {
 	if _, err := exec.LookPath("tmux"); err != nil {
 		t.Skip("tmux not installed")
 	}
-	bin := filepath.Join(t.TempDir(), "likewind")
-	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
-		t.Fatalf("go build: %v\n%s", err, out)
-	}
+	bin := buildLikewind(t)
 	p := &tmuxPane{tb: t, socket: filepath.Join(t.TempDir(), "tmux.sock"), name: "frames"}
 	cmd := exec.Command("tmux", "-S", p.socket, "new-session", "-d", "-s", p.name, "-x", "150", "-y", "45",
 		"env", "XDG_STATE_HOME="+t.TempDir(), bin, "--fresh")
