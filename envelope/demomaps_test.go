@@ -41,14 +41,7 @@ func demoMapsWith(t testing.TB, edit func(*Vehicle, []Facility)) (*Grid, []*Map)
 // (Halcyra HA-1, low Mach numbers, many Mach-relaxed matches).
 func outSecondDemoMaps(t testing.TB) (*Grid, []*Map) {
 	t.Helper()
-	vs, err := DemoVehicles()
-	if err != nil || len(vs) < 2 {
-		t.Fatalf("DemoVehicles() = %d vehicles, %v", len(vs), err)
-	}
-	_, facs, err := Demo()
-	if err != nil {
-		t.Fatal(err)
-	}
+	vs, facs := demoFleet(t)
 	v := vs[1]
 	s := DefaultSettings(v)
 	g, err := NewGrid(v, s)
@@ -80,4 +73,19 @@ func demoGridCase(t testing.TB) (*Grid, []Facility, Settings) {
 		t.Fatalf("NewGrid = %v", err)
 	}
 	return g, facs, s
+}
+
+// demoFleet is both demo vehicles and the demo facilities (invented
+// data).
+func demoFleet(t testing.TB) ([]*Vehicle, []Facility) {
+	t.Helper()
+	vs, err := DemoVehicles()
+	if err != nil || len(vs) < 2 {
+		t.Fatalf("DemoVehicles() = %d vehicles, %v", len(vs), err)
+	}
+	_, facs, err := Demo()
+	if err != nil {
+		t.Fatalf("Demo() = %v", err)
+	}
+	return vs, facs
 }

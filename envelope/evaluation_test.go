@@ -10,14 +10,7 @@ import (
 // shares, reachable Reynolds range) without their results, and the best
 // of all's class at every point (BestClasses of Evaluate's maps).
 func TestEvaluateBest(t *testing.T) {
-	vs, err := DemoVehicles()
-	if err != nil {
-		t.Fatal(err)
-	}
-	_, facs, err := Demo()
-	if err != nil {
-		t.Fatal(err)
-	}
+	vs, facs := demoFleet(t)
 	for _, v := range vs {
 		v.Grid.Altitude.Count, v.Grid.Altitude.Step = 60, 0
 		v.Grid.Speed.Count, v.Grid.Speed.Step = 70, 0

@@ -14,14 +14,7 @@ import (
 // larger than a row), on one processor and on several, and when the
 // arrays handed in hold older results.
 func TestSolveAllEqualsSolveAndBest(t *testing.T) {
-	vs, err := DemoVehicles()
-	if err != nil {
-		t.Fatal(err)
-	}
-	_, facs, err := Demo()
-	if err != nil {
-		t.Fatal(err)
-	}
+	vs, facs := demoFleet(t)
 	for _, procs := range []int{1, runtime.GOMAXPROCS(0), 3} {
 		for vi, v0 := range vs {
 			for _, n := range []int{0, 37, 230} {

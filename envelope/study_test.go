@@ -410,14 +410,7 @@ func TestStudyEqualsSolveTASGrid(t *testing.T) {
 // TestStudyEqualsSolveRelaxed: the second demo vehicle flies slowly, so
 // many of its points are matched with Mach number relaxed.
 func TestStudyEqualsSolveRelaxed(t *testing.T) {
-	vs, err := DemoVehicles()
-	if err != nil || len(vs) < 2 {
-		t.Fatalf("DemoVehicles: %d, %v", len(vs), err)
-	}
-	_, facs, err := Demo()
-	if err != nil {
-		t.Fatal(err)
-	}
+	vs, facs := demoFleet(t)
 	for _, loads := range []bool{false, true} {
 		v := *vs[1]
 		fs := append([]Facility(nil), facs...)
