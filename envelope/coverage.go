@@ -131,7 +131,7 @@ func (f *bestFold) add(rs []Result) {
 			}
 			w := f.class[k]
 			rank, wRank := r.Class.Rank(), w.Rank()
-			if w == Outside || rank < wRank || (rank == wRank && closerToOne(r.ReRatio, f.ratio[k])) {
+			if w == Outside || outranks(rank, r.ReRatio, wRank, f.ratio[k]) {
 				f.class[k], f.ratio[k] = r.Class, r.ReRatio
 			}
 		}
@@ -193,7 +193,7 @@ func (bs *bestSet) at(k int) (int, *Result) {
 		}
 		// better(r, wr), with the winner's rank kept
 		rank := r.Class.Rank()
-		if w < 0 || rank < wRank || (rank == wRank && closerToOne(r.ReRatio, wr.ReRatio)) {
+		if w < 0 || outranks(rank, r.ReRatio, wRank, wr.ReRatio) {
 			w, wr, wRank = u, r, rank
 		}
 	}

@@ -271,11 +271,13 @@ type Result struct {
 func Better(a, b Result) bool { return better(&a, &b) }
 
 func better(a, b *Result) bool {
-	ra, rb := a.Class.Rank(), b.Class.Rank()
-	if ra != rb {
-		return ra < rb
-	}
-	return closerToOne(a.ReRatio, b.ReRatio)
+	return outranks(a.Class.Rank(), a.ReRatio, b.Class.Rank(), b.ReRatio)
+}
+
+// outranks is Better's order on an answer's class rank and Reynolds
+// ratio: answer a (rank ra, ratio a) beats answer b.
+func outranks(ra int, a float32, rb int, b float32) bool {
+	return ra < rb || (ra == rb && closerToOne(a, b))
 }
 
 func ratioDistance(r float32) float64 {
