@@ -70,4 +70,14 @@ func TestTmuxFramesMatchRepaint(t *testing.T) {
 	if !strings.Contains(header(before), "what-if:") {
 		t.Errorf("the last edit's what-if line is not in the header:\n%s", header(before))
 	}
+	// Quit without saving and wait for the program to end, so that it
+	// writes nothing into the state folder while the test removes it.
+	p.send("q")
+	p.send("y")
+	for deadline := time.Now().Add(10 * time.Second); time.Now().Before(deadline); time.Sleep(20 * time.Millisecond) {
+		if _, err := p.run("has-session", "-t", p.name); err != nil {
+			return
+		}
+	}
+	t.Errorf("the program did not end after q, y; screen:\n%s", p.screen())
 }
