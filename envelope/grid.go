@@ -305,39 +305,92 @@ func forRowBlocksUntil(ctx context.Context, rows, cols int, newWorker func() fun
 // forRowBlocksSized is forRowBlocksUntil with blocks of size rows (the
 // last one shorter).
 func forRowBlocksSized(ctx context.Context, rows, cols, size int, newWorker func() func(i0, i1 int)) bool {
+	return forRowSpans(ctx, []RowSpan{{0, rows}}, cols, size, newWorker)
+}
+
+// forRowSpans is forRowBlocksSized over the rows of spans alone, each cut
+// into blocks of size rows (the last of a span shorter); no block crosses
+// from one span into the next. On one goroutine the blocks are done in the
+// order of spans.
+func forRowSpans(ctx context.Context, spans []RowSpan, cols, size int, newWorker func() func(i0, i1 int)) bool {
+	var blocks []RowSpan
+	rows := 0
+	for _, sp := range spans {
+		for i0 := sp.Lo; i0 < sp.Hi; i0 += size {
+			blocks = append(blocks, RowSpan{i0, min(i0+size, sp.Hi)})
+		}
+		rows += max(sp.Hi-sp.Lo, 0)
+	}
 	workers := runtime.GOMAXPROCS(0)
 	if workers < 2 || rows < 2 || rows*cols < parallelMin {
 		work := newWorker()
-		for i0 := 0; i0 < rows; i0 += size {
-			if i0 > 0 && ctx.Err() != nil {
+		for k, b := range blocks {
+			if k > 0 && ctx.Err() != nil {
 				return false
 			}
-			work(i0, min(i0+size, rows))
+			work(b.Lo, b.Hi)
 		}
 		return ctx.Err() == nil
 	}
 	var stopped atomic.Bool
-	workers = min(workers, rows)
+	workers = min(workers, len(blocks))
 	var next atomic.Int64
 	var wg sync.WaitGroup
 	for range workers {
 		wg.Go(func() {
 			work := newWorker()
 			for {
-				i0 := int(next.Add(int64(size))) - size
-				if i0 >= rows {
+				k := int(next.Add(1)) - 1
+				if k >= len(blocks) {
 					return
 				}
 				if ctx.Err() != nil {
 					stopped.Store(true)
 					return
 				}
-				work(i0, min(i0+size, rows))
+				work(blocks[k].Lo, blocks[k].Hi)
 			}
 		})
 	}
 	wg.Wait()
 	return !stopped.Load()
+}
+
+// RowSpan is the grid rows (altitude indices) Lo up to Hi-1.
+type RowSpan struct{ Lo, Hi int }
+
+// Len is the number of rows in the span (0 when empty).
+func (r RowSpan) Len() int { return max(r.Hi-r.Lo, 0) }
+
+// Has reports whether row i is in the span.
+func (r RowSpan) Has(i int) bool { return i >= r.Lo && i < r.Hi }
+
+// clip is the part of the span within rows 0..rows-1.
+func (r RowSpan) clip(rows int) RowSpan {
+	r.Lo, r.Hi = max(r.Lo, 0), min(r.Hi, rows)
+	if r.Hi < r.Lo {
+		r.Hi = r.Lo
+	}
+	return r
+}
+
+// staged splits rows 0..rows-1 into first (within them) and the rest,
+// for a solve that does the first rows before the others. It reports
+// false, with all the rows in one span, when first is empty or covers
+// every row.
+func staged(first RowSpan, rows int) (RowSpan, []RowSpan, bool) {
+	first = first.clip(rows)
+	if first.Len() == 0 || first.Len() == rows {
+		return RowSpan{0, rows}, nil, false
+	}
+	var rest []RowSpan
+	if first.Lo > 0 {
+		rest = append(rest, RowSpan{0, first.Lo})
+	}
+	if first.Hi < rows {
+		rest = append(rest, RowSpan{first.Hi, rows})
+	}
+	return first, rest, true
 }
 
 // rowLimits is the envelope on one altitude row expressed in the grid's

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"reflect"
+	"runtime"
 	"sync"
 )
 
@@ -162,6 +163,19 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 // first (a newer what-if made this map stale) it stops between blocks of
 // rows and returns ctx's error.
 func SolveReusing(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Result) (*Map, error) {
+	return SolveStaged(ctx, g, f, s, buf, RowSpan{}, nil)
+}
+
+// SolveStaged is SolveReusing solving the rows of first before the
+// others, for an interface that shows some rows and would show them as
+// soon as they are done: once they are, it calls ready with a copy of the
+// map whose results are final in those rows alone, and goes on with the
+// rest. The copy's other rows are being written while ready runs and
+// after it returns, until SolveStaged returns: the copy may be read in
+// the rows of first only, and its shares are not counted yet. With ready
+// nil, or first empty or every row, it is SolveReusing and ready is not
+// called.
+func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Result, first RowSpan, ready func(*Map)) (*Map, error) {
 	m, err := newMap(g, f, s, buf)
 	if err != nil {
 		return nil, err
@@ -171,18 +185,32 @@ func SolveReusing(ctx context.Context, g *Grid, f *Facility, s Settings, buf []R
 	// point-by-point solve.
 	var mu sync.Mutex // guards the counts while workers add theirs
 	var counts [NumClasses]int
-	done := forRowBlocksUntil(ctx, len(g.Alts), len(g.Speeds), func() func(i0, i1 int) {
-		solveRows := m.sv.rowSolver(len(g.Speeds))
-		return func(i0, i1 int) {
-			n := solveRows(m, i0, i1)
-			mu.Lock()
-			for c := range n {
-				counts[c] += n[c]
+	pass := func(spans []RowSpan) bool {
+		workers := min(runtime.GOMAXPROCS(0), len(g.Alts))
+		size := max(1, len(g.Alts)/(max(workers, 1)*blocksPerWorker))
+		return forRowSpans(ctx, spans, len(g.Speeds), size, func() func(i0, i1 int) {
+			solveRows := m.sv.rowSolver(len(g.Speeds))
+			return func(i0, i1 int) {
+				n := solveRows(m, i0, i1)
+				mu.Lock()
+				for c := range n {
+					counts[c] += n[c]
+				}
+				mu.Unlock()
 			}
-			mu.Unlock()
+		})
+	}
+	first, rest, split := staged(first, len(g.Alts))
+	if split && ready != nil {
+		if !pass([]RowSpan{first}) {
+			return nil, ctx.Err()
 		}
-	})
-	if !done {
+		cp := *m
+		ready(&cp)
+	} else {
+		rest = []RowSpan{first}
+	}
+	if !pass(rest) {
 		return nil, ctx.Err()
 	}
 	m.finish(counts)

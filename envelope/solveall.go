@@ -58,6 +58,18 @@ const fusedPoints = 8192
 // in Errs and takes no part. When ctx ends first it stops between blocks
 // and returns ctx's error.
 func SolveAllReusing(ctx context.Context, g *Grid, facs []Facility, s Settings, buf Buffers) (All, error) {
+	return SolveAllStaged(ctx, g, facs, s, buf, RowSpan{}, nil)
+}
+
+// SolveAllStaged is SolveAllReusing solving the rows of first before the
+// others, as SolveStaged does for one facility: once they are done it
+// calls ready with an All whose maps are copies, and whose maps and best
+// of all are final in the rows of first alone (BestShares not counted
+// yet), and goes on with the rest. The other rows are being written while
+// ready runs and after it returns, until SolveAllStaged returns, so the
+// All given to ready may be read in the rows of first only. With ready
+// nil, or first empty or every row, ready is not called.
+func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, buf Buffers, first RowSpan, ready func(All)) (All, error) {
 	if g == nil {
 		return All{}, errors.New("solve: need a grid")
 	}
@@ -91,48 +103,66 @@ func SolveAllReusing(ctx context.Context, g *Grid, facs []Facility, s Settings, 
 		bs.rs = append(bs.rs, m.Results)
 	}
 	rowsPer := max(1, fusedPoints/max(cols, 1))
-	done := forRowBlocksSized(ctx, len(g.Alts), cols, rowsPer, func() func(i0, i1 int) {
-		solvers := make([]func(m *Map, i0, i1 int) [NumClasses]int, len(maps))
-		for f, m := range maps {
-			solvers[f] = m.sv.rowSolver(cols)
-		}
-		local := make([][NumClasses]int, len(maps))
-		return func(i0, i1 int) {
+	pass := func(spans []RowSpan) bool {
+		return forRowSpans(ctx, spans, cols, rowsPer, func() func(i0, i1 int) {
+			solvers := make([]func(m *Map, i0, i1 int) [NumClasses]int, len(maps))
 			for f, m := range maps {
-				local[f] = solvers[f](m, i0, i1)
+				solvers[f] = m.sv.rowSolver(cols)
 			}
-			var nb [NumClasses]int
-			for p := i0 * cols; p < i1*cols; p++ {
-				w, wr := bs.at(p)
-				if w < 0 {
-					a.Best[p] = -1
-					if a.BestRes != nil {
-						a.BestRes[p] = Result{}
+			local := make([][NumClasses]int, len(maps))
+			return func(i0, i1 int) {
+				for f, m := range maps {
+					local[f] = solvers[f](m, i0, i1)
+				}
+				var nb [NumClasses]int
+				for p := i0 * cols; p < i1*cols; p++ {
+					w, wr := bs.at(p)
+					if w < 0 {
+						a.Best[p] = -1
+						if a.BestRes != nil {
+							a.BestRes[p] = Result{}
+						}
+						nb[Outside]++
+						continue
 					}
-					nb[Outside]++
-					continue
+					a.Best[p] = bs.index[w]
+					if a.BestRes != nil {
+						a.BestRes[p] = *wr
+					}
+					if c := wr.Class; int(c) < NumClasses {
+						nb[c]++
+					}
 				}
-				a.Best[p] = bs.index[w]
-				if a.BestRes != nil {
-					a.BestRes[p] = *wr
+				mu.Lock()
+				for f := range local {
+					for c := range local[f] {
+						counts[f][c] += local[f][c]
+					}
 				}
-				if c := wr.Class; int(c) < NumClasses {
-					nb[c]++
+				for c := range nb {
+					best[c] += nb[c]
 				}
+				mu.Unlock()
 			}
-			mu.Lock()
-			for f := range local {
-				for c := range local[f] {
-					counts[f][c] += local[f][c]
-				}
-			}
-			for c := range nb {
-				best[c] += nb[c]
-			}
-			mu.Unlock()
+		})
+	}
+	first, rest, split := staged(first, len(g.Alts))
+	if split && ready != nil {
+		if !pass([]RowSpan{first}) {
+			return All{}, ctx.Err()
 		}
-	})
-	if !done {
+		early := All{Maps: make([]*Map, len(a.Maps)), Errs: a.Errs, Best: a.Best, BestRes: a.BestRes}
+		for k, m := range a.Maps {
+			if m != nil {
+				cp := *m
+				early.Maps[k] = &cp
+			}
+		}
+		ready(early)
+	} else {
+		rest = []RowSpan{first}
+	}
+	if !pass(rest) {
 		return All{}, ctx.Err()
 	}
 	for f, m := range maps {

@@ -129,3 +129,102 @@ func TestSolveAllUnsolvableAndCancelled(t *testing.T) {
 		t.Errorf("cancelled: error %v, want context.Canceled", err)
 	}
 }
+
+// A staged solve calls ready once, when the first rows are done, with
+// maps and a best of all that are already final there; the finished maps
+// and best of all are those of the unstaged solve. Where first is empty
+// or every row, ready is not called. Run with -race: ready reads its rows
+// while the other rows are being solved.
+func TestSolveStagedFirstRowsFinalEarly(t *testing.T) {
+	vs, facs := demoFleet(t)
+	for _, procs := range []int{1, runtime.GOMAXPROCS(0), 3} {
+		for vi, v0 := range vs {
+			t.Run(fmt.Sprintf("procs%d/vehicle%d", procs, vi), func(t *testing.T) {
+				defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
+				v := *v0
+				v.Grid.Altitude.Count, v.Grid.Altitude.Step = 90, 0
+				v.Grid.Speed.Count, v.Grid.Speed.Step = 91, 0
+				s := DefaultSettings(&v)
+				g, err := NewGrid(&v, s)
+				if err != nil {
+					t.Fatal(err)
+				}
+				want, err := SolveAll(g, facs, s)
+				if err != nil {
+					t.Fatal(err)
+				}
+				cols := g.Cols()
+				for _, first := range []RowSpan{{30, 47}, {0, 12}, {80, 200}, {-5, 3}} {
+					inFirst := first.clip(g.Rows())
+					calls := 0
+					got, err := SolveAllStaged(context.Background(), g, facs, s, Buffers{IndexOnly: true}, first, func(a All) {
+						calls++
+						for p := inFirst.Lo * cols; p < inFirst.Hi*cols; p++ {
+							if a.Best[p] != want.Best[p] {
+								t.Fatalf("first %v: early best at %d: %d, want %d", first, p, a.Best[p], want.Best[p])
+							}
+							for k, m := range a.Maps {
+								if m.Results[p] != want.Maps[k].Results[p] {
+									t.Fatalf("first %v: early %s at %d: %+v, want %+v", first, facs[k].Name, p, m.Results[p], want.Maps[k].Results[p])
+								}
+							}
+						}
+					})
+					if err != nil {
+						t.Fatal(err)
+					}
+					if calls != 1 {
+						t.Errorf("first %v: ready called %d times, want once", first, calls)
+					}
+					for p := range want.Best {
+						if got.Best[p] != want.Best[p] {
+							t.Fatalf("first %v: best at %d: %d, want %d", first, p, got.Best[p], want.Best[p])
+						}
+					}
+					for k, m := range got.Maps {
+						if m.Shares() != want.Maps[k].Shares() {
+							t.Errorf("first %v: %s shares %+v, want %+v", first, facs[k].Name, m.Shares(), want.Maps[k].Shares())
+						}
+						for p := range m.Results {
+							if m.Results[p] != want.Maps[k].Results[p] {
+								t.Fatalf("first %v: %s at %d differs", first, facs[k].Name, p)
+							}
+						}
+					}
+					if got.BestShares != want.BestShares {
+						t.Errorf("first %v: best shares %+v, want %+v", first, got.BestShares, want.BestShares)
+					}
+
+					// One facility, staged the same way.
+					calls = 0
+					m, err := SolveStaged(context.Background(), g, &facs[2], s, nil, first, func(e *Map) {
+						calls++
+						for p := inFirst.Lo * cols; p < inFirst.Hi*cols; p++ {
+							if e.Results[p] != want.Maps[2].Results[p] {
+								t.Fatalf("first %v: early one-facility result at %d differs", first, p)
+							}
+						}
+					})
+					if err != nil {
+						t.Fatal(err)
+					}
+					if calls != 1 || m.Shares() != want.Maps[2].Shares() {
+						t.Errorf("first %v: one facility: ready called %d times, shares %+v, want once, %+v", first, calls, m.Shares(), want.Maps[2].Shares())
+					}
+				}
+				for _, first := range []RowSpan{{}, {0, g.Rows()}, {-3, g.Rows() + 4}, {200, 300}} {
+					if _, err := SolveAllStaged(context.Background(), g, facs, s, Buffers{}, first, func(All) {
+						t.Errorf("first %v: ready called", first)
+					}); err != nil {
+						t.Fatal(err)
+					}
+					if _, err := SolveStaged(context.Background(), g, &facs[0], s, nil, first, func(*Map) {
+						t.Errorf("first %v: one facility: ready called", first)
+					}); err != nil {
+						t.Fatal(err)
+					}
+				}
+			})
+		}
+	}
+}
