@@ -119,7 +119,7 @@ func TestArraysReusedStayCorrect(t *testing.T) {
 	c1 := m.recompute(recomputeGrid)
 	m.set.DeltaT = 7
 	c2 := m.recompute(recomputeGrid)
-	out2 := c2()
+	out2 := finished(c2)
 	m, _ = drive(m, out2)
 	// c1 is still out and reads the results it started from: none of
 	// their arrays may be handed out yet.
@@ -130,7 +130,7 @@ func TestArraysReusedStayCorrect(t *testing.T) {
 			}
 		}
 	}
-	out1 := c1()
+	out1 := finished(c1)
 	m, _ = drive(m, out1)
 	checkFresh(t, m, "newest first")
 	m.fac = facilityNamed(t, m, "Harl Cove")
@@ -144,7 +144,7 @@ func TestArraysReusedStayCorrect(t *testing.T) {
 	m.facs = slices.Clone(m.facs)
 	m.facs[m.fac].SetPressureMax(0.8 * p0)
 	c2 = m.recompute(recomputeOneFac)
-	out1, out2 = c1(), c2()
+	out1, out2 = finished(c1), finished(c2)
 	m, _ = drive(m, out2, out1)
 	checkFresh(t, m, "one facility, newest first")
 	m, _ = press(m, "e", "down", "enter", "ctrl+u", "2", "K", "enter", "esc")
@@ -157,7 +157,7 @@ func TestArraysReusedStayCorrect(t *testing.T) {
 	c1 = m.recompute(recomputeOneFac)
 	m.set.DeltaT = -3
 	c2 = m.recompute(recomputeGrid)
-	out1, out2 = c1(), c2()
+	out1, out2 = finished(c1), finished(c2)
 	m, _ = drive(m, out2, out1)
 	checkFresh(t, m, "grid, then the stale one-facility")
 	for _, keys := range [][]string{{"e", "down", "enter", "ctrl+u", "6", "K", "enter", "esc"},
@@ -192,7 +192,7 @@ func TestStaleRecomputeStops(t *testing.T) {
 	}
 	m.set.DeltaT = 8
 	c2 := m.recompute(recomputeGrid)
-	out1 := c1()
+	out1 := finished(c1)
 	// It was running already: it stopped (context.Canceled) or, on this
 	// small grid, may have finished first; either way it is dropped.
 	if msg, ok := out1.(computedMsg); !ok || msg.err != nil && !errors.Is(msg.err, context.Canceled) {
@@ -202,6 +202,6 @@ func TestStaleRecomputeStops(t *testing.T) {
 	if !m.busy || m.statusErr {
 		t.Fatalf("the stale message changed the state: busy %v, status %q", m.busy, m.status)
 	}
-	m, _ = drive(m, c2())
+	m, _ = drive(m, finished(c2))
 	checkFresh(t, m, "after the stale one stopped")
 }

@@ -29,20 +29,37 @@ type results struct {
 	errs     []error // per facility: why it has no map (nil map)
 }
 
+// early asks a recompute for some rows first: the rows on screen. Once
+// they are solved, send gets results that may be read in those rows alone
+// (their other rows are still being written) while the rest is solved. A
+// nil *early asks for nothing early.
+type early struct {
+	rows envelope.RowSpan
+	send func(results, envelope.RowSpan)
+}
+
+// span is the rows asked for, none for a nil e.
+func (e *early) span() envelope.RowSpan {
+	if e == nil {
+		return envelope.RowSpan{}
+	}
+	return e.rows
+}
+
 // computeGrid evaluates the flight side and every facility, in arrays
-// from pool where it has them (nil: new arrays).
-func computeGrid(ctx context.Context, v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
+// from pool where it has them (nil: new arrays), with the rows of e first.
+func computeGrid(ctx context.Context, v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings, pool *arrays, e *early) (results, error) {
 	g, err := envelope.NewGridReusing(ctx, v, s, pool.takeGrid())
 	if err != nil {
 		return results{}, err
 	}
-	return solveAll(ctx, g, facs, s, pool)
+	return solveAll(ctx, g, facs, s, pool, e)
 }
 
 // solveAll solves every facility on an existing grid with the best of
 // all, in one pass (envelope.SolveAllReusing). When ctx ends first (the
 // results are stale) it returns ctx's error.
-func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s envelope.Settings, pool *arrays) (results, error) {
+func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s envelope.Settings, pool *arrays, e *early) (results, error) {
 	if g == nil {
 		return results{}, errors.New("no flight grid to solve on")
 	}
@@ -51,7 +68,13 @@ func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s
 	for k := range facs {
 		buf.Results[k] = pool.takeResults(n)
 	}
-	a, err := envelope.SolveAllReusing(ctx, g, facs, s, buf)
+	var ready func(envelope.All)
+	if e != nil {
+		ready = func(a envelope.All) {
+			e.send(results{grid: g, maps: a.Maps, errs: a.Errs, best: a.Best}, e.rows)
+		}
+	}
+	a, err := envelope.SolveAllStaged(ctx, g, facs, s, buf, e.span(), ready)
 	if err != nil {
 		// The arrays taken are left to the collector.
 		return results{}, err
@@ -66,23 +89,62 @@ func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s
 	return r, nil
 }
 
-// solveOne re-solves facility k only, keeping the other maps of prev.
-func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s envelope.Settings, k int, pool *arrays) (results, error) {
+// solveOne re-solves facility k only, keeping the other maps of prev,
+// with the rows of e first.
+func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s envelope.Settings, k int, pool *arrays, e *early) (results, error) {
 	if prev.grid == nil || k < 0 || k >= len(facs) || len(prev.maps) != len(facs) {
-		return solveAll(ctx, prev.grid, facs, s, pool)
+		return solveAll(ctx, prev.grid, facs, s, pool, e)
 	}
-	m, err := envelope.SolveReusing(ctx, prev.grid, &facs[k], s, pool.takeResults(prev.grid.Rows()*prev.grid.Cols()))
+	with := func(m *envelope.Map) results {
+		r := results{
+			grid: prev.grid,
+			maps: append([]*envelope.Map(nil), prev.maps...),
+			errs: append([]error(nil), prev.errs...),
+		}
+		r.maps[k] = m
+		r.errs[k] = nil
+		return r
+	}
+	// The best of all of the early rows is decided as soon as they are
+	// solved, and the rest after the solve: each point once.
+	var (
+		upd     *bestUpdate
+		first   envelope.RowSpan
+		counted bestCounts
+	)
+	var ready func(*envelope.Map)
+	if e != nil {
+		ready = func(em *envelope.Map) {
+			er := with(em)
+			u, ok := er.newBestUpdate(&prev, k, pool)
+			if !ok {
+				return
+			}
+			cols := prev.grid.Cols()
+			upd, first = &u, e.rows
+			counted = u.update(first.Lo*cols, first.Hi*cols)
+			er.best = u.best
+			e.send(er, first)
+		}
+	}
+	m, err := envelope.SolveStaged(ctx, prev.grid, &facs[k], s, pool.takeResults(prev.grid.Rows()*prev.grid.Cols()), e.span(), ready)
 	if err != nil {
 		return results{}, fmt.Errorf("%s: %w", facs[k].Name, err)
 	}
-	r := results{
-		grid: prev.grid,
-		maps: append([]*envelope.Map(nil), prev.maps...),
-		errs: append([]error(nil), prev.errs...),
+	r := with(m)
+	if upd == nil {
+		r.summarise(&prev, k, pool)
+		return r, nil
 	}
-	r.maps[k] = m
-	r.errs[k] = nil
-	r.summarise(&prev, k, pool)
+	r.shares(&prev, k)
+	cols := prev.grid.Cols()
+	c := counted
+	c.plus(byParts(first.Lo*cols, upd.update))
+	c.plus(byParts(r.grid.Len()-first.Hi*cols, func(lo, hi int) bestCounts {
+		return upd.update(first.Hi*cols+lo, first.Hi*cols+hi)
+	}))
+	r.best = upd.best
+	r.setUnion(c)
 	return r, nil
 }
 
@@ -112,6 +174,11 @@ func (r *results) summarise(prev *results, changed int, pool *arrays) {
 			return c
 		})
 	}
+	r.setUnion(c)
+}
+
+// setUnion sets the best-of-all shares from their counts.
+func (r *results) setUnion(c bestCounts) {
 	if c.inside > 0 {
 		r.union = float64(c.matched) / float64(c.inside)
 		r.bestFull = float64(c.full) / float64(c.inside)
@@ -121,6 +188,11 @@ func (r *results) summarise(prev *results, changed int, pool *arrays) {
 // bestCounts counts the best-of-all answers: inside the envelope,
 // matched, full match.
 type bestCounts struct{ inside, matched, full int }
+
+// plus adds the counts of d.
+func (c *bestCounts) plus(d bestCounts) {
+	c.inside, c.matched, c.full = c.inside+d.inside, c.matched+d.matched, c.full+d.full
+}
 
 func (c *bestCounts) add(res *envelope.Result) {
 	if res.Class != envelope.Outside {
@@ -146,7 +218,7 @@ func byParts(n int, part func(lo, hi int) bestCounts) bestCounts {
 	wg.Wait()
 	var sum bestCounts
 	for _, c := range counts {
-		sum.inside, sum.matched, sum.full = sum.inside+c.inside, sum.matched+c.matched, sum.full+c.full
+		sum.plus(c)
 	}
 	return sum
 }
@@ -157,13 +229,32 @@ func byParts(n int, part func(lo, hi int) bestCounts) bestCounts {
 // outcome equals envelope.Best (ties go to the lower facility index). It
 // reports false when prev cannot be reused.
 func (r *results) incrementalBest(prev *results, k int, pool *arrays) (bestCounts, bool) {
+	u, ok := r.newBestUpdate(prev, k, pool)
+	if !ok {
+		return bestCounts{}, false
+	}
+	c := byParts(len(u.best), u.update)
+	r.best = u.best
+	return c, true
+}
+
+// bestUpdate is the best of all of incrementalBest being made: update
+// decides points lo..hi-1 into best and counts their answers.
+type bestUpdate struct {
+	best   []int
+	update func(lo, hi int) bestCounts
+}
+
+// newBestUpdate prepares incrementalBest of r (prev with facility k
+// re-solved) in an array from pool; false when prev cannot be reused.
+func (r *results) newBestUpdate(prev *results, k int, pool *arrays) (bestUpdate, bool) {
 	n := len(r.grid.Alts) * len(r.grid.Speeds)
 	if prev.grid != r.grid || len(prev.best) != n || len(prev.maps) != len(r.maps) || r.maps[k] == nil {
-		return bestCounts{}, false
+		return bestUpdate{}, false
 	}
 	for j, m := range r.maps {
 		if m == nil || len(m.Results) != n || (j != k && prev.maps[j] != m) {
-			return bestCounts{}, false
+			return bestUpdate{}, false
 		}
 	}
 	best := pool.takeInts(n)
@@ -172,7 +263,7 @@ func (r *results) incrementalBest(prev *results, k int, pool *arrays) (bestCount
 	}
 	best = best[:n]
 	newK := r.maps[k].Results
-	prevBest, prevMaps := prev.best, prev.maps
+	prevBest, prevMaps, maps := prev.best, prev.maps, r.maps
 	var none envelope.Result
 	update := func(lo, hi int) (c bestCounts) {
 		for p := lo; p < hi; p++ {
@@ -197,7 +288,7 @@ func (r *results) incrementalBest(prev *results, k int, pool *arrays) (bestCount
 				// k's answer got worse (or no map had won): decide the
 				// point again.
 				w, wr = -1, &none
-				for j, m := range r.maps {
+				for j, m := range maps {
 					res := &m.Results[p]
 					if res.Class == envelope.Outside {
 						continue
@@ -217,9 +308,7 @@ func (r *results) incrementalBest(prev *results, k int, pool *arrays) (bestCount
 		}
 		return c
 	}
-	c := byParts(n, update)
-	r.best = best
-	return c, true
+	return bestUpdate{best: best, update: update}, true
 }
 
 // result returns the facility answer at (i, j) for facility fac (-1 =

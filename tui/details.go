@@ -159,19 +159,20 @@ type detailKey struct {
 
 // detailKey describes the details of the cursor point at width w.
 func (m *Model) detailKey(w int) detailKey {
-	k := detailKey{grid: m.res.grid, shown: m.fac, facs: len(m.facs), i: m.curI, j: m.curJ,
+	r := m.shown()
+	k := detailKey{grid: r.grid, shown: m.fac, facs: len(m.facs), i: m.curI, j: m.curJ,
 		units: m.units, width: w, wide: m.wide, st: m.fr.st}
-	if g := m.res.grid; g != nil && g.Rows() > 0 && g.Cols() > 0 {
+	if g := r.grid; g != nil && g.Rows() > 0 && g.Cols() > 0 {
 		k.marked = m.marks[g.Index(min(m.curI, g.Rows()-1), min(m.curJ, g.Cols()-1))]
 	}
-	if _, f := m.res.result(m.fac, m.curI, m.curJ); f >= 0 && f < len(m.res.maps) {
-		k.answer = m.res.maps[f]
+	if _, f := r.result(m.fac, m.curI, m.curJ); f >= 0 && f < len(r.maps) {
+		k.answer = r.maps[f]
 		if f < len(m.facs) {
 			k.fac = &m.facs[f]
 		}
 	}
-	if m.fac >= 0 && m.fac < len(m.res.errs) && m.res.errs[m.fac] != nil {
-		k.errs = m.res.errs[m.fac].Error()
+	if m.fac >= 0 && m.fac < len(r.errs) && r.errs[m.fac] != nil {
+		k.errs = r.errs[m.fac].Error()
 	}
 	return k
 }
@@ -191,7 +192,7 @@ func (m *Model) refreshDetails(w int) {
 // the narrow layout, one above the other in the wide one.
 func (m Model) detailBlocks(w int) detailBlocks {
 	var d detailBlocks
-	g := m.res.grid
+	g := m.shown().grid
 	if g == nil || g.Rows() == 0 || g.Cols() == 0 {
 		d.flight = []string{m.fr.st.Section.Render("FLIGHT"), "no grid"}
 		d.summary = "no grid"
@@ -232,7 +233,7 @@ func (m Model) pairs(w int) pairFunc {
 // flightBlock writes the flight conditions of the cursor point into d;
 // ok is false when there are none.
 func (m Model) flightBlock(d *detailBlocks, pair pairFunc) (fd envelope.FlightDetail, ok bool) {
-	st, u, g := m.fr.st, m.units, m.res.grid
+	st, u, g := m.fr.st, m.units, m.shown().grid
 	fd, err := g.FlightDetail(m.curI, m.curJ)
 	head := st.Section.Render("FLIGHT") + " " + u.Alt(g.Alts[m.curI]) + " " + st.Label.Render("ΔT") + " " + u.DeltaT(g.DeltaT)
 	d.flight = append(d.flight, head)
@@ -264,15 +265,15 @@ func (m Model) flightBlock(d *detailBlocks, pair pairFunc) (fd envelope.FlightDe
 // facilityBlock writes the facility answer at the cursor point into d:
 // the facility, class and limit, the settings and the cautions.
 func (m Model) facilityBlock(d *detailBlocks, fd envelope.FlightDetail, w int, pair pairFunc) {
-	st := m.fr.st
-	res, k := m.res.result(m.fac, m.curI, m.curJ)
-	if k < 0 || k >= len(m.res.maps) || m.res.maps[k] == nil {
+	st, r := m.fr.st, m.shown()
+	res, k := r.result(m.fac, m.curI, m.curJ)
+	if k < 0 || k >= len(r.maps) || r.maps[k] == nil {
 		d.facility = append(d.facility, st.Section.Render("FACILITY"))
 		switch {
 		case len(m.facs) == 0:
 			d.facility = append(d.facility, "no facilities loaded")
-		case m.fac >= 0 && m.fac < len(m.res.errs) && m.res.errs[m.fac] != nil:
-			d.facility = append(d.facility, st.Error.Render("not solved: "+m.res.errs[m.fac].Error()))
+		case m.fac >= 0 && m.fac < len(r.errs) && r.errs[m.fac] != nil:
+			d.facility = append(d.facility, st.Error.Render("not solved: "+r.errs[m.fac].Error()))
 		case !fd.Inside:
 			d.facility = append(d.facility, st.Faint.Render("no answer outside the envelope"))
 		default:
@@ -300,7 +301,7 @@ func (m Model) facilityBlock(d *detailBlocks, fd envelope.FlightDetail, w int, p
 		title += m.facilityLabel(k, w-(w-1)/2-1-visibleWidth(title))
 	}
 	d.facility = append(d.facility, title)
-	det, err := m.res.maps[k].Detail(m.curI, m.curJ)
+	det, err := r.maps[k].Detail(m.curI, m.curJ)
 	if err != nil {
 		d.facility = append(d.facility, st.Error.Render(err.Error()))
 		return

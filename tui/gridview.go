@@ -36,6 +36,12 @@ type GridView struct {
 	ReTol     float64      // Reynolds tolerance, for the Reynolds-ratio layer
 	Marks     map[int]bool // marked test points by grid index
 
+	// Partial says the maps and Best are final in rows Ready alone (a
+	// recompute's rows solved first, the others still being written):
+	// the cells of other rows are drawn pending, and not read.
+	Partial bool
+	Ready   envelope.RowSpan
+
 	// Cursor and scroll, as in MatrixInput; use -1 for no cursor.
 	CursorRow, CursorCol int
 	ScrollRow, ScrollCol int
@@ -153,6 +159,9 @@ func (v *GridView) answer(p int) (envelope.Result, int) {
 
 // Cell computes the cell at grid point (i, j).
 func (v *GridView) Cell(i, j int) Cell {
+	if v.Partial && !v.Ready.Has(i) {
+		return Cell{Pending: true}
+	}
 	g := v.Grid
 	p := g.Index(i, j)
 	c := Cell{Inside: g.Inside(i, j), Marked: v.Marks[p]}

@@ -146,3 +146,16 @@ func trueColourRenderer() *lipgloss.Renderer {
 	r.SetColorProfile(termenv.TrueColor)
 	return r
 }
+
+// finished runs a recompute's command past the early rows it may send
+// first (earlyMsg) and returns its last message.
+func finished(cmd tea.Cmd) tea.Msg {
+	msg := cmd()
+	for {
+		e, ok := msg.(earlyMsg)
+		if !ok {
+			return msg
+		}
+		msg = e.next()
+	}
+}

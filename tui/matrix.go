@@ -13,6 +13,9 @@ type Cell struct {
 	Inside bool // point is inside the flight envelope
 	Tag    byte // facility letter in best-of-all mode (0 = none)
 	Marked bool // point is a marked test point
+	// Pending: the point's answer is still being computed; the cell is
+	// drawn blank.
+	Pending bool
 }
 
 // MatrixInput is everything RenderMatrix needs; it holds no Bubble Tea
@@ -231,7 +234,10 @@ func writeCellRows(b *strings.Builder, in MatrixInput, st *Styles, g matrixGeom,
 			}
 			cur := d == curD && j == in.CursorCol
 			glyph := byte(OutsideGlyph)
-			if cell.Inside {
+			switch {
+			case cell.Pending:
+				glyph = ' '
+			case cell.Inside:
 				glyph = Glyph(in.Layer, cell.Level)
 			}
 			p := idOf(st.cellPaint(in.Layer, cell.Level, cell.Inside, cur))

@@ -123,6 +123,13 @@ type Model struct {
 	res      results
 	gen      int  // generation of the latest recompute request
 	busy     bool // a recompute is running
+	// early is the running recompute's rows solved first (those on
+	// screen when it started), which View draws in place of res while
+	// they cover the rows on screen: results that may be read in rows
+	// earlyRows alone, from recompute earlyGen.
+	early     *results
+	earlyRows envelope.RowSpan
+	earlyGen  int
 	// arrays keeps replaced result arrays for the next recompute (set by
 	// Run only; nil: every recompute makes new ones).
 	arrays *arrays
@@ -143,6 +150,7 @@ type Model struct {
 	curJ    int // cursor speed index
 	scrollR int
 	scrollC int
+	visRows int          // matrix rows on screen at the last layout
 	marks   map[int]bool // grid index → marked
 
 	mode      mode
@@ -318,7 +326,7 @@ func (m *Model) evaluate(pick bool) {
 		m.setError("no vehicle loaded")
 		return
 	}
-	r, err := computeGrid(context.Background(), m.vehicle, m.facs, m.set, nil)
+	r, err := computeGrid(context.Background(), m.vehicle, m.facs, m.set, nil, nil)
 	if err != nil {
 		m.setError("evaluation failed: " + err.Error())
 		return
@@ -389,6 +397,14 @@ type (
 		res results
 		err error
 	}
+	// earlyMsg carries the rows a running recompute solved first (see
+	// Model.early), and the command that waits for the rest.
+	earlyMsg struct {
+		gen  int
+		res  results
+		rows envelope.RowSpan
+		next tea.Cmd
+	}
 	// savedMsg reports a session save: the state saved, whether the
 	// save was to end the program, and the file name the user typed
 	// (save-as).
@@ -439,30 +455,74 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 		return nil
 	}
 	gen := m.gen
+	m.early = nil
 	ctx, cancel := context.WithCancel(context.Background())
 	m.cancelRun = cancel
 	v, facs, set, prev, pool := m.vehicle, m.facs, m.set, m.res, m.arrays
 	pool.begin() // until onComputed takes the message
 	// The work starts now, beside the frame the runtime draws after this
 	// Update, and the command only waits for it: started by the command,
-	// it would begin only after that frame.
-	done := make(chan tea.Msg, 1)
+	// it would begin only after that frame. The rows on screen are solved
+	// first and sent on their own (earlyMsg), so that their frame need not
+	// wait for the rest of the grid.
+	done := make(chan tea.Msg, 2)
+	wait := func() tea.Msg { return <-done }
+	e := &early{rows: m.screenRows(), send: func(r results, rows envelope.RowSpan) {
+		done <- earlyMsg{gen: gen, res: r, rows: rows, next: wait}
+	}}
 	go func() {
 		defer cancel()
 		var r results
 		var err error
 		switch {
 		case kind == recomputeGrid || prev.grid == nil:
-			r, err = computeGrid(ctx, v, facs, set, pool)
+			r, err = computeGrid(ctx, v, facs, set, pool, e)
 		case kind == recomputeOneFac && fac >= 0:
-			r, err = solveOne(ctx, prev, facs, set, fac, pool)
+			r, err = solveOne(ctx, prev, facs, set, fac, pool, e)
 		default:
-			r, err = solveAll(ctx, prev.grid, facs, set, pool)
+			r, err = solveAll(ctx, prev.grid, facs, set, pool, e)
 		}
 		done <- computedMsg{gen: gen, res: r, err: err}
 	}()
-	return func() tea.Msg { return <-done }
+	return wait
 }
+
+// earlyMargin is how many rows beyond those on screen are solved early on
+// either side, so that a matrix that scrolls a little as the results
+// come in (a what-if line added to the header takes a row) still shows
+// them all.
+const earlyMargin = 4
+
+// screenRows is the span of grid rows the matrix shows, with earlyMargin
+// on either side (empty before the first layout): the rows a recompute
+// solves first.
+func (m *Model) screenRows() envelope.RowSpan {
+	n := m.rows()
+	if n == 0 || m.visRows <= 0 {
+		return envelope.RowSpan{}
+	}
+	// Display row d shows grid row n-1-d, the highest altitude on top.
+	return envelope.RowSpan{Lo: n - m.scrollR - m.visRows - earlyMargin, Hi: n - m.scrollR + earlyMargin}
+}
+
+// shown is the results the screen draws: the early rows of the running
+// recompute where they hold every row on screen and the cursor, else the
+// last finished results.
+func (m *Model) shown() *results {
+	if e := m.early; e != nil && m.busy && m.earlyGen == m.gen && e.grid != nil && m.res.grid != nil &&
+		e.grid.Rows() == m.res.grid.Rows() && e.grid.Cols() == m.res.grid.Cols() {
+		on := m.screenRows()
+		on.Lo, on.Hi = on.Lo+earlyMargin, on.Hi-earlyMargin
+		if m.earlyRows.Has(m.curI) && m.earlyRows.Has(max(on.Lo, 0)) && m.earlyRows.Has(min(on.Hi, e.grid.Rows())-1) {
+			return e
+		}
+	}
+	return &m.res
+}
+
+// showingEarly reports whether the screen draws the early rows of the
+// running recompute, which are its final answer there.
+func (m *Model) showingEarly() bool { return m.shown() != &m.res }
 
 // stopRunning ends the context of the running recompute, if any.
 func (m *Model) stopRunning() {
@@ -493,6 +553,11 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		m.fr.SetSize(msg.Width, msg.Height)
 	case computedMsg:
 		m.onComputed(msg)
+	case earlyMsg:
+		if msg.gen == m.gen && m.busy {
+			m.early, m.earlyRows, m.earlyGen = &msg.res, msg.rows, msg.gen
+		}
+		cmd = msg.next
 	case savedMsg:
 		cmd = m.onSaved(msg)
 	case viewWrittenMsg:
@@ -531,6 +596,7 @@ func (m *Model) onComputed(msg computedMsg) {
 		return
 	}
 	m.busy = false
+	m.early = nil
 	m.cancelRun = nil
 	if msg.err != nil {
 		m.setError("recompute failed: " + msg.err.Error())

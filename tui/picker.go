@@ -14,6 +14,9 @@ type pickerRow struct {
 	full       float64 // full-match share
 	matched    float64 // full match or Mach relaxed
 	err        string
+	// pending: a recompute is running, and the shares above are those
+	// before it; they are shown as not known yet.
+	pending bool
 }
 
 // picker lists "best of all" and the facilities with their coverage; enter
@@ -80,6 +83,9 @@ func (p picker) View() string {
 			cur = ShownMark
 		}
 		share := fmt.Sprintf("%3.0f%% %3.0f%%", 100*r.full, 100*r.matched)
+		if r.pending {
+			share = "   …    …"
+		}
 		if r.err != "" {
 			share = "  not solved"
 		}

@@ -142,11 +142,11 @@ func (s Shared) Compute() Shared {
 	case s.vehicle == nil:
 		err = fmt.Errorf("no vehicle loaded")
 	case s.kind == recomputeGrid || s.res.grid == nil:
-		r, err = computeGrid(context.Background(), s.vehicle, s.facs, s.set, nil)
+		r, err = computeGrid(context.Background(), s.vehicle, s.facs, s.set, nil, nil)
 	case s.kind == recomputeOneFac && s.kindFac >= 0:
-		r, err = solveOne(context.Background(), s.res, s.facs, s.set, s.kindFac, nil)
+		r, err = solveOne(context.Background(), s.res, s.facs, s.set, s.kindFac, nil, nil)
 	default:
-		r, err = solveAll(context.Background(), s.res.grid, s.facs, s.set, nil)
+		r, err = solveAll(context.Background(), s.res.grid, s.facs, s.set, nil, nil)
 	}
 	s.resFor, s.resErr = s.work, ""
 	if err != nil {

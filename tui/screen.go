@@ -222,7 +222,8 @@ func (d drawn) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	d.m = next.(Model)
 	_, key := msg.(tea.KeyMsg)
 	switch {
-	case !d.m.busy:
+	case !d.m.busy || d.m.showingEarly():
+		// The screen's rows are final.
 		d.hold = 0
 	case key && d.m.gen != gen && d.hold == 0:
 		d.hold = d.m.gen

@@ -158,7 +158,7 @@ func TestDrawnHoldsTheKeysFrameForItsResult(t *testing.T) {
 			var result, clock tea.Msg
 			for _, msg := range cmdMsgs(cmd) {
 				switch msg.(type) {
-				case computedMsg:
+				case computedMsg, earlyMsg:
 					result = msg
 				case heldMsg:
 					clock = msg
@@ -175,9 +175,20 @@ func TestDrawnHoldsTheKeysFrameForItsResult(t *testing.T) {
 				return
 			}
 			if endBy == "result" {
-				step(result)
+				next := step(result)
 				if d.hold != 0 || !strings.Contains(out.String(), "ΔT +5.0 K") || strings.Contains(out.String(), "computing") {
 					t.Errorf("after the result: hold %d, drawn %q; want the result's frame, never computing", d.hold, out.String())
+				}
+				// The rows on screen came first; the rest of the grid
+				// changes nothing on screen.
+				if _, early := result.(earlyMsg); early {
+					out.Reset()
+					for _, msg := range cmdMsgs(next) {
+						step(msg)
+					}
+					if out.Len() != 0 || d.m.busy {
+						t.Errorf("the rest of the grid after the screen's rows: busy %v, drew %q; want done, nothing drawn", d.m.busy, out.String())
+					}
 				}
 				return
 			}

@@ -419,9 +419,9 @@ func TestStaleRecomputeIgnored(t *testing.T) {
 	m := newDemo(t, 80, 24)
 	m.fac = 0
 	cmd1 := m.recompute(recomputeSolve)
-	old := cmd1().(computedMsg)
+	old := finished(cmd1).(computedMsg)
 	cmd2 := m.recompute(recomputeSolve)
-	newer := cmd2().(computedMsg)
+	newer := finished(cmd2).(computedMsg)
 	got, _ := drive(m, old)
 	if !got.busy {
 		t.Errorf("an outdated result ended the running recompute")
@@ -579,7 +579,7 @@ func TestIncrementalBestMatchesBest(t *testing.T) {
 		names := []string{"Harl Cove", "Kellen Fold", "Skerrow", "Aldmoor", "Wenlow", "Bracken Ness"}
 		check := func(name string, k int, facs []envelope.Facility) {
 			t.Helper()
-			got, err := solveOne(context.Background(), m.res, facs, m.set, k, nil)
+			got, err := solveOne(context.Background(), m.res, facs, m.set, k, nil, nil)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -592,6 +592,34 @@ func TestIncrementalBestMatchesBest(t *testing.T) {
 			sh := envelope.BestShares(got.maps)
 			if got.union != sh.Matched() || got.bestFull != sh.Share(envelope.FullMatch) {
 				t.Fatalf("%s: union %v, best full %v; want %v, %v", name, got.union, got.bestFull, sh.Matched(), sh.Share(envelope.FullMatch))
+			}
+			// Staged: the early rows' best of all is already final, and
+			// the whole is the same.
+			cols := m.res.grid.Cols()
+			var earlyBest []int
+			first := envelope.RowSpan{Lo: 10, Hi: 17}
+			staged, err := solveOne(context.Background(), m.res, facs, m.set, k, nil, &early{rows: first,
+				send: func(r results, rows envelope.RowSpan) {
+					earlyBest = append(earlyBest, r.best[rows.Lo*cols:rows.Hi*cols]...)
+				}})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(earlyBest) != first.Len()*cols {
+				t.Fatalf("%s: early best of all of %d points, want %d", name, len(earlyBest), first.Len()*cols)
+			}
+			for q, w := range earlyBest {
+				if p := first.Lo*cols + q; w != wantIdx[p] {
+					t.Fatalf("%s: early best at %d: %d, want %d", name, p, w, wantIdx[p])
+				}
+			}
+			for p := range wantIdx {
+				if staged.best[p] != wantIdx[p] {
+					t.Fatalf("%s: staged best at %d: %d, want %d", name, p, staged.best[p], wantIdx[p])
+				}
+			}
+			if staged.union != got.union || staged.bestFull != got.bestFull {
+				t.Fatalf("%s: staged union %v best full %v, want %v %v", name, staged.union, staged.bestFull, got.union, got.bestFull)
 			}
 			m.res = got
 			m.facs = facs

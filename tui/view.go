@@ -103,6 +103,7 @@ func (m *Model) relayout() {
 	m.legend.SetSize(m.fr.width, m.legendH)
 	in := m.matrixInput()
 	m.scrollR, m.scrollC = FitScroll(in, m.matrix.width, m.matrix.height)
+	m.visRows, _ = MatrixCapacity(in, m.matrix.width, m.matrix.height)
 }
 
 // setPanelSize gives the panels beside or below the matrix their area.
@@ -229,7 +230,7 @@ func (m Model) headerText() string {
 		parts = append(parts, st.Error.Render("read-only session"))
 	}
 	parts = append(parts, fac, m.layer.String(), m.units.String())
-	if m.busy {
+	if m.busy && !m.showingEarly() {
 		parts = append(parts, st.Changed.Render("computing"))
 	}
 	parts = append(parts, st.Faint.Render(veh))
@@ -373,12 +374,13 @@ func keyLine(st *Styles, bs []key.Binding, w int) string {
 
 // gridView is the model's current way of looking at the results.
 func (m Model) gridView() GridView {
-	return GridView{
-		Grid:       m.res.grid,
-		Maps:       m.res.maps,
+	r := m.shown()
+	v := GridView{
+		Grid:       r.grid,
+		Maps:       r.maps,
 		Facilities: m.facs,
 		Facility:   m.fac,
-		Best:       m.res.best,
+		Best:       r.best,
 		Layer:      m.layer,
 		Units:      m.units,
 		ReTol:      m.set.ReTol,
@@ -388,6 +390,10 @@ func (m Model) gridView() GridView {
 		ScrollRow:  m.scrollR,
 		ScrollCol:  m.scrollC,
 	}
+	if r != &m.res {
+		v.Partial, v.Ready = true, m.earlyRows
+	}
+	return v
 }
 
 // legendInput describes the legend of the current view.
@@ -439,7 +445,7 @@ func facilityLabel(k int, name string, n int) string {
 
 // matrixInput describes the matrix for the renderer.
 func (m Model) matrixInput() MatrixInput {
-	if m.res.grid == nil {
+	if m.shown().grid == nil {
 		return MatrixInput{Layer: m.layer, AltTitle: "altitude " + m.units.AltUnit(), CursorRow: -1, CursorCol: -1}
 	}
 	return m.gridView().Matrix()
@@ -452,9 +458,10 @@ func (m Model) pickerRows() []pickerRow {
 		info:    "per point the facility with the best class",
 		full:    m.res.bestFull,
 		matched: m.res.union,
+		pending: m.busy,
 	}}
 	for k, f := range m.facs {
-		r := pickerRow{name: fmt.Sprintf("%c %s", facilityTag(k), f.Name), info: f.Class + ", " + f.Medium.String()}
+		r := pickerRow{name: fmt.Sprintf("%c %s", facilityTag(k), f.Name), info: f.Class + ", " + f.Medium.String(), pending: m.busy}
 		if k < len(m.res.full) {
 			r.full, r.matched = m.res.full[k], m.res.matched[k]
 		}
