@@ -305,14 +305,28 @@ func forRowBlocksUntil(ctx context.Context, rows, cols int, newWorker func() fun
 // forRowBlocksSized is forRowBlocksUntil with blocks of size rows (the
 // last one shorter).
 func forRowBlocksSized(ctx context.Context, rows, cols, size int, newWorker func() func(i0, i1 int)) bool {
-	return forRowSpans(ctx, []RowSpan{{0, rows}}, cols, size, newWorker)
+	return forRowSpans(ctx, []RowSpan{{0, rows}}, cols, size, runtime.GOMAXPROCS(0), newWorker)
 }
 
 // forRowSpans is forRowBlocksSized over the rows of spans alone, each cut
-// into blocks of size rows (the last of a span shorter); no block crosses
-// from one span into the next. On one goroutine the blocks are done in the
-// order of spans.
-func forRowSpans(ctx context.Context, spans []RowSpan, cols, size int, newWorker func() func(i0, i1 int)) bool {
+// into blocks of size rows (the last of a span shorter), on up to workers
+// goroutines; no block crosses from one span into the next. On one
+// goroutine the blocks are done in the order of spans.
+func forRowSpans(ctx context.Context, spans []RowSpan, cols, size, workers int, newWorker func() func(i0, i1 int)) bool {
+	return forRowSpansAt(ctx, spans, cols, size, workers, false, newWorker)
+}
+
+// forRowSpansAt is forRowSpans that, when background is set, lets the
+// other goroutines of the program run before each block (runtime.Gosched):
+// work no one waits for then delays an interface's keys and frames by at
+// most one block, instead of by the runtime's time slice (10 ms) when
+// every processor is taken.
+func forRowSpansAt(ctx context.Context, spans []RowSpan, cols, size, workers int, background bool, newWorker func() func(i0, i1 int)) bool {
+	run := func(f func()) { f() }
+	yield := func() {}
+	if background {
+		yield = runtime.Gosched
+	}
 	var blocks []RowSpan
 	rows := 0
 	for _, sp := range spans {
@@ -321,16 +335,20 @@ func forRowSpans(ctx context.Context, spans []RowSpan, cols, size int, newWorker
 		}
 		rows += max(sp.Hi-sp.Lo, 0)
 	}
-	workers := runtime.GOMAXPROCS(0)
 	if workers < 2 || rows < 2 || rows*cols < parallelMin {
-		work := newWorker()
-		for k, b := range blocks {
-			if k > 0 && ctx.Err() != nil {
-				return false
+		ok := true
+		run(func() {
+			work := newWorker()
+			for k, b := range blocks {
+				if k > 0 && ctx.Err() != nil {
+					ok = false
+					return
+				}
+				yield()
+				work(b.Lo, b.Hi)
 			}
-			work(b.Lo, b.Hi)
-		}
-		return ctx.Err() == nil
+		})
+		return ok && ctx.Err() == nil
 	}
 	var stopped atomic.Bool
 	workers = min(workers, len(blocks))
@@ -338,18 +356,21 @@ func forRowSpans(ctx context.Context, spans []RowSpan, cols, size int, newWorker
 	var wg sync.WaitGroup
 	for range workers {
 		wg.Go(func() {
-			work := newWorker()
-			for {
-				k := int(next.Add(1)) - 1
-				if k >= len(blocks) {
-					return
+			run(func() {
+				work := newWorker()
+				for {
+					k := int(next.Add(1)) - 1
+					if k >= len(blocks) {
+						return
+					}
+					if ctx.Err() != nil {
+						stopped.Store(true)
+						return
+					}
+					yield()
+					work(blocks[k].Lo, blocks[k].Hi)
 				}
-				if ctx.Err() != nil {
-					stopped.Store(true)
-					return
-				}
-				work(blocks[k].Lo, blocks[k].Hi)
-			}
+			})
 		})
 	}
 	wg.Wait()
@@ -373,6 +394,14 @@ func (r RowSpan) clip(rows int) RowSpan {
 	}
 	return r
 }
+
+// restWorkers is how many goroutines solve the rows after the first of a
+// staged solve: one fewer than the processors, so that the interface that
+// shows the first rows has a processor for its keys and frames while the
+// rest is solved (on a machine whose second processor adds little
+// throughput, as on the one the speed figures come from, this costs the
+// rest almost nothing).
+func restWorkers() int { return max(1, runtime.GOMAXPROCS(0)-1) }
 
 // staged splits rows 0..rows-1 into first (within them) and the rest,
 // for a solve that does the first rows before the others. It reports

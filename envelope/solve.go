@@ -172,7 +172,9 @@ func SolveReusing(ctx context.Context, g *Grid, f *Facility, s Settings, buf []R
 // map whose results are final in those rows alone, and goes on with the
 // rest. The copy's other rows are being written while ready runs and
 // after it returns, until SolveStaged returns: the copy may be read in
-// the rows of first only, and its shares are not counted yet. With ready
+// the rows of first only, and its shares are not counted yet. The rest is
+// solved as work no one waits for: on one processor fewer (restWorkers),
+// letting the program's other goroutines run between blocks. With ready
 // nil, or first empty or every row, it is SolveReusing and ready is not
 // called.
 func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Result, first RowSpan, ready func(*Map)) (*Map, error) {
@@ -185,10 +187,9 @@ func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Re
 	// point-by-point solve.
 	var mu sync.Mutex // guards the counts while workers add theirs
 	var counts [NumClasses]int
-	pass := func(spans []RowSpan) bool {
-		workers := min(runtime.GOMAXPROCS(0), len(g.Alts))
-		size := max(1, len(g.Alts)/(max(workers, 1)*blocksPerWorker))
-		return forRowSpans(ctx, spans, len(g.Speeds), size, func() func(i0, i1 int) {
+	size := max(1, len(g.Alts)/(max(min(runtime.GOMAXPROCS(0), len(g.Alts)), 1)*blocksPerWorker))
+	pass := func(spans []RowSpan, workers int, background bool) bool {
+		return forRowSpansAt(ctx, spans, len(g.Speeds), size, workers, background, func() func(i0, i1 int) {
 			solveRows := m.sv.rowSolver(len(g.Speeds))
 			return func(i0, i1 int) {
 				n := solveRows(m, i0, i1)
@@ -201,16 +202,18 @@ func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Re
 		})
 	}
 	first, rest, split := staged(first, len(g.Alts))
+	workers := runtime.GOMAXPROCS(0)
 	if split && ready != nil {
-		if !pass([]RowSpan{first}) {
+		if !pass([]RowSpan{first}, workers, false) {
 			return nil, ctx.Err()
 		}
 		cp := *m
 		ready(&cp)
+		workers = restWorkers()
 	} else {
 		rest = []RowSpan{first}
 	}
-	if !pass(rest) {
+	if !pass(rest, workers, split && ready != nil) {
 		return nil, ctx.Err()
 	}
 	m.finish(counts)

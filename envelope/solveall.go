@@ -3,6 +3,7 @@ package envelope
 import (
 	"context"
 	"errors"
+	"runtime"
 	"sync"
 )
 
@@ -67,7 +68,8 @@ func SolveAllReusing(ctx context.Context, g *Grid, facs []Facility, s Settings, 
 // of all are final in the rows of first alone (BestShares not counted
 // yet), and goes on with the rest. The other rows are being written while
 // ready runs and after it returns, until SolveAllStaged returns, so the
-// All given to ready may be read in the rows of first only. With ready
+// All given to ready may be read in the rows of first only. The rest is
+// solved as SolveStaged solves it. With ready
 // nil, or first empty or every row, ready is not called.
 func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, buf Buffers, first RowSpan, ready func(All)) (All, error) {
 	if g == nil {
@@ -103,8 +105,8 @@ func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, b
 		bs.rs = append(bs.rs, m.Results)
 	}
 	rowsPer := max(1, fusedPoints/max(cols, 1))
-	pass := func(spans []RowSpan) bool {
-		return forRowSpans(ctx, spans, cols, rowsPer, func() func(i0, i1 int) {
+	pass := func(spans []RowSpan, workers int, background bool) bool {
+		return forRowSpansAt(ctx, spans, cols, rowsPer, workers, background, func() func(i0, i1 int) {
 			solvers := make([]func(m *Map, i0, i1 int) [NumClasses]int, len(maps))
 			for f, m := range maps {
 				solvers[f] = m.sv.rowSolver(cols)
@@ -147,8 +149,9 @@ func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, b
 		})
 	}
 	first, rest, split := staged(first, len(g.Alts))
+	workers := runtime.GOMAXPROCS(0)
 	if split && ready != nil {
-		if !pass([]RowSpan{first}) {
+		if !pass([]RowSpan{first}, workers, false) {
 			return All{}, ctx.Err()
 		}
 		early := All{Maps: make([]*Map, len(a.Maps)), Errs: a.Errs, Best: a.Best, BestRes: a.BestRes}
@@ -159,10 +162,11 @@ func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, b
 			}
 		}
 		ready(early)
+		workers = restWorkers()
 	} else {
 		rest = []RowSpan{first}
 	}
-	if !pass(rest) {
+	if !pass(rest, workers, split && ready != nil) {
 		return All{}, ctx.Err()
 	}
 	for f, m := range maps {

@@ -89,6 +89,10 @@ func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s
 	return r, nil
 }
 
+// restBlock is how many points the rest of a staged best of all decides
+// between two chances for the interface to run (about 0.2 ms of work).
+const restBlock = 16384
+
 // solveOne re-solves facility k only, keeping the other maps of prev,
 // with the rows of e first.
 func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s envelope.Settings, k int, pool *arrays, e *early) (results, error) {
@@ -138,11 +142,16 @@ func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s env
 	}
 	r.shares(&prev, k)
 	cols := prev.grid.Cols()
+	// The rest is decided on one goroutine, like the rest of the solve
+	// (envelope.SolveStaged), letting the interface run between blocks:
+	// the screen shows the early rows already.
 	c := counted
-	c.plus(byParts(first.Lo*cols, upd.update))
-	c.plus(byParts(r.grid.Len()-first.Hi*cols, func(lo, hi int) bestCounts {
-		return upd.update(first.Hi*cols+lo, first.Hi*cols+hi)
-	}))
+	for _, part := range [][2]int{{0, first.Lo * cols}, {first.Hi * cols, r.grid.Len()}} {
+		for lo := part[0]; lo < part[1]; lo += restBlock {
+			runtime.Gosched()
+			c.plus(upd.update(lo, min(lo+restBlock, part[1])))
+		}
+	}
 	r.best = upd.best
 	r.setUnion(c)
 	return r, nil

@@ -16,8 +16,11 @@ func fineDemo(o *Options) {
 	o.Vehicle = &v
 }
 
-// step is one Update of m with msg.
+// step is one Update of m with msg (early rows taken as drawn).
 func step(m Model, msg tea.Msg) (Model, tea.Cmd) {
+	if e, ok := msg.(earlyMsg); ok {
+		e.drawn()
+	}
 	next, cmd := m.Update(msg)
 	return next.(Model), cmd
 }

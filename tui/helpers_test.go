@@ -84,6 +84,9 @@ func drive(m Model, msgs ...tea.Msg) (Model, bool) {
 			}
 			continue
 		}
+		if e, ok := msg.(earlyMsg); ok {
+			e.drawn() // as the program's root would after drawing it
+		}
 		next, cmd := m.Update(msg)
 		m = next.(Model)
 		if cmd != nil {
@@ -156,6 +159,7 @@ func finished(cmd tea.Cmd) tea.Msg {
 		if !ok {
 			return msg
 		}
+		e.drawn()
 		msg = e.next()
 	}
 }

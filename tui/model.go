@@ -6,6 +6,7 @@ import (
 	"io"
 	"math"
 	"strings"
+	"sync"
 	"time"
 
 	"github.com/charmbracelet/bubbles/key"
@@ -398,12 +399,17 @@ type (
 		err error
 	}
 	// earlyMsg carries the rows a running recompute solved first (see
-	// Model.early), and the command that waits for the rest.
+	// Model.early), and the command that waits for the rest. The
+	// recompute waits for drawn (up to earlyWait) before it solves the
+	// rest, so that the frame of these rows is drawn with the processors
+	// to itself: whoever puts the frame on screen calls it then (drawn,
+	// the program's root), and calling it again does nothing.
 	earlyMsg struct {
-		gen  int
-		res  results
-		rows envelope.RowSpan
-		next tea.Cmd
+		gen   int
+		res   results
+		rows  envelope.RowSpan
+		next  tea.Cmd
+		drawn func()
 	}
 	// savedMsg reports a session save: the state saved, whether the
 	// save was to end the program, and the file name the user typed
@@ -468,7 +474,20 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 	done := make(chan tea.Msg, 2)
 	wait := func() tea.Msg { return <-done }
 	e := &early{rows: m.screenRows(), send: func(r results, rows envelope.RowSpan) {
-		done <- earlyMsg{gen: gen, res: r, rows: rows, next: wait}
+		on := make(chan struct{})
+		done <- earlyMsg{gen: gen, res: r, rows: rows, next: wait, drawn: sync.OnceFunc(func() { close(on) })}
+		t := time.NewTimer(earlyWait)
+		defer t.Stop()
+		select {
+		case <-on:
+			// Drawn: the terminal gets a moment to show it.
+			select {
+			case <-ctx.Done():
+			case <-time.After(settleFrame):
+			}
+		case <-ctx.Done():
+		case <-t.C:
+		}
 	}}
 	go func() {
 		defer cancel()
@@ -486,6 +505,19 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 	}()
 	return wait
 }
+
+// earlyWait is the longest a recompute waits for the frame of its early
+// rows to be drawn before it solves the rest.
+const earlyWait = 30 * time.Millisecond
+
+// settleFrame is how long the rest of a recompute waits after the frame
+// of its early rows is drawn. The terminal reads and shows that frame in
+// this moment: on a machine whose processors share one core (as on the
+// one the speed figures come from, where a second processor adds almost
+// no throughput), the rest solved at once took the processor from it, and
+// the frame reached the screen 2 to 8 ms later (BenchmarkTerminalEdit,
+// docs/SPEED.md). The finished results come this much later.
+const settleFrame = 2 * time.Millisecond
 
 // earlyMargin is how many rows beyond those on screen are solved early on
 // either side, so that a matrix that scrolls a little as the results

@@ -192,6 +192,10 @@ type drawn struct {
 	scr  *screen
 	hold int  // the recompute generation whose frame is held, 0 none
 	same bool // the last message changed nothing to draw
+	// early tells the recompute whose early rows the last message
+	// brought that their frame is drawn (earlyMsg.drawn); nil for other
+	// messages.
+	early func()
 }
 
 // holdFrame is the longest a key's frame waits for the recompute the key
@@ -216,7 +220,10 @@ func (d drawn) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 		}
 		return d, nil
 	}
-	d.same = false
+	d.same, d.early = false, nil
+	if e, ok := msg.(earlyMsg); ok {
+		d.early = e.drawn
+	}
 	gen := d.m.gen
 	next, cmd := d.m.Update(msg)
 	d.m = next.(Model)
@@ -242,6 +249,9 @@ func (d drawn) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 func (d drawn) View() string {
 	if d.hold == 0 && !d.same {
 		d.scr.draw(d.m.View())
+	}
+	if d.early != nil {
+		d.early()
 	}
 	return ""
 }
