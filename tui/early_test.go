@@ -1,6 +1,7 @@
 package tui
 
 import (
+	"bytes"
 	"strings"
 	"testing"
 
@@ -128,5 +129,39 @@ func TestEarlyRowsOffScreenWait(t *testing.T) {
 		if r.pending {
 			t.Errorf("facility list row %q: shares pending after the recompute", r.name)
 		}
+	}
+}
+
+// The program's root tells the recompute that the early rows' frame is
+// drawn once it has written it, and only then.
+func TestDrawnReportsEarlyFrameDrawn(t *testing.T) {
+	var out bytes.Buffer
+	d := drawn{m: newDemo(t, 120, 40, fineDemo), scr: newScreen(&out)}
+	next, _ := d.Update(tea.WindowSizeMsg{Width: 120, Height: 40})
+	d = next.(drawn)
+	d.View()
+	d.m.curI = 75
+	d.m.relayout()
+	d.m.set.DeltaT = 3
+	em := d.m.recompute(recomputeGrid)().(earlyMsg)
+	told := 0
+	inner := em.drawn
+	em.drawn = func() { told++; inner() }
+	out.Reset()
+	next, _ = d.Update(em)
+	d = next.(drawn)
+	if told != 0 {
+		t.Fatal("told drawn before the frame was drawn")
+	}
+	d.View()
+	if told != 1 || out.Len() == 0 || strings.Contains(out.String(), "computing") {
+		t.Errorf("after View: told %d times, %d bytes drawn (computing: %v); want once, the early frame",
+			told, out.Len(), strings.Contains(out.String(), "computing"))
+	}
+	next, _ = d.Update(finished(em.next))
+	d = next.(drawn)
+	d.View()
+	if told != 1 {
+		t.Errorf("told %d times after the rest, want once", told)
 	}
 }
