@@ -18,10 +18,10 @@ import (
 	"testing"
 	"time"
 
-	"github.com/charmbracelet/x/ansi"
 	gossh "golang.org/x/crypto/ssh"
 
 	"likewind/envelope/session"
+	"likewind/internal/sshtest"
 )
 
 // serveProc is a likewind serve subprocess on 127.0.0.1:0.
@@ -117,18 +117,9 @@ func (p *serveProc) stop(sig syscall.Signal) error {
 	return nil
 }
 
-// reviewClient is an SSH reviewer with a pty, collecting screen text.
-type reviewClient struct {
-	t     *testing.T
-	conn  *gossh.Client
-	stdin io.Writer
-	mu    sync.Mutex
-	out   []byte
-}
-
 // connectReview dials addr with signer, checking the host key against
-// the fingerprint the server printed.
-func connectReview(t *testing.T, addr, fp string, signer gossh.Signer) *reviewClient {
+// the fingerprint the server printed, and opens a session with a pty.
+func connectReview(t *testing.T, addr, fp string, signer gossh.Signer) *sshtest.Client {
 	t.Helper()
 	cfg := &gossh.ClientConfig{
 		User: "reviewer",
@@ -145,57 +136,9 @@ func connectReview(t *testing.T, addr, fp string, signer gossh.Signer) *reviewCl
 	if err != nil {
 		t.Fatalf("dial: %v", err)
 	}
-	sess, err := conn.NewSession()
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := sess.RequestPty("xterm", 32, 100, gossh.TerminalModes{}); err != nil {
-		t.Fatal(err)
-	}
-	stdin, _ := sess.StdinPipe()
-	stdout, _ := sess.StdoutPipe()
-	c := &reviewClient{t: t, conn: conn, stdin: stdin}
-	go func() {
-		buf := make([]byte, 16<<10)
-		for {
-			n, err := stdout.Read(buf)
-			c.mu.Lock()
-			c.out = append(c.out, buf[:n]...)
-			c.mu.Unlock()
-			if err != nil {
-				return
-			}
-		}
-	}()
-	if err := sess.Shell(); err != nil {
-		t.Fatal(err)
-	}
-	t.Cleanup(func() { conn.Close() })
+	c := sshtest.Open(t, conn, "xterm", 100, 32)
+	c.Wait = signalDrawWait
 	return c
-}
-
-func (c *reviewClient) text() string {
-	c.mu.Lock()
-	defer c.mu.Unlock()
-	return ansi.Strip(string(c.out))
-}
-
-func (c *reviewClient) waitFor(want string) {
-	c.t.Helper()
-	deadline := time.Now().Add(signalDrawWait)
-	for !strings.Contains(c.text(), want) {
-		if time.Now().After(deadline) {
-			c.t.Fatalf("screen never showed %q; screen text ends:\n%s", want, lastChars(c.text(), 2000))
-		}
-		time.Sleep(20 * time.Millisecond)
-	}
-}
-
-func lastChars(s string, n int) string {
-	if len(s) > n {
-		return s[len(s)-n:]
-	}
-	return s
 }
 
 // TestServeSignalSavesAndRestartRestores starts likewind serve as a
@@ -229,11 +172,11 @@ func TestServeSignalSavesAndRestartRestores(t *testing.T) {
 				t.Errorf("host key in the state folder: %v, mode %v; want it made 0600", err, st)
 			}
 			c := connectReview(t, p.addr, p.fp, signer)
-			c.waitFor("review: ada@test-lab (editor)")
-			fmt.Fprint(c.stdin, " ")
-			c.waitFor("point marked (1 marked)")
-			fmt.Fprint(c.stdin, "+")
-			c.waitFor("for all facilities, a step up")
+			c.WaitFor(0, "review: ada@test-lab (editor)")
+			c.Send(" ")
+			c.WaitFor(0, "point marked (1 marked)")
+			c.Send("+")
+			c.WaitFor(0, "for all facilities, a step up")
 			if err := p.stop(sig); err != nil {
 				t.Fatalf("likewind serve after %v: %v; stdout:\n%s", sig, err, p.output())
 			}
@@ -254,12 +197,12 @@ func TestServeSignalSavesAndRestartRestores(t *testing.T) {
 				t.Errorf("host key changed across restarts: %s then %s", p.fp, p2.fp)
 			}
 			c2 := connectReview(t, p2.addr, p2.fp, signer)
-			c2.waitFor("review: ada@test-lab")
+			c2.WaitFor(0, "review: ada@test-lab")
 			if !strings.Contains(p2.output(), "session restored from "+sessPath+" (1 marks)") {
 				t.Errorf("restart did not say it restored the session; stdout:\n%s", p2.output())
 			}
-			fmt.Fprint(c2.stdin, "X")
-			c2.waitFor("1 marks cleared")
+			c2.Send("X")
+			c2.WaitFor(0, "1 marks cleared")
 			_ = p2.stop(syscall.SIGTERM)
 		})
 	}

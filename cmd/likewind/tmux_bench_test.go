@@ -3,7 +3,6 @@ package main
 import (
 	"fmt"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"slices"
 	"strings"
@@ -25,61 +24,9 @@ import (
 //
 //	go test ./cmd/likewind/ -run '^$' -bench TmuxEdit -benchtime 20x
 
-// tmuxPane is one tmux session of the benchmark, on its own server.
-type tmuxPane struct {
-	tb     testing.TB
-	socket string
-	name   string
-}
-
-func (p *tmuxPane) run(args ...string) ([]byte, error) {
-	return exec.Command("tmux", append([]string{"-S", p.socket}, args...)...).CombinedOutput()
-}
-
-func (p *tmuxPane) screen() string {
-	out, _ := p.run("capture-pane", "-p", "-t", p.name)
-	return string(out)
-}
-
-func (p *tmuxPane) send(keys ...string) {
-	p.tb.Helper()
-	if out, err := p.run(append([]string{"send-keys", "-t", p.name}, keys...)...); err != nil {
-		p.tb.Fatalf("send-keys %q: %v\n%s", keys, err, out)
-	}
-}
-
-// waitScreen polls until done holds for the screen and returns it.
-func (p *tmuxPane) waitScreen(done func(string) bool) string {
-	p.tb.Helper()
-	deadline := time.Now().Add(30 * time.Second)
-	for {
-		scr := p.screen()
-		if done(scr) {
-			return scr
-		}
-		if time.Now().After(deadline) {
-			p.tb.Fatalf("screen never came; last screen:\n%s", scr)
-		}
-		// Each capture is a tmux client process: polling without a
-		// pause would take a processor from the program measured.
-		time.Sleep(2 * time.Millisecond)
-	}
-}
-
-// header is the screen's first lines (title and what-if values).
-func header(scr string) string {
-	lines := strings.SplitN(scr, "\n", 4)
-	return strings.Join(lines[:min(3, len(lines))], "\n")
-}
-
 func BenchmarkTmuxEdit(b *testing.B) {
-	if _, err := exec.LookPath("tmux"); err != nil {
-		b.Skip("tmux not installed")
-	}
-	bin := filepath.Join(b.TempDir(), "likewind")
-	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
-		b.Fatalf("go build: %v\n%s", err, out)
-	}
+	skipWithoutTmux(b)
+	bin := buildLikewind(b)
 	src, err := os.ReadFile(filepath.Join("..", "..", "testdata", "corvane-sx3.toml"))
 	if err != nil {
 		b.Fatal(err)
@@ -116,15 +63,9 @@ func BenchmarkTmuxEdit(b *testing.B) {
 			values []string
 		}{{"deltaT", 1, []string{"5K", "0K"}}, {"p0max", 5, p0s}} {
 			b.Run(fmt.Sprintf("%s/%d", c.name, n), func(b *testing.B) {
-				p := &tmuxPane{tb: b, socket: filepath.Join(b.TempDir(), "tmux.sock"), name: "bench"}
-				cmd := exec.Command("tmux", "-S", p.socket, "new-session", "-d", "-s", p.name, "-x", "200", "-y", "60",
-					"env", "XDG_STATE_HOME="+b.TempDir(), bin, "--fresh", veh, facs)
-				cmd.Env = append(os.Environ(), "TERM=xterm-256color")
-				if out, err := cmd.CombinedOutput(); err != nil {
-					b.Fatalf("tmux new-session: %v\n%s", err, out)
-				}
-				b.Cleanup(func() { _, _ = p.run("kill-server") })
-				p.waitScreen(func(s string) bool {
+				p := startTmux(b, 200, 60, "env", "XDG_STATE_HOME="+b.TempDir(), bin, "--fresh", veh, facs)
+				p.wait, p.poll = 30*time.Second, 2*time.Millisecond
+				p.waitScreen("the idle interface", func(s string) bool {
 					return strings.Contains(s, "likewind") && !strings.Contains(header(s), "computing")
 				})
 				p.send("e")
@@ -140,12 +81,12 @@ func BenchmarkTmuxEdit(b *testing.B) {
 					p.send("Enter")
 					p.send("C-u")
 					p.send("-l", val)
-					p.waitScreen(func(s string) bool { return strings.Contains(s, val) })
+					p.waitFor(val)
 					time.Sleep(20 * time.Millisecond)
 					b.StartTimer()
 					start := time.Now()
 					p.send("Enter")
-					p.waitScreen(func(s string) bool {
+					p.waitScreen("the edit's result", func(s string) bool {
 						h := header(s)
 						return !strings.Contains(h, "computing") && strings.Contains(h, "what-if:") == changed
 					})

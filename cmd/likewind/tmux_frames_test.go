@@ -1,9 +1,6 @@
 package main
 
 import (
-	"os"
-	"os/exec"
-	"path/filepath"
 	"strings"
 	"testing"
 	"time"
@@ -16,27 +13,16 @@ import (
 // resize there and back makes the program repaint every row, and the two
 // captures must be the same. Skips without tmux.
 func TestTmuxFramesMatchRepaint(t *testing.T) {
-	if testing.Short() {
-		t.Skip("builds the command and drives tmux")
-	}
-	if _, err := exec.LookPath("tmux"); err != nil {
-		t.Skip("tmux not installed")
-	}
+	skipTerminalTest(t)
 	bin := buildLikewind(t)
-	p := &tmuxPane{tb: t, socket: filepath.Join(t.TempDir(), "tmux.sock"), name: "frames"}
-	cmd := exec.Command("tmux", "-S", p.socket, "new-session", "-d", "-s", p.name, "-x", "150", "-y", "45",
-		"env", "XDG_STATE_HOME="+t.TempDir(), bin, "--fresh")
-	cmd.Env = append(os.Environ(), "TERM=xterm-256color")
-	if out, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("tmux new-session: %v\n%s", err, out)
-	}
-	t.Cleanup(func() { _, _ = p.run("kill-server") })
+	p := startTmux(t, 150, 45, "env", "XDG_STATE_HOME="+t.TempDir(), bin, "--fresh")
+	p.wait = 30 * time.Second
 	idle := func(s string) bool {
 		return strings.Contains(s, "likewind") && !strings.Contains(header(s), "computing")
 	}
 	settle := func() string {
 		time.Sleep(150 * time.Millisecond)
-		return p.waitScreen(idle)
+		return p.waitScreen("the idle interface", idle)
 	}
 	settle()
 	edit := func(val string) {
@@ -56,11 +42,11 @@ func TestTmuxFramesMatchRepaint(t *testing.T) {
 		p.send(k)
 	}
 	before := settle()
-	if _, err := p.run("resize-window", "-t", p.name, "-x", "149", "-y", "45"); err != nil {
+	if err := p.resize(149, 45); err != nil {
 		t.Skipf("tmux cannot resize: %v", err)
 	}
 	settle()
-	if _, err := p.run("resize-window", "-t", p.name, "-x", "150", "-y", "45"); err != nil {
+	if err := p.resize(150, 45); err != nil {
 		t.Fatal(err)
 	}
 	after := settle()
@@ -74,10 +60,5 @@ func TestTmuxFramesMatchRepaint(t *testing.T) {
 	// writes nothing into the state folder while the test removes it.
 	p.send("q")
 	p.send("y")
-	for deadline := time.Now().Add(10 * time.Second); time.Now().Before(deadline); time.Sleep(20 * time.Millisecond) {
-		if _, err := p.run("has-session", "-t", p.name); err != nil {
-			return
-		}
-	}
-	t.Errorf("the program did not end after q, y; screen:\n%s", p.screen())
+	p.waitGone(10 * time.Second)
 }

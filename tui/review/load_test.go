@@ -7,6 +7,8 @@ import (
 	"sync"
 	"testing"
 	"time"
+
+	"likewind/internal/sshtest"
 )
 
 // loadRun connects n reviewers at 120×40 on the demo and has each send
@@ -31,19 +33,19 @@ func loadRun(tb testing.TB, n, keys int) (perClient [][]time.Duration, heap, cli
 		text += key.line(role) + "\n"
 	}
 	ts := startServer(tb, text)
-	clients := make([]*client, n)
+	clients := make([]*sshtest.Client, n)
 	for k := range n {
 		clients[k] = connect(tb, ts, ks[k], 120, 40)
 	}
 	for k, c := range clients {
-		c.waitFor(0, fmt.Sprintf("review: reviewer%02d", k))
+		c.WaitFor(0, fmt.Sprintf("review: reviewer%02d", k))
 	}
 	// Followers track the presenter; here every reviewer moves on their
 	// own, as in a review where each looks at their own points.
 	for _, c := range clients {
-		m := c.mark()
-		c.send("F")
-		c.waitFor(m, "follow")
+		m := c.Mark()
+		c.Send("F")
+		c.WaitFor(m, "follow")
 	}
 	runtime.GC()
 	var ms runtime.MemStats
@@ -64,13 +66,13 @@ func loadRun(tb testing.TB, n, keys int) (perClient [][]time.Duration, heap, cli
 				if k%4 == 0 && i%50 == 25 {
 					key = " " // an editor marks a point now and then
 				}
-				m := c.mark()
+				m := c.Mark()
 				t0 := time.Now()
-				c.send(key)
+				c.Send(key)
 				// The frame for the key: any screen bytes after it (every
 				// key here changes the screen).
 				deadline := t0.Add(10 * time.Second)
-				for c.mark() == m {
+				for c.Mark() == m {
 					if time.Now().After(deadline) {
 						errs <- fmt.Errorf("reviewer %d key %d (%q): no frame within 10 s", k, i, key)
 						return
@@ -97,7 +99,7 @@ func loadRun(tb testing.TB, n, keys int) (perClient [][]time.Duration, heap, cli
 		tb.Errorf("%d reviewers connected after the load, want %d", got, n)
 	}
 	for _, c := range clients {
-		clientBytes += uint64(c.mark())
+		clientBytes += uint64(c.Mark())
 	}
 	return perClient, heap, clientBytes
 }
@@ -173,26 +175,26 @@ func TestLoadFollowers(t *testing.T) {
 		}
 	}
 	ts := startServer(t, text)
-	clients := make([]*client, n)
+	clients := make([]*sshtest.Client, n)
 	for k := range n {
 		clients[k] = connect(t, ts, ks[k], 120, 40)
-		clients[k].waitFor(0, fmt.Sprintf("review: f%02d", k))
+		clients[k].WaitFor(0, fmt.Sprintf("review: f%02d", k))
 	}
 	for _, c := range clients[1:] {
-		c.waitFor(0, "following the presenter")
+		c.WaitFor(0, "following the presenter")
 	}
 	seq := []string{"k", "l", "j", "h"}
 	var lastFollower []time.Duration
 	for i := range 200 {
 		marks := make([]int, n)
 		for k, c := range clients {
-			marks[k] = c.mark()
+			marks[k] = c.Mark()
 		}
 		t0 := time.Now()
-		clients[0].send(seq[i%len(seq)])
+		clients[0].Send(seq[i%len(seq)])
 		deadline := t0.Add(10 * time.Second)
 		for k := 0; k < n; {
-			if clients[k].mark() != marks[k] {
+			if clients[k].Mark() != marks[k] {
 				k++
 				continue
 			}

@@ -10,6 +10,7 @@ import (
 
 	gossh "golang.org/x/crypto/ssh"
 
+	"likewind/internal/sshtest"
 	"likewind/tui"
 )
 
@@ -26,9 +27,9 @@ func TestReviewerSeesTheInterface(t *testing.T) {
 	alice, _, _, keys := reviewers(t)
 	ts := startServer(t, keys)
 	c := connect(t, ts, alice, 120, 40)
-	s := c.waitFor(0, "review: alice@lab-a (editor)")
+	s := c.WaitFor(0, "review: alice@lab-a (editor)")
 	if !strings.Contains(s, "likewind |") {
-		t.Errorf("no header on the screen:\n%s", tail(s, 2000))
+		t.Errorf("no header on the screen:\n%s", sshtest.Tail(s, 2000))
 	}
 }
 
@@ -73,22 +74,22 @@ func TestEditorsSeeEachOthersWhatIf(t *testing.T) {
 	ts := startServer(t, keys)
 	a := connect(t, ts, alice, 120, 40)
 	b := connect(t, ts, bob, 120, 40)
-	a.waitFor(0, "review: alice")
-	b.waitFor(0, "review: bob")
+	a.WaitFor(0, "review: alice")
+	b.WaitFor(0, "review: bob")
 	scale0 := ts.hub.Current().Settings().Scale
 
-	mb := b.mark()
-	a.send("+") // the model scale a step up, for every facility
-	b.waitFor(mb, "by alice@lab-a")
+	mb := b.Mark()
+	a.Send("+") // the model scale a step up, for every facility
+	b.WaitFor(mb, "by alice@lab-a")
 	waitHub(t, ts.hub, "alice's scale computed", func(s tui.Shared) bool { return s.Rev() == 1 && !s.Pending() })
 	scale1 := ts.hub.Current().Settings().Scale
 	if !(scale1 > 0) || scale1 == scale0 {
 		t.Fatalf("scale after + = %v (before %v), want a new what-if scale", scale1, scale0)
 	}
 
-	ma := a.mark()
-	b.send("-")
-	a.waitFor(ma, "by bob@lab-b")
+	ma := a.Mark()
+	b.Send("-")
+	a.WaitFor(ma, "by bob@lab-b")
 	waitHub(t, ts.hub, "bob's scale computed", func(s tui.Shared) bool { return s.Rev() == 2 && !s.Pending() })
 	if s := ts.hub.Current(); s.By() != "bob@lab-b" || !strings.Contains(s.What(), "model scale") {
 		t.Errorf("latest change = %q by %q, want bob's model scale", s.What(), s.By())
@@ -103,19 +104,19 @@ func TestViewerCannotChangeSharedState(t *testing.T) {
 	ts := startServer(t, keys)
 	a := connect(t, ts, alice, 120, 40)
 	v := connect(t, ts, vera, 120, 40)
-	a.waitFor(0, "review: alice")
-	v.waitFor(0, "review: vera@lab-c (viewer)")
+	a.WaitFor(0, "review: alice")
+	v.WaitFor(0, "review: vera@lab-c (viewer)")
 	unit := []string{"altitude ft", "altitude m"}
 	refused := func(n int, k string) {
 		t.Helper()
-		m := v.mark()
-		v.send(k)
-		v.waitFor(m, "viewer: the shared evaluation is not changed")
+		m := v.Mark()
+		v.Send(k)
+		v.WaitFor(m, "viewer: the shared evaluation is not changed")
 		// A key of the viewer's own view clears the message, so the
 		// next refusal is drawn anew.
-		m = v.mark()
-		v.send("u")
-		v.waitFor(m, unit[n%2])
+		m = v.Mark()
+		v.Send("u")
+		v.WaitFor(m, unit[n%2])
 	}
 	for n, k := range []string{" ", "+", "M"} {
 		refused(n, k)
@@ -126,9 +127,9 @@ func TestViewerCannotChangeSharedState(t *testing.T) {
 		t.Errorf("after a viewer's keys: rev %d, %d marks; want 0, 0", s.Rev(), s.Marks())
 	}
 	// An editor's mark does change it, and the viewer sees who.
-	m := v.mark()
-	a.send(" ")
-	v.waitFor(m, "by alice@lab-a")
+	m := v.Mark()
+	a.Send(" ")
+	v.WaitFor(m, "by alice@lab-a")
 	if s := ts.hub.Current(); s.Marks() != 1 {
 		t.Errorf("after alice's mark: %d marks, want 1", s.Marks())
 	}
@@ -147,14 +148,14 @@ func TestFollowTracksThePresenter(t *testing.T) {
 	alice, _, vera, keys := reviewers(t)
 	ts := startServer(t, keys)
 	a := connect(t, ts, alice, 120, 40)
-	a.waitFor(0, "review: alice")
+	a.WaitFor(0, "review: alice")
 	v := connect(t, ts, vera, 120, 40)
 	// A viewer joining with a presenter in follows at once.
-	v.waitFor(0, "following the presenter")
-	start := v.waitMatch(0, flightAlt)
+	v.WaitFor(0, "following the presenter")
+	start := v.WaitMatch(0, flightAlt)
 
-	ma, mv := a.mark(), v.mark()
-	a.keys("k", "k", "k") // three rows up
+	ma, mv := a.Mark(), v.Mark()
+	a.Keys("k", "k", "k") // three rows up
 	want := waitChange(t, a, ma, start)
 	if got := waitValue(t, v, mv, want); got != want {
 		t.Errorf("follower's flight altitude = %s m, want the presenter's %s m", got, want)
@@ -162,40 +163,40 @@ func TestFollowTracksThePresenter(t *testing.T) {
 
 	// Moving on one's own ends following; the presenter's moves then
 	// leave the view alone.
-	mv = v.mark()
-	v.send("j")
-	v.waitFor(mv, "follow off")
-	own := v.waitMatch(mv, flightAlt)
-	mv = v.mark()
-	a.keys("k", "k")
-	a.settle()
-	v.settle()
-	if got := v.text(mv); flightAlt.MatchString(got) {
+	mv = v.Mark()
+	v.Send("j")
+	v.WaitFor(mv, "follow off")
+	own := v.WaitMatch(mv, flightAlt)
+	mv = v.Mark()
+	a.Keys("k", "k")
+	a.Settle()
+	v.Settle()
+	if got := v.Text(mv); flightAlt.MatchString(got) {
 		if m := flightAlt.FindAllStringSubmatch(got, -1); m[len(m)-1][1] != own {
 			t.Errorf("not following, the view moved to %s m with the presenter", m[len(m)-1][1])
 		}
 	}
 	// F follows again and jumps to the presenter.
-	a.settle()
-	aAlt := a.waitMatch(0, flightAlt)
-	mv = v.mark()
-	v.send("F")
-	v.waitFor(mv, "following alice@lab-a")
-	v.settle()
-	if got := v.waitMatch(mv, flightAlt); got != aAlt {
+	a.Settle()
+	aAlt := a.WaitMatch(0, flightAlt)
+	mv = v.Mark()
+	v.Send("F")
+	v.WaitFor(mv, "following alice@lab-a")
+	v.Settle()
+	if got := v.WaitMatch(mv, flightAlt); got != aAlt {
 		t.Errorf("after F the view is at %s m, want the presenter's %s m", got, aAlt)
 	}
 }
 
 // waitChange waits until c's flight altitude differs from old and returns it.
-func waitChange(t *testing.T, c *client, from int, old string) string {
+func waitChange(t *testing.T, c *sshtest.Client, from int, old string) string {
 	t.Helper()
 	deadline := time.Now().Add(15 * time.Second)
 	for time.Now().Before(deadline) {
-		if m := flightAlt.FindAllStringSubmatch(c.text(from), -1); len(m) > 0 && m[len(m)-1][1] != old {
+		if m := flightAlt.FindAllStringSubmatch(c.Text(from), -1); len(m) > 0 && m[len(m)-1][1] != old {
 			// Let the keys typed together settle.
-			c.settle()
-			m = flightAlt.FindAllStringSubmatch(c.text(from), -1)
+			c.Settle()
+			m = flightAlt.FindAllStringSubmatch(c.Text(from), -1)
 			return m[len(m)-1][1]
 		}
 		time.Sleep(10 * time.Millisecond)
@@ -206,12 +207,12 @@ func waitChange(t *testing.T, c *client, from int, old string) string {
 
 // waitValue waits until c's flight altitude is want (or times out) and
 // returns the last one shown.
-func waitValue(t *testing.T, c *client, from int, want string) string {
+func waitValue(t *testing.T, c *sshtest.Client, from int, want string) string {
 	t.Helper()
 	deadline := time.Now().Add(5 * time.Second)
 	last := ""
 	for time.Now().Before(deadline) {
-		if m := flightAlt.FindAllStringSubmatch(c.text(from), -1); len(m) > 0 {
+		if m := flightAlt.FindAllStringSubmatch(c.Text(from), -1); len(m) > 0 {
 			last = m[len(m)-1][1]
 			if last == want {
 				return last
@@ -228,20 +229,20 @@ func TestDroppedClientLeavesOthersWorking(t *testing.T) {
 	a := connect(t, ts, alice, 120, 40)
 	b := connect(t, ts, bob, 120, 40)
 	v := connect(t, ts, vera, 100, 30)
-	a.waitFor(0, "review: alice")
-	b.waitFor(0, "review: bob")
-	v.waitFor(0, "review: vera")
+	a.WaitFor(0, "review: alice")
+	b.WaitFor(0, "review: bob")
+	v.WaitFor(0, "review: vera")
 	// Bob's connection dies mid-session: the TCP connection closed
 	// without a goodbye.
-	b.send("k")
-	b.conn.Conn.Close()
+	b.Send("k")
+	b.Conn.Conn.Close()
 	waitHubConns(t, ts.hub, 2)
-	mv := v.mark()
-	a.send(" ")
-	v.waitFor(mv, "by alice@lab-a")
-	ma := a.mark()
-	a.send("u")
-	a.waitFor(ma, "altitude ft")
+	mv := v.Mark()
+	a.Send(" ")
+	v.WaitFor(mv, "by alice@lab-a")
+	ma := a.Mark()
+	a.Send("u")
+	a.WaitFor(ma, "altitude ft")
 	if s := ts.hub.Current(); s.Marks() != 1 {
 		t.Errorf("%d marks after alice's mark, want 1", s.Marks())
 	}
@@ -263,10 +264,10 @@ func TestConnectionLimitRefusesWithOneLine(t *testing.T) {
 	ts := startServer(t, keys, func(c *Config) { c.MaxConns = 2 })
 	a := connect(t, ts, alice, 100, 30)
 	b := connect(t, ts, bob, 100, 30)
-	a.waitFor(0, "review: alice")
-	b.waitFor(0, "review: bob")
+	a.WaitFor(0, "review: alice")
+	b.WaitFor(0, "review: bob")
 	v := connect(t, ts, vera, 100, 30)
-	s := v.waitFor(0, "likewind: this review is full (2 reviewers); try again later")
+	s := v.WaitFor(0, "likewind: this review is full (2 reviewers); try again later")
 	if strings.Contains(s, "likewind |") || strings.Count(strings.TrimSpace(s), "\n") > 0 {
 		t.Errorf("past the limit the client got more than the one line:\n%q", s)
 	}
@@ -274,10 +275,10 @@ func TestConnectionLimitRefusesWithOneLine(t *testing.T) {
 		t.Errorf("%d reviewers in the hub, want the 2 admitted", n)
 	}
 	// One leaving makes room.
-	a.close()
+	a.Close()
 	waitHubConns(t, ts.hub, 1)
 	v2 := connect(t, ts, vera, 100, 30)
-	v2.waitFor(0, "review: vera")
+	v2.WaitFor(0, "review: vera")
 }
 
 func TestColourProfilePerConnection(t *testing.T) {
@@ -285,12 +286,12 @@ func TestColourProfilePerConnection(t *testing.T) {
 	ts := startServer(t, keys)
 	colour := connect(t, ts, alice, 120, 40)
 	plain := connect(t, ts, bob, 120, 40, "NO_COLOR=1")
-	colour.waitFor(0, "review: alice")
-	plain.waitFor(0, "review: bob")
-	if !hasColour(colour.raw()) {
+	colour.WaitFor(0, "review: alice")
+	plain.WaitFor(0, "review: bob")
+	if !hasColour(colour.Raw()) {
 		t.Error("the xterm-256color client got no colour")
 	}
-	if hasColour(plain.raw()) {
+	if hasColour(plain.Raw()) {
 		t.Error("the NO_COLOR client got colour")
 	}
 }
@@ -318,14 +319,14 @@ func TestWhatIfDeltaTShownWithWho(t *testing.T) {
 	ts := startServer(t, keys)
 	a := connect(t, ts, alice, 120, 40)
 	b := connect(t, ts, bob, 120, 40)
-	a.waitFor(0, "review: alice")
-	b.waitFor(0, "review: bob")
-	mb := b.mark()
+	a.WaitFor(0, "review: alice")
+	b.WaitFor(0, "review: bob")
+	mb := b.Mark()
 	// The what-if editor: ΔT is the second field.
-	a.keys("e", "\x1b[B", "\r", "\x15", "-", "1", "0", "K", "\r")
-	s := b.waitFor(mb, "by alice@lab-a")
+	a.Keys("e", "\x1b[B", "\r", "\x15", "-", "1", "0", "K", "\r")
+	s := b.WaitFor(mb, "by alice@lab-a")
 	if !strings.Contains(s, "what-if ΔT of day -10.0 K by alice@lab-a") {
-		t.Errorf("bob's status does not name the ΔT change:\n%s", tail(s, 1500))
+		t.Errorf("bob's status does not name the ΔT change:\n%s", sshtest.Tail(s, 1500))
 	}
 	waitHub(t, ts.hub, "ΔT computed", func(s tui.Shared) bool { return !s.Pending() && s.Settings().DeltaT == -10 })
 }
@@ -338,20 +339,20 @@ func TestViewerDumpsOnlyWhenAllowed(t *testing.T) {
 		func(c *Config) { c.DumpDir = dir })
 	no := connect(t, ts, vNo, 120, 40)
 	yes := connect(t, ts, vYes, 120, 40)
-	no.waitFor(0, "review: vno")
-	yes.waitFor(0, "review: vyes")
-	m := no.mark()
-	no.send("w")
-	s := no.waitFor(m, "this key may not write dumps on the server")
+	no.WaitFor(0, "review: vno")
+	yes.WaitFor(0, "review: vyes")
+	m := no.Mark()
+	no.Send("w")
+	s := no.WaitFor(m, "this key may not write dumps on the server")
 	if strings.Contains(s, "view written to") {
-		t.Errorf("a viewer without likewind-dumps wrote a dump:\n%s", tail(s, 800))
+		t.Errorf("a viewer without likewind-dumps wrote a dump:\n%s", sshtest.Tail(s, 800))
 	}
 	if files, _ := os.ReadDir(dir); len(files) != 0 {
 		t.Errorf("dump folder holds %d files after the refused viewer's w, want 0", len(files))
 	}
-	m = yes.mark()
-	yes.send("w")
-	yes.waitFor(m, "view written to")
+	m = yes.Mark()
+	yes.Send("w")
+	yes.WaitFor(m, "view written to")
 	if files, _ := os.ReadDir(dir); len(files) != 1 || !strings.HasSuffix(files[0].Name(), ".txt") {
 		t.Errorf("dump folder after the allowed viewer's w: %v, want one text dump", files)
 	}
@@ -361,14 +362,14 @@ func TestKeysArrivingTogetherEachCount(t *testing.T) {
 	alice, _, _, keys := reviewers(t)
 	ts := startServer(t, keys)
 	a := connect(t, ts, alice, 120, 40)
-	a.waitFor(0, "review: alice")
-	start := a.waitMatch(0, flightAlt)
+	a.WaitFor(0, "review: alice")
+	start := a.WaitMatch(0, flightAlt)
 	// "kkk" in one write arrives as one run of characters: three rows up.
-	m := a.mark()
-	a.send("kkk")
+	m := a.Mark()
+	a.Send("kkk")
 	got := waitChange(t, a, m, start)
-	m = a.mark()
-	a.keys("j", "j", "j")
+	m = a.Mark()
+	a.Keys("j", "j", "j")
 	back := waitChange(t, a, m, got)
 	if back != start {
 		t.Errorf("kkk then j j j ends at %s m, want the start %s m (kkk moved other than three rows)", back, start)
@@ -379,12 +380,12 @@ func TestIdleConnectionEnds(t *testing.T) {
 	alice, bob, _, keys := reviewers(t)
 	ts := startServer(t, keys, func(c *Config) { c.IdleTimeout = 500 * time.Millisecond })
 	a := connect(t, ts, alice, 100, 30)
-	a.waitFor(0, "review: alice")
+	a.WaitFor(0, "review: alice")
 	// Bob keeps typing; alice does nothing.
 	b := connect(t, ts, bob, 100, 30)
-	b.waitFor(0, "review: bob")
+	b.WaitFor(0, "review: bob")
 	done := make(chan error, 1)
-	go func() { done <- a.sess.Wait() }()
+	go func() { done <- a.Sess.Wait() }()
 	deadline := time.After(10 * time.Second)
 	tick := time.NewTicker(100 * time.Millisecond)
 	defer tick.Stop()
@@ -392,13 +393,13 @@ func TestIdleConnectionEnds(t *testing.T) {
 		select {
 		case <-done:
 			// Bob, who kept typing, is still in.
-			m := b.mark()
-			b.send("u")
-			b.waitFor(m, "altitude")
+			m := b.Mark()
+			b.Send("u")
+			b.WaitFor(m, "altitude")
 			waitHubConns(t, ts.hub, 1)
 			return
 		case <-tick.C:
-			b.send([]string{"k", "j"}[n%2])
+			b.Send([]string{"k", "j"}[n%2])
 		case <-deadline:
 			t.Fatal("an idle connection was still open 10 s after a 0.5 s idle timeout")
 		}
@@ -410,28 +411,28 @@ func TestResizeAndQuitPerConnection(t *testing.T) {
 	ts := startServer(t, keys)
 	a := connect(t, ts, alice, 120, 40)
 	b := connect(t, ts, bob, 120, 40)
-	a.waitFor(0, "review: alice")
-	b.waitFor(0, "review: bob")
+	a.WaitFor(0, "review: alice")
+	b.WaitFor(0, "review: bob")
 	// Alice's window shrinks: her screen says so, bob's stays.
-	ma, mb := a.mark(), b.mark()
-	if err := a.sess.WindowChange(10, 40); err != nil {
+	ma, mb := a.Mark(), b.Mark()
+	if err := a.Sess.WindowChange(10, 40); err != nil {
 		t.Fatal(err)
 	}
-	a.waitFor(ma, "Terminal too small: 40×10")
-	if s := b.text(mb); strings.Contains(s, "too small") {
+	a.WaitFor(ma, "Terminal too small: 40×10")
+	if s := b.Text(mb); strings.Contains(s, "too small") {
 		t.Errorf("bob's screen changed with alice's window:\n%s", s)
 	}
 	// q leaves at once (the server keeps the work); bob stays in.
 	done := make(chan error, 1)
-	go func() { done <- a.sess.Wait() }()
-	a.send("q")
+	go func() { done <- a.Sess.Wait() }()
+	a.Send("q")
 	select {
 	case <-done:
 	case <-time.After(10 * time.Second):
 		t.Fatal("q did not end alice's session")
 	}
 	waitHubConns(t, ts.hub, 1)
-	mb = b.mark()
-	b.send("u")
-	b.waitFor(mb, "altitude")
+	mb = b.Mark()
+	b.Send("u")
+	b.WaitFor(mb, "altitude")
 }
