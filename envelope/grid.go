@@ -395,14 +395,6 @@ func (r RowSpan) clip(rows int) RowSpan {
 	return r
 }
 
-// restWorkers is how many goroutines solve the rows after the first of a
-// staged solve: one fewer than the processors, so that the interface that
-// shows the first rows has a processor for its keys and frames while the
-// rest is solved (on a machine whose second processor adds little
-// throughput, as on the one the speed figures come from, this costs the
-// rest almost nothing).
-func restWorkers() int { return max(1, runtime.GOMAXPROCS(0)-1) }
-
 // staged splits rows 0..rows-1 into first (within them) and the rest,
 // for a solve that does the first rows before the others. It reports
 // false, with all the rows in one span, when first is empty or covers

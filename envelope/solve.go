@@ -173,8 +173,8 @@ func SolveReusing(ctx context.Context, g *Grid, f *Facility, s Settings, buf []R
 // rest. The copy's other rows are being written while ready runs and
 // after it returns, until SolveStaged returns: the copy may be read in
 // the rows of first only, and its shares are not counted yet. The rest is
-// solved as work no one waits for: on one processor fewer (restWorkers),
-// letting the program's other goroutines run between blocks. With ready
+// solved as work no one waits for, letting the program's other
+// goroutines run between blocks. With ready
 // nil, or first empty or every row, it is SolveReusing and ready is not
 // called.
 func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Result, first RowSpan, ready func(*Map)) (*Map, error) {
@@ -188,8 +188,8 @@ func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Re
 	var mu sync.Mutex // guards the counts while workers add theirs
 	var counts [NumClasses]int
 	size := max(1, len(g.Alts)/(max(min(runtime.GOMAXPROCS(0), len(g.Alts)), 1)*blocksPerWorker))
-	pass := func(spans []RowSpan, workers int, background bool) bool {
-		return forRowSpansAt(ctx, spans, len(g.Speeds), size, workers, background, func() func(i0, i1 int) {
+	pass := func(spans []RowSpan, background bool) bool {
+		return forRowSpansAt(ctx, spans, len(g.Speeds), size, runtime.GOMAXPROCS(0), background, func() func(i0, i1 int) {
 			solveRows := m.sv.rowSolver(len(g.Speeds))
 			return func(i0, i1 int) {
 				n := solveRows(m, i0, i1)
@@ -202,18 +202,16 @@ func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Re
 		})
 	}
 	first, rest, split := staged(first, len(g.Alts))
-	workers := runtime.GOMAXPROCS(0)
 	if split && ready != nil {
-		if !pass([]RowSpan{first}, workers, false) {
+		if !pass([]RowSpan{first}, false) {
 			return nil, ctx.Err()
 		}
 		cp := *m
 		ready(&cp)
-		workers = restWorkers()
 	} else {
 		rest = []RowSpan{first}
 	}
-	if !pass(rest, workers, split && ready != nil) {
+	if !pass(rest, split && ready != nil) {
 		return nil, ctx.Err()
 	}
 	m.finish(counts)

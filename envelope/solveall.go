@@ -105,8 +105,8 @@ func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, b
 		bs.rs = append(bs.rs, m.Results)
 	}
 	rowsPer := max(1, fusedPoints/max(cols, 1))
-	pass := func(spans []RowSpan, workers int, background bool) bool {
-		return forRowSpansAt(ctx, spans, cols, rowsPer, workers, background, func() func(i0, i1 int) {
+	pass := func(spans []RowSpan, background bool) bool {
+		return forRowSpansAt(ctx, spans, cols, rowsPer, runtime.GOMAXPROCS(0), background, func() func(i0, i1 int) {
 			solvers := make([]func(m *Map, i0, i1 int) [NumClasses]int, len(maps))
 			for f, m := range maps {
 				solvers[f] = m.sv.rowSolver(cols)
@@ -149,9 +149,8 @@ func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, b
 		})
 	}
 	first, rest, split := staged(first, len(g.Alts))
-	workers := runtime.GOMAXPROCS(0)
 	if split && ready != nil {
-		if !pass([]RowSpan{first}, workers, false) {
+		if !pass([]RowSpan{first}, false) {
 			return All{}, ctx.Err()
 		}
 		early := All{Maps: make([]*Map, len(a.Maps)), Errs: a.Errs, Best: a.Best, BestRes: a.BestRes}
@@ -162,11 +161,10 @@ func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, b
 			}
 		}
 		ready(early)
-		workers = restWorkers()
 	} else {
 		rest = []RowSpan{first}
 	}
-	if !pass(rest, workers, split && ready != nil) {
+	if !pass(rest, split && ready != nil) {
 		return All{}, ctx.Err()
 	}
 	for f, m := range maps {

@@ -142,15 +142,18 @@ func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s env
 	}
 	r.shares(&prev, k)
 	cols := prev.grid.Cols()
-	// The rest is decided on one goroutine, like the rest of the solve
+	// The rest is decided, like the rest of the solve
 	// (envelope.SolveStaged), letting the interface run between blocks:
 	// the screen shows the early rows already.
 	c := counted
 	for _, part := range [][2]int{{0, first.Lo * cols}, {first.Hi * cols, r.grid.Len()}} {
-		for lo := part[0]; lo < part[1]; lo += restBlock {
-			runtime.Gosched()
-			c.plus(upd.update(lo, min(lo+restBlock, part[1])))
-		}
+		c.plus(byParts(part[1]-part[0], func(lo, hi int) (c bestCounts) {
+			for q := part[0] + lo; q < part[0]+hi; q += restBlock {
+				runtime.Gosched()
+				c.plus(upd.update(q, min(q+restBlock, part[0]+hi)))
+			}
+			return c
+		}))
 	}
 	r.best = upd.best
 	r.setUnion(c)
