@@ -194,26 +194,26 @@ type fillMemo struct {
 	flags               Flags
 }
 
-func (sv *gasSolver) rowSolver(cols int) func(m *Map, i0, i1 int) [NumClasses]int {
+func (sv *gasSolver) rowSolver(cols int) func(m *Map, b block) [NumClasses]int {
 	// What depends only on the facility Mach number is reused down a
 	// column (on a Mach grid every row shares it).
 	w := &gasWorker{cols: make([]colMemo, cols)}
 	for j := range w.cols {
 		w.cols[j].reset()
 	}
-	return func(m *Map, i0, i1 int) [NumClasses]int { return sv.solveRows(m, i0, i1, w) }
+	return func(m *Map, b block) [NumClasses]int { return sv.solveRows(m, b, w) }
 }
 
-// solveRows solves the inside points of rows i0..i1-1 into m.Results with
-// the caches of worker w, and returns how many of them fell in each class.
-func (sv *gasSolver) solveRows(m *Map, i0, i1 int, w *gasWorker) (n [NumClasses]int) {
+// solveRows solves the inside points of block b into m.Results with the
+// caches of worker w, and returns how many of them fell in each class.
+func (sv *gasSolver) solveRows(m *Map, b block, w *gasWorker) (n [NumClasses]int) {
 	g := m.Grid
 	cols := len(g.Speeds)
 	var ps pointSol
-	for i := i0; i < i1; i++ {
+	for i := b.i0; i < b.i1; i++ {
 		tFlight := g.rows[i].Temperature
 		base := i * cols
-		for j := range cols {
+		for j := b.j0; j < b.j1; j++ {
 			r := &g.points[base+j]
 			if r.excl != InEnvelope {
 				if m.reused {

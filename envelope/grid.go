@@ -305,50 +305,59 @@ func forRowBlocksUntil(ctx context.Context, rows, cols int, newWorker func() fun
 // forRowBlocksSized is forRowBlocksUntil with blocks of size rows (the
 // last one shorter).
 func forRowBlocksSized(ctx context.Context, rows, cols, size int, newWorker func() func(i0, i1 int)) bool {
-	return forRowSpans(ctx, []RowSpan{{0, rows}}, cols, size, runtime.GOMAXPROCS(0), newWorker)
+	blocks := rowBlocks(nil, Span{0, rows}, Span{0, cols}, size)
+	return forBlocks(ctx, blocks, runtime.GOMAXPROCS(0), false, func() func(b block) {
+		work := newWorker()
+		return func(b block) { work(b.i0, b.i1) }
+	})
 }
 
-// forRowSpans is forRowBlocksSized over the rows of spans alone, each cut
-// into blocks of size rows (the last of a span shorter), on up to workers
-// goroutines; no block crosses from one span into the next. On one
-// goroutine the blocks are done in the order of spans.
-func forRowSpans(ctx context.Context, spans []RowSpan, cols, size, workers int, newWorker func() func(i0, i1 int)) bool {
-	return forRowSpansAt(ctx, spans, cols, size, workers, false, newWorker)
+// block is the grid points of rows i0..i1-1 in columns j0..j1-1.
+type block struct{ i0, i1, j0, j1 int }
+
+// points is the number of grid points in the block.
+func (b block) points() int { return max(b.i1-b.i0, 0) * max(b.j1-b.j0, 0) }
+
+// rowBlocks appends to into the points of rows × cols, cut into blocks of
+// size rows (the last one shorter); nothing when either span is empty.
+func rowBlocks(into []block, rows, cols Span, size int) []block {
+	if cols.Len() == 0 {
+		return into
+	}
+	for i0 := rows.Lo; i0 < rows.Hi; i0 += size {
+		into = append(into, block{i0, min(i0+size, rows.Hi), cols.Lo, cols.Hi})
+	}
+	return into
 }
 
-// forRowSpansAt is forRowSpans that, when background is set, lets the
-// other goroutines of the program run before each block (runtime.Gosched):
-// work no one waits for then delays an interface's keys and frames by at
-// most one block, instead of by the runtime's time slice (10 ms) when
-// every processor is taken.
-func forRowSpansAt(ctx context.Context, spans []RowSpan, cols, size, workers int, background bool, newWorker func() func(i0, i1 int)) bool {
-	run := func(f func()) { f() }
+// forBlocks calls work(b) for each of blocks, on up to workers goroutines
+// at once (on the calling one for fewer than parallelMin points), each
+// with its own work function from newWorker, and reports whether every
+// block was done: it takes no new block once ctx has ended. On one
+// goroutine the blocks are done in order. With background set, each
+// block is begun by letting the program's other goroutines run
+// (runtime.Gosched): work no one waits for then delays an interface's
+// keys and frames by at most one block, instead of by the runtime's time
+// slice (10 ms) when every processor is taken.
+func forBlocks(ctx context.Context, blocks []block, workers int, background bool, newWorker func() func(b block)) bool {
 	yield := func() {}
 	if background {
 		yield = runtime.Gosched
 	}
-	var blocks []RowSpan
-	rows := 0
-	for _, sp := range spans {
-		for i0 := sp.Lo; i0 < sp.Hi; i0 += size {
-			blocks = append(blocks, RowSpan{i0, min(i0+size, sp.Hi)})
-		}
-		rows += max(sp.Hi-sp.Lo, 0)
+	points := 0
+	for _, b := range blocks {
+		points += b.points()
 	}
-	if workers < 2 || rows < 2 || rows*cols < parallelMin {
-		ok := true
-		run(func() {
-			work := newWorker()
-			for k, b := range blocks {
-				if k > 0 && ctx.Err() != nil {
-					ok = false
-					return
-				}
-				yield()
-				work(b.Lo, b.Hi)
+	if workers < 2 || len(blocks) < 2 || points < parallelMin {
+		work := newWorker()
+		for k, b := range blocks {
+			if k > 0 && ctx.Err() != nil {
+				return false
 			}
-		})
-		return ok && ctx.Err() == nil
+			yield()
+			work(b)
+		}
+		return ctx.Err() == nil
 	}
 	var stopped atomic.Bool
 	workers = min(workers, len(blocks))
@@ -356,62 +365,69 @@ func forRowSpansAt(ctx context.Context, spans []RowSpan, cols, size, workers int
 	var wg sync.WaitGroup
 	for range workers {
 		wg.Go(func() {
-			run(func() {
-				work := newWorker()
-				for {
-					k := int(next.Add(1)) - 1
-					if k >= len(blocks) {
-						return
-					}
-					if ctx.Err() != nil {
-						stopped.Store(true)
-						return
-					}
-					yield()
-					work(blocks[k].Lo, blocks[k].Hi)
+			work := newWorker()
+			for {
+				k := int(next.Add(1)) - 1
+				if k >= len(blocks) {
+					return
 				}
-			})
+				if ctx.Err() != nil {
+					stopped.Store(true)
+					return
+				}
+				yield()
+				work(blocks[k])
+			}
 		})
 	}
 	wg.Wait()
 	return !stopped.Load()
 }
 
-// RowSpan is the grid rows (altitude indices) Lo up to Hi-1.
-type RowSpan struct{ Lo, Hi int }
+// Span is the indices Lo up to Hi-1 of grid rows (altitudes) or columns
+// (speeds).
+type Span struct{ Lo, Hi int }
 
-// Len is the number of rows in the span (0 when empty).
-func (r RowSpan) Len() int { return max(r.Hi-r.Lo, 0) }
+// Len is the number of indices in the span (0 when empty).
+func (r Span) Len() int { return max(r.Hi-r.Lo, 0) }
 
-// Has reports whether row i is in the span.
-func (r RowSpan) Has(i int) bool { return i >= r.Lo && i < r.Hi }
+// Has reports whether index i is in the span.
+func (r Span) Has(i int) bool { return i >= r.Lo && i < r.Hi }
 
-// clip is the part of the span within rows 0..rows-1.
-func (r RowSpan) clip(rows int) RowSpan {
-	r.Lo, r.Hi = max(r.Lo, 0), min(r.Hi, rows)
+// clip is the part of the span within 0..n-1.
+func (r Span) clip(n int) Span {
+	r.Lo, r.Hi = max(r.Lo, 0), min(r.Hi, n)
 	if r.Hi < r.Lo {
 		r.Hi = r.Lo
 	}
 	return r
 }
 
-// staged splits rows 0..rows-1 into first (within them) and the rest,
-// for a solve that does the first rows before the others. It reports
-// false, with all the rows in one span, when first is empty or covers
-// every row.
-func staged(first RowSpan, rows int) (RowSpan, []RowSpan, bool) {
-	first = first.clip(rows)
-	if first.Len() == 0 || first.Len() == rows {
-		return RowSpan{0, rows}, nil, false
+// Window is the grid points of rows Rows in columns Cols.
+type Window struct{ Rows, Cols Span }
+
+// Has reports whether point (i, j) is in the window.
+func (w Window) Has(i, j int) bool { return w.Rows.Has(i) && w.Cols.Has(j) }
+
+// Within is the part of the window inside a grid of rows × cols points.
+func (w Window) Within(rows, cols int) Window { return Window{w.Rows.clip(rows), w.Cols.clip(cols)} }
+
+// staged cuts the points of a rows × cols grid into blocks of size rows:
+// those of window first (within the grid), and the rest, for a solve
+// that does the first before the others. It reports false, with every
+// point in first, when the window is empty or holds the whole grid.
+func staged(first Window, rows, cols, size int) (head, rest []block, split bool) {
+	all := Span{0, rows}
+	first = first.Within(rows, cols)
+	if first.Rows.Len() == 0 || first.Cols.Len() == 0 || first.Rows.Len() == rows && first.Cols.Len() == cols {
+		return rowBlocks(nil, all, Span{0, cols}, size), nil, false
 	}
-	var rest []RowSpan
-	if first.Lo > 0 {
-		rest = append(rest, RowSpan{0, first.Lo})
-	}
-	if first.Hi < rows {
-		rest = append(rest, RowSpan{first.Hi, rows})
-	}
-	return first, rest, true
+	head = rowBlocks(nil, first.Rows, first.Cols, size)
+	rest = rowBlocks(rest, Span{0, first.Rows.Lo}, Span{0, cols}, size)
+	rest = rowBlocks(rest, Span{first.Rows.Hi, rows}, Span{0, cols}, size)
+	rest = rowBlocks(rest, first.Rows, Span{0, first.Cols.Lo}, size)
+	rest = rowBlocks(rest, first.Rows, Span{first.Cols.Hi, cols}, size)
+	return head, rest, true
 }
 
 // rowLimits is the envelope on one altitude row expressed in the grid's

@@ -163,36 +163,34 @@ func Solve(g *Grid, f *Facility, s Settings) (*Map, error) {
 // first (a newer what-if made this map stale) it stops between blocks of
 // rows and returns ctx's error.
 func SolveReusing(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Result) (*Map, error) {
-	return SolveStaged(ctx, g, f, s, buf, RowSpan{}, nil)
+	return SolveStaged(ctx, g, f, s, buf, Window{}, nil)
 }
 
-// SolveStaged is SolveReusing solving the rows of first before the
-// others, for an interface that shows some rows and would show them as
-// soon as they are done: once they are, it calls ready with a copy of the
-// map whose results are final in those rows alone, and goes on with the
-// rest. The copy's other rows are being written while ready runs and
-// after it returns, until SolveStaged returns: the copy may be read in
-// the rows of first only, and its shares are not counted yet. The rest is
-// solved as work no one waits for, letting the program's other
-// goroutines run between blocks. With ready
-// nil, or first empty or every row, it is SolveReusing and ready is not
-// called.
-func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Result, first RowSpan, ready func(*Map)) (*Map, error) {
+// SolveStaged is SolveReusing solving the points of window first before
+// the others, for an interface that shows some points and would show
+// them as soon as they are done: once they are, it calls ready with a
+// copy of the map whose results are final in the window alone, and goes
+// on with the rest. The copy's other points are being written while ready
+// runs and after it returns, until SolveStaged returns: the copy may be
+// read in the window only, and its shares are not counted yet. The rest
+// is solved as work no one waits for, letting the program's other
+// goroutines run between blocks. With ready nil, or the window empty or
+// the whole grid, it is SolveReusing and ready is not called.
+func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Result, first Window, ready func(*Map)) (*Map, error) {
 	m, err := newMap(g, f, s, buf)
 	if err != nil {
 		return nil, err
 	}
-	// Points are independent: blocks of rows are solved side by side, each
-	// result written to its own slot, so the map is the same as a
-	// point-by-point solve.
+	// Points are independent: blocks are solved side by side, each result
+	// written to its own slot, so the map is the same as a point-by-point
+	// solve.
 	var mu sync.Mutex // guards the counts while workers add theirs
 	var counts [NumClasses]int
-	size := max(1, len(g.Alts)/(max(min(runtime.GOMAXPROCS(0), len(g.Alts)), 1)*blocksPerWorker))
-	pass := func(spans []RowSpan, background bool) bool {
-		return forRowSpansAt(ctx, spans, len(g.Speeds), size, runtime.GOMAXPROCS(0), background, func() func(i0, i1 int) {
-			solveRows := m.sv.rowSolver(len(g.Speeds))
-			return func(i0, i1 int) {
-				n := solveRows(m, i0, i1)
+	pass := func(blocks []block, background bool) bool {
+		return forBlocks(ctx, blocks, runtime.GOMAXPROCS(0), background, func() func(b block) {
+			solve := m.sv.rowSolver(len(g.Speeds))
+			return func(b block) {
+				n := solve(m, b)
 				mu.Lock()
 				for c := range n {
 					counts[c] += n[c]
@@ -201,18 +199,21 @@ func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Re
 			}
 		})
 	}
-	first, rest, split := staged(first, len(g.Alts))
-	if split && ready != nil {
-		if !pass([]RowSpan{first}, false) {
-			return nil, ctx.Err()
-		}
+	rows := len(g.Alts)
+	size := max(1, rows/(max(min(runtime.GOMAXPROCS(0), rows), 1)*blocksPerWorker))
+	head, rest, split := staged(first, rows, len(g.Speeds), size)
+	if !split || ready == nil {
+		head, rest = append(head, rest...), nil
+	}
+	if !pass(head, false) {
+		return nil, ctx.Err()
+	}
+	if rest != nil {
 		cp := *m
 		ready(&cp)
-	} else {
-		rest = []RowSpan{first}
-	}
-	if !pass(rest, split && ready != nil) {
-		return nil, ctx.Err()
+		if !pass(rest, true) {
+			return nil, ctx.Err()
+		}
 	}
 	m.finish(counts)
 	return m, nil

@@ -59,19 +59,19 @@ const fusedPoints = 8192
 // in Errs and takes no part. When ctx ends first it stops between blocks
 // and returns ctx's error.
 func SolveAllReusing(ctx context.Context, g *Grid, facs []Facility, s Settings, buf Buffers) (All, error) {
-	return SolveAllStaged(ctx, g, facs, s, buf, RowSpan{}, nil)
+	return SolveAllStaged(ctx, g, facs, s, buf, Window{}, nil)
 }
 
-// SolveAllStaged is SolveAllReusing solving the rows of first before the
-// others, as SolveStaged does for one facility: once they are done it
-// calls ready with an All whose maps are copies, and whose maps and best
-// of all are final in the rows of first alone (BestShares not counted
-// yet), and goes on with the rest. The other rows are being written while
-// ready runs and after it returns, until SolveAllStaged returns, so the
-// All given to ready may be read in the rows of first only. The rest is
-// solved as SolveStaged solves it. With ready
-// nil, or first empty or every row, ready is not called.
-func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, buf Buffers, first RowSpan, ready func(All)) (All, error) {
+// SolveAllStaged is SolveAllReusing solving the points of window first
+// before the others, as SolveStaged does for one facility: once they are
+// done it calls ready with an All whose maps are copies, and whose maps
+// and best of all are final in the window alone (BestShares not counted
+// yet), and goes on with the rest. The other points are being written
+// while ready runs and after it returns, until SolveAllStaged returns, so
+// the All given to ready may be read in the window only. The rest is
+// solved as SolveStaged solves it. With ready nil, or the window empty or
+// the whole grid, ready is not called.
+func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, buf Buffers, first Window, ready func(All)) (All, error) {
 	if g == nil {
 		return All{}, errors.New("solve: need a grid")
 	}
@@ -105,34 +105,36 @@ func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, b
 		bs.rs = append(bs.rs, m.Results)
 	}
 	rowsPer := max(1, fusedPoints/max(cols, 1))
-	pass := func(spans []RowSpan, background bool) bool {
-		return forRowSpansAt(ctx, spans, cols, rowsPer, runtime.GOMAXPROCS(0), background, func() func(i0, i1 int) {
-			solvers := make([]func(m *Map, i0, i1 int) [NumClasses]int, len(maps))
+	pass := func(blocks []block, background bool) bool {
+		return forBlocks(ctx, blocks, runtime.GOMAXPROCS(0), background, func() func(b block) {
+			solvers := make([]func(m *Map, b block) [NumClasses]int, len(maps))
 			for f, m := range maps {
 				solvers[f] = m.sv.rowSolver(cols)
 			}
 			local := make([][NumClasses]int, len(maps))
-			return func(i0, i1 int) {
+			return func(b block) {
 				for f, m := range maps {
-					local[f] = solvers[f](m, i0, i1)
+					local[f] = solvers[f](m, b)
 				}
 				var nb [NumClasses]int
-				for p := i0 * cols; p < i1*cols; p++ {
-					w, wr := bs.at(p)
-					if w < 0 {
-						a.Best[p] = -1
-						if a.BestRes != nil {
-							a.BestRes[p] = Result{}
+				for i := b.i0; i < b.i1; i++ {
+					for p := i*cols + b.j0; p < i*cols+b.j1; p++ {
+						w, wr := bs.at(p)
+						if w < 0 {
+							a.Best[p] = -1
+							if a.BestRes != nil {
+								a.BestRes[p] = Result{}
+							}
+							nb[Outside]++
+							continue
 						}
-						nb[Outside]++
-						continue
-					}
-					a.Best[p] = bs.index[w]
-					if a.BestRes != nil {
-						a.BestRes[p] = *wr
-					}
-					if c := wr.Class; int(c) < NumClasses {
-						nb[c]++
+						a.Best[p] = bs.index[w]
+						if a.BestRes != nil {
+							a.BestRes[p] = *wr
+						}
+						if c := wr.Class; int(c) < NumClasses {
+							nb[c]++
+						}
 					}
 				}
 				mu.Lock()
@@ -148,11 +150,14 @@ func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, b
 			}
 		})
 	}
-	first, rest, split := staged(first, len(g.Alts))
-	if split && ready != nil {
-		if !pass([]RowSpan{first}, false) {
-			return All{}, ctx.Err()
-		}
+	head, rest, split := staged(first, len(g.Alts), cols, rowsPer)
+	if !split || ready == nil {
+		head, rest = append(head, rest...), nil
+	}
+	if !pass(head, false) {
+		return All{}, ctx.Err()
+	}
+	if rest != nil {
 		early := All{Maps: make([]*Map, len(a.Maps)), Errs: a.Errs, Best: a.Best, BestRes: a.BestRes}
 		for k, m := range a.Maps {
 			if m != nil {
@@ -161,11 +166,9 @@ func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, b
 			}
 		}
 		ready(early)
-	} else {
-		rest = []RowSpan{first}
-	}
-	if !pass(rest, split && ready != nil) {
-		return All{}, ctx.Err()
+		if !pass(rest, true) {
+			return All{}, ctx.Err()
+		}
 	}
 	for f, m := range maps {
 		m.finish(counts[f])

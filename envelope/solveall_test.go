@@ -154,12 +154,17 @@ func TestSolveStagedFirstRowsFinalEarly(t *testing.T) {
 					t.Fatal(err)
 				}
 				cols := g.Cols()
-				for _, first := range []RowSpan{{30, 47}, {0, 12}, {80, 200}, {-5, 3}} {
-					inFirst := first.clip(g.Rows())
+				for _, first := range []Window{
+					{Span{30, 47}, Span{20, 50}}, {Span{0, 12}, Span{0, 91}}, {Span{80, 200}, Span{-3, 10}}, {Span{-5, 3}, Span{60, 91}},
+				} {
+					inFirst := Window{first.Rows.clip(g.Rows()), first.Cols.clip(cols)}
 					calls := 0
 					got, err := SolveAllStaged(context.Background(), g, facs, s, Buffers{IndexOnly: true}, first, func(a All) {
 						calls++
-						for p := inFirst.Lo * cols; p < inFirst.Hi*cols; p++ {
+						for p := range want.Best {
+							if !inFirst.Has(p/cols, p%cols) {
+								continue
+							}
 							if a.Best[p] != want.Best[p] {
 								t.Fatalf("first %v: early best at %d: %d, want %d", first, p, a.Best[p], want.Best[p])
 							}
@@ -199,7 +204,10 @@ func TestSolveStagedFirstRowsFinalEarly(t *testing.T) {
 					calls = 0
 					m, err := SolveStaged(context.Background(), g, &facs[2], s, nil, first, func(e *Map) {
 						calls++
-						for p := inFirst.Lo * cols; p < inFirst.Hi*cols; p++ {
+						for p := range e.Results {
+							if !inFirst.Has(p/cols, p%cols) {
+								continue
+							}
 							if e.Results[p] != want.Maps[2].Results[p] {
 								t.Fatalf("first %v: early one-facility result at %d differs", first, p)
 							}
@@ -212,7 +220,8 @@ func TestSolveStagedFirstRowsFinalEarly(t *testing.T) {
 						t.Errorf("first %v: one facility: ready called %d times, shares %+v, want once, %+v", first, calls, m.Shares(), want.Maps[2].Shares())
 					}
 				}
-				for _, first := range []RowSpan{{}, {0, g.Rows()}, {-3, g.Rows() + 4}, {200, 300}} {
+				for _, first := range []Window{{}, {Span{0, g.Rows()}, Span{0, cols}}, {Span{-3, g.Rows() + 4}, Span{-1, cols + 1}},
+					{Span{200, 300}, Span{0, 10}}, {Span{0, 10}, Span{}}, {Span{0, 10}, Span{95, 99}}} {
 					if _, err := SolveAllStaged(context.Background(), g, facs, s, Buffers{}, first, func(All) {
 						t.Errorf("first %v: ready called", first)
 					}); err != nil {

@@ -24,10 +24,11 @@ type solver interface {
 	// with setModelLength.
 	setLoadCap(q float64)
 
-	// rowSolver returns a function that solves the inside points of rows
-	// i0..i1-1 of m into m.Results and counts them per class. It keeps
-	// caches of its own: each goroutine takes one.
-	rowSolver(cols int) func(m *Map, i0, i1 int) [NumClasses]int
+	// rowSolver returns a function that solves the inside points of a
+	// block of m (rows b.i0..b.i1-1, columns b.j0..b.j1-1) into
+	// m.Results and counts them per class. It keeps caches of its own:
+	// each goroutine takes one.
+	rowSolver(cols int) func(m *Map, b block) [NumClasses]int
 	// solve answers one point at full precision: flight Mach number mf,
 	// flight Reynolds number reF, flight static temperature tFlight (K).
 	// With detail set it also finds what only the point details show (the

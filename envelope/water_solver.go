@@ -106,13 +106,13 @@ func (sv *waterSolver) waterAt(T float64) (atmos.WaterState, error) {
 	return atmos.WaterAtPressure(T, math.Max(sv.pStatic, atmos.WaterVapourPressure(T)))
 }
 
-func (sv *waterSolver) rowSolver(cols int) func(m *Map, i0, i1 int) [NumClasses]int {
-	return func(m *Map, i0, i1 int) (n [NumClasses]int) {
+func (sv *waterSolver) rowSolver(cols int) func(m *Map, b block) [NumClasses]int {
+	return func(m *Map, b block) (n [NumClasses]int) {
 		g := m.Grid
 		var ps pointSol
-		for i := i0; i < i1; i++ {
+		for i := b.i0; i < b.i1; i++ {
 			base := i * cols
-			for j := range cols {
+			for j := b.j0; j < b.j1; j++ {
 				r := &g.points[base+j]
 				if r.excl != InEnvelope {
 					if m.reused {

@@ -29,25 +29,26 @@ type results struct {
 	errs     []error // per facility: why it has no map (nil map)
 }
 
-// early asks a recompute for some rows first: the rows on screen. Once
-// they are solved, send gets results that may be read in those rows alone
-// (their other rows are still being written) while the rest is solved. A
-// nil *early asks for nothing early.
+// early asks a recompute for some points first: those on screen. Once
+// they are solved, send gets results that may be read in that window
+// alone (its other points are still being written) while the rest is
+// solved. A nil *early asks for nothing early.
 type early struct {
-	rows envelope.RowSpan
-	send func(results, envelope.RowSpan)
+	win  envelope.Window
+	send func(results, envelope.Window)
 }
 
-// span is the rows asked for, none for a nil e.
-func (e *early) span() envelope.RowSpan {
+// window is the points asked for, none for a nil e.
+func (e *early) window() envelope.Window {
 	if e == nil {
-		return envelope.RowSpan{}
+		return envelope.Window{}
 	}
-	return e.rows
+	return e.win
 }
 
 // computeGrid evaluates the flight side and every facility, in arrays
-// from pool where it has them (nil: new arrays), with the rows of e first.
+// from pool where it has them (nil: new arrays), with the points of e
+// first.
 func computeGrid(ctx context.Context, v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings, pool *arrays, e *early) (results, error) {
 	g, err := envelope.NewGridReusing(ctx, v, s, pool.takeGrid())
 	if err != nil {
@@ -71,10 +72,10 @@ func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s
 	var ready func(envelope.All)
 	if e != nil {
 		ready = func(a envelope.All) {
-			e.send(results{grid: g, maps: a.Maps, errs: a.Errs, best: a.Best}, e.rows)
+			e.send(results{grid: g, maps: a.Maps, errs: a.Errs, best: a.Best}, e.win)
 		}
 	}
-	a, err := envelope.SolveAllStaged(ctx, g, facs, s, buf, e.span(), ready)
+	a, err := envelope.SolveAllStaged(ctx, g, facs, s, buf, e.window(), ready)
 	if err != nil {
 		// The arrays taken are left to the collector.
 		return results{}, err
@@ -94,7 +95,7 @@ func solveAll(ctx context.Context, g *envelope.Grid, facs []envelope.Facility, s
 const restBlock = 16384
 
 // solveOne re-solves facility k only, keeping the other maps of prev,
-// with the rows of e first.
+// with the points of e first.
 func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s envelope.Settings, k int, pool *arrays, e *early) (results, error) {
 	if prev.grid == nil || k < 0 || k >= len(facs) || len(prev.maps) != len(facs) {
 		return solveAll(ctx, prev.grid, facs, s, pool, e)
@@ -109,13 +110,14 @@ func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s env
 		r.errs[k] = nil
 		return r
 	}
-	// The best of all of the early rows is decided as soon as they are
+	// The best of all of the early points is decided as soon as they are
 	// solved, and the rest after the solve: each point once.
 	var (
 		upd     *bestUpdate
-		first   envelope.RowSpan
+		first   envelope.Window
 		counted bestCounts
 	)
+	rows, cols := prev.grid.Rows(), prev.grid.Cols()
 	var ready func(*envelope.Map)
 	if e != nil {
 		ready = func(em *envelope.Map) {
@@ -124,14 +126,15 @@ func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s env
 			if !ok {
 				return
 			}
-			cols := prev.grid.Cols()
-			upd, first = &u, e.rows
-			counted = u.update(first.Lo*cols, first.Hi*cols)
+			upd, first = &u, e.win.Within(rows, cols)
+			for i := first.Rows.Lo; i < first.Rows.Hi; i++ {
+				counted.plus(u.update(i*cols+first.Cols.Lo, i*cols+first.Cols.Hi))
+			}
 			er.best = u.best
 			e.send(er, first)
 		}
 	}
-	m, err := envelope.SolveStaged(ctx, prev.grid, &facs[k], s, pool.takeResults(prev.grid.Rows()*prev.grid.Cols()), e.span(), ready)
+	m, err := envelope.SolveStaged(ctx, prev.grid, &facs[k], s, pool.takeResults(rows*cols), e.window(), ready)
 	if err != nil {
 		return results{}, fmt.Errorf("%s: %w", facs[k].Name, err)
 	}
@@ -141,12 +144,12 @@ func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s env
 		return r, nil
 	}
 	r.shares(&prev, k)
-	cols := prev.grid.Cols()
 	// The rest is decided, like the rest of the solve
 	// (envelope.SolveStaged), letting the interface run between blocks:
-	// the screen shows the early rows already.
+	// the screen shows the early points already. Above and below the
+	// window the rows are whole; beside it, a row's two sides.
 	c := counted
-	for _, part := range [][2]int{{0, first.Lo * cols}, {first.Hi * cols, r.grid.Len()}} {
+	for _, part := range [][2]int{{0, first.Rows.Lo * cols}, {first.Rows.Hi * cols, rows * cols}} {
 		c.plus(byParts(part[1]-part[0], func(lo, hi int) (c bestCounts) {
 			for q := part[0] + lo; q < part[0]+hi; q += restBlock {
 				runtime.Gosched()
@@ -154,6 +157,10 @@ func solveOne(ctx context.Context, prev results, facs []envelope.Facility, s env
 			}
 			return c
 		}))
+	}
+	for i := first.Rows.Lo; i < first.Rows.Hi; i++ {
+		c.plus(upd.update(i*cols, i*cols+first.Cols.Lo))
+		c.plus(upd.update(i*cols+first.Cols.Hi, (i+1)*cols))
 	}
 	r.best = upd.best
 	r.setUnion(c)

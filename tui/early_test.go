@@ -50,7 +50,7 @@ func TestEarlyRowsDrawTheFinishedFrame(t *testing.T) {
 				if shown == "best of all" && c.kind != recomputeOneFac {
 					m.fac = -1
 				}
-				m.curI = 75
+				m.curI, m.curJ = 75, 75
 				m, _ = step(m, tea.WindowSizeMsg{Width: 120, Height: 40})
 				if m.visRows <= 0 || m.visRows >= m.rows() {
 					t.Fatalf("the matrix shows %d of %d rows; want a part", m.visRows, m.rows())
@@ -61,8 +61,8 @@ func TestEarlyRowsDrawTheFinishedFrame(t *testing.T) {
 				if !ok {
 					t.Fatalf("first message %T, want the early rows", msg)
 				}
-				if em.rows.Len() >= m.rows() || !em.rows.Has(m.curI) {
-					t.Fatalf("early rows %+v of %d, cursor row %d", em.rows, m.rows(), m.curI)
+				if em.win.Rows.Len() >= m.rows() || em.win.Cols.Len() >= m.cols() || !em.win.Has(m.curI, m.curJ) {
+					t.Fatalf("early window %+v of %d×%d, cursor (%d, %d)", em.win, m.rows(), m.cols(), m.curI, m.curJ)
 				}
 				m, next := step(m, em)
 				if !m.busy || !m.showingEarly() {
@@ -72,11 +72,12 @@ func TestEarlyRowsDrawTheFinishedFrame(t *testing.T) {
 				if strings.Contains(earlyFrame, "computing") {
 					t.Error("the frame of the early rows says computing")
 				}
-				// The cells of rows not solved yet are pending, and not read.
+				// The cells not solved yet are pending, and not read.
 				gv := m.gridView()
-				if !gv.Partial || !gv.Cell(em.rows.Lo-1, 0).Pending || gv.Cell(m.curI, 0).Pending {
-					t.Errorf("grid view of the early rows: partial %v, row %d pending %v, cursor row pending %v",
-						gv.Partial, em.rows.Lo-1, gv.Cell(em.rows.Lo-1, 0).Pending, gv.Cell(m.curI, 0).Pending)
+				below, right := gv.Cell(em.win.Rows.Lo-1, m.curJ), gv.Cell(m.curI, em.win.Cols.Hi)
+				if !gv.Partial || !below.Pending || !right.Pending || gv.Cell(m.curI, m.curJ).Pending {
+					t.Errorf("grid view of the early window: partial %v, below it pending %v, right of it %v, cursor %v",
+						gv.Partial, below.Pending, right.Pending, gv.Cell(m.curI, m.curJ).Pending)
 				}
 				m, _ = step(m, next())
 				if m.busy || m.showingEarly() {
@@ -112,11 +113,11 @@ func TestEarlyRowsOffScreenWait(t *testing.T) {
 	for range 60 {
 		m, _ = step(m, keyMsg("down")) // far from the early rows
 	}
-	if !em.rows.Has(m.curI) && m.showingEarly() {
-		t.Fatalf("cursor row %d outside the early rows %+v, still drawn from them", m.curI, em.rows)
+	if !em.win.Has(m.curI, m.curJ) && m.showingEarly() {
+		t.Fatalf("cursor (%d, %d) outside the early window %+v, still drawn from it", m.curI, m.curJ, em.win)
 	}
-	if em.rows.Has(m.curI) {
-		t.Fatalf("60 rows down left the cursor in the early rows (row %d, %+v)", m.curI, em.rows)
+	if em.win.Has(m.curI, m.curJ) {
+		t.Fatalf("60 rows down left the cursor in the early window ((%d, %d), %+v)", m.curI, m.curJ, em.win)
 	}
 	if !strings.Contains(m.View(), "computing") {
 		t.Error("off the early rows, the frame does not say computing")
@@ -137,6 +138,7 @@ func TestEarlyRowsOffScreenWait(t *testing.T) {
 func TestDrawnReportsEarlyFrameDrawn(t *testing.T) {
 	var out bytes.Buffer
 	d := drawn{m: newDemo(t, 120, 40, fineDemo), scr: newScreen(&out)}
+	d.m.rootDraws = true // as Run sets it
 	next, _ := d.Update(tea.WindowSizeMsg{Width: 120, Height: 40})
 	d = next.(drawn)
 	d.View()

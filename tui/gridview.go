@@ -36,11 +36,11 @@ type GridView struct {
 	ReTol     float64      // Reynolds tolerance, for the Reynolds-ratio layer
 	Marks     map[int]bool // marked test points by grid index
 
-	// Partial says the maps and Best are final in rows Ready alone (a
-	// recompute's rows solved first, the others still being written):
-	// the cells of other rows are drawn pending, and not read.
+	// Partial says the maps and Best are final in window Ready alone (a
+	// recompute's points solved first, the others still being written):
+	// the other cells are drawn pending, and not read.
 	Partial bool
-	Ready   envelope.RowSpan
+	Ready   envelope.Window
 
 	// Cursor and scroll, as in MatrixInput; use -1 for no cursor.
 	CursorRow, CursorCol int
@@ -159,7 +159,7 @@ func (v *GridView) answer(p int) (envelope.Result, int) {
 
 // Cell computes the cell at grid point (i, j).
 func (v *GridView) Cell(i, j int) Cell {
-	if v.Partial && !v.Ready.Has(i) {
+	if v.Partial && !v.Ready.Has(i, j) {
 		return Cell{Pending: true}
 	}
 	g := v.Grid

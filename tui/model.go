@@ -124,13 +124,18 @@ type Model struct {
 	res      results
 	gen      int  // generation of the latest recompute request
 	busy     bool // a recompute is running
-	// early is the running recompute's rows solved first (those on
+	// early is the running recompute's points solved first (those on
 	// screen when it started), which View draws in place of res while
-	// they cover the rows on screen: results that may be read in rows
-	// earlyRows alone, from recompute earlyGen.
-	early     *results
-	earlyRows envelope.RowSpan
-	earlyGen  int
+	// they cover the screen: results that may be read in window earlyWin
+	// alone, from recompute earlyGen.
+	early    *results
+	earlyWin envelope.Window
+	earlyGen int
+	// rootDraws: the program's root (drawn, under Run) tells a recompute
+	// when the frame of its early points is drawn; otherwise (the model
+	// run by a Bubble Tea program of its own) Update tells it when it
+	// takes them.
+	rootDraws bool
 	// arrays keeps replaced result arrays for the next recompute (set by
 	// Run only; nil: every recompute makes new ones).
 	arrays *arrays
@@ -152,6 +157,7 @@ type Model struct {
 	scrollR int
 	scrollC int
 	visRows int          // matrix rows on screen at the last layout
+	visCols int          // and speed columns
 	marks   map[int]bool // grid index → marked
 
 	mode      mode
@@ -398,16 +404,17 @@ type (
 		res results
 		err error
 	}
-	// earlyMsg carries the rows a running recompute solved first (see
+	// earlyMsg carries the points a running recompute solved first (see
 	// Model.early), and the command that waits for the rest. The
 	// recompute waits for drawn (up to earlyWait) before it solves the
-	// rest, so that the frame of these rows is drawn with the processors
-	// to itself: whoever puts the frame on screen calls it then (drawn,
-	// the program's root), and calling it again does nothing.
+	// rest, so that the frame of these points is drawn with the
+	// processors to itself: whoever puts the frame on screen calls it
+	// then (drawn, the program's root), and calling it again does
+	// nothing.
 	earlyMsg struct {
 		gen   int
 		res   results
-		rows  envelope.RowSpan
+		win   envelope.Window
 		next  tea.Cmd
 		drawn func()
 	}
@@ -468,14 +475,14 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 	pool.begin() // until onComputed takes the message
 	// The work starts now, beside the frame the runtime draws after this
 	// Update, and the command only waits for it: started by the command,
-	// it would begin only after that frame. The rows on screen are solved
-	// first and sent on their own (earlyMsg), so that their frame need not
-	// wait for the rest of the grid.
+	// it would begin only after that frame. The points on screen are
+	// solved first and sent on their own (earlyMsg), so that their frame
+	// need not wait for the rest of the grid.
 	done := make(chan tea.Msg, 2)
 	wait := func() tea.Msg { return <-done }
-	e := &early{rows: m.screenRows(), send: func(r results, rows envelope.RowSpan) {
+	e := &early{win: m.screenWindow(earlyMargin), send: func(r results, win envelope.Window) {
 		on := make(chan struct{})
-		done <- earlyMsg{gen: gen, res: r, rows: rows, next: wait, drawn: sync.OnceFunc(func() { close(on) })}
+		done <- earlyMsg{gen: gen, res: r, win: win, next: wait, drawn: sync.OnceFunc(func() { close(on) })}
 		t := time.NewTimer(earlyWait)
 		defer t.Stop()
 		select {
@@ -507,45 +514,48 @@ func (m *Model) recompute(kind recomputeKind) tea.Cmd {
 }
 
 // earlyWait is the longest a recompute waits for the frame of its early
-// rows to be drawn before it solves the rest.
+// points to be drawn before it solves the rest.
 const earlyWait = 30 * time.Millisecond
 
 // settleFrame is how long the rest of a recompute waits after the frame
-// of its early rows is drawn. The terminal reads and shows that frame in
-// this moment: on a machine whose processors share one core (as on the
-// one the speed figures come from, where a second processor adds almost
-// no throughput), the rest solved at once took the processor from it, and
-// the frame reached the screen 2 to 8 ms later (BenchmarkTerminalEdit,
-// docs/SPEED.md). The finished results come this much later.
+// of its early points is drawn. The terminal reads and shows that frame
+// in this moment: on a machine whose processors share one core (as on the
+// one the speed figures come from), the rest solved at once took the
+// processor from it, and the frame reached the screen 2 to 8 ms later
+// (BenchmarkTerminalEdit, docs/SPEED.md). The finished results come this
+// much later.
 const settleFrame = 2 * time.Millisecond
 
-// earlyMargin is how many rows beyond those on screen are solved early on
-// either side, so that a matrix that scrolls a little as the results
-// come in (a what-if line added to the header takes a row) still shows
-// them all.
+// earlyMargin is how many rows and columns beyond those on screen are
+// solved early on every side, so that a matrix that scrolls a little as
+// the results come in (a what-if line added to the header takes a row)
+// still shows them all.
 const earlyMargin = 4
 
-// screenRows is the span of grid rows the matrix shows, with earlyMargin
-// on either side (empty before the first layout): the rows a recompute
-// solves first.
-func (m *Model) screenRows() envelope.RowSpan {
+// screenWindow is the grid points the matrix shows, with margin rows and
+// columns more on every side (empty before the first layout): the points
+// a recompute solves first.
+func (m *Model) screenWindow(margin int) envelope.Window {
 	n := m.rows()
-	if n == 0 || m.visRows <= 0 {
-		return envelope.RowSpan{}
+	if n == 0 || m.visRows <= 0 || m.visCols <= 0 {
+		return envelope.Window{}
 	}
 	// Display row d shows grid row n-1-d, the highest altitude on top.
-	return envelope.RowSpan{Lo: n - m.scrollR - m.visRows - earlyMargin, Hi: n - m.scrollR + earlyMargin}
+	return envelope.Window{
+		Rows: envelope.Span{Lo: n - m.scrollR - m.visRows - margin, Hi: n - m.scrollR + margin},
+		Cols: envelope.Span{Lo: m.scrollC - margin, Hi: m.scrollC + m.visCols + margin},
+	}
 }
 
-// shown is the results the screen draws: the early rows of the running
-// recompute where they hold every row on screen and the cursor, else the
-// last finished results.
+// shown is the results the screen draws: the early points of the running
+// recompute where they hold every point on screen and the cursor, else
+// the last finished results.
 func (m *Model) shown() *results {
 	if e := m.early; e != nil && m.busy && m.earlyGen == m.gen && e.grid != nil && m.res.grid != nil &&
 		e.grid.Rows() == m.res.grid.Rows() && e.grid.Cols() == m.res.grid.Cols() {
-		on := m.screenRows()
-		on.Lo, on.Hi = on.Lo+earlyMargin, on.Hi-earlyMargin
-		if m.earlyRows.Has(m.curI) && m.earlyRows.Has(max(on.Lo, 0)) && m.earlyRows.Has(min(on.Hi, e.grid.Rows())-1) {
+		on := m.screenWindow(0).Within(e.grid.Rows(), e.grid.Cols())
+		w := m.earlyWin
+		if w.Has(m.curI, m.curJ) && w.Has(on.Rows.Lo, on.Cols.Lo) && w.Has(on.Rows.Hi-1, on.Cols.Hi-1) {
 			return e
 		}
 	}
@@ -586,8 +596,11 @@ func (m Model) Update(msg tea.Msg) (tea.Model, tea.Cmd) {
 	case computedMsg:
 		m.onComputed(msg)
 	case earlyMsg:
+		if !m.rootDraws {
+			msg.drawn()
+		}
 		if msg.gen == m.gen && m.busy {
-			m.early, m.earlyRows, m.earlyGen = &msg.res, msg.rows, msg.gen
+			m.early, m.earlyWin, m.earlyGen = &msg.res, msg.win, msg.gen
 		}
 		cmd = msg.next
 	case savedMsg:

@@ -217,6 +217,7 @@ func Run(ctx context.Context, opts Options, progOpts ...tea.ProgramOption) (Mode
 	}
 	all := append([]tea.ProgramOption{tea.WithContext(ctx), tea.WithoutSignalHandler(), tea.WithoutRenderer(),
 		tea.WithInput(in), tea.WithOutput(out)}, progOpts...)
+	m.rootDraws = true
 	p := tea.NewProgram(drawn{m: m, scr: scr}, all...)
 	scr.enter()
 	stopSizes := tt.sendSizes(p)

@@ -206,7 +206,7 @@ func TestStudyPanelComputingAndStale(t *testing.T) {
 	if cmd == nil {
 		t.Fatal("no recompute command")
 	}
-	next, cmd = m.Update(cmd())
+	next, cmd = m.Update(finished(cmd))
 	m = next.(Model)
 	if cmd == nil || !m.study.stale {
 		t.Fatalf("the recompute's arrival: study command %v, stale %v; want a new study started, the table still stale", cmd != nil, m.study.stale)

@@ -593,23 +593,27 @@ func TestIncrementalBestMatchesBest(t *testing.T) {
 			if got.union != sh.Matched() || got.bestFull != sh.Share(envelope.FullMatch) {
 				t.Fatalf("%s: union %v, best full %v; want %v, %v", name, got.union, got.bestFull, sh.Matched(), sh.Share(envelope.FullMatch))
 			}
-			// Staged: the early rows' best of all is already final, and
-			// the whole is the same.
+			// Staged: the early window's best of all is already final,
+			// and the whole is the same.
 			cols := m.res.grid.Cols()
-			var earlyBest []int
-			first := envelope.RowSpan{Lo: 10, Hi: 17}
-			staged, err := solveOne(context.Background(), m.res, facs, m.set, k, nil, &early{rows: first,
-				send: func(r results, rows envelope.RowSpan) {
-					earlyBest = append(earlyBest, r.best[rows.Lo*cols:rows.Hi*cols]...)
+			earlyBest := map[int]int{} // point → early winner
+			first := envelope.Window{Rows: envelope.Span{Lo: 10, Hi: 17}, Cols: envelope.Span{Lo: 5, Hi: 21}}
+			staged, err := solveOne(context.Background(), m.res, facs, m.set, k, nil, &early{win: first,
+				send: func(r results, w envelope.Window) {
+					for i := w.Rows.Lo; i < w.Rows.Hi; i++ {
+						for j := w.Cols.Lo; j < w.Cols.Hi; j++ {
+							earlyBest[i*cols+j] = r.best[i*cols+j]
+						}
+					}
 				}})
 			if err != nil {
 				t.Fatal(err)
 			}
-			if len(earlyBest) != first.Len()*cols {
-				t.Fatalf("%s: early best of all of %d points, want %d", name, len(earlyBest), first.Len()*cols)
+			if len(earlyBest) != first.Rows.Len()*first.Cols.Len() {
+				t.Fatalf("%s: early best of all of %d points, want %d", name, len(earlyBest), first.Rows.Len()*first.Cols.Len())
 			}
-			for q, w := range earlyBest {
-				if p := first.Lo*cols + q; w != wantIdx[p] {
+			for p, w := range earlyBest {
+				if w != wantIdx[p] {
 					t.Fatalf("%s: early best at %d: %d, want %d", name, p, w, wantIdx[p])
 				}
 			}

@@ -103,7 +103,7 @@ func (m *Model) relayout() {
 	m.legend.SetSize(m.fr.width, m.legendH)
 	in := m.matrixInput()
 	m.scrollR, m.scrollC = FitScroll(in, m.matrix.width, m.matrix.height)
-	m.visRows, _ = MatrixCapacity(in, m.matrix.width, m.matrix.height)
+	m.visRows, m.visCols = MatrixCapacity(in, m.matrix.width, m.matrix.height)
 }
 
 // setPanelSize gives the panels beside or below the matrix their area.
@@ -391,7 +391,7 @@ func (m Model) gridView() GridView {
 		ScrollCol:  m.scrollC,
 	}
 	if r != &m.res {
-		v.Partial, v.Ready = true, m.earlyRows
+		v.Partial, v.Ready = true, m.earlyWin
 	}
 	return v
 }
