@@ -17,7 +17,7 @@ func fineDemo(o *Options) {
 	o.Vehicle = &v
 }
 
-// step is one Update of m with msg (early rows taken as drawn).
+// step is one Update of m with msg (early points taken as drawn).
 func step(m Model, msg tea.Msg) (Model, tea.Cmd) {
 	if e, ok := msg.(earlyMsg); ok {
 		e.drawn()
@@ -26,7 +26,7 @@ func step(m Model, msg tea.Msg) (Model, tea.Cmd) {
 	return next.(Model), cmd
 }
 
-// A recompute sends the rows on screen first, and the frame drawn from
+// A recompute sends the points on screen first, and the frame drawn from
 // them is the very frame of the finished results: every kind of
 // recompute, for one facility and for the best of all.
 func TestEarlyRowsDrawTheFinishedFrame(t *testing.T) {
@@ -59,18 +59,18 @@ func TestEarlyRowsDrawTheFinishedFrame(t *testing.T) {
 				msg := m.recompute(c.kind)()
 				em, ok := msg.(earlyMsg)
 				if !ok {
-					t.Fatalf("first message %T, want the early rows", msg)
+					t.Fatalf("first message %T, want the early points", msg)
 				}
 				if em.win.Rows.Len() >= m.rows() || em.win.Cols.Len() >= m.cols() || !em.win.Has(m.curI, m.curJ) {
 					t.Fatalf("early window %+v of %d×%d, cursor (%d, %d)", em.win, m.rows(), m.cols(), m.curI, m.curJ)
 				}
 				m, next := step(m, em)
 				if !m.busy || !m.showingEarly() {
-					t.Fatalf("after the early rows: busy %v, showing them %v; want both", m.busy, m.showingEarly())
+					t.Fatalf("after the early points: busy %v, showing them %v; want both", m.busy, m.showingEarly())
 				}
 				earlyFrame := m.View()
 				if strings.Contains(earlyFrame, "computing") {
-					t.Error("the frame of the early rows says computing")
+					t.Error("the frame of the early points says computing")
 				}
 				// The cells not solved yet are pending, and not read.
 				gv := m.gridView()
@@ -81,7 +81,7 @@ func TestEarlyRowsDrawTheFinishedFrame(t *testing.T) {
 				}
 				m, _ = step(m, next())
 				if m.busy || m.showingEarly() {
-					t.Fatalf("after the rest: busy %v, showing early rows %v", m.busy, m.showingEarly())
+					t.Fatalf("after the rest: busy %v, showing early points %v", m.busy, m.showingEarly())
 				}
 				if got := m.View(); got != earlyFrame {
 					t.Errorf("finished frame differs from the early one:\n%s\n---\n%s", got, earlyFrame)
@@ -91,7 +91,7 @@ func TestEarlyRowsDrawTheFinishedFrame(t *testing.T) {
 	}
 }
 
-// Where the screen moves off the early rows before the rest is solved,
+// Where the screen moves off the early points before the rest is solved,
 // it shows the last finished results saying "computing", as it does
 // before any rows are in; the facility list shows its shares as not
 // known while any recompute runs.
@@ -103,7 +103,7 @@ func TestEarlyRowsOffScreenWait(t *testing.T) {
 	em := m.recompute(recomputeGrid)().(earlyMsg)
 	m, next := step(m, em)
 	if !m.showingEarly() {
-		t.Fatal("early rows not shown")
+		t.Fatal("early points not shown")
 	}
 	for _, r := range m.pickerRows() {
 		if !r.pending {
@@ -111,7 +111,7 @@ func TestEarlyRowsOffScreenWait(t *testing.T) {
 		}
 	}
 	for range 60 {
-		m, _ = step(m, keyMsg("down")) // far from the early rows
+		m, _ = step(m, keyMsg("down")) // far from the early points
 	}
 	if !em.win.Has(m.curI, m.curJ) && m.showingEarly() {
 		t.Fatalf("cursor (%d, %d) outside the early window %+v, still drawn from it", m.curI, m.curJ, em.win)
@@ -120,7 +120,7 @@ func TestEarlyRowsOffScreenWait(t *testing.T) {
 		t.Fatalf("60 rows down left the cursor in the early window ((%d, %d), %+v)", m.curI, m.curJ, em.win)
 	}
 	if !strings.Contains(m.View(), "computing") {
-		t.Error("off the early rows, the frame does not say computing")
+		t.Error("off the early points, the frame does not say computing")
 	}
 	m, _ = step(m, next())
 	if m.busy || strings.Contains(m.View(), "computing") {
@@ -133,7 +133,7 @@ func TestEarlyRowsOffScreenWait(t *testing.T) {
 	}
 }
 
-// The program's root tells the recompute that the early rows' frame is
+// The program's root tells the recompute that the early points' frame is
 // drawn once it has written it, and only then.
 func TestDrawnReportsEarlyFrameDrawn(t *testing.T) {
 	var out bytes.Buffer

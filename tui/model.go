@@ -562,7 +562,7 @@ func (m *Model) shown() *results {
 	return &m.res
 }
 
-// showingEarly reports whether the screen draws the early rows of the
+// showingEarly reports whether the screen draws the early points of the
 // running recompute, which are its final answer there.
 func (m *Model) showingEarly() bool { return m.shown() != &m.res }
 

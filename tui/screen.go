@@ -192,7 +192,7 @@ type drawn struct {
 	scr  *screen
 	hold int  // the recompute generation whose frame is held, 0 none
 	same bool // the last message changed nothing to draw
-	// early tells the recompute whose early rows the last message
+	// early tells the recompute whose early points the last message
 	// brought that their frame is drawn (earlyMsg.drawn); nil for other
 	// messages.
 	early func()
