@@ -300,3 +300,36 @@ func BenchmarkDemoDeltaT400(b *testing.B) {
 		reportPerPoint(b, g)
 	})
 }
+
+// BenchmarkNewGridStaged400 is the flight side of a ΔT what-if as the
+// interface makes it, on the demo vehicle's 400×400 grid with the window
+// a 200×60 screen shows (60 rows by 80 columns, mid-grid): "head" is
+// what the early points wait for (every row's atmosphere, the window's
+// rows, each row's top), "whole" the head and the rest. Read against
+// BenchmarkDemoDeltaT400/NewGrid.
+func BenchmarkNewGridStaged400(b *testing.B) {
+	v, _, s := demo400(b)
+	win := Window{Span{170, 230}, Span{160, 240}}
+	var g *Grid
+	for _, whole := range []bool{false, true} {
+		name := "head"
+		if whole {
+			name = "whole"
+		}
+		b.Run(name, func(b *testing.B) {
+			for i := 0; b.Loop(); i++ {
+				s.DeltaT = 5 * float64(i%2)
+				var rest func() error
+				var err error
+				if g, rest, err = NewGridStaged(context.Background(), v, s, g, win); err != nil {
+					b.Fatal(err)
+				}
+				if whole {
+					if err := rest(); err != nil {
+						b.Fatal(err)
+					}
+				}
+			}
+		})
+	}
+}

@@ -132,6 +132,9 @@ type Grid struct {
 	// reused: points is an array handed in (NewGridReusing), cleared
 	// point by point as it is filled; a new one is zero already.
 	reused bool
+	// top is, per row, the lowest column NewGridStaged evaluated before
+	// the rest (rowTop).
+	top []int
 }
 
 // NewGrid evaluates the flight side of vehicle v on its grid: the
@@ -157,6 +160,101 @@ func NewGrid(v *Vehicle, s Settings) (*Grid, error) {
 // When ctx ends first (a newer what-if made this grid stale) it stops
 // between blocks of rows and returns ctx's error.
 func NewGridReusing(ctx context.Context, v *Vehicle, s Settings, old *Grid) (*Grid, error) {
+	g, err := newGrid(v, s, old)
+	if err != nil {
+		return nil, err
+	}
+	// Rows are independent: they are evaluated side by side in blocks,
+	// each point written to its own slot, so the grid is the same as a
+	// row-by-row evaluation. The first failing row (lowest index) is
+	// reported.
+	acc := rowsAcc{errRow: -1}
+	if !forRowBlocksUntil(ctx, len(g.Alts), len(g.Speeds), func() func(i0, i1 int) {
+		var spans []envSpan // scratch space of one worker
+		return func(i0, i1 int) { g.evalRows(i0, i1, s.DeltaT, &spans, &acc, wholeRow) }
+	}) {
+		return nil, ctx.Err()
+	}
+	if err := acc.failed(v); err != nil {
+		return nil, err
+	}
+	g.inside, g.maxMach = acc.inside, acc.maxMach
+	return g, nil
+}
+
+// NewGridStaged is NewGridReusing for a staged solve of window first
+// (SolveStaged, SolveAllStaged): it evaluates first only what that solve
+// needs before the rest, namely every row's atmosphere, the whole rows of
+// the window, and in each other row its points from the fastest down to
+// the first one inside the envelope (so the grid's highest inside Mach
+// number, on which a fitted model scale depends, is known: every speed
+// kind increases with Mach number along a row). It returns the grid and
+// rest, which evaluates the other points. Until rest has returned nil
+// the grid may be read, and solved, in the window's rows only, and its
+// inside count is not final; rest may be called more than once (only the
+// first call works) and may run while the window is read. With the
+// window empty or the whole grid, the grid is whole at once.
+func NewGridStaged(ctx context.Context, v *Vehicle, s Settings, old *Grid, first Window) (g *Grid, rest func() error, err error) {
+	g, err = newGrid(v, s, old)
+	if err != nil {
+		return nil, nil, err
+	}
+	rows, cols := len(g.Alts), len(g.Speeds)
+	first = first.Within(rows, cols)
+	done := func() error { return nil }
+	if first.Rows.Len() == 0 || first.Cols.Len() == 0 || first.Rows.Len() == rows && first.Cols.Len() == cols {
+		g, err = NewGridReusing(ctx, v, s, g)
+		return g, done, err
+	}
+	if cap(g.top) >= rows {
+		g.top = g.top[:rows]
+	} else {
+		g.top = make([]int, rows)
+	}
+	size := max(1, rows/(max(min(runtime.GOMAXPROCS(0), rows), 1)*blocksPerWorker))
+	var head, others []block
+	head = rowBlocks(head, first.Rows, Span{0, cols}, size)
+	others = rowBlocks(others, Span{0, first.Rows.Lo}, Span{0, cols}, size)
+	others = rowBlocks(others, Span{first.Rows.Hi, rows}, Span{0, cols}, size)
+	acc := rowsAcc{errRow: -1}
+	if !forBlocks(ctx, append(append([]block(nil), head...), others...), runtime.GOMAXPROCS(0), false, func() func(b block) {
+		var spans []envSpan
+		return func(b block) {
+			part := rowTop
+			if first.Rows.Has(b.i0) {
+				part = wholeRow
+			}
+			g.evalRows(b.i0, b.i1, s.DeltaT, &spans, &acc, part)
+		}
+	}) {
+		return nil, nil, ctx.Err()
+	}
+	if err := acc.failed(v); err != nil {
+		return nil, nil, err
+	}
+	g.inside, g.maxMach = acc.inside, acc.maxMach
+	var once sync.Once
+	var restErr error
+	rest = func() error {
+		once.Do(func() {
+			if !forBlocks(ctx, others, runtime.GOMAXPROCS(0), true, func() func(b block) {
+				var spans []envSpan
+				return func(b block) { g.evalRows(b.i0, b.i1, s.DeltaT, &spans, &acc, rowRest) }
+			}) {
+				restErr = ctx.Err()
+				return
+			}
+			g.inside = acc.inside
+		})
+		return restErr
+	}
+	return g, rest, nil
+}
+
+// newGrid checks v and s and makes the grid's axes, with its points in
+// the array of old when it holds enough (see NewGridReusing), not yet
+// evaluated.
+func newGrid(v *Vehicle, s Settings, old *Grid) (*Grid, error) {
 	if v == nil {
 		return nil, errors.New("grid: no vehicle")
 	}
@@ -207,21 +305,9 @@ func NewGridReusing(ctx context.Context, v *Vehicle, s Settings, old *Grid) (*Gr
 	} else {
 		g.points = make([]flightRec, n)
 	}
-	// Rows are independent: they are evaluated side by side in blocks,
-	// each point written to its own slot, so the grid is the same as a
-	// row-by-row evaluation. The first failing row (lowest index) is
-	// reported.
-	acc := rowsAcc{errRow: -1}
-	if !forRowBlocksUntil(ctx, len(alts), len(speeds), func() func(i0, i1 int) {
-		var spans []envSpan // scratch space of one worker
-		return func(i0, i1 int) { g.evalRows(i0, i1, s.DeltaT, &spans, &acc) }
-	}) {
-		return nil, ctx.Err()
+	if old != nil && cap(old.top) > 0 {
+		g.top = old.top[:0]
 	}
-	if acc.errRow >= 0 {
-		return nil, fmt.Errorf("grid for %q: row %d: %w", v.Name, acc.errRow, acc.err)
-	}
-	g.inside, g.maxMach = acc.inside, acc.maxMach
 	return g, nil
 }
 
@@ -234,39 +320,82 @@ type rowsAcc struct {
 	err     error
 }
 
-// evalRows evaluates rows i0..i1-1 of g on the day dT: the atmosphere, the
-// envelope limits and every point, with spans as scratch space, and adds
-// the inside count and highest Mach number to acc. A row whose atmosphere
-// fails is recorded in acc and ends the block.
-func (g *Grid) evalRows(i0, i1 int, dT float64, spans *[]envSpan, acc *rowsAcc) {
+// failed is the error of the first row whose atmosphere failed, if any.
+func (acc *rowsAcc) failed(v *Vehicle) error {
+	if acc.errRow >= 0 {
+		return fmt.Errorf("grid for %q: row %d: %w", v.Name, acc.errRow, acc.err)
+	}
+	return nil
+}
+
+// rowPart is which points of a row evalRows evaluates.
+type rowPart uint8
+
+const (
+	wholeRow rowPart = iota // every point
+	// rowTop: from the fastest point down to the first inside one (the
+	// whole row when none is), the lowest column done noted in g.top.
+	rowTop
+	// rowRest: the points below g.top, the row's atmosphere being made
+	// already (NewGridStaged).
+	rowRest
+)
+
+// evalRows evaluates part of each of rows i0..i1-1 of g on the day dT:
+// the atmosphere (but for rowRest), the envelope limits and the points,
+// with spans as scratch space, and adds the inside count and highest Mach
+// number to acc. A row whose atmosphere fails is recorded in acc and ends
+// the block.
+func (g *Grid) evalRows(i0, i1 int, dT float64, spans *[]envSpan, acc *rowsAcc, part rowPart) {
 	v := g.Vehicle
 	cols := len(g.Speeds)
 	inside := 0
 	maxMach := 0.0
 	for i := i0; i < i1; i++ {
 		h := g.Alts[i]
-		st, err := atmos.AtDay(h, v.AltitudeKind, dT)
-		if err != nil {
-			acc.mu.Lock()
-			if acc.errRow < 0 || i < acc.errRow {
-				acc.errRow, acc.err = i, err
+		st := g.rows[i]
+		if part != rowRest {
+			var err error
+			if st, err = atmos.AtDay(h, v.AltitudeKind, dT); err != nil {
+				acc.mu.Lock()
+				if acc.errRow < 0 || i < acc.errRow {
+					acc.errRow, acc.err = i, err
+				}
+				acc.mu.Unlock()
+				return
 			}
-			acc.mu.Unlock()
-			return
+			g.rows[i] = st
 		}
-		g.rows[i] = st
 		*spans = boundaryEnvSpans(v.Boundary, h, (*spans)[:0])
 		rl := g.rowLimits(h, &st, *spans)
 		row := g.points[i*cols : (i+1)*cols]
-		for j, sp := range g.Speeds {
+		eval := func(j int) bool {
 			r := &row[j]
 			if g.reused {
 				*r = flightRec{} // evalInto fills in a zero record
 			}
-			g.evalInto(r, sp, &st, &rl)
-			if r.excl == InEnvelope {
-				inside++
-				maxMach = max(maxMach, r.mach)
+			g.evalInto(r, g.Speeds[j], &st, &rl)
+			if r.excl != InEnvelope {
+				return false
+			}
+			inside++
+			maxMach = max(maxMach, r.mach)
+			return true
+		}
+		switch part {
+		case wholeRow:
+			for j := range cols {
+				eval(j)
+			}
+		case rowTop:
+			j := cols - 1
+			for j >= 0 && !eval(j) {
+				j--
+			}
+			g.top[i] = max(j, 0)
+		case rowRest:
+			for j := range g.top[i] {
+				eval(j)
 			}
 		}
 	}

@@ -237,3 +237,98 @@ func TestSolveStagedFirstRowsFinalEarly(t *testing.T) {
 		}
 	}
 }
+
+// A staged grid has the window's rows, every row's atmosphere and the
+// highest inside Mach number at once, and after rest is the grid NewGrid
+// makes, point for point; a staged grid and staged solve together give
+// the unstaged maps. Run with -race: the window is read while rest runs.
+func TestNewGridStagedEqualsNewGrid(t *testing.T) {
+	vs, facs := demoFleet(t)
+	for _, procs := range []int{1, runtime.GOMAXPROCS(0), 3} {
+		for vi, v0 := range vs {
+			t.Run(fmt.Sprintf("procs%d/vehicle%d", procs, vi), func(t *testing.T) {
+				defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
+				v := *v0
+				v.Grid.Altitude.Count, v.Grid.Altitude.Step = 120, 0
+				v.Grid.Speed.Count, v.Grid.Speed.Step = 111, 0
+				s := DefaultSettings(&v)
+				s.DeltaT = 6
+				want, err := NewGrid(&v, s)
+				if err != nil {
+					t.Fatal(err)
+				}
+				wantAll, err := SolveAll(want, facs, s)
+				if err != nil {
+					t.Fatal(err)
+				}
+				// Dirty buffers: a grid of another day.
+				s2 := s
+				s2.DeltaT = -20
+				old, _, err := NewGridStaged(context.Background(), &v, s2, nil, Window{Span{10, 30}, Span{0, 20}})
+				if err != nil {
+					t.Fatal(err)
+				}
+				cols := want.Cols()
+				for _, first := range []Window{{Span{40, 70}, Span{30, 60}}, {Span{0, 5}, Span{0, 111}}, {Span{100, 130}, Span{-4, 200}}} {
+					for _, buf := range []*Grid{nil, old} {
+						g, rest, err := NewGridStaged(context.Background(), &v, s, buf, first)
+						if err != nil {
+							t.Fatal(err)
+						}
+						if g.maxMach != want.maxMach {
+							t.Fatalf("first %v: highest inside Mach %v before the rest, want %v", first, g.maxMach, want.maxMach)
+						}
+						for i := range want.Rows() {
+							if g.rows[i] != want.rows[i] {
+								t.Fatalf("first %v: row %d atmosphere differs before the rest", first, i)
+							}
+						}
+						win := first.Within(want.Rows(), cols)
+						calls := 0
+						all, err := SolveAllStaged(context.Background(), g, facs, s, Buffers{IndexOnly: true}, first, func(a All) {
+							calls++
+							for p := range want.points {
+								if i := p / cols; win.Rows.Has(i) && g.points[p] != want.points[p] {
+									t.Fatalf("first %v: window row %d point differs before the rest", first, i)
+								}
+								if win.Has(p/cols, p%cols) && a.Best[p] != wantAll.Best[p] {
+									t.Fatalf("first %v: early best at %d differs", first, p)
+								}
+							}
+							if err := rest(); err != nil {
+								t.Fatal(err)
+							}
+						})
+						if err != nil {
+							t.Fatal(err)
+						}
+						if calls != 1 {
+							t.Fatalf("first %v: ready called %d times", first, calls)
+						}
+						if err := rest(); err != nil { // again: nothing more
+							t.Fatal(err)
+						}
+						if g.inside != want.inside || g.maxMach != want.maxMach {
+							t.Errorf("first %v: inside %d max Mach %v, want %d %v", first, g.inside, g.maxMach, want.inside, want.maxMach)
+						}
+						for p := range want.points {
+							if g.points[p] != want.points[p] {
+								t.Fatalf("first %v: point %d differs: %+v, want %+v", first, p, g.points[p], want.points[p])
+							}
+						}
+						for k, m := range all.Maps {
+							if m.Shares() != wantAll.Maps[k].Shares() || m.Scale != wantAll.Maps[k].Scale {
+								t.Errorf("first %v: %s shares %+v scale %v, want %+v %v", first, facs[k].Name, m.Shares(), m.Scale, wantAll.Maps[k].Shares(), wantAll.Maps[k].Scale)
+							}
+							for p := range m.Results {
+								if m.Results[p] != wantAll.Maps[k].Results[p] {
+									t.Fatalf("first %v: %s at %d differs", first, facs[k].Name, p)
+								}
+							}
+						}
+					}
+				}
+			})
+		}
+	}
+}

@@ -50,11 +50,28 @@ func (e *early) window() envelope.Window {
 // from pool where it has them (nil: new arrays), with the points of e
 // first.
 func computeGrid(ctx context.Context, v *envelope.Vehicle, facs []envelope.Facility, s envelope.Settings, pool *arrays, e *early) (results, error) {
-	g, err := envelope.NewGridReusing(ctx, v, s, pool.takeGrid())
+	// The flight side too is made for the early points first (with what
+	// their solve needs of the rest: each row's atmosphere, the highest
+	// inside Mach number), and the rest once they are sent.
+	g, rest, err := envelope.NewGridStaged(ctx, v, s, pool.takeGrid(), e.window())
 	if err != nil {
 		return results{}, err
 	}
-	return solveAll(ctx, g, facs, s, pool, e)
+	var staged *early
+	if e != nil {
+		staged = &early{win: e.win, send: func(r results, w envelope.Window) {
+			e.send(r, w)
+			_ = rest() // an error is ctx's, which the solve's rest reports
+		}}
+	}
+	r, err := solveAll(ctx, g, facs, s, pool, staged)
+	if err == nil {
+		err = rest() // where no early points were sent (no facility solved)
+	}
+	if err != nil {
+		return results{}, err
+	}
+	return r, nil
 }
 
 // solveAll solves every facility on an existing grid with the best of
