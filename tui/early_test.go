@@ -29,7 +29,7 @@ func step(m Model, msg tea.Msg) (Model, tea.Cmd) {
 // A recompute sends the points on screen first, and the frame drawn from
 // them is the very frame of the finished results: every kind of
 // recompute, for one facility and for the best of all.
-func TestEarlyRowsDrawTheFinishedFrame(t *testing.T) {
+func TestEarlyPointsDrawTheFinishedFrame(t *testing.T) {
 	kinds := []struct {
 		name string
 		kind recomputeKind
@@ -95,7 +95,7 @@ func TestEarlyRowsDrawTheFinishedFrame(t *testing.T) {
 // it shows the last finished results saying "computing", as it does
 // before any rows are in; the facility list shows its shares as not
 // known while any recompute runs.
-func TestEarlyRowsOffScreenWait(t *testing.T) {
+func TestEarlyPointsOffScreenWait(t *testing.T) {
 	m := newDemo(t, 120, 40, fineDemo)
 	m.curI = 75
 	m, _ = step(m, tea.WindowSizeMsg{Width: 120, Height: 40})
