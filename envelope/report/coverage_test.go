@@ -38,14 +38,7 @@ func outEvalNoLoads(t testing.TB, k int) *envelope.Evaluation {
 
 func outEval(t testing.TB, k int, noLoads bool, edit func(*envelope.Settings, []envelope.Facility)) *envelope.Evaluation {
 	t.Helper()
-	vs, err := envelope.DemoVehicles()
-	if err != nil || len(vs) <= k {
-		t.Fatalf("DemoVehicles() = %d vehicles, %v", len(vs), err)
-	}
-	_, facs, err := envelope.Demo()
-	if err != nil {
-		t.Fatal(err)
-	}
+	vs, facs := demoFleet(t)
 	if noLoads {
 		vs[k].Loads = envelope.ModelLoads{}
 		for f := range facs {

@@ -234,14 +234,7 @@ func recordNums(r *ExportRecord) []Num {
 func BenchmarkPlot1000(b *testing.B) {
 	e := bench1000.get(b, 1000)
 	for b.Loop() {
-		mc, err := MapChart(e, -1, false)
-		if err != nil {
-			b.Fatal(err)
-		}
-		rc, err := ReMachChart(e, nil)
-		if err != nil {
-			b.Fatal(err)
-		}
+		mc, rc := plotCharts(b, e)
 		// Side by side, as the plot command renders them.
 		var wg sync.WaitGroup
 		errs := make([]error, 2)

@@ -306,14 +306,7 @@ func ExampleExportColumns() {
 // as the decimals they stand for (shortest round-trip form of tidy axis
 // values), for both demo vehicles: "0.3", "1828.8", "0.1125".
 func TestExportGridDecimals(t *testing.T) {
-	vs, err := envelope.DemoVehicles()
-	if err != nil {
-		t.Fatal(err)
-	}
-	_, facs, err := envelope.Demo()
-	if err != nil {
-		t.Fatal(err)
-	}
+	vs, facs := demoFleet(t)
 	for _, v := range vs {
 		s := envelope.DefaultSettings(v)
 		g, err := envelope.NewGrid(v, s)

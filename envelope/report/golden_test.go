@@ -70,19 +70,41 @@ func checkGoldenBytes(t *testing.T, name string, got []byte) {
 // goldenInfo is the JSON export's run description in the golden files.
 var goldenInfo = ExportInfo{Tool: "likewind", Version: "golden", Generated: "2026-01-01"}
 
-// evalDemoGrid evaluates every demo facility on demo vehicle k with its
-// grid set to rows × cols points (0 keeps the demo's own axis), the
-// facility names replaced by rename (when not nil).
-func evalDemoGrid(t testing.TB, k, rows, cols int, rename func(int, string) string) *envelope.Evaluation {
+// demoFleet is both demo vehicles and the demo facilities, loaded afresh
+// (the caller may change them).
+func demoFleet(t testing.TB) ([]*envelope.Vehicle, []envelope.Facility) {
 	t.Helper()
 	vs, err := envelope.DemoVehicles()
-	if err != nil || len(vs) <= k {
+	if err != nil || len(vs) < 2 {
 		t.Fatalf("DemoVehicles() = %d vehicles, %v", len(vs), err)
 	}
 	_, facs, err := envelope.Demo()
 	if err != nil {
 		t.Fatal(err)
 	}
+	return vs, facs
+}
+
+// plotCharts are the two pictures the plot command draws of e: the class
+// map of the best of all and the Reynolds–Mach chart of every facility.
+func plotCharts(t testing.TB, e *envelope.Evaluation) (mc, rc *Chart) {
+	t.Helper()
+	mc, err := MapChart(e, -1, false)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rc, err = ReMachChart(e, nil); err != nil {
+		t.Fatal(err)
+	}
+	return mc, rc
+}
+
+// evalDemoGrid evaluates every demo facility on demo vehicle k with its
+// grid set to rows × cols points (0 keeps the demo's own axis), the
+// facility names replaced by rename (when not nil).
+func evalDemoGrid(t testing.TB, k, rows, cols int, rename func(int, string) string) *envelope.Evaluation {
+	t.Helper()
+	vs, facs := demoFleet(t)
 	v := vs[k]
 	if rows > 0 {
 		v.Grid.Altitude.Count, v.Grid.Altitude.Step = rows, 0
@@ -217,15 +239,7 @@ func absDiff(a, b uint8) int {
 // goldenCharts are the demo's pictures as plot writes them: the class map
 // of the best of all facilities and the Reynolds–Mach chart.
 func goldenCharts(t *testing.T) map[string]*Chart {
-	e := outDemoEval(t)
-	mc, err := MapChart(e, -1, false)
-	if err != nil {
-		t.Fatal(err)
-	}
-	rc, err := ReMachChart(e, nil)
-	if err != nil {
-		t.Fatal(err)
-	}
+	mc, rc := plotCharts(t, outDemoEval(t))
 	return map[string]*Chart{"chart_map.png": mc, "chart_remach.png": rc}
 }
 

@@ -218,14 +218,7 @@ func TestFlightReMach(t *testing.T) {
 // facility) are the same files as from Evaluate; a one-facility map,
 // which needs that facility's results, is refused.
 func TestChartsOfEvaluateBest(t *testing.T) {
-	vs, err := envelope.DemoVehicles()
-	if err != nil {
-		t.Fatal(err)
-	}
-	_, facs, err := envelope.Demo()
-	if err != nil {
-		t.Fatal(err)
-	}
+	vs, facs := demoFleet(t)
 	v := vs[0]
 	s := envelope.DefaultSettings(v)
 	full, err := envelope.Evaluate(v, facs, s)
@@ -237,14 +230,8 @@ func TestChartsOfEvaluateBest(t *testing.T) {
 		t.Fatal(err)
 	}
 	render := func(e *envelope.Evaluation, format string) (m, r []byte) {
-		mc, err := MapChart(e, -1, false)
-		if err != nil {
-			t.Fatal(err)
-		}
-		rc, err := ReMachChart(e, nil)
-		if err != nil {
-			t.Fatal(err)
-		}
+		mc, rc := plotCharts(t, e)
+		var err error
 		if m, err = mc.Render(format); err != nil {
 			t.Fatal(err)
 		}

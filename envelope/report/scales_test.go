@@ -18,16 +18,9 @@ import (
 // binds in the facilities that can Mach-match.
 func outLoadsEval(t *testing.T) *envelope.Evaluation {
 	t.Helper()
-	vs, err := envelope.DemoVehicles()
-	if err != nil {
-		t.Fatal(err)
-	}
+	vs, facs := demoFleet(t)
 	v := *vs[0]
 	v.Loads = envelope.ModelLoads{CNMax: 1.2}
-	_, facs, err := envelope.Demo()
-	if err != nil {
-		t.Fatal(err)
-	}
 	for k := range facs {
 		facs[k].Balance = envelope.BalanceLimits{MaxNormalForce: 20e3}
 	}
