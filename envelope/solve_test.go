@@ -697,20 +697,30 @@ func TestWhatIfTouchesOnlySolve(t *testing.T) {
 	}
 }
 
-// TestDetailAgreesWithMap: every inside point's detail has the map's class,
-// limit and flags, and its settings to single precision.
-func TestDetailAgreesWithMap(t *testing.T) {
+// onTestMaps solves the cryogenic, class and water test facilities at
+// scale 0.05 on the test transport's grid and calls f with each map.
+func onTestMaps(t *testing.T, f func(m *Map)) {
+	t.Helper()
 	g, err := NewGrid(testTransport(), testSettings())
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, f := range []Facility{cryoTunnel(), classTunnel(), waterTunnel()} {
+	for _, fac := range []Facility{cryoTunnel(), classTunnel(), waterTunnel()} {
 		s := testSettings()
 		s.Scale = 0.05
-		m, err := Solve(g, &f, s)
+		m, err := Solve(g, &fac, s)
 		if err != nil {
 			t.Fatal(err)
 		}
+		f(m)
+	}
+}
+
+// TestDetailAgreesWithMap: every inside point's detail has the map's class,
+// limit and flags, and its settings to single precision.
+func TestDetailAgreesWithMap(t *testing.T) {
+	onTestMaps(t, func(m *Map) {
+		g, f := m.Grid, m.Facility
 		for i := 0; i < g.Rows(); i++ {
 			for j := 0; j < g.Cols(); j++ {
 				d, err := m.Detail(i, j)
@@ -729,24 +739,15 @@ func TestDetailAgreesWithMap(t *testing.T) {
 				}
 			}
 		}
-	}
+	})
 }
 
 // TestDetailFromIsDetail: DetailFrom, given the point's flight side and
 // one Detail reused from point to point (a stale field would show), writes
 // what Detail returns but the cautions, at inside and outside points.
 func TestDetailFromIsDetail(t *testing.T) {
-	g, err := NewGrid(testTransport(), testSettings())
-	if err != nil {
-		t.Fatal(err)
-	}
-	for _, f := range []Facility{cryoTunnel(), classTunnel(), waterTunnel()} {
-		s := testSettings()
-		s.Scale = 0.05
-		m, err := Solve(g, &f, s)
-		if err != nil {
-			t.Fatal(err)
-		}
+	onTestMaps(t, func(m *Map) {
+		g, f := m.Grid, m.Facility
 		var got Detail
 		for i := 0; i < g.Rows(); i++ {
 			for j := 0; j < g.Cols(); j++ {
@@ -765,7 +766,7 @@ func TestDetailFromIsDetail(t *testing.T) {
 				}
 			}
 		}
-	}
+	})
 }
 
 // TestReynoldsRange: the reachable range at a test Mach number runs from
