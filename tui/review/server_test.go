@@ -37,16 +37,23 @@ func TestUnknownKeyRefused(t *testing.T) {
 	_, _, _, keys := reviewers(t)
 	ts := startServer(t, keys)
 	stranger := newTestKey(t, "mallory@elsewhere")
-	conn, err := dial(ts, gossh.PublicKeys(stranger.signer))
+	refused(t, ts, "a key not in the authorized keys", "unable to authenticate", gossh.PublicKeys(stranger.signer))
+}
+
+// refused checks that a login with auth is refused with an error
+// containing want, and leaves no reviewer in the hub.
+func refused(t *testing.T, ts *testServer, what, want string, auth ...gossh.AuthMethod) {
+	t.Helper()
+	conn, err := dial(ts, auth...)
 	if err == nil {
 		conn.Close()
-		t.Fatal("a key not in the authorized keys was admitted")
+		t.Fatalf("%s was admitted", what)
 	}
-	if !strings.Contains(err.Error(), "unable to authenticate") {
-		t.Errorf("dial error = %v, want an authentication failure", err)
+	if !strings.Contains(err.Error(), want) {
+		t.Errorf("%s: dial error = %v, want %q", what, err, want)
 	}
 	if n := ts.hub.Connected(); n != 0 {
-		t.Errorf("%d reviewers in the hub after a refused key, want 0", n)
+		t.Errorf("%d reviewers in the hub after %s was refused, want 0", n, what)
 	}
 }
 
@@ -54,19 +61,10 @@ func TestPasswordAndKeyboardInteractiveRefused(t *testing.T) {
 	_, _, _, keys := reviewers(t)
 	ts := startServer(t, keys)
 	ki := gossh.KeyboardInteractive(func(string, string, []string, []bool) ([]string, error) { return []string{"secret"}, nil })
-	conn, err := dial(ts, gossh.Password("secret"), ki)
-	if err == nil {
-		conn.Close()
-		t.Fatal("password or keyboard-interactive login was admitted")
-	}
 	// The server offers public keys only: the client has nothing it may
 	// try after "none".
-	if !strings.Contains(err.Error(), "attempted methods [none], no supported methods remain") {
-		t.Errorf("dial error = %v, want no password or keyboard-interactive offered", err)
-	}
-	if n := ts.hub.Connected(); n != 0 {
-		t.Errorf("%d reviewers in the hub after a refused login, want 0", n)
-	}
+	refused(t, ts, "password or keyboard-interactive login", "attempted methods [none], no supported methods remain",
+		gossh.Password("secret"), ki)
 }
 
 func TestEditorsSeeEachOthersWhatIf(t *testing.T) {
