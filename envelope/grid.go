@@ -164,6 +164,14 @@ func NewGridReusing(ctx context.Context, v *Vehicle, s Settings, old *Grid) (*Gr
 	if err != nil {
 		return nil, err
 	}
+	if err := g.evalWhole(ctx, s.DeltaT); err != nil {
+		return nil, err
+	}
+	return g, nil
+}
+
+// evalWhole evaluates every point of the new grid g on the day dT.
+func (g *Grid) evalWhole(ctx context.Context, dT float64) error {
 	// Rows are independent: they are evaluated side by side in blocks,
 	// each point written to its own slot, so the grid is the same as a
 	// row-by-row evaluation. The first failing row (lowest index) is
@@ -171,15 +179,15 @@ func NewGridReusing(ctx context.Context, v *Vehicle, s Settings, old *Grid) (*Gr
 	acc := rowsAcc{errRow: -1}
 	if !forRowBlocksUntil(ctx, len(g.Alts), len(g.Speeds), func() func(i0, i1 int) {
 		var spans []envSpan // scratch space of one worker
-		return func(i0, i1 int) { g.evalRows(i0, i1, s.DeltaT, &spans, &acc, wholeRow) }
+		return func(i0, i1 int) { g.evalRows(i0, i1, dT, &spans, &acc, wholeRow) }
 	}) {
-		return nil, ctx.Err()
+		return ctx.Err()
 	}
-	if err := acc.failed(v); err != nil {
-		return nil, err
+	if err := acc.failed(g.Vehicle); err != nil {
+		return err
 	}
 	g.inside, g.maxMach = acc.inside, acc.maxMach
-	return g, nil
+	return nil
 }
 
 // NewGridStaged is NewGridReusing for a staged solve of window first
@@ -201,17 +209,18 @@ func NewGridStaged(ctx context.Context, v *Vehicle, s Settings, old *Grid, first
 	}
 	rows, cols := len(g.Alts), len(g.Speeds)
 	first = first.Within(rows, cols)
-	done := func() error { return nil }
-	if first.Rows.Len() == 0 || first.Cols.Len() == 0 || first.Rows.Len() == rows && first.Cols.Len() == cols {
-		g, err = NewGridReusing(ctx, v, s, g)
-		return g, done, err
+	if !first.splits(rows, cols) {
+		if err := g.evalWhole(ctx, s.DeltaT); err != nil {
+			return nil, nil, err
+		}
+		return g, func() error { return nil }, nil
 	}
 	if cap(g.top) >= rows {
 		g.top = g.top[:rows]
 	} else {
 		g.top = make([]int, rows)
 	}
-	size := max(1, rows/(max(min(runtime.GOMAXPROCS(0), rows), 1)*blocksPerWorker))
+	size := rowBlockSize(rows)
 	var head, others []block
 	head = rowBlocks(head, first.Rows, Span{0, cols}, size)
 	others = rowBlocks(others, Span{0, first.Rows.Lo}, Span{0, cols}, size)
@@ -427,8 +436,14 @@ func forRowBlocks(rows, cols int, newWorker func() func(i0, i1 int)) {
 // forRowBlocksUntil is forRowBlocks that takes no new block once ctx has
 // ended; it reports whether every block was done.
 func forRowBlocksUntil(ctx context.Context, rows, cols int, newWorker func() func(i0, i1 int)) bool {
+	return forRowBlocksSized(ctx, rows, cols, rowBlockSize(rows), newWorker)
+}
+
+// rowBlockSize is how many rows of a grid of rows a block holds: about
+// blocksPerWorker blocks per processor.
+func rowBlockSize(rows int) int {
 	workers := min(runtime.GOMAXPROCS(0), rows)
-	return forRowBlocksSized(ctx, rows, cols, max(1, rows/(max(workers, 1)*blocksPerWorker)), newWorker)
+	return max(1, rows/(max(workers, 1)*blocksPerWorker))
 }
 
 // forRowBlocksSized is forRowBlocksUntil with blocks of size rows (the
@@ -541,16 +556,23 @@ func (w Window) Has(i, j int) bool { return w.Rows.Has(i) && w.Cols.Has(j) }
 // Within is the part of the window inside a grid of rows × cols points.
 func (w Window) Within(rows, cols int) Window { return Window{w.Rows.clip(rows), w.Cols.clip(cols)} }
 
+// splits reports whether the window, within a grid of rows × cols
+// points, leaves a staged evaluation something to do first and something
+// after: it holds points, but not all of them.
+func (w Window) splits(rows, cols int) bool {
+	w = w.Within(rows, cols)
+	return w.Rows.Len() > 0 && w.Cols.Len() > 0 && (w.Rows.Len() < rows || w.Cols.Len() < cols)
+}
+
 // staged cuts the points of a rows × cols grid into blocks of size rows:
 // those of window first (within the grid), and the rest, for a solve
 // that does the first before the others. It reports false, with every
 // point in first, when the window is empty or holds the whole grid.
 func staged(first Window, rows, cols, size int) (head, rest []block, split bool) {
-	all := Span{0, rows}
-	first = first.Within(rows, cols)
-	if first.Rows.Len() == 0 || first.Cols.Len() == 0 || first.Rows.Len() == rows && first.Cols.Len() == cols {
-		return rowBlocks(nil, all, Span{0, cols}, size), nil, false
+	if !first.splits(rows, cols) {
+		return rowBlocks(nil, Span{0, rows}, Span{0, cols}, size), nil, false
 	}
+	first = first.Within(rows, cols)
 	head = rowBlocks(nil, first.Rows, first.Cols, size)
 	rest = rowBlocks(rest, Span{0, first.Rows.Lo}, Span{0, cols}, size)
 	rest = rowBlocks(rest, Span{first.Rows.Hi, rows}, Span{0, cols}, size)

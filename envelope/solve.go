@@ -200,7 +200,7 @@ func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Re
 		})
 	}
 	rows := len(g.Alts)
-	size := max(1, rows/(max(min(runtime.GOMAXPROCS(0), rows), 1)*blocksPerWorker))
+	size := rowBlockSize(rows)
 	head, rest, split := staged(first, rows, len(g.Speeds), size)
 	if !split || ready == nil {
 		head, rest = append(head, rest...), nil
