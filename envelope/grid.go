@@ -221,12 +221,14 @@ func NewGridStaged(ctx context.Context, v *Vehicle, s Settings, old *Grid, first
 		g.top = make([]int, rows)
 	}
 	size := rowBlockSize(rows)
-	var head, others []block
-	head = rowBlocks(head, first.Rows, Span{0, cols}, size)
+	// Now the window's rows whole and every other row's top; the rest of
+	// those rows (others) in rest.
+	var others []block
 	others = rowBlocks(others, Span{0, first.Rows.Lo}, Span{0, cols}, size)
 	others = rowBlocks(others, Span{first.Rows.Hi, rows}, Span{0, cols}, size)
+	now := rowBlocks(nil, first.Rows, Span{0, cols}, size)
 	acc := rowsAcc{errRow: -1}
-	if !forBlocks(ctx, append(append([]block(nil), head...), others...), runtime.GOMAXPROCS(0), false, func() func(b block) {
+	if !forBlocks(ctx, append(now, others...), runtime.GOMAXPROCS(0), false, func() func(b block) {
 		var spans []envSpan
 		return func(b block) {
 			part := rowTop
@@ -564,21 +566,27 @@ func (w Window) splits(rows, cols int) bool {
 	return w.Rows.Len() > 0 && w.Cols.Len() > 0 && (w.Rows.Len() < rows || w.Cols.Len() < cols)
 }
 
-// staged cuts the points of a rows × cols grid into blocks of size rows:
-// those of window first (within the grid), and the rest, for a solve
-// that does the first before the others. It reports false, with every
-// point in first, when the window is empty or holds the whole grid.
-func staged(first Window, rows, cols, size int) (head, rest []block, split bool) {
-	if !first.splits(rows, cols) {
-		return rowBlocks(nil, Span{0, rows}, Span{0, cols}, size), nil, false
+// inStages calls pass on the points of a rows × cols grid cut into
+// blocks of size rows: where early is set and window first splits the
+// grid, on the window's blocks, then early (which may read them while the
+// rest is done), then on the rest as background work; otherwise on every
+// block at once. It reports whether every block was done (pass reports
+// it of its own blocks).
+func inStages(first Window, rows, cols, size int, early func(), pass func(blocks []block, background bool) bool) bool {
+	if early == nil || !first.splits(rows, cols) {
+		return pass(rowBlocks(nil, Span{0, rows}, Span{0, cols}, size), false)
 	}
 	first = first.Within(rows, cols)
-	head = rowBlocks(nil, first.Rows, first.Cols, size)
+	var rest []block
 	rest = rowBlocks(rest, Span{0, first.Rows.Lo}, Span{0, cols}, size)
 	rest = rowBlocks(rest, Span{first.Rows.Hi, rows}, Span{0, cols}, size)
 	rest = rowBlocks(rest, first.Rows, Span{0, first.Cols.Lo}, size)
 	rest = rowBlocks(rest, first.Rows, Span{first.Cols.Hi, cols}, size)
-	return head, rest, true
+	if !pass(rowBlocks(nil, first.Rows, first.Cols, size), false) {
+		return false
+	}
+	early()
+	return pass(rest, true)
 }
 
 // rowLimits is the envelope on one altitude row expressed in the grid's

@@ -199,21 +199,15 @@ func SolveStaged(ctx context.Context, g *Grid, f *Facility, s Settings, buf []Re
 			}
 		})
 	}
-	rows := len(g.Alts)
-	size := rowBlockSize(rows)
-	head, rest, split := staged(first, rows, len(g.Speeds), size)
-	if !split || ready == nil {
-		head, rest = append(head, rest...), nil
-	}
-	if !pass(head, false) {
-		return nil, ctx.Err()
-	}
-	if rest != nil {
-		cp := *m
-		ready(&cp)
-		if !pass(rest, true) {
-			return nil, ctx.Err()
+	var early func()
+	if ready != nil {
+		early = func() {
+			cp := *m
+			ready(&cp)
 		}
+	}
+	if !inStages(first, len(g.Alts), len(g.Speeds), rowBlockSize(len(g.Alts)), early, pass) {
+		return nil, ctx.Err()
 	}
 	m.finish(counts)
 	return m, nil

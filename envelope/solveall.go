@@ -150,25 +150,21 @@ func SolveAllStaged(ctx context.Context, g *Grid, facs []Facility, s Settings, b
 			}
 		})
 	}
-	head, rest, split := staged(first, len(g.Alts), cols, rowsPer)
-	if !split || ready == nil {
-		head, rest = append(head, rest...), nil
-	}
-	if !pass(head, false) {
-		return All{}, ctx.Err()
-	}
-	if rest != nil {
-		early := All{Maps: make([]*Map, len(a.Maps)), Errs: a.Errs, Best: a.Best, BestRes: a.BestRes}
-		for k, m := range a.Maps {
-			if m != nil {
-				cp := *m
-				early.Maps[k] = &cp
+	var early func()
+	if ready != nil {
+		early = func() {
+			e := All{Maps: make([]*Map, len(a.Maps)), Errs: a.Errs, Best: a.Best, BestRes: a.BestRes}
+			for k, m := range a.Maps {
+				if m != nil {
+					cp := *m
+					e.Maps[k] = &cp
+				}
 			}
+			ready(e)
 		}
-		ready(early)
-		if !pass(rest, true) {
-			return All{}, ctx.Err()
-		}
+	}
+	if !inStages(first, len(g.Alts), cols, rowsPer, early, pass) {
+		return All{}, ctx.Err()
 	}
 	for f, m := range maps {
 		m.finish(counts[f])
