@@ -814,7 +814,6 @@ func (m *Model) clampCursor() {
 	m.curJ = max(min(m.curJ, m.cols()-1), 0)
 }
 
-func (m *Model) visibleRows() int {
-	r, _ := MatrixCapacity(m.matrixInput(), m.matrix.width, m.matrix.height)
-	return r
-}
+// visibleRows is the number of matrix rows on screen, as the last layout
+// found it.
+func (m *Model) visibleRows() int { return m.visRows }
